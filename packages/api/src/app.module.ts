@@ -1,0 +1,27 @@
+import { type DynamicModule, Module } from '@nestjs/common';
+import { AuditTrailModule } from './audit-trail/audit-trail.module.js';
+import type { CairnConfig, CairnSecrets } from './config/config.schema.js';
+import { CairnConfigModule } from './config/config.module.js';
+import { DatabaseModule } from './database/database.module.js';
+import { HealthModule } from './health/health.module.js';
+import { OrganisationsModule } from './organisations/organisations.module.js';
+import { UsersModule } from './users/users.module.js';
+
+export interface AppModuleOptions {
+  /** A loaded configuration (tests pass one with their own database name) */
+  config?: CairnConfig;
+  secrets?: CairnSecrets;
+}
+
+/** Feature modules, in the order of the data flow (see DEVELOPERS.md). */
+export const featureModules = [OrganisationsModule, UsersModule, AuditTrailModule, HealthModule];
+
+@Module({})
+export class AppModule {
+  static forRoot(options: AppModuleOptions = {}): DynamicModule {
+    return {
+      module: AppModule,
+      imports: [CairnConfigModule.forRoot(options), DatabaseModule, ...featureModules],
+    };
+  }
+}

@@ -1,0 +1,12 @@
+import { Global, Module } from '@nestjs/common';
+import { SequelizeModule } from '@nestjs/sequelize';
+import { AuditTrailService } from './audit-trail.service.js';
+import { AuditEvent } from './models/audit-event.model.js';
+
+@Global()
+@Module({
+  imports: [SequelizeModule.forFeature([AuditEvent])],
+  providers: [AuditTrailService],
+  exports: [AuditTrailService],
+})
+export class AuditTrailModule {}

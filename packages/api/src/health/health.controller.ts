@@ -1,0 +1,42 @@
+import { Controller, Get, HttpStatus } from '@nestjs/common';
+import { ApiOperation, ApiTags } from '@nestjs/swagger';
+import { HealthCheckService } from '@nestjs/terminus';
+import { ProblemException } from '../common/problem.js';
+import { DatabaseHealthIndicator } from './database.health.js';
+
+const startedAt = new Date();
+
+@ApiTags('health')
+@Controller('health')
+export class HealthController {
+  constructor(
+    private readonly health: HealthCheckService,
+    private readonly database: DatabaseHealthIndicator,
+  ) {}
+
+  @Get()
+  @ApiOperation({ summary: 'Process and database status (200 when healthy, 503 problem details when not)' })
+  async check() {
+    const processInfo = {
+      status: 'up' as const,
+      pid: process.pid,
+      startedAt: startedAt.toISOString(),
+      uptimeSeconds: Math.round(process.uptime()),
+      rssMegabytes: Math.round(process.memoryUsage().rss / 1048576),
+      node: process.version,
+    };
+    try {
+      const result = await this.health.check([() => this.database.check('database')]);
+      return { status: result.status, process: processInfo, database: result.details.database };
+    } catch (error) {
+      const response = (error as { getResponse?: () => { details?: Record<string, unknown> } }).getResponse?.();
+      throw new ProblemException(
+        HttpStatus.SERVICE_UNAVAILABLE,
+        'unhealthy',
+        'Cairn is not healthy',
+        'The database does not answer. Check that MariaDB is running and reachable with the configured credentials.',
+        { process: processInfo, database: response?.details?.database ?? { status: 'down' } },
+      );
+    }
+  }
+}

@@ -1,0 +1,31 @@
+// Association attributes use type-only imports so that decorator metadata does not
+// reference a class before its module has run (ESM import cycles).
+import { BelongsTo, Column, DataType, ForeignKey, Model, Table } from 'sequelize-typescript';
+import { Practice } from '../../organisations/models/practice.model.js';
+import { type Role, ROLES } from '../roles.js';
+import { User } from './user.model.js';
+import type { User as UserRow } from './user.model.js';
+import type { Practice as PracticeRow } from '../../organisations/models/practice.model.js';
+
+/** A user's role at one practice (a practice lead may lead several practices). */
+@Table({ tableName: 'memberships' })
+export class Membership extends Model {
+  declare id: number;
+
+  @ForeignKey(() => User)
+  @Column({ type: DataType.INTEGER, allowNull: false })
+  declare userId: number;
+
+  @ForeignKey(() => Practice)
+  @Column({ type: DataType.INTEGER, allowNull: false })
+  declare practiceId: number;
+
+  @Column({ type: DataType.ENUM(...ROLES), allowNull: false, defaultValue: 'practice_lead' })
+  declare role: Role;
+
+  @BelongsTo(() => User)
+  declare user?: UserRow;
+
+  @BelongsTo(() => Practice)
+  declare practice?: PracticeRow;
+}

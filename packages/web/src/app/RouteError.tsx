@@ -1,0 +1,29 @@
+import { AnchorButton, NonIdealState } from '@blueprintjs/core';
+import { isRouteErrorResponse, useRouteError } from 'react-router-dom';
+import { ApiError } from '../lib/api-client';
+import { NotFound } from './NotFound';
+
+/** Error boundary for every route: a plain explanation, never a stack trace. */
+export function RouteError() {
+  const error = useRouteError();
+  if (isRouteErrorResponse(error) && error.status === 404) return <NotFound />;
+  const message =
+    error instanceof ApiError
+      ? error.message
+      : 'Part of this page failed to load. Nothing you entered has been sent twice; reload to try again.';
+  if (!(error instanceof ApiError)) console.warn('Route error', error);
+  return (
+    <div style={{ padding: 40 }}>
+      <NonIdealState
+        icon="warning-sign"
+        title="Something went wrong"
+        description={message}
+        action={
+          <AnchorButton href={typeof window !== 'undefined' ? window.location.pathname : '/'} icon="refresh">
+            Reload
+          </AnchorButton>
+        }
+      />
+    </div>
+  );
+}

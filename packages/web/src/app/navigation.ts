@@ -1,0 +1,23 @@
+import type { IconName } from '@blueprintjs/icons';
+import type { Me, Role } from '../features/session/api/me';
+
+export interface NavItem {
+  label: string;
+  to: string;
+  icon: IconName;
+  /** Roles that see this item */
+  roles: readonly Role[];
+}
+
+const everyone: readonly Role[] = ['regional_lead', 'practice_lead', 'auditor'];
+
+/**
+ * Navigation, by role. A feature adds its entry here when its screens exist;
+ * the server decides what each role may read, this only decides what is shown.
+ */
+export const navItems: NavItem[] = [{ label: 'Home', to: '/', icon: 'home', roles: everyone }];
+
+export function navigationFor(me: Me | null | undefined): NavItem[] {
+  if (!me) return [];
+  return navItems.filter((item) => item.roles.includes(me.role));
+}

@@ -1,0 +1,20 @@
+import { queryOptions, useQuery } from '@tanstack/react-query';
+import { apiFetch } from '../../../lib/api-client';
+
+export interface About {
+  product: string;
+  version: string;
+  regionName: string | null;
+  practices: number;
+  localities: number;
+  clinicalCaution: string;
+}
+
+export const fetchAbout = () => apiFetch<About>('/api/about');
+
+export const aboutQueryOptions = () =>
+  queryOptions({ queryKey: ['about'], queryFn: fetchAbout, staleTime: 5 * 60_000 });
+
+export function useAbout() {
+  return useQuery(aboutQueryOptions());
+}

@@ -1,0 +1,42 @@
+import { queryOptions, useQuery } from '@tanstack/react-query';
+import { ApiError, apiFetch } from '../../../lib/api-client';
+
+export type Role = 'regional_lead' | 'practice_lead' | 'auditor';
+
+export const roleLabels: Record<Role, string> = {
+  regional_lead: 'Regional lead',
+  practice_lead: 'Practice lead',
+  auditor: 'Auditor',
+};
+
+export interface MePractice {
+  id: number;
+  code: string;
+  name: string;
+}
+
+export interface Me {
+  id: number;
+  email: string;
+  displayName: string;
+  role: Role;
+  regionName: string;
+  practices: MePractice[];
+}
+
+/** The signed-in person, or null when nobody is signed in (401). */
+export async function fetchMe(): Promise<Me | null> {
+  try {
+    return await apiFetch<Me>('/api/me');
+  } catch (error) {
+    if (error instanceof ApiError && error.status === 401) return null;
+    throw error;
+  }
+}
+
+export const meQueryOptions = () =>
+  queryOptions({ queryKey: ['session', 'me'], queryFn: fetchMe, staleTime: 60_000 });
+
+export function useMe() {
+  return useQuery(meQueryOptions());
+}
