@@ -12,15 +12,25 @@ import { fileURLToPath } from 'node:url';
 
 const root = join(dirname(fileURLToPath(import.meta.url)), '..');
 const [command = 'start', ...rest] = process.argv.slice(2);
-const targets = { start: 'start.ts', test: 'test.ts', bench: 'bench.ts', dev: 'dev.ts', db: 'db.ts' };
+const targets = {
+  start: 'start.ts',
+  test: 'test.ts',
+  bench: 'bench.ts',
+  dev: 'dev.ts',
+  db: 'db.ts',
+};
 if (!(command in targets)) {
-  console.error(`cairn: unknown command "${command}". Expected one of: ${Object.keys(targets).join(', ')}.`);
+  console.error(
+    `cairn: unknown command "${command}". Expected one of: ${Object.keys(targets).join(', ')}.`,
+  );
   process.exit(2);
 }
 
 const [major, minor] = process.versions.node.split('.').map(Number);
 if (major < 20 || (major === 20 && minor < 19)) {
-  console.error(`cairn: Node.js ${process.versions.node} is too old; Cairn needs Node.js 20.19 or newer.`);
+  console.error(
+    `cairn: Node.js ${process.versions.node} is too old; Cairn needs Node.js 20.19 or newer.`,
+  );
   process.exit(1);
 }
 
@@ -39,12 +49,19 @@ const stale = dependenciesStale();
 if (stale) {
   console.log(`cairn: installing npm dependencies (${stale}): npm ci`);
   const started = Date.now();
-  const result = spawnSync('npm', ['ci', '--no-audit', '--no-fund'], { cwd: root, stdio: 'inherit' });
+  const result = spawnSync('npm', ['ci', '--no-audit', '--no-fund'], {
+    cwd: root,
+    stdio: 'inherit',
+  });
   if (result.status !== 0) {
-    console.error('cairn: `npm ci` failed (see above). Check the network to the npm registry and run the command again.');
+    console.error(
+      'cairn: `npm ci` failed (see above). Check the network to the npm registry and run the command again.',
+    );
     process.exit(result.status ?? 1);
   }
-  console.log(`cairn: npm dependencies installed in ${((Date.now() - started) / 1000).toFixed(0)} s`);
+  console.log(
+    `cairn: npm dependencies installed in ${((Date.now() - started) / 1000).toFixed(0)} s`,
+  );
 }
 
 const tsx = join(root, 'node_modules', '.bin', 'tsx');

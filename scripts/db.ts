@@ -4,13 +4,21 @@
  */
 import { loadContext } from './lib/context.ts';
 import { fail, log, runMain } from './lib/log.ts';
-import { ensureDatabaseAndUser, ensureDataDir, ensureMariadbBinaries, instanceState, startMariadb, stopMariadb } from './lib/mariadb.ts';
+import {
+  ensureDatabaseAndUser,
+  ensureDataDir,
+  ensureMariadbBinaries,
+  instanceState,
+  startMariadb,
+  stopMariadb,
+} from './lib/mariadb.ts';
 
 async function main(): Promise<void> {
   const [command, ...rest] = process.argv.slice(2);
   const profileIndex = rest.indexOf('--profile');
   const profile = profileIndex >= 0 ? rest[profileIndex + 1] : 'development';
-  if (profile !== 'development' && profile !== 'test') fail('--profile must be development or test');
+  if (profile !== 'development' && profile !== 'test')
+    fail('--profile must be development or test');
   const ctx = loadContext(profile);
   const bin = await ensureMariadbBinaries();
   switch (command) {
@@ -23,7 +31,9 @@ async function main(): Promise<void> {
         password: ctx.secrets.CAIRN_DATABASE_PASSWORD,
         allowPrefix: profile === 'test',
       });
-      log.ok(`MariaDB (${profile}) running on 127.0.0.1:${ctx.config.database.port}; stop it with npm run db:stop${profile === 'test' ? ' -- --profile test' : ''}`);
+      log.ok(
+        `MariaDB (${profile}) running on 127.0.0.1:${ctx.config.database.port}; stop it with npm run db:stop${profile === 'test' ? ' -- --profile test' : ''}`,
+      );
       break;
     }
     case 'stop': {
@@ -38,7 +48,9 @@ async function main(): Promise<void> {
     }
     case 'status': {
       const state = instanceState(bin, ctx.mariadb);
-      log.ok(`MariaDB (${profile}): ${state.kind}${'pid' in state && state.pid ? ` (pid ${state.pid})` : ''}, data in ${ctx.config.mariadb.dataDir}`);
+      log.ok(
+        `MariaDB (${profile}): ${state.kind}${'pid' in state && state.pid ? ` (pid ${state.pid})` : ''}, data in ${ctx.config.mariadb.dataDir}`,
+      );
       break;
     }
     default:

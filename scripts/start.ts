@@ -15,7 +15,13 @@ import { join } from 'node:path';
 import { buildAll } from './lib/build.ts';
 import { loadContext } from './lib/context.ts';
 import { fail, log, runMain } from './lib/log.ts';
-import { ensureDatabaseAndUser, ensureDataDir, ensureMariadbBinaries, startMariadb, stopMariadb } from './lib/mariadb.ts';
+import {
+  ensureDatabaseAndUser,
+  ensureDataDir,
+  ensureMariadbBinaries,
+  startMariadb,
+  stopMariadb,
+} from './lib/mariadb.ts';
 import { isPortOpen, runSync, waitFor } from './lib/proc.ts';
 import { prepareDemoData } from './lib/seed.ts';
 
@@ -24,7 +30,9 @@ async function main(): Promise<void> {
   const ctx = loadContext('development');
   const { config } = ctx;
 
-  const portsToCheck: [number, string][] = [[config.server.port, 'server.port (CAIRN_SERVER_PORT)']];
+  const portsToCheck: [number, string][] = [
+    [config.server.port, 'server.port (CAIRN_SERVER_PORT)'],
+  ];
   if (config.devFakes.enabled) {
     portsToCheck.push([config.devFakes.port, 'devFakes.port (CAIRN_DEV_FAKES_PORT)']);
     portsToCheck.push([config.devFakes.smtpPort, 'devFakes.smtpPort (CAIRN_DEV_FAKES_SMTP_PORT)']);
@@ -48,7 +56,9 @@ async function main(): Promise<void> {
     stopping = true;
     log.step('stopping ...');
     for (const child of children) if (child.exitCode === null) child.kill('SIGTERM');
-    await waitFor(() => children.every((c) => c.exitCode !== null || c.signalCode !== null), { timeoutMs: 10_000 });
+    await waitFor(() => children.every((c) => c.exitCode !== null || c.signalCode !== null), {
+      timeoutMs: 10_000,
+    });
     if (bin && mariadbStarted) {
       await stopMariadb(bin, ctx.mariadb);
       log.ok('MariaDB shut down cleanly; your data is kept in ' + config.mariadb.dataDir);
@@ -78,7 +88,10 @@ async function main(): Promise<void> {
 
   const apiDist = join(ctx.root, 'packages', 'api', 'dist');
   const cli = (args: string[]) => {
-    const result = runSync(process.execPath, [join(apiDist, 'cli.js'), ...args], { env: ctx.childEnv, cwd: ctx.root });
+    const result = runSync(process.execPath, [join(apiDist, 'cli.js'), ...args], {
+      env: ctx.childEnv,
+      cwd: ctx.root,
+    });
     if (result.status !== 0) {
       log.error(`${args[0]} failed:\n${result.stdout}${result.stderr}`);
       return false;
@@ -98,7 +111,9 @@ async function main(): Promise<void> {
     });
     child.on('exit', (code, signal) => {
       if (!stopping) {
-        log.error(`${name} stopped unexpectedly (${signal ?? `exit code ${code}`}); shutting down.`);
+        log.error(
+          `${name} stopped unexpectedly (${signal ?? `exit code ${code}`}); shutting down.`,
+        );
         void stopAll(1);
       }
     });

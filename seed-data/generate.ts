@@ -13,14 +13,22 @@ export function generateOrganisation() {
   return {
     region,
     localities,
-    practices: practices.map(({ code, name, locality, listSize }) => ({ code, name, locality, listSize })),
+    practices: practices.map(({ code, name, locality, listSize }) => ({
+      code,
+      name,
+      locality,
+      listSize,
+    })),
     users,
   };
 }
 
 export function generate(outDir: string): void {
   mkdirSync(outDir, { recursive: true });
-  writeFileSync(join(outDir, 'organisation.json'), JSON.stringify(generateOrganisation(), null, 2) + '\n');
+  writeFileSync(
+    join(outDir, 'organisation.json'),
+    JSON.stringify(generateOrganisation(), null, 2) + '\n',
+  );
 }
 
 const isMain = process.argv[1] && resolve(process.argv[1]) === fileURLToPath(import.meta.url);

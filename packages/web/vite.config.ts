@@ -18,8 +18,15 @@ export default defineConfig({
       output: {
         manualChunks(id: string) {
           if (id.includes('node_modules/@blueprintjs/table')) return 'blueprint-table';
-          if (id.includes('node_modules/@blueprintjs/core') || id.includes('node_modules/@floating-ui') || id.includes('node_modules/react-popper') || id.includes('node_modules/popper')) return 'blueprint';
-          if (id.includes('node_modules/react') || id.includes('node_modules/scheduler')) return 'react';
+          if (
+            id.includes('node_modules/@blueprintjs/core') ||
+            id.includes('node_modules/@floating-ui') ||
+            id.includes('node_modules/react-popper') ||
+            id.includes('node_modules/popper')
+          )
+            return 'blueprint';
+          if (id.includes('node_modules/react') || id.includes('node_modules/scheduler'))
+            return 'react';
           if (id.includes('node_modules/d3')) return 'd3';
           return undefined;
         },

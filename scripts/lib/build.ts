@@ -34,7 +34,10 @@ export function buildIfStale(root: string, target: BuildTarget, force = false): 
   if (!force && existsSync(stamp) && statSync(stamp).mtimeMs >= newestInput) return false;
   log.step(`building ${target.name} ...`);
   const started = Date.now();
-  const result = runSync('npm', ['run', 'build', '-w', target.workspace], { cwd: root, stdio: ['ignore', 'pipe', 'pipe'] });
+  const result = runSync('npm', ['run', 'build', '-w', target.workspace], {
+    cwd: root,
+    stdio: ['ignore', 'pipe', 'pipe'],
+  });
   if (result.status !== 0) {
     fail(`building ${target.name} failed:\n${result.stdout}\n${result.stderr}`);
   }
@@ -47,19 +50,37 @@ export const buildTargets: BuildTarget[] = [
   {
     name: '@cairn/metrics',
     workspace: '@cairn/metrics',
-    inputs: ['packages/metrics/src', 'packages/metrics/package.json', 'packages/metrics/tsconfig.build.json', 'tsconfig.base.json'],
+    inputs: [
+      'packages/metrics/src',
+      'packages/metrics/package.json',
+      'packages/metrics/tsconfig.build.json',
+      'tsconfig.base.json',
+    ],
     stamp: 'packages/metrics/dist/.built',
   },
   {
     name: '@cairn/api',
     workspace: '@cairn/api',
-    inputs: ['packages/api/src', 'packages/api/package.json', 'packages/api/tsconfig.build.json', 'packages/metrics/src', 'tsconfig.base.json'],
+    inputs: [
+      'packages/api/src',
+      'packages/api/package.json',
+      'packages/api/tsconfig.build.json',
+      'packages/metrics/src',
+      'tsconfig.base.json',
+    ],
     stamp: 'packages/api/dist/.built',
   },
   {
     name: '@cairn/web',
     workspace: '@cairn/web',
-    inputs: ['packages/web/src', 'packages/web/index.html', 'packages/web/public', 'packages/web/package.json', 'packages/web/vite.config.ts', 'packages/metrics/src'],
+    inputs: [
+      'packages/web/src',
+      'packages/web/index.html',
+      'packages/web/public',
+      'packages/web/package.json',
+      'packages/web/vite.config.ts',
+      'packages/metrics/src',
+    ],
     stamp: 'packages/web/dist/.built',
   },
 ];

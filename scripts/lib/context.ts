@@ -7,7 +7,11 @@ import { randomBytes } from 'node:crypto';
 import { chmodSync, existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs';
 import { dirname, join } from 'node:path';
 import { fileURLToPath } from 'node:url';
-import { type CairnConfig, type CairnSecrets, secretNames } from '../../packages/api/src/config/config.schema.ts';
+import {
+  type CairnConfig,
+  type CairnSecrets,
+  secretNames,
+} from '../../packages/api/src/config/config.schema.ts';
 import { loadConfig, resolvePath } from '../../packages/api/src/config/load-config.ts';
 import type { MariadbPaths } from './mariadb.ts';
 
@@ -28,7 +32,9 @@ export interface Context {
  */
 function localSecrets(profile: CairnConfig['profile']): CairnSecrets {
   const file = join(root, '.data', `secrets-${profile}.json`);
-  const stored: Partial<CairnSecrets> = existsSync(file) ? JSON.parse(readFileSync(file, 'utf8')) : {};
+  const stored: Partial<CairnSecrets> = existsSync(file)
+    ? JSON.parse(readFileSync(file, 'utf8'))
+    : {};
   let changed = false;
   for (const name of secretNames) {
     if (!stored[name]) {

@@ -8,7 +8,11 @@ import { fail, log } from './log.ts';
 
 let aptUpdated = false;
 
-export async function ensureDebianPackage(program: string, pkg: string, why: string): Promise<string> {
+export async function ensureDebianPackage(
+  program: string,
+  pkg: string,
+  why: string,
+): Promise<string> {
   const found = findExecutable(program);
   if (found) return found;
   if (process.getuid?.() !== 0) {
@@ -18,13 +22,14 @@ export async function ensureDebianPackage(program: string, pkg: string, why: str
     );
   }
   if (!findExecutable('apt-get')) {
-    fail(`${program} is not installed and apt-get is not available: install "${pkg}" with this system's package manager.`);
+    fail(
+      `${program} is not installed and apt-get is not available: install "${pkg}" with this system's package manager.`,
+    );
   }
   log.step(`installing Debian package ${pkg} (${why}) ...`);
   const started = Date.now();
   const env = { ...process.env, DEBIAN_FRONTEND: 'noninteractive' };
-  const install = () =>
-    runInherit('apt-get', ['install', '-y', '-q', pkg], { env });
+  const install = () => runInherit('apt-get', ['install', '-y', '-q', pkg], { env });
   let code = aptUpdated ? await install() : 1;
   if (code !== 0) {
     aptUpdated = true;

@@ -1,6 +1,7 @@
 /** Console output of the orchestration scripts: one prefix, plain words. */
 const useColour = process.stdout.isTTY && !process.env.NO_COLOR;
-const paint = (code: string, text: string) => (useColour ? `\u001b[${code}m${text}\u001b[0m` : text);
+const paint = (code: string, text: string) =>
+  useColour ? `\u001b[${code}m${text}\u001b[0m` : text;
 
 export const log = {
   step: (message: string) => console.log(`${paint('36', 'cairn')} ${message}`),

@@ -10,11 +10,30 @@
  *   only here, over the private socket, to create the database and that user.
  */
 import { spawn } from 'node:child_process';
-import { closeSync, existsSync, mkdirSync, openSync, readFileSync, readdirSync, renameSync, rmSync, unlinkSync, writeFileSync } from 'node:fs';
+import {
+  closeSync,
+  existsSync,
+  mkdirSync,
+  openSync,
+  readFileSync,
+  readdirSync,
+  renameSync,
+  rmSync,
+  unlinkSync,
+  writeFileSync,
+} from 'node:fs';
 import { basename, dirname, relative } from 'node:path';
 import { ensureDebianPackage } from './debian.ts';
 import { fail, log } from './log.ts';
-import { findExecutable, isPortOpen, isProcessAlive, processCommandLine, runSync, sleep, waitFor } from './proc.ts';
+import {
+  findExecutable,
+  isPortOpen,
+  isProcessAlive,
+  processCommandLine,
+  runSync,
+  sleep,
+  waitFor,
+} from './proc.ts';
 
 export const MARKER = '.cairn-initialised';
 
@@ -37,10 +56,16 @@ export interface MariadbBinaries {
 }
 
 export async function ensureMariadbBinaries(): Promise<MariadbBinaries> {
-  const mariadbd = await ensureDebianPackage('mariadbd', 'mariadb-server', 'Cairn keeps its data in a private MariaDB');
+  const mariadbd = await ensureDebianPackage(
+    'mariadbd',
+    'mariadb-server',
+    'Cairn keeps its data in a private MariaDB',
+  );
   const need = (name: string) =>
     findExecutable(name) ??
-    fail(`${name} is missing although mariadbd is installed: reinstall Debian's mariadb-server and mariadb-client.`);
+    fail(
+      `${name} is missing although mariadbd is installed: reinstall Debian's mariadb-server and mariadb-client.`,
+    );
   return {
     mariadbd,
     installDb: need('mariadb-install-db'),
@@ -54,7 +79,15 @@ const show = (p: MariadbPaths, path: string) => relative(p.root, path) || path;
 /** True when mariadbd answers on the private socket. */
 export function ping(bin: MariadbBinaries, p: MariadbPaths): boolean {
   if (!existsSync(p.socket)) return false;
-  return runSync(bin.admin, ['--no-defaults', `--socket=${p.socket}`, '-uroot', '--connect-timeout=2', 'ping']).status === 0;
+  return (
+    runSync(bin.admin, [
+      '--no-defaults',
+      `--socket=${p.socket}`,
+      '-uroot',
+      '--connect-timeout=2',
+      'ping',
+    ]).status === 0
+  );
 }
 
 function readPid(p: MariadbPaths): number | null {
@@ -90,7 +123,9 @@ export function ensureDataDir(bin: MariadbBinaries, p: MariadbPaths): 'created' 
   if (existsSync(temporary)) {
     // Only ever written by the step below and renamed when complete, so it
     // never holds data: safe to remove.
-    log.warn(`removing ${show(p, temporary)}, left by an interrupted first start (it never held data)`);
+    log.warn(
+      `removing ${show(p, temporary)}, left by an interrupted first start (it never held data)`,
+    );
     rmSync(temporary, { recursive: true, force: true });
   }
   if (existsSync(p.dataDir)) {
@@ -143,18 +178,27 @@ export interface StartOptions {
  * Starts mariadbd unless this checkout's instance already runs.
  * Returns whether this call started it (and so should stop it).
  */
-export async function startMariadb(bin: MariadbBinaries, p: MariadbPaths, options: StartOptions = {}): Promise<{ started: boolean }> {
+export async function startMariadb(
+  bin: MariadbBinaries,
+  p: MariadbPaths,
+  options: StartOptions = {},
+): Promise<{ started: boolean }> {
   const state = instanceState(bin, p);
   if (state.kind === 'running') {
     if (await waitFor(() => ping(bin, p), { timeoutMs: 20_000 })) {
       log.ok(`MariaDB for this checkout is already running (pid ${state.pid}); reusing it`);
       return { started: false };
     }
-    fail(`MariaDB (pid ${state.pid}) for ${show(p, p.dataDir)} is running but does not answer on ${show(p, p.socket)}. ` +
-      `Stop it (kill ${state.pid}) and run the command again; the error log is ${show(p, p.logFile)}.`);
+    fail(
+      `MariaDB (pid ${state.pid}) for ${show(p, p.dataDir)} is running but does not answer on ${show(p, p.socket)}. ` +
+        `Stop it (kill ${state.pid}) and run the command again; the error log is ${show(p, p.logFile)}.`,
+    );
   }
   if (state.kind === 'stale-pid') {
-    const detail = state.pid === null ? 'holds no process id' : `names process ${state.pid}, which is not running`;
+    const detail =
+      state.pid === null
+        ? 'holds no process id'
+        : `names process ${state.pid}, which is not running`;
     if (options.removeStalePid) {
       log.warn(`removing the stale pid file ${show(p, p.pidFile)} (it ${detail})`);
       unlinkSync(p.pidFile);
@@ -173,10 +217,13 @@ export async function startMariadb(bin: MariadbBinaries, p: MariadbPaths, option
         `e.g. CAIRN_DATABASE_PORT=${p.port + 10} (config key database.port).`,
     );
   }
-  for (const file of [p.socket, p.pidFile, p.logFile]) mkdirSync(dirname(file), { recursive: true });
+  for (const file of [p.socket, p.pidFile, p.logFile])
+    mkdirSync(dirname(file), { recursive: true });
   if (p.socket.length > 100) {
-    fail(`The MariaDB socket path ${p.socket} is ${p.socket.length} characters long; Unix sockets allow about 107. ` +
-      `Set ${p.configHint}.socket to a shorter path (e.g. CAIRN_MARIADB_SOCKET=/tmp/cairn-${basename(p.dataDir)}.sock).`);
+    fail(
+      `The MariaDB socket path ${p.socket} is ${p.socket.length} characters long; Unix sockets allow about 107. ` +
+        `Set ${p.configHint}.socket to a shorter path (e.g. CAIRN_MARIADB_SOCKET=/tmp/cairn-${basename(p.dataDir)}.sock).`,
+    );
   }
   const args = [
     '--no-defaults',
@@ -203,17 +250,26 @@ export async function startMariadb(bin: MariadbBinaries, p: MariadbPaths, option
     exited = code ?? 1;
   });
   child.unref();
-  const ready = await waitFor(() => exited !== null || ping(bin, p), { timeoutMs: 60_000, intervalMs: 150 });
+  const ready = await waitFor(() => exited !== null || ping(bin, p), {
+    timeoutMs: 60_000,
+    intervalMs: 150,
+  });
   if (exited !== null || !ready) {
-    fail(`MariaDB did not start (${exited !== null ? `exit code ${exited}` : 'no answer in 60 s'}). ` +
-      `Last lines of ${show(p, p.logFile)}:\n${tailOfLog(p)}`);
+    fail(
+      `MariaDB did not start (${exited !== null ? `exit code ${exited}` : 'no answer in 60 s'}). ` +
+        `Last lines of ${show(p, p.logFile)}:\n${tailOfLog(p)}`,
+    );
   }
   return { started: true };
 }
 
 /** Runs SQL as root over the private socket. */
 export function rootSql(bin: MariadbBinaries, p: MariadbPaths, sql: string): string {
-  const result = runSync(bin.client, ['--no-defaults', `--socket=${p.socket}`, '-uroot', '--batch', '--skip-column-names'], { input: sql });
+  const result = runSync(
+    bin.client,
+    ['--no-defaults', `--socket=${p.socket}`, '-uroot', '--batch', '--skip-column-names'],
+    { input: sql },
+  );
   if (result.status !== 0) fail(`MariaDB refused a set-up statement: ${result.stderr.trim()}`);
   return result.stdout;
 }
@@ -227,11 +283,19 @@ const quote = (value: string) => `'${value.replace(/\\/g, '\\\\').replace(/'/g, 
 export function ensureDatabaseAndUser(
   bin: MariadbBinaries,
   p: MariadbPaths,
-  { database, user, password, allowPrefix }: { database: string; user: string; password: string; allowPrefix?: boolean },
+  {
+    database,
+    user,
+    password,
+    allowPrefix,
+  }: { database: string; user: string; password: string; allowPrefix?: boolean },
 ): void {
   const grants = [`GRANT ALL PRIVILEGES ON \`${database}\`.* TO %USER%;`];
-  if (allowPrefix) grants.push(`GRANT ALL PRIVILEGES ON \`${database.replace(/_/g, '\\_')}\\_%\`.* TO %USER%;`);
-  const statements = [`CREATE DATABASE IF NOT EXISTS \`${database}\` CHARACTER SET utf8mb4 COLLATE utf8mb4_unicode_ci;`];
+  if (allowPrefix)
+    grants.push(`GRANT ALL PRIVILEGES ON \`${database.replace(/_/g, '\\_')}\\_%\`.* TO %USER%;`);
+  const statements = [
+    `CREATE DATABASE IF NOT EXISTS \`${database}\` CHARACTER SET utf8mb4 COLLATE utf8mb4_unicode_ci;`,
+  ];
   for (const host of ['127.0.0.1', 'localhost']) {
     const who = `${quote(user)}@${quote(host)}`;
     statements.push(`CREATE USER IF NOT EXISTS ${who} IDENTIFIED BY ${quote(password)};`);
@@ -244,10 +308,18 @@ export function ensureDatabaseAndUser(
 
 export async function stopMariadb(bin: MariadbBinaries, p: MariadbPaths): Promise<void> {
   const pid = readPid(p);
-  const result = runSync(bin.admin, ['--no-defaults', `--socket=${p.socket}`, '-uroot', 'shutdown']);
+  const result = runSync(bin.admin, [
+    '--no-defaults',
+    `--socket=${p.socket}`,
+    '-uroot',
+    'shutdown',
+  ]);
   if (result.status !== 0 && pid !== null && isProcessAlive(pid)) process.kill(pid, 'SIGTERM');
   if (pid !== null) {
-    const stopped = await waitFor(() => !isProcessAlive(pid), { timeoutMs: 60_000, intervalMs: 100 });
+    const stopped = await waitFor(() => !isProcessAlive(pid), {
+      timeoutMs: 60_000,
+      intervalMs: 100,
+    });
     if (!stopped) log.warn(`MariaDB (pid ${pid}) has not stopped after 60 s`);
   } else {
     await sleep(300);

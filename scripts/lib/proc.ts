@@ -6,7 +6,13 @@ import { delimiter, join } from 'node:path';
 
 /** Finds an executable on PATH or in the sbin folders Debian puts servers in. */
 export function findExecutable(name: string): string | null {
-  const dirs = [...(process.env.PATH ?? '').split(delimiter), '/usr/sbin', '/usr/bin', '/sbin', '/bin'];
+  const dirs = [
+    ...(process.env.PATH ?? '').split(delimiter),
+    '/usr/sbin',
+    '/usr/bin',
+    '/sbin',
+    '/bin',
+  ];
   for (const dir of dirs) {
     if (!dir) continue;
     const candidate = join(dir, name);
@@ -21,7 +27,11 @@ export interface RunResult {
   stderr: string;
 }
 
-export function runSync(command: string, args: string[], options: SpawnOptions = {}): RunResult {
+export function runSync(
+  command: string,
+  args: string[],
+  options: SpawnOptions & { input?: string } = {},
+): RunResult {
   const result = spawnSync(command, args, { encoding: 'utf8', ...options });
   return {
     status: result.status,
@@ -31,7 +41,11 @@ export function runSync(command: string, args: string[], options: SpawnOptions =
 }
 
 /** Runs a command with inherited output; resolves with its exit code. */
-export function runInherit(command: string, args: string[], options: SpawnOptions = {}): Promise<number> {
+export function runInherit(
+  command: string,
+  args: string[],
+  options: SpawnOptions = {},
+): Promise<number> {
   return new Promise((resolve, reject) => {
     const child = spawn(command, args, { stdio: 'inherit', ...options });
     child.on('error', reject);

@@ -26,7 +26,12 @@ export async function createApp(options: CreateAppOptions = {}): Promise<NestExp
   const rootLogger = options.logger ?? createRootLogger(config.logging.level);
   const app = await NestFactory.create<NestExpressApplication>(
     AppModule.forRoot({ ...options, config }),
-    { logger: new PinoNestLogger(rootLogger), bufferLogs: false, bodyParser: true },
+    {
+      logger: new PinoNestLogger(rootLogger),
+      bufferLogs: false,
+      bodyParser: true,
+      abortOnError: false,
+    },
   );
   configureApp(app, config, rootLogger);
   return app;

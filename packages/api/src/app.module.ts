@@ -1,5 +1,6 @@
-import { type DynamicModule, Module } from '@nestjs/common';
+import { type DynamicModule, Module, type Type } from '@nestjs/common';
 import { AuditTrailModule } from './audit-trail/audit-trail.module.js';
+import { AuthModule } from './auth/auth.module.js';
 import type { CairnConfig, CairnSecrets } from './config/config.schema.js';
 import { CairnConfigModule } from './config/config.module.js';
 import { DatabaseModule } from './database/database.module.js';
@@ -11,17 +12,30 @@ export interface AppModuleOptions {
   /** A loaded configuration (tests pass one with their own database name) */
   config?: CairnConfig;
   secrets?: CairnSecrets;
+  /** Extra modules (tests mount test-only controllers this way) */
+  extraModules?: (Type<unknown> | DynamicModule)[];
 }
 
 /** Feature modules, in the order of the data flow (see DEVELOPERS.md). */
-export const featureModules = [OrganisationsModule, UsersModule, AuditTrailModule, HealthModule];
+export const featureModules = [
+  OrganisationsModule,
+  UsersModule,
+  AuditTrailModule,
+  AuthModule,
+  HealthModule,
+];
 
 @Module({})
 export class AppModule {
   static forRoot(options: AppModuleOptions = {}): DynamicModule {
     return {
       module: AppModule,
-      imports: [CairnConfigModule.forRoot(options), DatabaseModule, ...featureModules],
+      imports: [
+        CairnConfigModule.forRoot(options),
+        DatabaseModule,
+        ...featureModules,
+        ...(options.extraModules ?? []),
+      ],
     };
   }
 }

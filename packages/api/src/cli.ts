@@ -1,12 +1,13 @@
 /**
  * Operator commands, run by `npm start` / `npm test` and usable by hand:
- *   node packages/api/dist/cli.js migrate
- *   node packages/api/dist/cli.js seed-demo <folder with organisation.json>
+ *   node packages/api/dist/cli.js migrate [--create]   apply pending migrations (--create: create the database first)
+ *   node packages/api/dist/cli.js seed-demo <folder>   load the demo scenario into an empty database
+ *   node packages/api/dist/cli.js drop-test-database   drop the configured database (test profile only)
  */
 import 'reflect-metadata';
 import { join, resolve } from 'node:path';
 import { loadConfig, loadSecrets } from './config/load-config.js';
-import { connect } from './database/connect.js';
+import { connect, createDatabase, dropTestDatabase } from './database/connect.js';
 import { migrateUp } from './database/migrator.js';
 import { readDemoOrganisation, seedDemoOrganisation } from './organisations/demo-seed.js';
 
@@ -16,6 +17,13 @@ async function main(): Promise<void> {
   const [command, ...args] = process.argv.slice(2);
   const config = loadConfig();
   const secrets = loadSecrets();
+  if (command === 'migrate' && args.includes('--create')) {
+    await createDatabase(config, secrets);
+  }
+  if (command === 'drop-test-database') {
+    await dropTestDatabase(config, secrets);
+    return;
+  }
   const sequelize = connect(config, secrets);
   try {
     switch (command) {
@@ -40,7 +48,7 @@ async function main(): Promise<void> {
         break;
       }
       default:
-        console.error('usage: cli.js migrate | seed-demo <folder>');
+        console.error('usage: cli.js migrate [--create] | seed-demo <folder> | drop-test-database');
         process.exitCode = 2;
     }
   } finally {

@@ -71,8 +71,26 @@ export class ProblemDetailsFilter implements ExceptionFilter {
     const instance = request.originalUrl?.split('?')[0];
     let problem: ProblemDetails;
 
+    const bodyError = isBodyParserError(exception)
+      ? exception
+      : exception instanceof HttpException && isBodyParserError(exception.cause)
+        ? exception.cause
+        : null;
+
     if (exception instanceof ProblemException) {
       problem = exception.toProblem(instance);
+    } else if (bodyError) {
+      const status = bodyError.status;
+      problem = {
+        type: problemType(status === 413 ? 'payload-too-large' : 'malformed-body'),
+        title: status === 413 ? titles[413]! : 'The request body could not be read',
+        status,
+        detail:
+          status === 413
+            ? 'The request body is larger than this endpoint accepts.'
+            : 'The request body is not valid JSON.',
+        instance,
+      };
     } else if (exception instanceof HttpException) {
       const status = exception.getStatus();
       const body = exception.getResponse();
@@ -91,18 +109,6 @@ export class ProblemDetailsFilter implements ExceptionFilter {
       } else if (typeof message === 'string' && message) {
         problem.detail = message;
       }
-    } else if (isBodyParserError(exception)) {
-      const status = exception.status;
-      problem = {
-        type: problemType(status === 413 ? 'payload-too-large' : 'malformed-body'),
-        title: status === 413 ? titles[413]! : 'The request body could not be read',
-        status,
-        detail:
-          status === 413
-            ? 'The request body is larger than this endpoint accepts.'
-            : 'The request body is not valid JSON.',
-        instance,
-      };
     } else {
       const requestId = (request as Request & { id?: string }).id;
       this.logger.error(
@@ -121,11 +127,13 @@ export class ProblemDetailsFilter implements ExceptionFilter {
   }
 }
 
+/** body-parser's errors carry a numeric status and a type such as "entity.parse.failed". */
 function isBodyParserError(error: unknown): error is { status: number; type: string } {
   return (
     typeof error === 'object' &&
     error !== null &&
     typeof (error as { status?: unknown }).status === 'number' &&
-    typeof (error as { type?: unknown }).type === 'string'
+    typeof (error as { type?: unknown }).type === 'string' &&
+    (error as { type: string }).type.startsWith('entity.')
   );
 }

@@ -15,7 +15,9 @@ export class HealthController {
   ) {}
 
   @Get()
-  @ApiOperation({ summary: 'Process and database status (200 when healthy, 503 problem details when not)' })
+  @ApiOperation({
+    summary: 'Process and database status (200 when healthy, 503 problem details when not)',
+  })
   async check() {
     const processInfo = {
       status: 'up' as const,
@@ -29,7 +31,9 @@ export class HealthController {
       const result = await this.health.check([() => this.database.check('database')]);
       return { status: result.status, process: processInfo, database: result.details.database };
     } catch (error) {
-      const response = (error as { getResponse?: () => { details?: Record<string, unknown> } }).getResponse?.();
+      const response = (
+        error as { getResponse?: () => { details?: Record<string, unknown> } }
+      ).getResponse?.();
       throw new ProblemException(
         HttpStatus.SERVICE_UNAVAILABLE,
         'unhealthy',

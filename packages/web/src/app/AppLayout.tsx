@@ -1,4 +1,14 @@
-import { Alignment, AnchorButton, Button, Navbar, NavbarDivider, NavbarGroup, NavbarHeading, Spinner, Tag } from '@blueprintjs/core';
+import {
+  Alignment,
+  AnchorButton,
+  Button,
+  Navbar,
+  NavbarDivider,
+  NavbarGroup,
+  NavbarHeading,
+  Spinner,
+  Tag,
+} from '@blueprintjs/core';
 import { NavLink, Outlet, ScrollRestoration } from 'react-router-dom';
 import { CairnMark } from '../components/CairnMark';
 import { CLINICAL_CAUTION } from '../components/ClinicalCaution';
@@ -25,11 +35,18 @@ export function AppLayout() {
             <CairnMark size={28} />
             <NavbarHeading className="cairn-brand-name">Cairn</NavbarHeading>
           </NavLink>
-          {about.data?.regionName ? <span className="cairn-region">{about.data.regionName}</span> : null}
+          {about.data?.regionName ? (
+            <span className="cairn-region">{about.data.regionName}</span>
+          ) : null}
           {items.length > 0 ? <NavbarDivider /> : null}
           <nav aria-label="Main" className="cairn-nav">
             {items.map((item) => (
-              <NavLink key={item.to} to={item.to} end={item.to === '/'} className={({ isActive }) => `cairn-nav-link${isActive ? ' active' : ''}`}>
+              <NavLink
+                key={item.to}
+                to={item.to}
+                end={item.to === '/'}
+                className={({ isActive }) => `cairn-nav-link${isActive ? ' active' : ''}`}
+              >
                 {item.label}
               </NavLink>
             ))}
@@ -68,7 +85,8 @@ export function AppLayout() {
       <footer className="cairn-footer">
         <p>{CLINICAL_CAUTION}</p>
         <p className="cairn-footer-meta">
-          Cairn {about.data?.version ? `v${about.data.version}` : ''} · <a href="/api/docs">API documentation</a>
+          Cairn {about.data?.version ? `v${about.data.version}` : ''} ·{' '}
+          <a href="/api/docs">API documentation</a>
         </p>
       </footer>
       <ScrollRestoration />

@@ -8,7 +8,13 @@ export function Home() {
   const me = useMe();
   if (me.isPending) return null;
   if (me.isError) {
-    return <NonIdealState icon="error" title="Cairn could not check your sign-in" description={me.error.message} />;
+    return (
+      <NonIdealState
+        icon="error"
+        title="Cairn could not check your sign-in"
+        description={me.error.message}
+      />
+    );
   }
   if (!me.data) return <Landing />;
   const user = me.data;

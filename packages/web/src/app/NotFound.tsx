@@ -9,7 +9,8 @@ export function NotFound() {
       title="This page does not exist"
       description={
         <>
-          Nothing in Cairn lives at <code>{location.pathname}</code>. The link may be old, or the address mistyped.
+          Nothing in Cairn lives at <code>{location.pathname}</code>. The link may be old, or the
+          address mistyped.
         </>
       }
       action={

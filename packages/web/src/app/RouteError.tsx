@@ -19,7 +19,10 @@ export function RouteError() {
         title="Something went wrong"
         description={message}
         action={
-          <AnchorButton href={typeof window !== 'undefined' ? window.location.pathname : '/'} icon="refresh">
+          <AnchorButton
+            href={typeof window !== 'undefined' ? window.location.pathname : '/'}
+            icon="refresh"
+          >
             Reload
           </AnchorButton>
         }

@@ -4,7 +4,9 @@ import { lazy, type ReactNode, Suspense } from 'react';
 import { ThemeProvider } from './theme';
 
 const Devtools = import.meta.env.DEV
-  ? lazy(() => import('@tanstack/react-query-devtools').then((m) => ({ default: m.ReactQueryDevtools })))
+  ? lazy(() =>
+      import('@tanstack/react-query-devtools').then((m) => ({ default: m.ReactQueryDevtools })),
+    )
   : () => null;
 
 export function AppProviders({ client, children }: { client: QueryClient; children: ReactNode }) {

@@ -8,7 +8,8 @@ export function createQueryClient(): QueryClient {
       queries: {
         staleTime: 30_000,
         retry: (failureCount, error) =>
-          !(error instanceof ApiError && error.status >= 400 && error.status < 500) && failureCount < 2,
+          !(error instanceof ApiError && error.status >= 400 && error.status < 500) &&
+          failureCount < 2,
         refetchOnWindowFocus: false,
       },
       mutations: { retry: false },

@@ -1,5 +1,13 @@
 import { Classes } from '@blueprintjs/core';
-import { createContext, type ReactNode, useCallback, useContext, useEffect, useMemo, useState } from 'react';
+import {
+  createContext,
+  type ReactNode,
+  useCallback,
+  useContext,
+  useEffect,
+  useMemo,
+  useState,
+} from 'react';
 
 export type Theme = 'light' | 'dark';
 const STORAGE_KEY = 'cairn.theme';
@@ -7,7 +15,9 @@ const STORAGE_KEY = 'cairn.theme';
 function initialTheme(): Theme {
   const stored = typeof localStorage !== 'undefined' ? localStorage.getItem(STORAGE_KEY) : null;
   if (stored === 'light' || stored === 'dark') return stored;
-  return typeof matchMedia !== 'undefined' && matchMedia('(prefers-color-scheme: dark)').matches ? 'dark' : 'light';
+  return typeof matchMedia !== 'undefined' && matchMedia('(prefers-color-scheme: dark)').matches
+    ? 'dark'
+    : 'light';
 }
 
 interface ThemeContextValue {

@@ -64,7 +64,11 @@ export async function apiFetch<T>(path: string, init: RequestInit = {}): Promise
     const problem =
       body && typeof body === 'object' && 'title' in body
         ? (body as ProblemDetails)
-        : { type: 'about:blank', title: response.statusText || 'Request failed', status: response.status };
+        : {
+            type: 'about:blank',
+            title: response.statusText || 'Request failed',
+            status: response.status,
+          };
     throw new ApiError({ ...problem, status: response.status });
   }
   return body as T;

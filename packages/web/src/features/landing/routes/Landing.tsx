@@ -32,12 +32,14 @@ export function Landing() {
         <div>
           <H1 id="landing-title">Cairn</H1>
           <p className="cairn-hero-lede">
-            Quarterly diabetes care audit and peer benchmarking{region ? ` for ${region}` : ''}: care processes done,
-            treatment targets reached, and a fair comparison with similar practices.
+            Quarterly diabetes care audit and peer benchmarking{region ? ` for ${region}` : ''}:
+            care processes done, treatment targets reached, and a fair comparison with similar
+            practices.
           </p>
           {about.data && about.data.practices > 0 ? (
             <p className="cairn-hero-facts">
-              {formatCount(about.data.practices)} practices in {formatCount(about.data.localities)} localities take part.
+              {formatCount(about.data.practices)} practices in {formatCount(about.data.localities)}{' '}
+              localities take part.
             </p>
           ) : null}
           <AnchorButton large intent={Intent.PRIMARY} icon="log-in" href="/sign-in">
@@ -57,8 +59,14 @@ export function Landing() {
 
       <section className="cairn-principles" aria-label="How Cairn works">
         <ul>
-          <li>Only de-identified data is accepted; dates are kept to the month and record references are keyed-hashed before anyone outside the practice sees them.</li>
-          <li>Comparisons use control limits that depend on each practice&apos;s numbers, so a small practice is not called an outlier for bad luck.</li>
+          <li>
+            Only de-identified data is accepted; dates are kept to the month and record references
+            are keyed-hashed before anyone outside the practice sees them.
+          </li>
+          <li>
+            Comparisons use control limits that depend on each practice&apos;s numbers, so a small
+            practice is not called an outlier for bad luck.
+          </li>
           <li>Published reports are frozen snapshots; small counts are suppressed.</li>
         </ul>
       </section>

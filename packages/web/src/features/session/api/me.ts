@@ -1,5 +1,5 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import { ApiError, apiFetch } from '../../../lib/api-client';
+import { apiFetch } from '../../../lib/api-client';
 
 export type Role = 'regional_lead' | 'practice_lead' | 'auditor';
 
@@ -24,14 +24,14 @@ export interface Me {
   practices: MePractice[];
 }
 
-/** The signed-in person, or null when nobody is signed in (401). */
+export interface Session {
+  user: Me | null;
+}
+
+/** The signed-in person, or null when nobody is signed in (GET /api/session always answers 200). */
 export async function fetchMe(): Promise<Me | null> {
-  try {
-    return await apiFetch<Me>('/api/me');
-  } catch (error) {
-    if (error instanceof ApiError && error.status === 401) return null;
-    throw error;
-  }
+  const session = await apiFetch<Session>('/api/session');
+  return session.user;
 }
 
 export const meQueryOptions = () =>

@@ -1,0 +1,69 @@
+/**
+ * Headless Chromium from Debian's package, driven by playwright-core (no
+ * browser download). Launch flags as verified in toolchain.md.
+ */
+import { execFileSync } from 'node:child_process';
+import { mkdirSync, mkdtempSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { type BrowserContext, chromium, type ConsoleMessage, type Page } from 'playwright-core';
+import { artifactsDir } from './paths.ts';
+
+function chromiumPath(): string {
+  if (process.env.CAIRN_CHROMIUM) return process.env.CAIRN_CHROMIUM;
+  try {
+    return execFileSync('sh', ['-c', 'command -v chromium'], { encoding: 'utf8' }).trim();
+  } catch {
+    throw new Error(
+      "chromium is not installed: `npm test` installs Debian's chromium package; or run apt-get install -y chromium",
+    );
+  }
+}
+
+export interface BrowserSession {
+  context: BrowserContext;
+  page: Page;
+  /** Console errors and page errors seen so far */
+  errors: string[];
+  screenshot(name: string): Promise<string>;
+  close(): Promise<void>;
+}
+
+export async function openBrowser(): Promise<BrowserSession> {
+  const profile = mkdtempSync(join(tmpdir(), 'cairn-chromium-'));
+  const context = await chromium.launchPersistentContext(profile, {
+    executablePath: chromiumPath(),
+    headless: true,
+    viewport: { width: 1280, height: 860 },
+    args: [
+      '--headless',
+      '--no-sandbox',
+      '--disable-gpu',
+      '--disable-quic',
+      '--no-first-run',
+      '--disable-background-networking',
+      '--disable-component-update',
+      '--disable-sync',
+      '--disable-dev-shm-usage',
+    ],
+  });
+  const page = context.pages()[0] ?? (await context.newPage());
+  const errors: string[] = [];
+  const onConsole = (message: ConsoleMessage) => {
+    if (message.type() === 'error') errors.push(`console: ${message.text()}`);
+  };
+  page.on('console', onConsole);
+  page.on('pageerror', (error) => errors.push(`page: ${error.message}`));
+  mkdirSync(artifactsDir, { recursive: true });
+  return {
+    context,
+    page,
+    errors,
+    screenshot: async (name) => {
+      const file = join(artifactsDir, `${name}.png`);
+      await page.screenshot({ path: file, fullPage: true });
+      return file;
+    },
+    close: () => context.close(),
+  };
+}

@@ -1,0 +1,14 @@
+import { defineConfig } from 'vitest/config';
+
+// Cross-package suites: reference/ (published check values) and browser/
+// (headless Chromium against the built app). Browser files run one at a time.
+export default defineConfig({
+  test: {
+    include: ['reference/**/*.test.ts', 'browser/**/*.test.ts', 'reliability/**/*.test.ts'],
+    environment: 'node',
+    testTimeout: 120_000,
+    hookTimeout: 180_000,
+    fileParallelism: false,
+    setupFiles: ['./support/env.ts'],
+  },
+});
