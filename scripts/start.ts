@@ -7,7 +7,8 @@
  *  4. private MariaDB on 127.0.0.1           8. the API, serving the web at /
  *
  * Ctrl-C (SIGINT) or SIGTERM stops the API and the fakes, then shuts MariaDB
- * down cleanly.
+ * down cleanly. The terminal shows short log lines (full JSON logs in
+ * .data/log/); `npm start -- --verbose` also shows health-check requests.
  */
 import { type ChildProcess, spawn } from 'node:child_process';
 import { existsSync } from 'node:fs';
@@ -23,10 +24,12 @@ import {
   stopMariadb,
 } from './lib/mariadb.ts';
 import { isPortOpen, runSync, waitFor } from './lib/proc.ts';
+import { pipeLogs } from './lib/pretty-log.ts';
 import { prepareDemoData } from './lib/seed.ts';
 
 async function main(): Promise<void> {
   const started = Date.now();
+  const verbose = process.argv.includes('--verbose');
   const ctx = loadContext('development');
   const { config } = ctx;
 
@@ -67,6 +70,13 @@ async function main(): Promise<void> {
   };
   process.on('SIGINT', () => void stopAll(0));
   process.on('SIGTERM', () => void stopAll(0));
+  process.on('SIGHUP', () => void stopAll(0));
+  // A closed terminal or pipe must not leave MariaDB running: ignore EPIPE, shut down on anything unexpected.
+  for (const stream of [process.stdout, process.stderr]) stream.on('error', () => undefined);
+  process.on('uncaughtException', (error) => {
+    log.error(`unexpected error: ${error.stack ?? error.message}`);
+    void stopAll(1);
+  });
 
   if (bin) {
     ensureDataDir(bin, ctx.mariadb);
@@ -103,12 +113,15 @@ async function main(): Promise<void> {
   const demoDir = prepareDemoData(ctx.root);
   if (!cli(['seed-demo', demoDir])) return stopAll(1);
 
-  const spawnChild = (name: string, script: string) => {
+  const spawnChild = (name: string, script: string, logName: string) => {
     const child = spawn(process.execPath, ['--enable-source-maps', script], {
       cwd: ctx.root,
       env: ctx.childEnv,
-      stdio: ['ignore', 'inherit', 'inherit'],
+      stdio: ['ignore', 'pipe', 'pipe'],
     });
+    const logFile = join(ctx.root, '.data', 'log', `${logName}.log`);
+    pipeLogs(logName, child.stdout!, logFile, verbose);
+    pipeLogs(logName, child.stderr!, logFile, verbose);
     child.on('exit', (code, signal) => {
       if (!stopping) {
         log.error(
@@ -122,8 +135,8 @@ async function main(): Promise<void> {
   };
 
   const fakes = join(apiDist, 'dev', 'main.js');
-  if (config.devFakes.enabled && existsSync(fakes)) spawnChild('the local fakes', fakes);
-  spawnChild('the API', join(apiDist, 'main.js'));
+  if (config.devFakes.enabled && existsSync(fakes)) spawnChild('the local fakes', fakes, 'fakes');
+  spawnChild('the API', join(apiDist, 'main.js'), 'api');
 
   const healthUrl = `http://127.0.0.1:${config.server.port}/api/health`;
   const healthy = await waitFor(

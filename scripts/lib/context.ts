@@ -58,12 +58,15 @@ function localSecrets(profile: CairnConfig['profile']): CairnSecrets {
 export function loadContext(profile: CairnConfig['profile']): Context {
   const config = loadConfig({ root, profile });
   const secrets = profile === 'production' ? ({} as CairnSecrets) : localSecrets(profile);
+  const dataDir = resolvePath(root, config.mariadb.dataDir);
   const mariadb: MariadbPaths = {
     root,
-    dataDir: resolvePath(root, config.mariadb.dataDir),
-    socket: resolvePath(root, config.mariadb.socket),
-    pidFile: resolvePath(root, config.mariadb.pidFile),
-    logFile: resolvePath(root, config.mariadb.logFile),
+    dataDir,
+    socket: config.mariadb.socket
+      ? resolvePath(root, config.mariadb.socket)
+      : join(dataDir, 'mariadb.sock'),
+    pidFile: join(dataDir, 'mariadb.pid'),
+    logFile: join(dataDir, 'mariadb.err'),
     port: config.database.port,
     configHint: 'mariadb',
   };

@@ -217,12 +217,11 @@ export async function startMariadb(
         `e.g. CAIRN_DATABASE_PORT=${p.port + 10} (config key database.port).`,
     );
   }
-  for (const file of [p.socket, p.pidFile, p.logFile])
-    mkdirSync(dirname(file), { recursive: true });
+  mkdirSync(dirname(p.socket), { recursive: true });
   if (p.socket.length > 100) {
     fail(
       `The MariaDB socket path ${p.socket} is ${p.socket.length} characters long; Unix sockets allow about 107. ` +
-        `Set ${p.configHint}.socket to a shorter path (e.g. CAIRN_MARIADB_SOCKET=/tmp/cairn-${basename(p.dataDir)}.sock).`,
+        `Set ${p.configHint}.socket to a shorter path (e.g. CAIRN_MARIADB_SOCKET=/tmp/cairn-${basename(p.dataDir)}.sock), or move the checkout to a shorter path.`,
     );
   }
   const args = [

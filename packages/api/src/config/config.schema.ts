@@ -59,10 +59,12 @@ export const configSchema = z
     mariadb: z
       .object({
         manage: bool.describe('true or false: whether npm start runs a private MariaDB'),
-        dataDir: relPath,
-        socket: relPath,
-        pidFile: relPath,
-        logFile: relPath,
+        dataDir: relPath.describe(
+          'a folder path (relative to the checkout); the pid file and error log live inside it',
+        ),
+        socket: z
+          .string()
+          .describe('a socket file path, or "" for <dataDir>/mariadb.sock (Unix sockets allow about 107 characters)'),
       })
       .strict(),
     session: z
