@@ -1,0 +1,65 @@
+/**
+ * `npm run bench [-- --quick]`: the performance benchmarks, each printing
+ * ratios against a reference measured in the same run.
+ *   - @cairn/metrics: evaluation vs DuckDB at 100k / 1M / 3.5M records, funnel limits
+ *   - @cairn/api: extract ingest vs LOAD DATA LOCAL INFILE and a bare exceljs read
+ * The ingest benchmark uses the disposable test MariaDB (never the demo data).
+ * Exit code 1 when any benchmark misses a target.
+ */
+import { existsSync, readFileSync } from 'node:fs';
+import { join } from 'node:path';
+import { buildIfStale, buildTargets } from './lib/build.ts';
+import { loadContext } from './lib/context.ts';
+import { log, runMain } from './lib/log.ts';
+import { runInherit } from './lib/proc.ts';
+import { acquireTestDatabase } from './lib/test-db.ts';
+
+function hasBenchScript(root: string, workspace: string): boolean {
+  const file = join(root, 'packages', workspace, 'package.json');
+  if (!existsSync(file)) return false;
+  const pkg = JSON.parse(readFileSync(file, 'utf8')) as { scripts?: Record<string, string> };
+  return Boolean(pkg.scripts?.bench);
+}
+
+async function main(): Promise<void> {
+  const args = process.argv.slice(2);
+  const ctx = loadContext('test');
+  buildIfStale(ctx.root, buildTargets[0]!);
+  const outcomes: [string, number][] = [];
+
+  log.step('── @cairn/metrics benchmark ──');
+  outcomes.push([
+    'metrics',
+    await runInherit('npm', ['run', 'bench', '-w', '@cairn/metrics', '--', ...args], {
+      cwd: ctx.root,
+      env: ctx.childEnv,
+    }),
+  ]);
+
+  if (hasBenchScript(ctx.root, 'api')) {
+    buildIfStale(ctx.root, buildTargets[1]!);
+    const database = await acquireTestDatabase(ctx);
+    try {
+      log.step('── @cairn/api ingest benchmark ──');
+      outcomes.push([
+        'api',
+        await runInherit('npm', ['run', 'bench', '-w', '@cairn/api', '--', ...args], {
+          cwd: ctx.root,
+          env: ctx.childEnv,
+        }),
+      ]);
+    } finally {
+      await database.release();
+    }
+  }
+
+  console.log('');
+  for (const [name, code] of outcomes) {
+    console.log(
+      `  ${code === 0 ? 'met   ' : 'MISSED'} ${name}${code === 0 ? '' : ` (exit ${code})`}`,
+    );
+  }
+  process.exitCode = outcomes.every(([, code]) => code === 0) ? 0 : 1;
+}
+
+runMain(main);
