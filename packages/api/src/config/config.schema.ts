@@ -64,7 +64,9 @@ export const configSchema = z
         ),
         socket: z
           .string()
-          .describe('a socket file path, or "" for <dataDir>/mariadb.sock (Unix sockets allow about 107 characters)'),
+          .describe(
+            'a socket file path, or "" for <dataDir>/mariadb.sock (Unix sockets allow about 107 characters)',
+          ),
       })
       .strict(),
     session: z
