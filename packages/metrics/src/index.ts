@@ -1,6 +1,63 @@
-/** @cairn/metrics: Cairn's metrics engine (pure TypeScript, no I/O). */
+/**
+ * @cairn/metrics: Cairn's metrics engine. Pure TypeScript with no I/O: nothing here reads
+ * files, the network or the clock, and nothing imports platform modules, so the same build
+ * serves the API and the browser.
+ */
 export const METRICS_PACKAGE = '@cairn/metrics';
 
+// Records
 export * from './records/record.js';
 export * from './records/month.js';
 export * from './records/columns.js';
+
+// Measure sets and evaluation
+export * from './measures/schema.js';
+export * from './measures/quarter.js';
+export * from './measures/compile.js';
+export * from './measures/localities.js';
+export * from './measures/result.js';
+export * from './measures/evaluate-records.js';
+export * from './measures/evaluate-columns.js';
+
+// Statistics
+export * from './stats/interval.js';
+export { normalQuantile, zForConfidence } from './stats/normal-quantile.js';
+export { normalCdf, erfc } from './stats/normal-cdf.js';
+export { logGamma } from './stats/log-gamma.js';
+export { binomialPmf } from './stats/binomial-pmf.js';
+export { binomialCdf } from './stats/binomial-cdf.js';
+export { binomialQuantile } from './stats/binomial-quantile.js';
+export { gammaQuantile } from './stats/gamma-quantile.js';
+export { chiSquareQuantile } from './stats/chisquare-quantile.js';
+export { wilsonInterval } from './stats/wilson-interval.js';
+export { funnelLimits } from './stats/funnel-limits.js';
+export * from './stats/overdispersion.js';
+export * from './stats/overdispersed-limits.js';
+export * from './stats/funnel-flag.js';
+export * from './stats/compare-units.js';
+export { poissonInterval } from './stats/poisson-interval.js';
+export * from './stats/indirect-standardise.js';
+export { runsLimits } from './stats/runs-limits.js';
+export * from './stats/run-chart.js';
+export * from './stats/kaplan-meier.js';
+export * from './stats/improvement-potential.js';
+
+// Units and kidney
+export * from './units/hba1c.js';
+export * from './units/glucose.js';
+export * from './units/cholesterol.js';
+export * from './units/creatinine.js';
+export * from './units/acr.js';
+export * from './kidney/egfr-ckd-epi-2021.js';
+export * from './kidney/kdigo.js';
+
+// Disclosure control and pseudonyms
+export * from './disclosure/disclosure-control.js';
+export {
+  recordPseudonym,
+  createPseudonymiser,
+  pseudonymMessage,
+  PSEUDONYM_LENGTH,
+} from './disclosure/pseudonym.js';
+export { sha256, hmacSha256, toHex } from './disclosure/sha256.js';
+export * from './progression/insulin.js';
