@@ -530,19 +530,35 @@ function caseMixExpected(
   const S = compiled.strataCount;
   const inDenominator = (m: number, code: number): boolean =>
     compiled.measures[m]?.denominator === 'measured' ? code >= CODE_NOT_MET : code >= CODE_UNKNOWN;
-  // Stratum rates per measure.
+  // Stratum rates per measure, over the strata that have records (each record is in one cell
+  // of the first pack). Each cell's role for a measure: 1 met, 2 in the denominator.
+  const roles = compiled.measures.map((_, m) => {
+    const cells = layout.cellCodes[m] as Uint8Array;
+    return Uint8Array.from(
+      cells,
+      (code) => (code === CODE_MET ? 1 : 0) | (inDenominator(m, code) ? 2 : 0),
+    );
+  });
+  const offsets = Int32Array.from(
+    compiled.measures.map((_, m) => layout.packs[layout.measurePack[m] as number]?.offset ?? 0),
+  );
+  const firstCells = layout.packs[0]?.cells ?? 0;
   const rates = new Float64Array(S * M);
   for (let s = 0; s < S; s++) {
+    const base = s * K;
+    let records = 0;
+    for (let c = 0; c < firstCells; c++) records += strataCounts[base + c] as number;
+    if (records === 0) continue;
     for (let m = 0; m < M; m++) {
-      const pack = layout.packs[layout.measurePack[m] as number];
-      const cells = layout.cellCodes[m] as Uint8Array;
+      const role = roles[m] as Uint8Array;
+      const from = base + (offsets[m] as number);
       let events = 0;
       let n = 0;
-      for (let c = 0; c < cells.length; c++) {
-        const count = strataCounts[s * K + (pack?.offset as number) + c] as number;
-        const code = cells[c] as number;
-        if (code === CODE_MET) events += count;
-        if (inDenominator(m, code)) n += count;
+      for (let c = 0; c < role.length; c++) {
+        const count = strataCounts[from + c] as number;
+        const r = role[c] as number;
+        if (r & 1) events += count;
+        if (r & 2) n += count;
       }
       rates[s * M + m] = n > 0 ? events / n : 0;
     }

@@ -1,0 +1,119 @@
+import fc from 'fast-check';
+import { describe, expect, it } from 'vitest';
+import { complete, record } from '../../test/records.js';
+import { arbitraryRecord } from '../../test/arbitrary.js';
+import {
+  createColumnBuilder,
+  type FlatCareRecord,
+  MISSING_MONTH,
+  MISSING_YEAR,
+  recordAt,
+  toColumns,
+} from './columns.js';
+import { isMonth, monthFromIndex, monthIndex, yearOfMonthIndex } from './month.js';
+import type { CareRecord } from './record.js';
+
+function flat(r: CareRecord): FlatCareRecord {
+  return {
+    practiceCode: r.practiceCode,
+    recordKey: r.recordKey,
+    birthYear: r.birthYear,
+    sex: r.sex,
+    diabetesType: r.diabetesType,
+    diagnosisYear: r.diagnosisYear,
+    deprivationQuintile: r.deprivationQuintile,
+    hba1cMonth: r.hba1c?.month ?? null,
+    hba1cMmolMol: r.hba1c?.mmolMol ?? null,
+    bloodPressureMonth: r.bloodPressure?.month ?? null,
+    systolic: r.bloodPressure?.systolic ?? null,
+    diastolic: r.bloodPressure?.diastolic ?? null,
+    cholesterolMonth: r.cholesterol?.month ?? null,
+    totalCholesterolMmolL: r.cholesterol?.totalMmolL ?? null,
+    serumCreatinineMonth: r.serumCreatinine?.month ?? null,
+    serumCreatinineUmolL: r.serumCreatinine?.umolL ?? null,
+    urineAlbuminMonth: r.urineAlbumin?.month ?? null,
+    acrMgMmol: r.urineAlbumin?.acrMgMmol ?? null,
+    footSurveillanceMonth: r.footSurveillance?.month ?? null,
+    bmiMonth: r.bmi?.month ?? null,
+    bmiKgM2: r.bmi?.kgM2 ?? null,
+    smokingMonth: r.smoking?.month ?? null,
+    smokingStatus: r.smoking?.status ?? null,
+    retinalScreeningMonth: r.retinalScreening?.month ?? null,
+    onStatin: r.onStatin,
+    onInsulin: r.onInsulin,
+    insulinStartYear: r.insulinStartYear,
+    cvdHistory: r.cvdHistory,
+  };
+}
+
+describe('month indices', () => {
+  it('convert both ways and count months', () => {
+    expect(monthIndex('2026-09') - monthIndex('2025-10')).toBe(11);
+    expect(monthFromIndex(monthIndex('2026-01'))).toBe('2026-01');
+    expect(monthFromIndex(monthIndex('0999-12'))).toBe('0999-12');
+    expect(yearOfMonthIndex(monthIndex('2026-12'))).toBe(2026);
+    expect(isMonth('2026-13')).toBe(false);
+    expect(isMonth('2026-1')).toBe(false);
+    expect(() => monthIndex('2026-00')).toThrow(/month/);
+    expect(() => monthIndex('26-01')).toThrow(RangeError);
+    expect(() => monthFromIndex(1.5)).toThrow(/index/);
+  });
+});
+
+describe('columnar form', () => {
+  it('round-trips records through toColumns and recordAt (property)', () => {
+    fc.assert(
+      fc.property(fc.array(arbitraryRecord, { maxLength: 30 }), (records) => {
+        const columns = toColumns(records, { keepRecordKeys: true });
+        expect(columns.length).toBe(records.length);
+        records.forEach((r, i) => expect(recordAt(columns, i)).toEqual(r));
+      }),
+    );
+  });
+
+  it('builds the same columns from flat rows as from records', () => {
+    fc.assert(
+      fc.property(fc.array(arbitraryRecord, { maxLength: 20 }), (records) => {
+        const a = toColumns(records);
+        const builder = createColumnBuilder({ capacity: 1 });
+        for (const r of records) builder.appendFlat(flat(r));
+        const b = builder.finish();
+        expect(b).toEqual(a);
+      }),
+    );
+  });
+
+  it('encodes missing values with the documented sentinels', () => {
+    const columns = toColumns([record({ diagnosisYear: null })]);
+    expect(columns.months.hba1c[0]).toBe(MISSING_MONTH);
+    expect(columns.diagnosisYear[0]).toBe(MISSING_YEAR);
+    expect(Number.isNaN(columns.values.systolic[0])).toBe(true);
+    expect(columns.onStatin[0]).toBe(0);
+    expect(columns.deprivation[0]).toBe(3);
+    expect(columns.recordKeys).toBeNull();
+  });
+
+  it('indexes preset practices first and new ones in order of appearance', () => {
+    const columns = toColumns([record({ practiceCode: 'B' }), record({ practiceCode: 'C' })], {
+      practiceCodes: ['A', 'B'],
+    });
+    expect(columns.practiceCodes).toEqual(['A', 'B', 'C']);
+    expect(Array.from(columns.practice)).toEqual([1, 2]);
+  });
+
+  it('refuses a value it cannot encode, naming the record and field', () => {
+    const builder = createColumnBuilder();
+    expect(() => builder.append(complete('2026-13'))).toThrow(/record 0: hba1c/);
+    expect(() => builder.append(record({ birthYear: 1960.5 }))).toThrow(/birthYear/);
+    expect(() => builder.append(record({ sex: 'Q' as 'F' }))).toThrow(/sex/);
+    expect(() =>
+      builder.append(record({ hba1c: { month: '2026-01', mmolMol: Number.NaN } })),
+    ).toThrow(/hba1c/);
+    expect(() => builder.append(record({ deprivationQuintile: 7 as 1 }))).toThrow(/deprivation/);
+    expect(() => builder.append(record({ practiceCode: '' }))).toThrow(/practiceCode/);
+    expect(builder.length).toBe(0);
+    builder.append(record());
+    expect(builder.finish().length).toBe(1);
+    expect(() => builder.append(record())).toThrow(/finished/);
+  });
+});
