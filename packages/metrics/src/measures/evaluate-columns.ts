@@ -210,22 +210,6 @@ export function evaluateColumns(
     });
   }
 
-  // Records: totals from the sizes, eligible from the eligible counts; the everyone category
-  // of eligible counts is the sum of the four sex categories.
-  const sexOffset = tables.sexOffset;
-  for (let p = 0; p < P; p++) {
-    records[p * 4] = sizes[p] as number;
-    let n = 0;
-    for (let g = 0; g < 2; g++) {
-      const base = (p * 2 + g) * C;
-      let everyone = 0;
-      for (let s = 0; s < 4; s++) everyone += eligible[base + sexOffset + s] as number;
-      eligible[base] = everyone;
-      n += everyone;
-    }
-    records[p * 4 + 1] = n;
-  }
-
   let expected: Float64Array | null = null;
   if (strataCounts !== null && stratumOf !== null && cellOf !== null) {
     expected = caseMixExpected(
@@ -245,11 +229,7 @@ export function evaluateColumns(
   // the region.
   for (let p = 0; p < P; p++) {
     if (practiceBreakdowns && rolledUp[p] === 0) rollUpPractice(p);
-    const u = P + (rollupUnit[p] as number);
-    addBlock(eligible, p * 2 * C, eligible, u * 2 * C, 2 * C);
-    addBlock(records, p * 4, records, u * 4, 4);
   }
-  const region = P + L;
   for (let l = 0; l < L; l++) {
     addBlock(
       rollupCounts,
@@ -258,9 +238,42 @@ export function evaluateColumns(
       L * shape.rollupBlock,
       shape.rollupBlock,
     );
-    addBlock(eligible, (P + l) * 2 * C, eligible, region * 2 * C, 2 * C);
-    addBlock(records, (P + l) * 4, records, region * 4, 4);
   }
+  // Eligible records per unit, type group and category, from the histograms: each eligible
+  // record is in exactly one cell of the first pack of each of its blocks. Everyone is the sum
+  // of the four sex categories. Practices without breakdowns have everyone only.
+  const firstCells = layout.packs[0]?.cells ?? 0;
+  const sexOffset = tables.sexOffset;
+  const sumCells = (array: Uint16Array | Uint32Array, base: number): number => {
+    let n = 0;
+    for (let x = 0; x < firstCells; x++) n += array[base + x] as number;
+    return n;
+  };
+  for (let u = 0; u < U; u++) {
+    const isPractice = u < P;
+    const array = isPractice ? counts : rollupCounts;
+    const v = isPractice ? u : u - P;
+    for (let g = 0; g < 2; g++) {
+      const e = (u * 2 + g) * C;
+      if (isPractice && !practiceBreakdowns) {
+        eligible[e] = sumCells(array, (v * 2 + g) * K);
+        continue;
+      }
+      for (let c = 1; c < C; c++)
+        eligible[e + c] = sumCells(array, ((v * 2 + g) * (C - 1) + c - 1) * K);
+      let everyone = 0;
+      for (let x = 0; x < 4; x++) everyone += eligible[e + sexOffset + x] as number;
+      eligible[e] = everyone;
+    }
+  }
+  // Records: totals from the sizes (exclusions were counted by the loop).
+  for (let p = 0; p < P; p++) {
+    records[p * 4] = sizes[p] as number;
+    records[p * 4 + 1] = (eligible[p * 2 * C] as number) + (eligible[(p * 2 + 1) * C] as number);
+    addBlock(records, p * 4, records, (P + (rollupUnit[p] as number)) * 4, 4);
+  }
+  for (let l = 0; l < L; l++) addBlock(records, (P + l) * 4, records, (P + L) * 4, 4);
+  const region = P + L;
   if (expected !== null) {
     const e = 2 * M;
     for (let p = 0; p < P; p++)
@@ -383,7 +396,6 @@ function interpreted(
   const state = new Int32Array(totalWords * BLOCK);
   const isEligible = new Uint8Array(BLOCK);
   const ageOf = new Int32Array(BLOCK);
-  const categories = new Int32Array(BLOCK * 4);
   const practiceBlocks = new Int32Array(BLOCK * 4);
   const rollupBlocks = new Int32Array(BLOCK * 4);
   const strata = new Int32Array(BLOCK);
@@ -433,7 +445,6 @@ function interpreted(
       const rollupGroup = (rollupUnit[p] as number) * 2 + g;
       for (let k = 0; k < 4; k++) {
         const c = (offsets[k] as number) + (within[k] as number);
-        categories[j * 4 + k] = group * C + c;
         practiceBlocks[j * 4 + k] = practiceBreakdowns ? (group * (C - 1) + c - 1) * K : group * K;
         rollupBlocks[j * 4 + k] = (rollupGroup * (C - 1) + c - 1) * K;
       }
@@ -470,7 +481,6 @@ function interpreted(
     kernel(
       state,
       isEligible,
-      categories,
       practiceBlocks,
       practiceBreakdowns ? null : rollupBlocks,
       out,

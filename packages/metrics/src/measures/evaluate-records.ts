@@ -322,7 +322,8 @@ export function evaluateRecords(
     const cells = packCells(layout, codes);
     for (const u of units) {
       for (const c of categories) {
-        bump(eligibleCells, (u * 2 + g) * C + c);
+        // Practices without breakdowns keep everyone only (result.ts).
+        if (u >= P || practiceBreakdowns || c === 0) bump(eligibleCells, (u * 2 + g) * C + c);
         // Stored blocks (result.ts): practices keep everyone only, unless with practice
         // breakdowns; otherwise everyone is the sum of the sex categories and not stored.
         let base: number;

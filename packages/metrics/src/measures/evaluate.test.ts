@@ -285,9 +285,11 @@ describe.each([
       underAge: 1,
     });
     expect(recordCounts(result)).toEqual({ total: 8, eligible: 6, unknownType: 1, underAge: 1 });
-    expect(
-      eligibleCount(result, { level: 'practice', unit: 'P1', dimension: 'sex', category: 'F' }),
-    ).toBe(2);
+    const femaleP1 = { level: 'practice', unit: 'P1', dimension: 'sex', category: 'F' } as const;
+    if (practiceBreakdowns) expect(eligibleCount(result, femaleP1)).toBe(2);
+    else expect(() => eligibleCount(result, femaleP1)).toThrow(/practiceBreakdowns/);
+    expect(eligibleCount(result, { level: 'practice', unit: 'P1' })).toBe(3);
+    expect(eligibleCount(result, { dimension: 'age_band', category: '65-79' })).toBe(3);
     expect(eligibleCount(result, { level: 'locality', unit: 'L1', split: 'type2_other' })).toBe(4);
     expect(unitAggregates(result, 'all_processes').map((u) => [u.code, u.events, u.n])).toEqual([
       ['P1', 2, 3],

@@ -5,14 +5,12 @@ import type { HistogramLayout } from './layout.js';
  * compute the cell of every pack from the record's outcome state bits (layout.ts) and add one
  * to that cell in the record's blocks: its four category blocks of its practice (with practice
  * breakdowns), or its practice's everyone block and its four category blocks of its locality
- * (or the region); for case mix also in its stratum's block. It also counts the practice's
- * eligible records per category. The generated record loop (record-kernel.ts) does the same
- * inline.
+ * (or the region); for case mix also in its stratum's block. The generated record loop
+ * (record-kernel.ts) does the same inline.
  */
 export interface HistogramOutputs {
   counts: Uint16Array | Uint32Array;
   rollupCounts: Uint32Array;
-  eligible: Uint32Array;
   strataCounts: Uint32Array | null;
   cellOf: Uint8Array | null;
 }
@@ -20,7 +18,6 @@ export interface HistogramOutputs {
 export type HistogramKernel = (
   state: Int32Array,
   isEligible: Uint8Array,
-  categories: Int32Array,
   practiceBlocks: Int32Array,
   rollupBlocks: Int32Array | null,
   out: HistogramOutputs,
@@ -51,26 +48,11 @@ export function histogramKernel(layout: HistogramLayout): HistogramKernel {
     const radix = layout.measureRadix[m];
     for (let v = 0; v < 4; v++) digit[k * 4 + v] = radix === 3 ? v - (v >>> 1) : v;
   });
-  return (
-    state,
-    isEligible,
-    categories,
-    practiceBlocks,
-    rollupBlocks,
-    out,
-    len,
-    block,
-    strata,
-    start,
-  ) => {
-    const { counts, rollupCounts, eligible, strataCounts, cellOf } = out;
+  return (state, isEligible, practiceBlocks, rollupBlocks, out, len, block, strata, start) => {
+    const { counts, rollupCounts, strataCounts, cellOf } = out;
     for (let j = 0; j < len; j++) {
       if (isEligible[j] === 0) continue;
       const k = j * 4;
-      for (let c = 0; c < 4; c++) {
-        const e = categories[k + c] as number;
-        eligible[e] = (eligible[e] as number) + 1;
-      }
       for (let p = 0; p < packCount; p++) {
         let x = 0;
         for (let q = packFirst[p] as number; q < (packFirst[p + 1] as number); q++) {

@@ -13,8 +13,8 @@ import type { ReviewWindow } from './quarter.js';
  * measure set reaches it. `evaluate-columns.ts` falls back to its table-driven loop where
  * generated code is not allowed. Both are property-tested against the plain evaluation.
  *
- * The loop counts the records not eligible (by reason) and the eligible ones per practice
- * and category; record totals come from the practice sizes afterwards.
+ * The loop counts only the records not eligible (by reason); record totals come from the
+ * practice sizes and eligible counts from the histograms afterwards.
  */
 export interface KernelArrays {
   practice: Int32Array;
@@ -133,7 +133,7 @@ function nodeSource(
       const op = COMPARATORS[node.comparator];
       if (op === undefined) throw new RangeError('internal: unknown comparator');
       // known × (1 + met): unknown 0, not met 1, met 2 (a missing value is NaN: not met).
-      return `${inWindow(`M_${month}`, w.startIndex)} * (1 + +(V_${value}[i] ${op} ${num(node.threshold)}))`;
+      return `${inWindow(`M_${month}`, w.startIndex)} * (1 + +(v_${value} ${op} ${num(node.threshold)}))`;
     }
     case 'bloodPressure': {
       // Thresholds of the age band: the first band's, plus each later band's step once the
@@ -154,11 +154,11 @@ function nodeSource(
           diastolic += ` + ${step} * ${num(b.diastolicBelow - prev.diastolicBelow)}`;
         }
       }
-      return `${inWindow('M_bloodPressure', w.startIndex)} * (1 + (+(V_systolic[i] < (${systolic})) & +(V_diastolic[i] < (${diastolic}))))`;
+      return `${inWindow('M_bloodPressure', w.startIndex)} * (1 + (+(v_systolic < (${systolic})) & +(v_diastolic < (${diastolic}))))`;
     }
     case 'flag': {
       // Flag codes 0 not recorded, 1 no, 2 yes are already the digits when yes meets it.
-      const f = `F_${field(node.flag, FLAGS)}[i]`;
+      const f = `f_${field(node.flag, FLAGS)}`;
       return node.equals ? `${f}` : `((3 - ${f}) * +(${f} !== 0))`;
     }
     case 'all':
@@ -205,7 +205,7 @@ function kernelSource(
   );
   L.push('  const ageBandOf = a.ageBandOf, durationBandOf = a.durationBandOf;');
   L.push(
-    '  const counts = a.counts, rollupCounts = a.rollupCounts, rollupUnit = a.rollupUnit, eligible = a.eligible, records = a.records;',
+    '  const counts = a.counts, rollupCounts = a.rollupCounts, rollupUnit = a.rollupUnit, records = a.records;',
   );
   if (withStrata)
     L.push('  const strataCounts = a.strataCounts, cellOf = a.cellOf, stratumOf = a.stratumOf;');
@@ -237,7 +237,6 @@ function kernelSource(
   L.push(
     `    const c0 = ub + ${int(shape.ageOffset)} + ab, c1 = ub + ${int(shape.sexOffset)} + s, c2 = ub + ${int(shape.deprivationOffset)} + d, c3 = ub + ${int(shape.durationOffset)} + u;`,
   );
-  L.push('    eligible[c0]++; eligible[c1]++; eligible[c2]++; eligible[c3]++;');
   const C1 = int(shape.categories - 1);
   if (shape.practiceBreakdowns) {
     // Practice blocks for categories 1 … C − 1: ((p·2 + g)·(C − 1) + c − 1).
@@ -261,6 +260,21 @@ function kernelSource(
     L.push(`    const ci = i * ${int(layout.packs.length)};`);
   }
   L.push(...windowFlags(compiled, w));
+  // Each value and flag a condition reads, loaded once per record.
+  const loads = new Set<string>();
+  for (const node of nodes) {
+    if (node.op === 'value')
+      loads.add(
+        `    const v_${field(node.measurement, MEASUREMENT_FIELDS)} = V_${node.measurement}[i];`,
+      );
+    if (node.op === 'bloodPressure') {
+      loads.add('    const v_systolic = V_systolic[i];');
+      loads.add('    const v_diastolic = V_diastolic[i];');
+    }
+    if (node.op === 'flag')
+      loads.add(`    const f_${field(node.flag, FLAGS)} = F_${node.flag}[i];`);
+  }
+  L.push(...loads);
   nodes.forEach((_, n) => {
     L.push(`    const n${n} = ${nodeSource(nodes, n, w, binary)};`);
   });

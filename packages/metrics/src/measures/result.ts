@@ -48,7 +48,10 @@ export interface EvaluationResult {
   counts: Uint16Array | Uint32Array;
   /** Histogram cells of the localities, then the region. */
   rollupCounts: Uint32Array;
-  /** Eligible records per unit, type group and category: ((u·2 + g)·C + c). */
+  /**
+   * Eligible records per unit, type group and category: ((u·2 + g)·C + c); for practices only
+   * category 0 unless `practiceBreakdowns`.
+   */
   eligible: Uint32Array;
   /**
    * Records per unit (u·4 + k): k = 0 all records, 1 eligible, 2 not eligible for an unknown
@@ -237,6 +240,11 @@ export function eligibleCount(
 ): number {
   const u = unitIndex(result, query.level ?? 'region', query.unit);
   const c = categoryIndex(result, query.dimension, query.category);
+  if (u < result.practices.length && c !== 0 && !result.practiceBreakdowns) {
+    throw new RangeError(
+      'category: practice breakdowns were not computed (evaluate with practiceBreakdowns: true)',
+    );
+  }
   let n = 0;
   for (const g of typeGroups(query.split ?? 'all')) {
     n += result.eligible[(u * 2 + g) * result.categoryCount + c] as number;
