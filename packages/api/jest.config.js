@@ -6,8 +6,14 @@ export default {
   testEnvironment: 'node',
   testMatch: ['<rootDir>/test/**/*.e2e-spec.ts', '<rootDir>/src/**/*.spec.ts'],
   extensionsToTreatAsEsm: ['.ts'],
-  moduleNameMapper: { '^(\\.{1,2}/.*)\\.js$': '$1' },
+  moduleNameMapper: {
+    '^(\\.{1,2}/.*)\\.js$': '$1',
+    // CommonJS packages that require ESM-only NestJS: served as ESM (test/support/esm-interop).
+    '^@nestjs/throttler$': '<rootDir>/test/support/esm-interop/nestjs-throttler.mjs',
+  },
   transform: {
+    'esm-interop/nestjs-throttler\\.mjs$':
+      '<rootDir>/test/support/esm-interop/cjs-package-to-esm.js',
     '^.+\\.ts$': [
       '@swc/jest',
       {

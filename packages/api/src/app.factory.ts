@@ -10,6 +10,7 @@ import { DocumentBuilder, SwaggerModule } from '@nestjs/swagger';
 import helmet from 'helmet';
 import type { Logger } from 'pino';
 import { type AppModuleOptions, AppModule } from './app.module.js';
+import { installSessions } from './auth/session-store.js';
 import { createRootLogger, PinoNestLogger, requestLogger } from './common/logger.js';
 import { ProblemDetailsFilter } from './common/problem-details.filter.js';
 import type { CairnConfig } from './config/config.schema.js';
@@ -64,6 +65,8 @@ export function configureApp(app: INestApplication, config: CairnConfig, logger:
       crossOriginEmbedderPolicy: false,
     }),
   );
+  // Sessions in MariaDB, before any route (see auth/session-store.ts).
+  installSessions(app, config);
   app.setGlobalPrefix('api');
   app.useGlobalPipes(
     new ValidationPipe({

@@ -8,6 +8,7 @@ import { QueryTypes } from 'sequelize';
 import { Sequelize } from 'sequelize-typescript';
 import request from 'supertest';
 import { createApp } from '../src/app.factory.js';
+import { Public, SkipCsrf } from '../src/auth/index.js';
 import { createRootLogger } from '../src/common/logger.js';
 import { createTestApp, testConfig, type TestApp } from './support/test-app.js';
 
@@ -21,6 +22,9 @@ class EchoDto {
   count!: number;
 }
 
+// Test-only routes: public, and without the CSRF token (they test the shell, not sign-in).
+@Public()
+@SkipCsrf()
 @Controller('test-only')
 class TestOnlyController {
   @Post('echo')

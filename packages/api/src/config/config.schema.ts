@@ -23,6 +23,114 @@ const positiveInt = (what: string) =>
 const bool = z.boolean().describe('true or false');
 const relPath = z.string().min(1).describe('a file or folder path (relative to the checkout)');
 
+const nullableUrl = (what: string) =>
+  z
+    .url({ protocol: /^https?$/ })
+    .nullable()
+    .describe(`an absolute http(s) URL (${what}), or null`);
+const nullablePath = (what: string) =>
+  z.string().min(1).nullable().describe(`a file path relative to the checkout (${what}), or null`);
+const attributeName = (what: string) =>
+  z
+    .string()
+    .min(1)
+    .describe(
+      `the SAML attribute Name that carries ${what}, e.g. an OID such as urn:oid:0.9.2342.19200300.100.1.3`,
+    );
+const idpValues = (role: string) =>
+  z
+    .array(z.string().min(1))
+    .describe(
+      `the role attribute values that mean ${role}, e.g. ["cairn-${role.replace(/ /g, '-')}"]`,
+    );
+
+/** Sign-in (SAML 2.0): Cairn as service provider, and where its identity provider is described. */
+const authSchema = z
+  .object({
+    sp: z
+      .object({
+        entityId: z
+          .string()
+          .min(1)
+          .describe(
+            'the service provider entity ID Cairn announces (a URI, e.g. https://cairn.example.org/api/auth/saml/metadata); register it at the identity provider',
+          ),
+      })
+      .strict(),
+    idp: z
+      .object({
+        source: z
+          .enum(['dev-fake', 'metadata-url', 'metadata-file', 'settings'])
+          .describe(
+            'one of: dev-fake (the local fake identity provider, development and tests only), metadata-url, metadata-file, settings (entityId, ssoUrl, sloUrl and certFile below)',
+          ),
+        metadataUrl: nullableUrl("the identity provider's SAML metadata, for source metadata-url"),
+        metadataFile: nullablePath(
+          "the identity provider's SAML metadata XML, for source metadata-file",
+        ),
+        metadataRefreshMinutes: positiveInt(
+          'minutes between re-reads of the identity provider metadata',
+        ),
+        entityId: z
+          .string()
+          .min(1)
+          .nullable()
+          .describe("the identity provider's entity ID (its Issuer), for source settings, or null"),
+        ssoUrl: nullableUrl(
+          "the identity provider's single sign-on URL (HTTP-Redirect binding), for source settings",
+        ),
+        sloUrl: nullableUrl(
+          "the identity provider's single logout URL (HTTP-Redirect binding), for source settings; null when it offers none",
+        ),
+        certFile: nullablePath(
+          "the identity provider's signing certificate (PEM), for source settings",
+        ),
+      })
+      .strict(),
+    nameIdFormat: z
+      .string()
+      .min(1)
+      .describe(
+        'the NameID format Cairn asks for, e.g. urn:oasis:names:tc:SAML:1.1:nameid-format:emailAddress',
+      ),
+    attributes: z
+      .object({
+        email: attributeName('the e-mail address'),
+        displayName: attributeName('the display name'),
+        role: attributeName("the person's Cairn role"),
+        practices: attributeName("the codes of the person's practices (one value per practice)"),
+      })
+      .strict(),
+    roleMapping: z
+      .object({
+        regional_lead: idpValues('regional lead'),
+        practice_lead: idpValues('practice lead'),
+        auditor: idpValues('auditor'),
+      })
+      .strict(),
+    trustIdpRoles: bool.describe(
+      "true or false: true provisions unknown people and takes role and practices from the identity provider at every sign-in; false lets in only people Cairn already knows, with Cairn's own role and practices",
+    ),
+    clockSkewSeconds: z
+      .number()
+      .int()
+      .min(0)
+      .max(600)
+      .describe(
+        'a whole number of seconds from 0 to 600: the clock difference tolerated on NotBefore/NotOnOrAfter',
+      ),
+    requestTtlMinutes: positiveInt(
+      'minutes a sign-in request may take before its answer is refused',
+    ),
+    throttle: z
+      .object({
+        limit: positiveInt('sign-in requests allowed per window from one address'),
+        windowSeconds: positiveInt('seconds'),
+      })
+      .strict(),
+  })
+  .strict();
+
 export const configSchema = z
   .object({
     profile: z
@@ -80,6 +188,7 @@ export const configSchema = z
         absoluteTimeoutHours: positiveInt('hours'),
       })
       .strict(),
+    auth: authSchema,
     devFakes: z
       .object({
         enabled: bool,

@@ -1,7 +1,7 @@
 /**
  * The local fakes Cairn needs in development and tests, in one process:
  *  - SMTP capture on devFakes.smtpPort, with the mailbox at /mailbox
- *  - (the SAML identity provider is mounted here too, under /idp)
+ *  - the SAML identity provider with Cairn's persona picker, under /idp (idp/fake-idp.ts)
  * Refuses to run in production or when devFakes.enabled is false.
  */
 import type { Server } from 'node:http';
@@ -10,6 +10,7 @@ import express, { type Express } from 'express';
 import type { SMTPServer } from 'smtp-server';
 import type { CairnConfig } from '../config/config.schema.js';
 import { findRepoRoot, resolvePath } from '../config/load-config.js';
+import { createFakeIdp, type FakeIdp } from './idp/fake-idp.js';
 import { mailboxRouter } from './mailbox-page.js';
 import { Mailbox, startSmtpCapture } from './smtp-capture.js';
 import { page } from './html.js';
@@ -18,6 +19,7 @@ export interface DevFakes {
   http: Server;
   smtp: SMTPServer;
   mailbox: Mailbox;
+  idp: FakeIdp;
   app: Express;
   close(): Promise<void>;
 }
@@ -37,15 +39,22 @@ export async function startDevFakes(config: CairnConfig): Promise<DevFakes> {
   assertDevFakesAllowed(config);
   const dataDir = resolvePath(findRepoRoot(), config.devFakes.dataDir);
   const mailbox = new Mailbox(join(dataDir, 'mailbox'));
+  const idp = await createFakeIdp(config, dataDir);
   const smtp = await startSmtpCapture(mailbox, config.devFakes.host, config.devFakes.smtpPort);
 
   const app = express();
   app.disable('x-powered-by');
   app.use('/mailbox', mailboxRouter(mailbox));
+  app.use('/idp', idp.router);
   app.get('/', (_req, res) => {
     res
       .type('html')
-      .send(page('Local fakes', '<ul><li><a href="/mailbox">Captured e-mail</a></li></ul>'));
+      .send(
+        page(
+          'Local fakes',
+          '<ul><li><a href="/mailbox">Captured e-mail</a></li><li><a href="/idp/metadata">SAML identity provider metadata</a> (sign in from Cairn to reach its persona picker)</li></ul>',
+        ),
+      );
   });
 
   const http = await new Promise<Server>((resolve, reject) => {
@@ -57,6 +66,7 @@ export async function startDevFakes(config: CairnConfig): Promise<DevFakes> {
     http,
     smtp,
     mailbox,
+    idp,
     app,
     close: async () => {
       await new Promise<void>((resolve) => http.close(() => resolve()));

@@ -3,10 +3,12 @@ import { ApiOperation, ApiTags } from '@nestjs/swagger';
 import { HealthCheckService } from '@nestjs/terminus';
 import { ProblemException } from '../common/problem.js';
 import { DatabaseHealthIndicator } from './database.health.js';
+import { Public } from '../auth/decorators.js';
 
 const startedAt = new Date();
 
 @ApiTags('health')
+@Public()
 @Controller('health')
 export class HealthController {
   constructor(

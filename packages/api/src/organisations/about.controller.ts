@@ -2,6 +2,7 @@ import { Controller, Get } from '@nestjs/common';
 import { ApiOkResponse, ApiOperation, ApiProperty, ApiTags } from '@nestjs/swagger';
 import { OrganisationsService } from './organisations.service.js';
 import { version } from '../version.js';
+import { Public } from '../auth/decorators.js';
 
 export class AboutDto {
   @ApiProperty({ example: 'Cairn' })
@@ -28,6 +29,7 @@ export const CLINICAL_CAUTION =
 
 /** Public facts for the signed-out landing page: no personal or practice-level data. */
 @ApiTags('about')
+@Public()
 @Controller('about')
 export class AboutController {
   constructor(private readonly organisations: OrganisationsService) {}
