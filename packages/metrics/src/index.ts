@@ -14,6 +14,7 @@ export * from './records/columns.js';
 export * from './measures/schema.js';
 export * from './measures/quarter.js';
 export * from './measures/compile.js';
+export type { HistogramLayout, HistogramPack } from './measures/layout.js';
 export * from './measures/localities.js';
 export * from './measures/result.js';
 export * from './measures/evaluate-records.js';
