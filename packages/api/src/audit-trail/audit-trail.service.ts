@@ -1,6 +1,12 @@
-import { Injectable } from '@nestjs/common';
+import { HttpStatus, Injectable } from '@nestjs/common';
 import { InjectModel } from '@nestjs/sequelize';
-import type { Transaction } from 'sequelize';
+import { Op, QueryTypes, type Transaction, type WhereOptions } from 'sequelize';
+import { ProblemException } from '../common/problem.js';
+import type {
+  AuditActionDto,
+  AuditEventPageDto,
+  ListAuditEventsQuery,
+} from './dto/audit-event.dto.js';
 import { AuditEvent, type AuditOutcome } from './models/audit-event.model.js';
 
 export interface AuditEntry {
@@ -43,4 +49,89 @@ export class AuditTrailService {
       { transaction },
     );
   }
+
+  /** One page of a region's audit trail (plus events tied to no region), newest first. */
+  async browse(regionId: number, query: ListAuditEventsQuery): Promise<AuditEventPageDto> {
+    const limit = query.limit ?? 100;
+    const and: WhereOptions[] = [{ [Op.or]: [{ regionId }, { regionId: null }] }];
+    if (query.action) {
+      and.push(
+        query.action.endsWith('.')
+          ? { action: { [Op.like]: `${query.action.replace(/_/g, '\\_')}%` } }
+          : { action: query.action },
+      );
+    }
+    if (query.outcome) and.push({ outcome: query.outcome });
+    if (query.practiceId) and.push({ practiceId: query.practiceId });
+    if (query.before) and.push({ id: { [Op.lt]: query.before } });
+    const from = query.from ? new Date(query.from) : null;
+    const to = query.to ? endOf(query.to) : null;
+    if (from && to && from > to) {
+      throw new ProblemException(
+        HttpStatus.BAD_REQUEST,
+        'validation',
+        'The request is not valid',
+        'from must not be after to.',
+        { errors: [{ field: 'from', message: 'must not be after to' }] },
+      );
+    }
+    if (from) and.push({ occurredAt: { [Op.gte]: from } });
+    if (to) and.push({ occurredAt: { [Op.lte]: to } });
+    if (query.search) {
+      const like = `%${query.search.replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
+      and.push({
+        [Op.or]: [{ actorLabel: { [Op.like]: like } }, { summary: { [Op.like]: like } }],
+      });
+    }
+    const rows = await this.events.findAll({
+      where: { [Op.and]: and },
+      order: [['id', 'DESC']],
+      limit: limit + 1,
+    });
+    const page = rows.slice(0, limit);
+    const practiceIds = [
+      ...new Set(page.map((e) => e.practiceId).filter((id): id is number => id !== null)),
+    ];
+    const practices = practiceIds.length
+      ? await this.events.sequelize!.query<{ id: number; code: string; name: string }>(
+          'SELECT id, code, name FROM practices WHERE id IN (?)',
+          { replacements: [practiceIds], type: QueryTypes.SELECT },
+        )
+      : [];
+    return {
+      events: page.map((e) => ({
+        id: Number(e.id),
+        occurredAt: new Date(e.occurredAt).toISOString(),
+        action: e.action,
+        outcome: e.outcome,
+        actorUserId: e.actorUserId,
+        actorLabel: e.actorLabel,
+        practice: practices.find((p) => Number(p.id) === e.practiceId) ?? null,
+        subjectType: e.subjectType,
+        subjectId: e.subjectId,
+        summary: e.summary,
+        detail:
+          typeof e.detail === 'string'
+            ? (JSON.parse(e.detail) as Record<string, unknown>)
+            : e.detail,
+        requestId: e.requestId,
+        ipAddress: e.ipAddress,
+      })),
+      nextBefore: rows.length > limit ? Number(page[page.length - 1]!.id) : null,
+    };
+  }
+
+  async actions(regionId: number): Promise<AuditActionDto[]> {
+    const rows = await this.events.sequelize!.query<{ action: string; count: number }>(
+      `SELECT action, COUNT(*) AS count FROM audit_events
+        WHERE region_id = ? OR region_id IS NULL GROUP BY action ORDER BY action`,
+      { replacements: [regionId], type: QueryTypes.SELECT },
+    );
+    return rows.map((r) => ({ action: r.action, count: Number(r.count) }));
+  }
+}
+
+/** A date alone ("2026-09-30") means up to the end of that day (UTC). */
+function endOf(value: string): Date {
+  return /^\d{4}-\d{2}-\d{2}$/.test(value) ? new Date(`${value}T23:59:59.999Z`) : new Date(value);
 }

@@ -38,7 +38,7 @@ import { section } from './config-section.js';
         const throttle = section(config, 'auth').throttle;
         return {
           throttlers: [
-            { name: 'sign-in', ttl: throttle.windowSeconds * 1000, limit: throttle.limit },
+            { name: 'default', ttl: throttle.windowSeconds * 1000, limit: throttle.limit },
           ],
           storage: new DatabaseThrottlerStorage(sequelize),
         };

@@ -23,6 +23,8 @@ export async function classifySamlError(
   const refuse = (code: ConstructorParameters<typeof SignInRefused>[0]) =>
     new SignInRefused(code, detail);
   if (!facts.readable) return refuse('not-saml');
+  // More than one assertion is a wrapping attempt, whatever else failed first.
+  if (facts.assertionCount > 1) return refuse('multiple-assertions');
   if (/InResponseTo is missing/.test(message)) return refuse('unsolicited');
   if (
     /InResponseTo is not valid|SubjectInResponseTo is not valid|InResponseTo does not match/.test(
@@ -37,7 +39,6 @@ export async function classifySamlError(
   if (/Invalid document signature/.test(message)) {
     return refuse(facts.responseSigned ? 'signature-invalid' : 'response-unsigned');
   }
-  if (/multiple assertions/.test(message)) return refuse('multiple-assertions');
   if (/^Invalid signature/.test(message)) {
     return refuse(facts.assertionSigned ? 'signature-invalid' : 'assertion-unsigned');
   }

@@ -71,14 +71,18 @@ export class SamlRequestCache implements CacheProvider {
   /** What became of a request id: for telling a replay from an unknown or late answer. */
   async state(key: string | null): Promise<RequestState> {
     if (!key || key.length > maxIdLength) return 'unknown';
-    const [row] = await this.sequelize.query<{ used: number; expired: number }>(
-      `SELECT (used_at IS NOT NULL) AS used, (created_at <= NOW(3) - INTERVAL ? MINUTE) AS expired
+    const [row] = await this.sequelize.query<{ used: number; claimed: number; expired: number }>(
+      `SELECT (used_at IS NOT NULL) AS used, (claimed_at IS NOT NULL) AS claimed,
+              (created_at <= NOW(3) - INTERVAL ? MINUTE) AS expired
          FROM saml_requests WHERE id = ?`,
       { replacements: [this.ttlMinutes, key], type: QueryTypes.SELECT },
     );
     if (!row) return 'unknown';
-    if (Number(row.used)) return 'used';
+    // A sign-in went through with it: any later answer is a replay.
+    if (Number(row.claimed)) return 'used';
+    // node-saml also marks a request used when an answer to it fails; lateness explains more.
     if (Number(row.expired)) return 'expired';
+    if (Number(row.used)) return 'used';
     return 'open';
   }
 }

@@ -1,0 +1,384 @@
+/**
+ * The regional lead's management of people: list and filter, add, rename,
+ * change role, assign and remove practices, deactivate and reactivate. Every
+ * change is one transaction with its audit event. A regional lead cannot
+ * deactivate themselves or change their own role, so a region always keeps
+ * the regional lead who is making changes.
+ */
+import { HttpStatus, Inject, Injectable } from '@nestjs/common';
+import { ConfigService } from '@nestjs/config';
+import { InjectModel } from '@nestjs/sequelize';
+import { Op, type Transaction, type WhereOptions } from 'sequelize';
+import type { Sequelize } from 'sequelize-typescript';
+import { AuditTrailService } from '../audit-trail/audit-trail.service.js';
+import type { AuthUser } from '../auth/auth-user.js';
+import { section } from '../auth/config-section.js';
+import { SessionService } from '../auth/session.service.js';
+import { ProblemException } from '../common/problem.js';
+import { Locality } from '../organisations/models/locality.model.js';
+import { Practice } from '../organisations/models/practice.model.js';
+import type {
+  CreateUserDto,
+  ListUsersQuery,
+  UpdateUserDto,
+  UserDto,
+  UserOptionsDto,
+} from './dto/user.dto.js';
+import { Membership } from './models/membership.model.js';
+import { User } from './models/user.model.js';
+import type { Role } from './roles.js';
+
+const roleLabel = (role: Role) =>
+  ({ regional_lead: 'regional lead', practice_lead: 'practice lead', auditor: 'auditor' })[role];
+
+export interface ChangeContext {
+  actor: AuthUser;
+  requestId: string | null;
+  ipAddress: string | null;
+}
+
+@Injectable()
+export class UsersService {
+  constructor(
+    @InjectModel(User) private readonly users: typeof User,
+    @InjectModel(Membership) private readonly memberships: typeof Membership,
+    @InjectModel(Practice) private readonly practices: typeof Practice,
+    @Inject(AuditTrailService) private readonly audit: AuditTrailService,
+    @Inject(SessionService) private readonly sessions: SessionService,
+    @Inject(ConfigService) private readonly config: ConfigService,
+  ) {}
+
+  private get sequelize(): Sequelize {
+    return this.users.sequelize as Sequelize;
+  }
+
+  get trustIdpRoles(): boolean {
+    return section(this.config, 'auth').trustIdpRoles;
+  }
+
+  async list(regionId: number, query: ListUsersQuery): Promise<UserDto[]> {
+    const where: WhereOptions = { regionId };
+    if (query.role) Object.assign(where, { role: query.role });
+    if (query.status) Object.assign(where, { status: query.status });
+    if (query.search) {
+      const like = `%${query.search.replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
+      Object.assign(where, {
+        [Op.or]: [{ displayName: { [Op.like]: like } }, { email: { [Op.like]: like } }],
+      });
+    }
+    if (query.practiceId) {
+      const ids = (
+        await this.memberships.findAll({
+          where: { practiceId: query.practiceId },
+          attributes: ['userId'],
+        })
+      ).map((m) => m.userId);
+      Object.assign(where, { id: ids });
+    }
+    const rows = await this.users.findAll({
+      where,
+      include: [{ model: Membership, include: [Practice] }],
+      order: [
+        ['displayName', 'ASC'],
+        ['id', 'ASC'],
+      ],
+    });
+    return rows.map(toDto);
+  }
+
+  async options(regionId: number): Promise<UserOptionsDto> {
+    const practices = await this.practices.findAll({
+      where: { regionId },
+      include: [Locality],
+      order: [['code', 'ASC']],
+    });
+    return {
+      practices: practices.map((p) => ({
+        id: p.id,
+        code: p.code,
+        name: p.name,
+        localityName: p.locality?.name ?? null,
+      })),
+      trustIdpRoles: this.trustIdpRoles,
+    };
+  }
+
+  async get(regionId: number, userId: number, transaction?: Transaction): Promise<UserDto> {
+    return toDto(await this.find(regionId, userId, transaction));
+  }
+
+  private async find(regionId: number, userId: number, transaction?: Transaction): Promise<User> {
+    const user = await this.users.findOne({
+      where: { id: userId, regionId },
+      include: [{ model: Membership, include: [Practice] }],
+      transaction,
+    });
+    if (!user) {
+      throw new ProblemException(
+        HttpStatus.NOT_FOUND,
+        'user-not-found',
+        'No such person',
+        `There is no person ${userId} in your region.`,
+      );
+    }
+    return user;
+  }
+
+  private async regionPractices(regionId: number, ids: number[], transaction: Transaction) {
+    const unique = [...new Set(ids)];
+    const found = await this.practices.findAll({ where: { id: unique, regionId }, transaction });
+    const missing = unique.filter((id) => !found.some((p) => p.id === id));
+    if (missing.length) {
+      throw new ProblemException(
+        HttpStatus.UNPROCESSABLE_ENTITY,
+        'unknown-practice',
+        'Unknown practice',
+        `No practice ${missing.join(', ')} in your region.`,
+        { errors: [{ field: 'practiceIds', message: `unknown practice ${missing.join(', ')}` }] },
+      );
+    }
+    return found;
+  }
+
+  private entry(
+    c: ChangeContext,
+    user: { id: number },
+    action: string,
+    summary: string,
+    extra = {},
+  ) {
+    return {
+      action,
+      summary,
+      actor: { id: c.actor.id, label: c.actor.email },
+      regionId: c.actor.regionId,
+      subjectType: 'user',
+      subjectId: user.id,
+      requestId: c.requestId,
+      ipAddress: c.ipAddress,
+      ...extra,
+    };
+  }
+
+  async create(dto: CreateUserDto, c: ChangeContext): Promise<UserDto> {
+    const practiceIds = dto.role === 'practice_lead' ? (dto.practiceIds ?? []) : [];
+    if (dto.role !== 'practice_lead' && dto.practiceIds?.length) {
+      throw new ProblemException(
+        HttpStatus.UNPROCESSABLE_ENTITY,
+        'practices-need-practice-lead',
+        'Only practice leads have practices',
+        `A ${roleLabel(dto.role)} reads every practice of the region; leave practices empty.`,
+        { errors: [{ field: 'practiceIds', message: 'only practice leads have practices' }] },
+      );
+    }
+    return this.sequelize.transaction(async (transaction) => {
+      const existing = await this.users.findOne({ where: { email: dto.email }, transaction });
+      if (existing) {
+        throw new ProblemException(
+          HttpStatus.CONFLICT,
+          'email-taken',
+          'Already known to Cairn',
+          `${dto.email} already belongs to ${existing.displayName}.`,
+          {
+            errors: [{ field: 'email', message: 'is already known to Cairn' }],
+            userId: existing.id,
+          },
+        );
+      }
+      const practices = await this.regionPractices(c.actor.regionId, practiceIds, transaction);
+      const user = await this.users.create(
+        {
+          regionId: c.actor.regionId,
+          email: dto.email,
+          displayName: dto.displayName,
+          role: dto.role,
+          status: 'active',
+        },
+        { transaction },
+      );
+      for (const practice of practices) {
+        await this.memberships.create(
+          { userId: user.id, practiceId: practice.id, role: 'practice_lead' },
+          { transaction },
+        );
+      }
+      await this.audit.append(
+        this.entry(
+          c,
+          user,
+          'user.created',
+          `${c.actor.displayName} added ${dto.displayName} (${dto.email}) as ${roleLabel(dto.role)}${
+            practices.length ? ` of ${practices.map((p) => p.code).join(', ')}` : ''
+          }`,
+          { detail: { role: dto.role, practiceCodes: practices.map((p) => p.code) } },
+        ),
+        transaction,
+      );
+      return this.get(c.actor.regionId, user.id, transaction);
+    });
+  }
+
+  private assertNotSelf(c: ChangeContext, userId: number, what: string) {
+    if (c.actor.id === userId) {
+      throw new ProblemException(
+        HttpStatus.CONFLICT,
+        'own-account',
+        'Not on your own account',
+        `You cannot ${what} yourself; ask another regional lead.`,
+      );
+    }
+  }
+
+  async update(userId: number, dto: UpdateUserDto, c: ChangeContext): Promise<UserDto> {
+    return this.sequelize.transaction(async (transaction) => {
+      const user = await this.find(c.actor.regionId, userId, transaction);
+      if (dto.displayName !== undefined && dto.displayName !== user.displayName) {
+        const from = user.displayName;
+        await user.update({ displayName: dto.displayName }, { transaction });
+        await this.audit.append(
+          this.entry(
+            c,
+            user,
+            'user.renamed',
+            `${c.actor.displayName} renamed ${from} to ${dto.displayName}`,
+            {
+              detail: { from, to: dto.displayName },
+            },
+          ),
+          transaction,
+        );
+      }
+      if (dto.role !== undefined && dto.role !== user.role) {
+        this.assertNotSelf(c, userId, 'change the role of');
+        const from = user.role;
+        const removed = from === 'practice_lead' ? (user.memberships ?? []) : [];
+        for (const membership of removed) await membership.destroy({ transaction });
+        await user.update({ role: dto.role }, { transaction });
+        await this.audit.append(
+          this.entry(
+            c,
+            user,
+            'user.role_changed',
+            `${c.actor.displayName} changed ${user.displayName}'s role from ${roleLabel(from)} to ${roleLabel(dto.role)}${
+              removed.length
+                ? `; their practices (${removed.map((m) => m.practice?.code).join(', ')}) were removed`
+                : ''
+            }`,
+            {
+              detail: { from, to: dto.role, removedPracticeIds: removed.map((m) => m.practiceId) },
+            },
+          ),
+          transaction,
+        );
+      }
+      return this.get(c.actor.regionId, userId, transaction);
+    });
+  }
+
+  async assignPractice(userId: number, practiceId: number, c: ChangeContext): Promise<UserDto> {
+    return this.sequelize.transaction(async (transaction) => {
+      const user = await this.find(c.actor.regionId, userId, transaction);
+      if (user.role !== 'practice_lead') {
+        throw new ProblemException(
+          HttpStatus.CONFLICT,
+          'not-a-practice-lead',
+          'Only practice leads have practices',
+          `${user.displayName} is ${roleLabel(user.role) === 'auditor' ? 'an' : 'a'} ${roleLabel(user.role)} and already reads every practice. Make them a practice lead first.`,
+        );
+      }
+      const [practice] = await this.regionPractices(c.actor.regionId, [practiceId], transaction);
+      if (!(user.memberships ?? []).some((m) => m.practiceId === practiceId)) {
+        await this.memberships.create(
+          { userId, practiceId, role: 'practice_lead' },
+          { transaction },
+        );
+        await this.audit.append(
+          this.entry(
+            c,
+            user,
+            'membership.added',
+            `${c.actor.displayName} made ${user.displayName} a lead of ${practice!.name} (${practice!.code})`,
+            { practiceId },
+          ),
+          transaction,
+        );
+      }
+      return this.get(c.actor.regionId, userId, transaction);
+    });
+  }
+
+  async removePractice(userId: number, practiceId: number, c: ChangeContext): Promise<UserDto> {
+    return this.sequelize.transaction(async (transaction) => {
+      const user = await this.find(c.actor.regionId, userId, transaction);
+      const membership = (user.memberships ?? []).find((m) => m.practiceId === practiceId);
+      if (!membership) {
+        throw new ProblemException(
+          HttpStatus.NOT_FOUND,
+          'membership-not-found',
+          'Not one of their practices',
+          `${user.displayName} does not lead practice ${practiceId}.`,
+        );
+      }
+      await membership.destroy({ transaction });
+      await this.audit.append(
+        this.entry(
+          c,
+          user,
+          'membership.removed',
+          `${c.actor.displayName} removed ${user.displayName} as a lead of ${membership.practice?.name} (${membership.practice?.code})`,
+          { practiceId },
+        ),
+        transaction,
+      );
+      return this.get(c.actor.regionId, userId, transaction);
+    });
+  }
+
+  async setStatus(
+    userId: number,
+    status: 'active' | 'deactivated',
+    c: ChangeContext,
+  ): Promise<UserDto> {
+    return this.sequelize.transaction(async (transaction) => {
+      const user = await this.find(c.actor.regionId, userId, transaction);
+      if (user.status === status) return toDto(user);
+      if (status === 'deactivated') {
+        this.assertNotSelf(c, userId, 'deactivate');
+      }
+      await user.update({ status }, { transaction });
+      const ended =
+        status === 'deactivated' ? await this.sessions.endAllFor(userId, transaction) : 0;
+      await this.audit.append(
+        this.entry(
+          c,
+          user,
+          status === 'deactivated' ? 'user.deactivated' : 'user.reactivated',
+          status === 'deactivated'
+            ? `${c.actor.displayName} deactivated ${user.displayName}${ended ? ` and ended ${ended} open session${ended === 1 ? '' : 's'}` : ''}`
+            : `${c.actor.displayName} reactivated ${user.displayName}`,
+          { detail: { endedSessions: ended } },
+        ),
+        transaction,
+      );
+      return this.get(c.actor.regionId, userId, transaction);
+    });
+  }
+}
+
+export function toDto(user: User): UserDto {
+  const practices = (user.memberships ?? [])
+    .map((m) => m.practice)
+    .filter((p): p is Practice => Boolean(p))
+    .map((p) => ({ id: p.id, code: p.code, name: p.name }))
+    .sort((a, b) => a.code.localeCompare(b.code));
+  return {
+    id: user.id,
+    email: user.email,
+    displayName: user.displayName,
+    role: user.role,
+    status: user.status,
+    practices,
+    lastSignInAt: user.lastSignInAt ? new Date(user.lastSignInAt).toISOString() : null,
+    createdAt: new Date(user.get('created_at') as Date).toISOString(),
+  };
+}
