@@ -46,6 +46,10 @@ export async function startDevFakes(config: CairnConfig): Promise<DevFakes> {
   app.disable('x-powered-by');
   app.use('/mailbox', mailboxRouter(mailbox));
   app.use('/idp', idp.router);
+  // Browsers ask every origin for an icon; answer without a 404 in the console.
+  app.get('/favicon.ico', (_req, res) => {
+    res.status(204).end();
+  });
   app.get('/', (_req, res) => {
     res
       .type('html')

@@ -1,4 +1,4 @@
-import { Card, H2, HTMLTable, NonIdealState } from '@blueprintjs/core';
+import { Callout, Card, H2, HTMLTable, Intent, NonIdealState } from '@blueprintjs/core';
 import { ClinicalCaution } from '../components/ClinicalCaution';
 import { Landing } from '../features/landing/routes/Landing';
 import { roleLabels, useMe } from '../features/session/api/me';
@@ -24,7 +24,16 @@ export function Home() {
       <p>
         You are signed in as <strong>{roleLabels[user.role]}</strong> for {user.regionName}.
       </p>
-      {user.role === 'practice_lead' ? (
+      {user.role === 'practice_lead' && user.practices.length === 0 ? (
+        <Callout intent={Intent.WARNING} icon="info-sign" title="No practice yet">
+          You are not assigned to a practice yet. Ask your regional lead to add your practice to
+          your account.
+        </Callout>
+      ) : null}
+      {user.role === 'auditor' ? (
+        <p>You can read every practice of the region; you cannot change anything.</p>
+      ) : null}
+      {user.role === 'practice_lead' && user.practices.length > 0 ? (
         <Card>
           <HTMLTable compact striped>
             <thead>

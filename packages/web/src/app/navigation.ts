@@ -15,7 +15,11 @@ const everyone: readonly Role[] = ['regional_lead', 'practice_lead', 'auditor'];
  * Navigation, by role. A feature adds its entry here when its screens exist;
  * the server decides what each role may read, this only decides what is shown.
  */
-export const navItems: NavItem[] = [{ label: 'Home', to: '/', icon: 'home', roles: everyone }];
+export const navItems: NavItem[] = [
+  { label: 'Home', to: '/', icon: 'home', roles: everyone },
+  { label: 'Users', to: '/users', icon: 'people', roles: ['regional_lead'] },
+  { label: 'Audit trail', to: '/audit-trail', icon: 'history', roles: ['regional_lead'] },
+];
 
 export function navigationFor(me: Me | null | undefined): NavItem[] {
   if (!me) return [];

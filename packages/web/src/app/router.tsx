@@ -15,6 +15,27 @@ export const routes: RouteObject[] = [
     errorElement: <RouteError />,
     children: [
       { index: true, element: <Home /> },
+      {
+        path: 'sign-in',
+        lazy: () =>
+          import('../features/sign-in/routes/SignIn').then((m) => ({ Component: m.SignIn })),
+      },
+      {
+        path: 'sign-out',
+        lazy: () =>
+          import('../features/sign-in/routes/SignOut').then((m) => ({ Component: m.SignOut })),
+      },
+      {
+        path: 'users',
+        lazy: () => import('../features/users/routes/Users').then((m) => ({ Component: m.Users })),
+      },
+      {
+        path: 'audit-trail',
+        lazy: () =>
+          import('../features/audit-trail/routes/AuditTrail').then((m) => ({
+            Component: m.AuditTrail,
+          })),
+      },
       { path: '*', element: <NotFound /> },
     ],
   },

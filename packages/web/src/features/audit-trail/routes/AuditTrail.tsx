@@ -1,0 +1,250 @@
+import {
+  Button,
+  H2,
+  HTMLSelect,
+  HTMLTable,
+  Icon,
+  InputGroup,
+  Intent,
+  NonIdealState,
+  Spinner,
+  Tag,
+} from '@blueprintjs/core';
+import { Fragment, useDeferredValue, useState } from 'react';
+import { useSearchParams } from 'react-router-dom';
+import { formatDateTime } from '../../../lib/format';
+import { RequireRole } from '../../session/components/RequireRole';
+import { ProblemCallout } from '../../users/components/problem';
+import {
+  type AuditEvent,
+  type AuditFilters,
+  type AuditOutcome,
+  useAuditActions,
+  useAuditEvents,
+} from '../api/audit-events';
+import './AuditTrail.css';
+
+/** `/audit-trail`: the regional lead browses what happened, who did it, and refused sign-ins. */
+export function AuditTrail() {
+  return (
+    <RequireRole roles={['regional_lead']}>
+      <AuditTrailScreen />
+    </RequireRole>
+  );
+}
+
+const groups = [
+  { value: 'auth.', label: 'All sign-in events' },
+  { value: 'user.', label: 'All changes to people' },
+  { value: 'membership.', label: 'All practice assignments' },
+];
+
+const outcomeTag: Record<
+  AuditOutcome,
+  { intent: Intent; icon: 'tick' | 'blocked-person' | 'error'; label: string }
+> = {
+  success: { intent: Intent.NONE, icon: 'tick', label: 'Done' },
+  refused: { intent: Intent.WARNING, icon: 'blocked-person', label: 'Refused' },
+  failed: { intent: Intent.DANGER, icon: 'error', label: 'Failed' },
+};
+
+function AuditTrailScreen() {
+  const [params, setParams] = useSearchParams();
+  const [search, setSearch] = useState(params.get('search') ?? '');
+  const deferredSearch = useDeferredValue(search);
+  const filters: AuditFilters = {
+    action: params.get('action') ?? '',
+    outcome: (params.get('outcome') ?? '') as AuditOutcome | '',
+    search: deferredSearch,
+    from: params.get('from') ?? '',
+    to: params.get('to') ?? '',
+  };
+  const events = useAuditEvents(filters);
+  const actions = useAuditActions();
+  const [expanded, setExpanded] = useState<number | null>(null);
+
+  const setFilter = (key: string, value: string) => {
+    const next = new URLSearchParams(params);
+    if (value) next.set(key, value);
+    else next.delete(key);
+    setParams(next, { replace: true });
+  };
+  const rows: AuditEvent[] = events.data?.pages.flatMap((p) => p.events) ?? [];
+
+  return (
+    <div className="cairn-audit">
+      <div className="cairn-page-head">
+        <div>
+          <H2>Audit trail</H2>
+          <p className="cairn-muted">
+            Every sign-in, refused sign-in and change to people and their practices, newest first.
+            Entries cannot be changed or deleted.
+          </p>
+        </div>
+      </div>
+      <div className="cairn-filters" role="search">
+        <HTMLSelect
+          aria-label="Action"
+          value={filters.action}
+          onChange={(e) => setFilter('action', e.currentTarget.value)}
+        >
+          <option value="">All actions</option>
+          <optgroup label="Groups">
+            {groups.map((g) => (
+              <option key={g.value} value={g.value}>
+                {g.label}
+              </option>
+            ))}
+          </optgroup>
+          <optgroup label="Actions">
+            {(actions.data ?? []).map((a) => (
+              <option key={a.action} value={a.action}>
+                {a.action} ({a.count})
+              </option>
+            ))}
+          </optgroup>
+        </HTMLSelect>
+        <HTMLSelect
+          aria-label="Outcome"
+          value={filters.outcome}
+          onChange={(e) => setFilter('outcome', e.currentTarget.value)}
+        >
+          <option value="">Any outcome</option>
+          <option value="success">Done</option>
+          <option value="refused">Refused</option>
+          <option value="failed">Failed</option>
+        </HTMLSelect>
+        <InputGroup
+          leftIcon="search"
+          placeholder="Who, or words in the summary"
+          aria-label="Search who or summary"
+          value={search}
+          onValueChange={(value) => {
+            setSearch(value);
+            setFilter('search', value.trim());
+          }}
+        />
+        <label className="cairn-date">
+          From{' '}
+          <input
+            className="bp6-input"
+            type="date"
+            value={filters.from}
+            onChange={(e) => setFilter('from', e.currentTarget.value)}
+          />
+        </label>
+        <label className="cairn-date">
+          To{' '}
+          <input
+            className="bp6-input"
+            type="date"
+            value={filters.to}
+            onChange={(e) => setFilter('to', e.currentTarget.value)}
+          />
+        </label>
+      </div>
+      <ProblemCallout error={events.error} />
+      {events.isPending ? (
+        <Spinner aria-label="Loading the audit trail" />
+      ) : rows.length === 0 ? (
+        <NonIdealState
+          icon="history"
+          title="No entries match"
+          description="Change or clear the filters."
+        />
+      ) : (
+        <HTMLTable compact striped className="cairn-audit-table">
+          <thead>
+            <tr>
+              <th>When</th>
+              <th>Outcome</th>
+              <th>Action</th>
+              <th>Who</th>
+              <th>What happened</th>
+              <th>Practice</th>
+              <th>
+                <span className="visually-hidden">Details</span>
+              </th>
+            </tr>
+          </thead>
+          <tbody>
+            {rows.map((event) => {
+              const tag = outcomeTag[event.outcome];
+              const open = expanded === event.id;
+              return (
+                <Fragment key={event.id}>
+                  <tr>
+                    <td className="cairn-nowrap">{formatDateTime(event.occurredAt)}</td>
+                    <td>
+                      <Tag minimal intent={tag.intent} icon={tag.icon}>
+                        {tag.label}
+                      </Tag>
+                    </td>
+                    <td>
+                      <code>{event.action}</code>
+                    </td>
+                    <td>{event.actorLabel}</td>
+                    <td>{event.summary}</td>
+                    <td>{event.practice?.code ?? ''}</td>
+                    <td>
+                      <Button
+                        size="small"
+                        variant="minimal"
+                        icon={open ? 'chevron-up' : 'chevron-down'}
+                        aria-expanded={open}
+                        aria-label={open ? 'Hide details' : 'Show details'}
+                        onClick={() => setExpanded(open ? null : event.id)}
+                      />
+                    </td>
+                  </tr>
+                  {open ? (
+                    <tr className="cairn-audit-detail">
+                      <td colSpan={7}>
+                        <dl>
+                          {event.detail?.reason ? (
+                            <>
+                              <dt>Reason</dt>
+                              <dd>
+                                <Icon icon="blocked-person" size={12} />{' '}
+                                {String(event.detail.reason)}
+                              </dd>
+                            </>
+                          ) : null}
+                          {event.subjectType ? (
+                            <>
+                              <dt>About</dt>
+                              <dd>
+                                {event.subjectType} {event.subjectId}
+                              </dd>
+                            </>
+                          ) : null}
+                          <dt>From</dt>
+                          <dd>{event.ipAddress ?? '—'}</dd>
+                          <dt>Request</dt>
+                          <dd>
+                            <code>{event.requestId ?? '—'}</code>
+                          </dd>
+                        </dl>
+                        {event.detail ? <pre>{JSON.stringify(event.detail, null, 2)}</pre> : null}
+                      </td>
+                    </tr>
+                  ) : null}
+                </Fragment>
+              );
+            })}
+          </tbody>
+        </HTMLTable>
+      )}
+      {events.hasNextPage ? (
+        <Button
+          className="cairn-more"
+          icon="history"
+          loading={events.isFetchingNextPage}
+          onClick={() => void events.fetchNextPage()}
+        >
+          Show older entries
+        </Button>
+      ) : null}
+    </div>
+  );
+}

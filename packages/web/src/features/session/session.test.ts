@@ -1,0 +1,51 @@
+import { afterEach, describe, expect, it, vi } from 'vitest';
+import { stubFetch } from '../../../test/render';
+import { navigationFor } from '../../app/navigation';
+import { apiFetch } from '../../lib/api-client';
+import { fetchSession, type Me } from './api/me';
+
+/** The (url, init) pairs fetch was called with. */
+const callsOf = (mock: { mock: { calls: unknown[][] } }) =>
+  mock.mock.calls as unknown as [RequestInfo, RequestInit | undefined][];
+
+const lead: Me = {
+  id: 1,
+  email: 'imogen.varley@ostrevale.example',
+  displayName: 'Imogen Varley',
+  role: 'regional_lead',
+  regionName: 'Ostrevale',
+  practices: [],
+};
+
+afterEach(() => vi.unstubAllGlobals());
+
+describe('session', () => {
+  it('sends the session’s CSRF token on state-changing requests only', async () => {
+    const fetchMock = stubFetch({
+      '/api/session': { body: { user: lead, csrfToken: 'token-123', localSignIn: true } },
+      '/api/x': { body: {} },
+    });
+    await fetchSession();
+    await apiFetch('/api/x', { method: 'POST', body: '{}' });
+    await apiFetch('/api/x');
+    const headers = callsOf(fetchMock).map((call) => new Headers(call[1]?.headers));
+    expect(headers[1]!.get('X-CSRF-Token')).toBe('token-123');
+    expect(headers[2]!.get('X-CSRF-Token')).toBeNull();
+  });
+
+  it('stops sending a token once signed out', async () => {
+    const fetchMock = stubFetch({
+      '/api/session': { body: { user: null, csrfToken: null } },
+      '/api/x': { body: {} },
+    });
+    await fetchSession();
+    await apiFetch('/api/x', { method: 'DELETE' });
+    expect(new Headers(callsOf(fetchMock)[1]![1]?.headers).get('X-CSRF-Token')).toBeNull();
+  });
+
+  it('shows Users and Audit trail to the regional lead only', () => {
+    expect(navigationFor(lead).map((i) => i.label)).toEqual(['Home', 'Users', 'Audit trail']);
+    expect(navigationFor({ ...lead, role: 'auditor' }).map((i) => i.label)).toEqual(['Home']);
+    expect(navigationFor({ ...lead, role: 'practice_lead' }).map((i) => i.label)).toEqual(['Home']);
+  });
+});

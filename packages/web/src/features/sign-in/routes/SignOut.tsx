@@ -1,0 +1,48 @@
+import { NonIdealState, Spinner } from '@blueprintjs/core';
+import { useQueryClient } from '@tanstack/react-query';
+import { useEffect, useRef, useState } from 'react';
+import { apiFetch, ApiError } from '../../../lib/api-client';
+import { fetchSession } from '../../session/api/me';
+
+/**
+ * `/sign-out`: ends the Cairn session (a CSRF-protected POST), then follows
+ * the API to the organisation's single logout, which returns to Cairn's
+ * signed-out page — or straight there when the organisation offers none.
+ */
+export function SignOut() {
+  const client = useQueryClient();
+  const started = useRef(false);
+  const [problem, setProblem] = useState<string | null>(null);
+
+  useEffect(() => {
+    if (started.current) return;
+    started.current = true;
+    void (async () => {
+      try {
+        const session = await fetchSession();
+        if (!session.user) {
+          window.location.assign('/sign-in?signedOut=1');
+          return;
+        }
+        const { redirectUrl } = await apiFetch<{ redirectUrl: string }>('/api/auth/sign-out', {
+          method: 'POST',
+        });
+        client.clear();
+        window.location.assign(redirectUrl);
+      } catch (error) {
+        setProblem(error instanceof ApiError ? error.message : 'Cairn could not be reached.');
+      }
+    })();
+  }, [client]);
+
+  if (problem) {
+    return (
+      <NonIdealState
+        icon="warning-sign"
+        title="Signing out did not finish"
+        description={`${problem} Reload this page to try again.`}
+      />
+    );
+  }
+  return <NonIdealState icon={<Spinner size={32} />} title="Signing you out…" />;
+}

@@ -1,0 +1,181 @@
+/**
+ * Signing in as each role in headless Chromium, through Cairn's sign-in page
+ * and the local identity provider's persona picker, against the built app
+ * run as real processes: each role sees its own navigation, and signs out
+ * through single logout. Also: refusals shown as Cairn pages, a second API
+ * process accepting the same session, and the regional lead's screens.
+ */
+import { type ChildProcess, spawn } from 'node:child_process';
+import { join } from 'node:path';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { type BrowserSession, openBrowser } from '../support/browser.ts';
+import { type CairnServer, freePort, startCairn } from '../support/cairn-server.ts';
+import { repoRoot } from '../support/paths.ts';
+
+const personas = [
+  {
+    name: 'Imogen Varley',
+    role: 'Regional lead',
+    nav: ['Home', 'Users', 'Audit trail'],
+    shot: 'sign-in-regional-lead',
+  },
+  { name: 'Tobias Renwick', role: 'Auditor', nav: ['Home'], shot: 'sign-in-auditor' },
+  {
+    name: 'Priya Calloway',
+    role: 'Practice lead',
+    nav: ['Home'],
+    shot: 'sign-in-practice-lead-one',
+    practices: ['Quarrybank Surgery'],
+  },
+  {
+    name: 'Daniel Oyelaran',
+    role: 'Practice lead',
+    nav: ['Home'],
+    shot: 'sign-in-practice-lead-two',
+    practices: ['Wrenfield Health Centre', 'Harnleigh Old Mill Practice'],
+  },
+];
+
+describe('sign-in in the browser', () => {
+  let server: CairnServer;
+  let browser: BrowserSession;
+
+  beforeAll(async () => {
+    server = await startCairn();
+    browser = await openBrowser();
+  });
+  afterAll(async () => {
+    await browser?.close();
+    await server?.stop();
+  });
+
+  async function signIn(name: string, { screenshots = false } = {}) {
+    const { page } = browser;
+    await browser.context.clearCookies();
+    await page.goto(server.baseUrl + '/', { waitUntil: 'networkidle' });
+    await page.locator('.cairn-navbar').getByRole('button', { name: 'Sign in' }).click();
+    await page.getByRole('heading', { name: 'Sign in to Cairn' }).waitFor();
+    if (screenshots) await browser.screenshot('sign-in-page');
+    await page.getByRole('button', { name: "Continue to your organisation's sign-in" }).click();
+    await page.getByRole('heading', { name: 'Local sign-in' }).waitFor();
+    if (screenshots) await browser.screenshot('sign-in-persona-picker');
+    await page.getByRole('button', { name: `Sign in as ${name}` }).click();
+  }
+
+  for (const persona of personas) {
+    it(`signs in as ${persona.name} (${persona.role}) and shows that role's navigation`, async () => {
+      const { page } = browser;
+      await signIn(persona.name, { screenshots: persona === personas[0] });
+      await page.getByRole('heading', { name: `Welcome, ${persona.name}` }).waitFor();
+      expect(new URL(page.url()).pathname).toBe('/');
+      const nav = await page
+        .getByRole('navigation', { name: 'Main' })
+        .getByRole('link')
+        .allTextContents();
+      expect(nav).toEqual(persona.nav);
+      expect(await page.locator('.cairn-user').textContent()).toContain(persona.role);
+      for (const practice of persona.practices ?? []) {
+        expect(await page.getByRole('cell', { name: practice }).count()).toBe(1);
+      }
+      await browser.screenshot(persona.shot);
+      expect(browser.errors).toEqual([]);
+    });
+  }
+
+  it('keeps a practice lead out of the regional lead’s screens', async () => {
+    const { page } = browser;
+    // Still signed in as the last persona (a practice lead).
+    await page.goto(server.baseUrl + '/users', { waitUntil: 'networkidle' });
+    await page.getByRole('heading', { name: 'Not available for your role' }).waitFor();
+    await browser.screenshot('sign-in-practice-lead-users-refused');
+  });
+
+  it('signs out through the identity provider and says so', async () => {
+    const { page } = browser;
+    await page.getByRole('button', { name: 'Sign out' }).click();
+    await page.getByText('You have signed out of Cairn').waitFor();
+    expect(new URL(page.url()).pathname).toBe('/sign-in');
+    await browser.screenshot('sign-in-signed-out');
+    await page.goto(server.baseUrl + '/', { waitUntil: 'networkidle' });
+    await page.getByRole('heading', { name: 'Cairn', level: 1 }).waitFor();
+    expect(browser.errors).toEqual([]);
+  });
+
+  it('shows Cairn’s refusal page to a deactivated person and to a stranger', async () => {
+    const { page } = browser;
+    await signIn('Hester Quill');
+    await page.getByText('Your Cairn account has been deactivated').waitFor();
+    expect(page.url()).toContain('/sign-in?refused=deactivated');
+    await browser.screenshot('sign-in-refused-deactivated');
+    await signIn('Sam Ashdown');
+    await page.getByText('Cairn does not know you yet').waitFor();
+    await browser.screenshot('sign-in-refused-unknown');
+    expect(await page.getByRole('navigation', { name: 'Main' }).getByRole('link').count()).toBe(0);
+  });
+
+  it('returns to the page asked for, and lets the regional lead manage people and read the audit trail', async () => {
+    const { page } = browser;
+    await browser.context.clearCookies();
+    await page.goto(server.baseUrl + '/users?role=practice_lead', { waitUntil: 'networkidle' });
+    await page.getByRole('heading', { name: 'Sign in to Cairn' }).waitFor();
+    await page.getByRole('button', { name: "Continue to your organisation's sign-in" }).click();
+    await page.getByRole('button', { name: 'Sign in as Imogen Varley' }).click();
+    await page.getByRole('heading', { name: 'Users' }).waitFor();
+    expect(new URL(page.url()).pathname + new URL(page.url()).search).toBe(
+      '/users?role=practice_lead',
+    );
+    await page.getByText('Priya Calloway').waitFor();
+    await browser.screenshot('users-list');
+    await page.getByRole('button', { name: 'Edit Priya Calloway' }).click();
+    await page.getByRole('heading', { name: 'Practices' }).waitFor();
+    await page
+      .getByLabel('Practice to add')
+      .selectOption({ label: 'OV104 · Fellgate Family Practice (Harnleigh Fold)' });
+    await page.getByRole('button', { name: 'Add', exact: true }).click();
+    await page.getByText('OV104 added.').waitFor();
+    await page.waitForTimeout(400); // the drawer's slide-in
+    await browser.screenshot('users-edit');
+    await page.getByRole('button', { name: 'Close' }).click();
+    await page.locator('.bp6-overlay-backdrop').waitFor({ state: 'detached' });
+    await page.getByRole('link', { name: 'Audit trail' }).click();
+    await page.getByRole('heading', { name: 'Audit trail' }).waitFor();
+    await page
+      .getByText('Imogen Varley made Priya Calloway a lead of Fellgate Family Practice (OV104)')
+      .waitFor();
+    await page.getByText('Sign-in refused: the person is not known to Cairn').waitFor();
+    await browser.screenshot('audit-trail');
+    expect(browser.errors).toEqual([]);
+  });
+
+  it('is signed in at a second API process sharing the database', async () => {
+    const { page } = browser;
+    const port = await freePort();
+    const second: ChildProcess = spawn(
+      process.execPath,
+      [join(repoRoot, 'packages', 'api', 'dist', 'main.js')],
+      {
+        env: { ...server.env, CAIRN_SERVER_PORT: String(port) },
+        cwd: repoRoot,
+        stdio: 'ignore',
+      },
+    );
+    try {
+      const url = `http://127.0.0.1:${port}`;
+      for (let i = 0; i < 100; i++) {
+        if (
+          await fetch(`${url}/api/health`).then(
+            (r) => r.ok,
+            () => false,
+          )
+        )
+          break;
+        await new Promise((r) => setTimeout(r, 200));
+      }
+      // Cookies are per host, not per port: the browser sends the same session to the second process.
+      await page.goto(url + '/', { waitUntil: 'networkidle' });
+      await page.getByRole('heading', { name: 'Welcome, Imogen Varley' }).waitFor();
+    } finally {
+      second.kill('SIGTERM');
+    }
+  });
+});
