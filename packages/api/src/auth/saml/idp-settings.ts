@@ -9,7 +9,7 @@
  * kept per process and refreshed, never sign-in state.
  */
 import { readFileSync } from 'node:fs';
-import { Inject, Injectable, Logger, type OnModuleInit } from '@nestjs/common';
+import { Inject, Injectable, Logger } from '@nestjs/common';
 import { ConfigService } from '@nestjs/config';
 import samlify from 'samlify';
 import type { CairnConfig } from '../../config/config.schema.js';
@@ -69,14 +69,16 @@ export function parseIdpMetadata(xml: string, where: string): IdpSettings {
 }
 
 @Injectable()
-export class IdpSettingsService implements OnModuleInit {
+export class IdpSettingsService {
   private readonly logger = new Logger('IdpSettings');
   private cached: { settings: IdpSettings; until: number } | null = null;
 
-  constructor(@Inject(ConfigService) private readonly configService: ConfigService) {}
+  constructor(@Inject(ConfigService) private readonly configService: ConfigService) {
+    this.assertUsable();
+  }
 
-  onModuleInit(): void {
-    // Fail at boot on settings that can never work; reachability is checked at sign-in.
+  /** Fails at boot (while the app is created) on settings that can never work; reachability is checked at sign-in. */
+  private assertUsable(): void {
     const idp = this.auth.idp;
     const production = process.env.NODE_ENV === 'production' || this.profile === 'production';
     const problem =
