@@ -6,6 +6,8 @@ import { CairnConfigModule } from './config/config.module.js';
 import { DatabaseModule } from './database/database.module.js';
 import { HealthModule } from './health/health.module.js';
 import { OrganisationsModule } from './organisations/organisations.module.js';
+import { QuartersModule } from './quarters/quarters.module.js';
+import { SubmissionsModule } from './submissions/submissions.module.js';
 import { UsersModule } from './users/users.module.js';
 
 export interface AppModuleOptions {
@@ -23,6 +25,8 @@ export const featureModules = [
   AuditTrailModule,
   AuthModule,
   HealthModule,
+  QuartersModule,
+  SubmissionsModule,
 ];
 
 @Module({})

@@ -210,6 +210,33 @@ export const configSchema = z
       .object({
         maxBytes: positiveInt('bytes'),
         maxRows: positiveInt('data rows'),
+        maxUncompressedBytes: positiveInt(
+          'bytes an XLSX workbook may expand to when opened; beyond it the file is refused',
+        ),
+        maxZipEntries: positiveInt('parts an XLSX workbook may have'),
+        workers: z
+          .number()
+          .int()
+          .min(0)
+          .max(16)
+          .describe(
+            'a whole number from 0 to 16: extracts one API process reads at once (0: none)',
+          ),
+        pollIntervalMs: positiveInt('milliseconds between looks for queued extracts'),
+        leaseSeconds: positiveInt(
+          'seconds a process holds an extract it reads without renewing; a crashed process is noticed after this',
+        ),
+      })
+      .strict(),
+    quarters: z
+      .object({
+        defaultMeasureSetId: z
+          .string()
+          .regex(/^[a-z0-9][a-z0-9.-]{0,63}$/)
+          .describe("a measure set id such as 'cairn-default-2026.1'"),
+        deadlineDaysAfterQuarterEnd: positiveInt(
+          'days after the end of a quarter that its submission deadline falls by default',
+        ),
       })
       .strict(),
     logging: z

@@ -1,0 +1,69 @@
+import { Controller, Get, Inject, Res } from '@nestjs/common';
+import { ConfigService } from '@nestjs/config';
+import { ApiOperation, ApiTags } from '@nestjs/swagger';
+import type { Response } from 'express';
+import { Public } from '../auth/index.js';
+import type { CairnConfig } from '../config/config.schema.js';
+import { COLUMNS, unitsOf } from './format/columns.js';
+import { allowedValues, requiredLabel } from './format/describe.js';
+import { ISSUE_CODES } from './format/issue-codes.js';
+import { buildCsvTemplate, buildXlsxTemplate } from './template/template.js';
+
+@ApiTags('extracts')
+@Controller('extracts')
+export class ExtractsController {
+  private xlsx: Promise<Buffer> | null = null;
+
+  constructor(@Inject(ConfigService) private readonly config: ConfigService<CairnConfig, true>) {}
+
+  @Get('template.xlsx')
+  @Public()
+  @ApiOperation({
+    summary:
+      'The extract template as XLSX: data sheet with drop-downs, data dictionary, instructions',
+  })
+  async templateXlsx(@Res() res: Response) {
+    this.xlsx ??= buildXlsxTemplate(this.config.get('extracts', { infer: true }).maxRows);
+    res.setHeader(
+      'Content-Type',
+      'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet',
+    );
+    res.setHeader('Content-Disposition', 'attachment; filename="cairn-extract-template.xlsx"');
+    res.send(await this.xlsx);
+  }
+
+  @Get('template.csv')
+  @Public()
+  @ApiOperation({ summary: 'The extract template as CSV (headings only, UTF-8)' })
+  templateCsv(@Res() res: Response) {
+    res.setHeader('Content-Type', 'text/csv; charset=utf-8');
+    res.setHeader('Content-Disposition', 'attachment; filename="cairn-extract-template.csv"');
+    res.send(buildCsvTemplate());
+  }
+
+  @Get('format')
+  @Public()
+  @ApiOperation({
+    summary:
+      "Cairn's extract format: every column, its allowed values and units, and every issue code",
+  })
+  format() {
+    const limits = this.config.get('extracts', { infer: true });
+    return {
+      limits: { maxBytes: limits.maxBytes, maxRows: limits.maxRows },
+      columns: COLUMNS.map((def) => ({
+        key: def.key,
+        group: def.group,
+        meaning: def.meaning,
+        allowed: allowedValues(def),
+        required: requiredLabel(def),
+        columnRequired: def.required,
+        valueRequired: def.valueRequired,
+        units: unitsOf(def).map((u) => u.code),
+        codes: def.codes?.map((c) => c.value) ?? null,
+        example: def.example,
+      })),
+      issueCodes: Object.entries(ISSUE_CODES).map(([code, def]) => ({ code, ...def })),
+    };
+  }
+}

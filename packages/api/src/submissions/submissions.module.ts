@@ -1,0 +1,19 @@
+import { Module } from '@nestjs/common';
+import { QuartersModule } from '../quarters/quarters.module.js';
+import { CoverageController } from './coverage.controller.js';
+import { ExtractProcessor } from './extract-processor.js';
+import { ExtractsController } from './extracts.controller.js';
+import { IntakeService } from './intake.service.js';
+import { JobRunner } from './job-runner.service.js';
+import { ReportService } from './report/report.service.js';
+import { SubmissionsController } from './submissions.controller.js';
+import { SubmissionsService } from './submissions.service.js';
+
+/** Extracts: template, upload, checking as a job, validation report, confirm/cancel/retry, coverage. */
+@Module({
+  imports: [QuartersModule],
+  controllers: [ExtractsController, SubmissionsController, CoverageController],
+  providers: [ExtractProcessor, JobRunner, IntakeService, SubmissionsService, ReportService],
+  exports: [IntakeService, SubmissionsService, JobRunner],
+})
+export class SubmissionsModule {}

@@ -1,0 +1,94 @@
+/**
+ * The extract path through the real HTTP stack: upload, processing as a job,
+ * the validation report, confirm and history.
+ */
+import { QueryTypes } from 'sequelize';
+import request from 'supertest';
+import { signInAs } from './support/auth.js';
+import { createTestApp, type TestApp } from './support/test-app.js';
+import {
+  arrange,
+  currentState,
+  upload,
+  uploadAndWait,
+  type ExtractsWorld,
+} from './extracts-fixtures/api.js';
+import { csvOf, goodRow, goodRows, xlsxOf } from './extracts-fixtures/rows.js';
+
+describe('extracts: upload, report, confirm', () => {
+  let t: TestApp;
+  let w: ExtractsWorld;
+
+  beforeAll(async () => {
+    t = await createTestApp();
+    w = await arrange(t);
+  });
+  afterAll(async () => {
+    await t?.close();
+  });
+
+  it('serves the templates publicly', async () => {
+    const xlsx = await request(t.http).get('/api/extracts/template.xlsx').buffer(true).expect(200);
+    expect(xlsx.headers['content-type']).toMatch(/spreadsheetml/);
+    const csv = await request(t.http).get('/api/extracts/template.csv').expect(200);
+    expect(csv.text.replace(/^\uFEFF/, '').split(',')[0]).toBe('record_ref');
+  });
+
+  it('checks a CSV extract as a job and confirms it', async () => {
+    const lead = await signInAs(t, 'practice_lead_one');
+    const practice = w.practice('OV102');
+    const quarter = w.quarter('2026 Q3');
+    const rows = goodRows(50);
+    rows.push(goodRow(51, { hba1c_value: 900 }));
+    const first = await upload(lead, practice, quarter, csvOf(rows), { name: 'q3.csv' });
+    expect(first.status).toBe(202);
+    expect(first.body.status).toBe('processing');
+    const done = await uploadAndWait(lead, practice, quarter, csvOf(goodRows(10, 100)), {
+      name: 'other.csv',
+    });
+    expect(done.status).toBe('awaiting_confirmation');
+    const report = await lead
+      .get(`/api/practices/${practice}/submissions/${first.body.id}`)
+      .expect(200);
+    expect(report.body.status).toBe('awaiting_confirmation');
+    expect(report.body.counts).toMatchObject({
+      rowsRead: 51,
+      rowsAccepted: 50,
+      rowsRejected: 1,
+      errors: 1,
+    });
+    const issues = await lead
+      .get(`/api/practices/${practice}/submissions/${first.body.id}/issues`)
+      .expect(200);
+    expect(issues.body.items[0]).toMatchObject({
+      row: 52,
+      code: 'out_of_range',
+      column: 'hba1c_value',
+      value: '900',
+    });
+    expect(await currentState(t, practice, quarter)).toMatchObject({ current: null, records: 0 });
+    const confirmed = await lead
+      .post(`/api/practices/${practice}/submissions/${first.body.id}/confirm`)
+      .expect(200);
+    expect(confirmed.body).toMatchObject({ status: 'accepted', isCurrent: true });
+    expect(await currentState(t, practice, quarter)).toMatchObject({
+      current: first.body.id,
+      records: 50,
+    });
+    const [audit] = await t.db.query<{ n: number }>(
+      "SELECT COUNT(*) AS n FROM audit_events WHERE subject_type = 'submission' AND subject_id = ?",
+      { replacements: [String(first.body.id)], type: QueryTypes.SELECT },
+    );
+    expect(Number(audit!.n)).toBe(3);
+  });
+
+  it('reads an XLSX extract', async () => {
+    const lead = await signInAs(t, 'practice_lead_one');
+    const practice = w.practice('OV102');
+    const quarter = w.quarter('2026 Q3');
+    const done = await uploadAndWait(lead, practice, quarter, await xlsxOf(goodRows(30, 500)), {
+      name: 'q3.xlsx',
+    });
+    expect(done).toMatchObject({ status: 'awaiting_confirmation', counts: { rowsAccepted: 30 } });
+  });
+});
