@@ -3,7 +3,6 @@ import {
   H2,
   HTMLSelect,
   HTMLTable,
-  Icon,
   InputGroup,
   Intent,
   NonIdealState,
@@ -205,8 +204,7 @@ function AuditTrailScreen() {
                             <>
                               <dt>Reason</dt>
                               <dd>
-                                <Icon icon="blocked-person" size={12} />{' '}
-                                {String(event.detail.reason)}
+                                <code>{String(event.detail.reason)}</code>
                               </dd>
                             </>
                           ) : null}
