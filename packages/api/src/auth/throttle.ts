@@ -16,8 +16,21 @@ import { ProblemException } from '../common/problem.js';
 
 type ThrottlerStorageRecord = Awaited<ReturnType<ThrottlerStorage['increment']>>;
 
+/** Every this many increments, windows that ended a day ago are deleted. */
+const SWEEP_EVERY = 500;
+
 export class DatabaseThrottlerStorage implements ThrottlerStorage {
+  private calls = 0;
+
   constructor(private readonly sequelize: Sequelize) {}
+
+  private async sweep(): Promise<void> {
+    await this.sequelize.query(
+      `DELETE FROM auth_throttle
+        WHERE window_ends_at < NOW(3) - INTERVAL 1 DAY AND (blocked_until IS NULL OR blocked_until < NOW(3))`,
+      { type: QueryTypes.DELETE },
+    );
+  }
 
   async increment(
     key: string,
@@ -27,6 +40,7 @@ export class DatabaseThrottlerStorage implements ThrottlerStorage {
     throttlerName: string,
   ): Promise<ThrottlerStorageRecord> {
     const bucket = `${throttlerName}:${key}`.slice(0, 190);
+    if (++this.calls % SWEEP_EVERY === 0) await this.sweep();
     await this.sequelize.query(
       `INSERT INTO auth_throttle (bucket, hits, window_ends_at, blocked_until)
          VALUES (?, 1, NOW(3) + INTERVAL (? * 1000) MICROSECOND, NULL)
