@@ -1,9 +1,11 @@
 /**
  * Writes the demo scenario into seed-data/out/ (git-ignored), deterministically:
  *   organisation.json  the invented region, localities, practices and users
+ *   extracts/          eight quarters of XLSX and CSV extracts and a manifest (extracts.ts)
  *
  * Run: npx tsx seed-data/generate.ts [outDir]
  */
+import { spawnSync } from 'node:child_process';
 import { mkdirSync, writeFileSync } from 'node:fs';
 import { dirname, join, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
@@ -23,8 +25,23 @@ export function generateOrganisation() {
   };
 }
 
+const here = dirname(fileURLToPath(import.meta.url));
+
 export function generate(outDir: string): void {
   mkdirSync(outDir, { recursive: true });
+  // The extracts are written by exceljs, which is asynchronous: run them as a child so that
+  // generate() stays synchronous for its callers. organisation.json is written last, as the
+  // stamp that says the output is complete.
+  const extracts = spawnSync(
+    process.execPath,
+    ['--import', 'tsx', join(here, 'extracts.ts'), outDir],
+    {
+      cwd: dirname(here),
+      stdio: ['ignore', 'inherit', 'inherit'],
+    },
+  );
+  if (extracts.status !== 0)
+    throw new Error(`writing the demo extracts failed (exit ${extracts.status})`);
   writeFileSync(
     join(outDir, 'organisation.json'),
     JSON.stringify(generateOrganisation(), null, 2) + '\n',

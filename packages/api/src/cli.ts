@@ -1,7 +1,10 @@
 /**
  * Operator commands, run by `npm start` / `npm test` and usable by hand:
  *   node packages/api/dist/cli.js migrate [--create]   apply pending migrations (--create: create the database first)
- *   node packages/api/dist/cli.js seed-demo <folder>   load the demo scenario into an empty database
+ *   node packages/api/dist/cli.js seed-demo <folder>   load the demo scenario into an empty database: the
+ *                                                      organisation, then every demo extract through the
+ *                                                      upload → check → confirm pipeline
+ *                                                      (CAIRN_SEED_DEMO_EXTRACTS=none: organisation only)
  *   node packages/api/dist/cli.js drop-test-database   drop the configured database (test profile only)
  */
 import 'reflect-metadata';
@@ -10,6 +13,7 @@ import { loadConfig, loadSecrets } from './config/load-config.js';
 import { connect, createDatabase, dropTestDatabase } from './database/connect.js';
 import { migrateUp } from './database/migrator.js';
 import { readDemoOrganisation, seedDemoOrganisation } from './organisations/demo-seed.js';
+import { ingestDemoExtracts } from './submissions/demo-ingest.js';
 
 const quietLogger = { info: () => {}, debug: () => {}, warn: console.warn, error: console.error };
 
@@ -45,6 +49,17 @@ async function main(): Promise<void> {
             ? `seeded the demo organisation ${org.region.name}`
             : 'the database already holds a region; demo organisation not seeded',
         );
+        if (seeded && process.env.CAIRN_SEED_DEMO_EXTRACTS !== 'none') {
+          const loaded = await ingestDemoExtracts(dir, config, secrets, (line) =>
+            console.log(line),
+          );
+          if (loaded) {
+            console.log(
+              `loaded ${loaded.extracts} demo extracts for ${loaded.quarters} audit quarters through the upload pipeline: ` +
+                `${loaded.records} records accepted, ${loaded.refusedRows} rows refused by validation (${loaded.seconds.toFixed(1)} s)`,
+            );
+          }
+        }
         break;
       }
       default:

@@ -45,7 +45,10 @@ export interface ExtractUpload {
 export function cleanFileName(name: string): string {
   // eslint-disable-next-line no-control-regex
   const control = /[\u0000-\u001f\u007f]/g;
-  const base = name.replace(/^.*[\\/]/, '').replace(control, '').trim();
+  const base = name
+    .replace(/^.*[\\/]/, '')
+    .replace(control, '')
+    .trim();
   return (base || 'extract').slice(0, 255);
 }
 
@@ -323,7 +326,7 @@ export class IntakeService {
         {
           code: 'identical_extract',
           submissionId: identical.id,
-          status: identical.status,
+          submissionStatus: identical.status,
           sha256,
         },
       );

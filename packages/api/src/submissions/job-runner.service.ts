@@ -61,7 +61,16 @@ export class JobRunner implements OnApplicationBootstrap, OnApplicationShutdown 
     this.stopping = true;
     if (this.timer) clearInterval(this.timer);
     const inFlight = [...this.running.values()];
-    await Promise.race([Promise.allSettled(inFlight), new Promise((r) => setTimeout(r, 10_000))]);
+    if (inFlight.length === 0) return;
+    let timer: NodeJS.Timeout | undefined;
+    await Promise.race([
+      Promise.allSettled(inFlight),
+      new Promise((resolve) => {
+        timer = setTimeout(resolve, 10_000);
+        timer.unref();
+      }),
+    ]);
+    clearTimeout(timer);
   }
 
   /** Look for work now (after an upload or a retry in this process). */

@@ -283,7 +283,7 @@ export class SubmissionsService {
               fresh?.status === 'accepted'
                 ? `Submission ${submissionId} is already confirmed and current.`
                 : `Submission ${submissionId} is ${String(fresh?.status).replace(/_/g, ' ')}; only a submission awaiting confirmation can be confirmed.`,
-              { status: fresh?.status },
+              { submissionStatus: fresh?.status },
             );
           }
           const previous = pointer?.current_submission_id ?? null;
@@ -376,7 +376,7 @@ export class SubmissionsService {
         fresh.status === 'accepted'
           ? `Submission ${submissionId} is confirmed and current. To replace it, upload a new extract and confirm that.`
           : `Submission ${submissionId} is ${fresh.status.replace(/_/g, ' ')}, so there is nothing to cancel.`,
-        { status: fresh.status },
+        { submissionStatus: fresh.status },
       );
     }
     await purgeSubmission(this.sequelize, submissionId);
@@ -418,7 +418,7 @@ export class SubmissionsService {
         row.status === 'failed'
           ? 'The file of this submission is no longer kept (the upload was interrupted, or it failed more than 7 days ago). Upload the file again.'
           : `Submission ${submissionId} is ${row.status.replace(/_/g, ' ')}; only a failed submission can be retried.`,
-        { status: row.status },
+        { submissionStatus: row.status },
       );
     }
     this.runner.kick();

@@ -82,9 +82,14 @@ export function sniff(buf: Buffer, fileName: string, maxEntries = 10_000): Sniff
     if (names.has('xl/workbook.bin')) return saveAs('an Excel binary workbook (.xlsb)');
     if (names.has('xl/workbook.xml')) {
       if (names.has('xl/vbaProject.bin') || ext === 'xlsm' || ext === 'xltm') {
-        return saveAs(
-          'a macro-enabled workbook (.xlsm); Cairn does not accept files that can carry macros',
-        );
+        return {
+          kind: 'refused',
+          refusal: refusal(
+            'save_as_xlsx',
+            'This is a macro-enabled workbook (.xlsm). Cairn does not accept files that can carry macros.',
+            'Open it in Excel, choose File › Save As, pick “Excel Workbook (.xlsx)” (which leaves the macros out) or “CSV UTF-8”, and upload that file.',
+          ),
+        };
       }
       return { kind: 'xlsx', entries };
     }
