@@ -19,7 +19,12 @@ const personas = [
     nav: ['Home', 'Users', 'Audit trail'],
     shot: 'sign-in-regional-lead',
   },
-  { name: 'Tobias Renwick', role: 'Auditor', nav: ['Home'], shot: 'sign-in-auditor' },
+  {
+    name: 'Tobias Renwick',
+    role: 'Auditor',
+    nav: ['Home', 'Audit trail'],
+    shot: 'sign-in-auditor',
+  },
   {
     name: 'Priya Calloway',
     role: 'Practice lead',

@@ -132,7 +132,7 @@ const handWritten: Record<string, Record<Caller, string>> = {
     'lead of practice': R,
     'lead of another': R,
     'regional lead': A,
-    auditor: R,
+    auditor: A,
     deactivated: U,
   },
   'POST /api/auth/saml/acs': {

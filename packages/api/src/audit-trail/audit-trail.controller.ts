@@ -1,4 +1,4 @@
-/** Browsing the audit trail (regional leads): read-only, newest first, filtered, paged. */
+/** Browsing the audit trail (regional leads, and auditors as governance reviewers): read-only, newest first, filtered, paged. */
 import { Controller, Get, Inject, Query } from '@nestjs/common';
 import { ApiOkResponse, ApiOperation, ApiTags } from '@nestjs/swagger';
 import type { AuthUser } from '../auth/auth-user.js';
@@ -8,7 +8,7 @@ import { AuditActionDto, AuditEventPageDto, ListAuditEventsQuery } from './dto/a
 
 @ApiTags('audit trail')
 @Controller('audit-events')
-@Roles('regional_lead')
+@Roles('regional_lead', 'auditor')
 export class AuditTrailController {
   constructor(@Inject(AuditTrailService) private readonly audit: AuditTrailService) {}
 

@@ -18,7 +18,12 @@ const everyone: readonly Role[] = ['regional_lead', 'practice_lead', 'auditor'];
 export const navItems: NavItem[] = [
   { label: 'Home', to: '/', icon: 'home', roles: everyone },
   { label: 'Users', to: '/users', icon: 'people', roles: ['regional_lead'] },
-  { label: 'Audit trail', to: '/audit-trail', icon: 'history', roles: ['regional_lead'] },
+  {
+    label: 'Audit trail',
+    to: '/audit-trail',
+    icon: 'history',
+    roles: ['regional_lead', 'auditor'],
+  },
 ];
 
 export function navigationFor(me: Me | null | undefined): NavItem[] {

@@ -26,7 +26,7 @@ import './AuditTrail.css';
 /** `/audit-trail`: the regional lead browses what happened, who did it, and refused sign-ins. */
 export function AuditTrail() {
   return (
-    <RequireRole roles={['regional_lead']}>
+    <RequireRole roles={['regional_lead', 'auditor']}>
       <AuditTrailScreen />
     </RequireRole>
   );
