@@ -43,9 +43,12 @@ describe('session', () => {
     expect(new Headers(callsOf(fetchMock)[1]![1]?.headers).get('X-CSRF-Token')).toBeNull();
   });
 
-  it('shows Users and Audit trail to the regional lead only', () => {
+  it('shows Users to the regional lead only, and Audit trail to the regional lead and auditor', () => {
     expect(navigationFor(lead).map((i) => i.label)).toEqual(['Home', 'Users', 'Audit trail']);
-    expect(navigationFor({ ...lead, role: 'auditor' }).map((i) => i.label)).toEqual(['Home']);
+    expect(navigationFor({ ...lead, role: 'auditor' }).map((i) => i.label)).toEqual([
+      'Home',
+      'Audit trail',
+    ]);
     expect(navigationFor({ ...lead, role: 'practice_lead' }).map((i) => i.label)).toEqual(['Home']);
   });
 });
