@@ -6,6 +6,10 @@
  *                                                      upload → check → confirm pipeline
  *                                                      (CAIRN_SEED_DEMO_EXTRACTS=none: organisation only)
  *   node packages/api/dist/cli.js drop-test-database   drop the configured database (test profile only)
+ *   node packages/api/dist/cli.js add-region --code NORTH --name "North Vale"
+ *   node packages/api/dist/cli.js add-user --region NORTH --email lead@example.org --name "A Lead" \
+ *        --role regional_lead|auditor|practice_lead [--practices P1,P2]
+ *                                                      a new deployment's first region and first users
  */
 import 'reflect-metadata';
 import { join, resolve } from 'node:path';
@@ -14,6 +18,7 @@ import { connect, createDatabase, dropTestDatabase } from './database/connect.js
 import { migrateUp } from './database/migrator.js';
 import { readDemoOrganisation, seedDemoOrganisation } from './organisations/demo-seed.js';
 import { ingestDemoExtracts } from './submissions/demo-ingest.js';
+import { addRegion, addUser, flags, OperatorError } from './users/operator-commands.js';
 
 const quietLogger = { info: () => {}, debug: () => {}, warn: console.warn, error: console.error };
 
@@ -62,8 +67,32 @@ async function main(): Promise<void> {
         }
         break;
       }
+      case 'add-region': {
+        const f = flags(args);
+        const id = await addRegion(sequelize, f.code ?? '', f.name ?? '');
+        console.log(`region ${f.code} created (id ${id})`);
+        break;
+      }
+      case 'add-user': {
+        const f = flags(args);
+        const id = await addUser(sequelize, {
+          region: f.region ?? '',
+          email: f.email ?? '',
+          name: f.name ?? '',
+          role: f.role ?? '',
+          practices: (f.practices ?? '')
+            .split(',')
+            .map((c) => c.trim())
+            .filter(Boolean),
+        });
+        console.log(`${f.email} added as ${f.role} (user id ${id}); they can now sign in`);
+        break;
+      }
       default:
-        console.error('usage: cli.js migrate [--create] | seed-demo <folder> | drop-test-database');
+        console.error(
+          'usage: cli.js migrate [--create] | seed-demo <folder> | drop-test-database | add-region --code C --name N | ' +
+            'add-user --region C --email E --name N --role R [--practices P1,P2]',
+        );
         process.exitCode = 2;
     }
   } finally {
@@ -72,6 +101,7 @@ async function main(): Promise<void> {
 }
 
 main().catch((error: unknown) => {
-  console.error((error as Error)?.name === 'ConfigError' ? (error as Error).message : error);
+  const plain = (error as Error)?.name === 'ConfigError' || error instanceof OperatorError;
+  console.error(plain ? (error as Error).message : error);
   process.exit(1);
 });
