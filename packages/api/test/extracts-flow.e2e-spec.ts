@@ -2,6 +2,7 @@
  * The extract path through the real HTTP stack: upload, processing as a job,
  * the validation report, confirm and history.
  */
+import { recordPseudonym } from '@cairn/metrics';
 import { QueryTypes } from 'sequelize';
 import request from 'supertest';
 import { signInAs } from './support/auth.js';
@@ -90,5 +91,29 @@ describe('extracts: upload, report, confirm', () => {
       name: 'q3.xlsx',
     });
     expect(done).toMatchObject({ status: 'awaiting_confirmation', counts: { rowsAccepted: 30 } });
+  });
+  it('stores the keyed pseudonym of methods.md §9, computed while loading, equal to @cairn/metrics', async () => {
+    const lead = await signInAs(t, 'practice_lead_one');
+    const practice = w.practice('OV102');
+    const quarter = w.quarter('2026 Q3');
+    const rows = goodRows(3, 900);
+    // Refs beyond ASCII and with separators: the HMAC is over UTF-8 bytes.
+    rows[1]!.record_ref = 'Ré-0042 ✓';
+    rows[2]!.record_ref = 'a,b;c';
+    const done = await uploadAndWait(lead, practice, quarter, csvOf(rows), { name: 'refs.csv' });
+    expect(done.status).toBe('awaiting_confirmation');
+    const stored = await t.db.query<{ record_ref: string; pseudonym: string; code: string }>(
+      `SELECT r.record_ref, r.pseudonym, p.code FROM care_records r
+         JOIN submissions s ON s.id = r.submission_id JOIN practices p ON p.id = s.practice_id
+        WHERE r.submission_id = ? ORDER BY r.source_row`,
+      { replacements: [done.id], type: QueryTypes.SELECT },
+    );
+    expect(stored.map((r) => r.record_ref)).toEqual(rows.map((r) => String(r.record_ref)));
+    for (const r of stored) {
+      expect(r.pseudonym).toBe(
+        recordPseudonym(t.secrets.CAIRN_PSEUDONYM_SECRET, r.code, r.record_ref),
+      );
+    }
+    expect(new Set(stored.map((r) => r.pseudonym)).size).toBe(3);
   });
 });

@@ -9,10 +9,11 @@
  * Staged rows are invisible to readers until confirm switches
  * practice_quarters.current_submission_id to their submission.
  */
+import { createHash } from 'node:crypto';
 import { PassThrough } from 'node:stream';
 import type { Sequelize } from 'sequelize';
 import { acquireRaw, type RawConnection, type RawResult, releaseRaw } from './raw-connection.js';
-import { RECORD_COLUMNS, type RecordRow } from './record-columns.js';
+import { COL, RECORD_COLUMNS, type RecordRow } from './record-columns.js';
 
 // eslint-disable-next-line no-control-regex
 const NEEDS_ESCAPE = /[\\\t\n\r\u0000]/;
@@ -28,12 +29,44 @@ export function tsvField(value: string | number | null): string {
   );
 }
 
+/** A staged record as one line of LOAD DATA text; the pseudonym column is left to MariaDB. */
 export function tsvLine(row: RecordRow): string {
   let line = tsvField(row[0]!);
-  for (let i = 1; i < row.length; i++) line += '\t' + tsvField(row[i] ?? null);
+  for (let i = 1; i < row.length; i++) {
+    if (i !== COL.pseudonym) line += '\t' + tsvField(row[i] ?? null);
+  }
   return line + '\n';
 }
 
+/**
+ * The HMAC-SHA256 key pads (RFC 2104) of the pseudonym secret. MariaDB computes each staged
+ * record's pseudonym from them while loading, as
+ *   SHA2((K ⊕ opad) ‖ SHA2((K ⊕ ipad) ‖ practice code ‖ U+001F ‖ record_ref)),
+ * first 12 hex characters: the same value as recordPseudonym in @cairn/metrics (methods.md §9),
+ * computed where there is spare CPU (a test checks that the two agree).
+ */
+export function hmacPads(secret: string): { ipad: string; opad: string } {
+  let key = Buffer.from(secret, 'utf8');
+  if (key.length > 64) key = createHash('sha256').update(key).digest();
+  const ipad = Buffer.alloc(64, 0x36);
+  const opad = Buffer.alloc(64, 0x5c);
+  for (let i = 0; i < key.length; i++) {
+    ipad[i] = key[i]! ^ 0x36;
+    opad[i] = key[i]! ^ 0x5c;
+  }
+  return { ipad: ipad.toString('hex'), opad: opad.toString('hex') };
+}
+
+const STAGED_COLUMNS = RECORD_COLUMNS.filter((c) => c !== 'pseudonym');
+
+/** Loads staged records, computing each pseudonym from the session's key pads. */
+export const LOAD_STAGED_SQL =
+  "LOAD DATA LOCAL INFILE 'cairn-records' INTO TABLE care_records CHARACTER SET utf8mb4 " +
+  "FIELDS TERMINATED BY '\\t' ESCAPED BY '\\\\' LINES TERMINATED BY '\\n' " +
+  `(${STAGED_COLUMNS.join(', ')}) ` +
+  'SET pseudonym = LEFT(SHA2(CONCAT(@cairn_opad, UNHEX(SHA2(CONCAT(@cairn_ipad, @cairn_practice, 0x1f, record_ref), 256))), 256), 12)';
+
+/** Loads complete rows as they are (every column given): the benchmark's reference. */
 export const LOAD_RECORDS_SQL =
   "LOAD DATA LOCAL INFILE 'cairn-records' INTO TABLE care_records CHARACTER SET utf8mb4 " +
   "FIELDS TERMINATED BY '\\t' ESCAPED BY '\\\\' LINES TERMINATED BY '\\n' " +
@@ -51,18 +84,26 @@ export class RecordLoader {
     private readonly stream: PassThrough,
   ) {}
 
-  static async open(sequelize: Sequelize): Promise<RecordLoader> {
+  static async open(
+    sequelize: Sequelize,
+    pseudonym: { practiceCode: string; secret: string },
+  ): Promise<RecordLoader> {
     const connection = await acquireRaw(sequelize);
     const stream = new PassThrough({ highWaterMark: 1 << 20 });
     const loader = new RecordLoader(sequelize, connection, stream);
     try {
+      const pads = hmacPads(pseudonym.secret);
+      await connection.query(
+        'SET @cairn_ipad = UNHEX(?), @cairn_opad = UNHEX(?), @cairn_practice = ?',
+        [pads.ipad, pads.opad, pseudonym.practiceCode],
+      );
       await connection.beginTransaction();
     } catch (error) {
       await releaseRaw(sequelize, connection);
       throw error;
     }
     loader.settled = connection
-      .query<RawResult>({ sql: LOAD_RECORDS_SQL, infileStreamFactory: () => stream })
+      .query<RawResult>({ sql: LOAD_STAGED_SQL, infileStreamFactory: () => stream })
       .catch((error: Error) => {
         loader.failure = error;
         stream.destroy();
@@ -134,6 +175,10 @@ export class RecordLoader {
   private async release(): Promise<void> {
     if (this.closed) return;
     this.closed = true;
+    // The key pads must not stay on a pooled connection.
+    await this.connection
+      .query('SET @cairn_ipad = NULL, @cairn_opad = NULL, @cairn_practice = NULL')
+      .catch(() => undefined);
     await releaseRaw(this.sequelize, this.connection);
   }
 }

@@ -70,7 +70,6 @@ export async function faultPause(step: 'processing' | 'confirm'): Promise<void> 
 @Injectable()
 export class ExtractProcessor {
   private readonly logger = new Logger('Extracts');
-  private readonly pseudonym: (practiceCode: string, recordRef: string) => string;
 
   constructor(
     @Inject(Sequelize) private readonly sequelize: Sequelize,
@@ -78,8 +77,10 @@ export class ExtractProcessor {
     @Inject(CAIRN_SECRETS) secrets: CairnSecrets,
     @Inject(AuditTrailService) private readonly audit: AuditTrailService,
   ) {
-    this.pseudonym = pseudonymiser(secrets.CAIRN_PSEUDONYM_SECRET);
+    this.secret = secrets.CAIRN_PSEUDONYM_SECRET;
   }
+
+  private readonly secret: string;
 
   async run(
     id: number,
@@ -115,7 +116,6 @@ export class ExtractProcessor {
       currentMonthIndex: now.getUTCFullYear() * 12 + now.getUTCMonth(),
       dateConvention: submission.date_convention,
       date1904: false,
-      pseudonym: this.pseudonym,
     };
 
     let loader: RecordLoader | null = null;
@@ -150,7 +150,10 @@ export class ExtractProcessor {
         },
         {
           records: async (rows) => {
-            loader ??= await RecordLoader.open(this.sequelize);
+            loader ??= await RecordLoader.open(this.sequelize, {
+              practiceCode: submission.practice_code,
+              secret: this.secret,
+            });
             await loader.write(rows);
           },
           issues: async (issues: Issue[]) => {

@@ -199,13 +199,15 @@ export class IntakeService {
       const data = Buffer.concat(pending, pendingBytes);
       pending = [];
       pendingBytes = 0;
-      await this.sequelize.query(
-        'INSERT INTO extract_file_chunks (submission_id, seq, data) VALUES (?, ?, ?)',
-        {
-          replacements: [id, seq++, data],
-          type: QueryTypes.INSERT,
-        },
-      );
+      for (let at = 0; at < data.length; at += CHUNK_BYTES) {
+        await this.sequelize.query(
+          'INSERT INTO extract_file_chunks (submission_id, seq, data) VALUES (?, ?, ?)',
+          {
+            replacements: [id, seq++, data.subarray(at, at + CHUNK_BYTES)],
+            type: QueryTypes.INSERT,
+          },
+        );
+      }
     };
     try {
       for await (const chunk of upload.chunks) {

@@ -121,33 +121,53 @@ export function openCsv(buf: Buffer): { source: CsvRowSource } | { refusal: Refu
 
   const Q = 34;
   const D = delimiter.charCodeAt(0);
-  const NL = newline === '\r' ? 13 : 10;
+  const NL = newline === '\r' ? '\r' : '\n';
+  const NLC = NL.charCodeAt(0);
   const boundaries: number[] = [0];
   let records = 0;
   let valued = 0;
   let inQuotes = false;
   let quoteOpenedAtRecord = 0;
-  let hasValue = false;
   const n = text.length;
-  for (let i = 0; i < n; i++) {
-    const ch = text.charCodeAt(i);
-    if (ch === Q) {
-      if (!inQuotes) quoteOpenedAtRecord = records;
-      inQuotes = !inQuotes;
-      continue;
+  let nextQuote = text.indexOf('"');
+  let pos = 0;
+  while (pos < n) {
+    if (nextQuote !== -1 && nextQuote < pos) nextQuote = text.indexOf('"', pos);
+    let end = text.indexOf(NL, pos);
+    if (end === -1) end = n;
+    let hasValue = false;
+    if (nextQuote !== -1 && nextQuote < end) {
+      // A record with quotes: walk it character by character (quoted fields may hold line breaks).
+      let i = pos;
+      for (; i < n; i++) {
+        const ch = text.charCodeAt(i);
+        if (ch === Q) {
+          if (!inQuotes) quoteOpenedAtRecord = records;
+          inQuotes = !inQuotes;
+          hasValue = true;
+        } else if (inQuotes) {
+          hasValue = true;
+        } else if (ch === NLC) {
+          break;
+        } else if (ch !== D && ch !== 32 && ch !== 13 && ch !== 9) {
+          hasValue = true;
+        }
+      }
+      if (inQuotes) break;
+      end = i;
+    } else {
+      for (let i = pos; i < end; i++) {
+        const ch = text.charCodeAt(i);
+        if (ch !== D && ch !== 32 && ch !== 13 && ch !== 9) {
+          hasValue = true;
+          break;
+        }
+      }
     }
-    if (inQuotes) {
-      hasValue = true;
-      continue;
-    }
-    if (ch === NL) {
-      records++;
-      if (hasValue) valued++;
-      hasValue = false;
-      if (records % SLICE === 0) boundaries.push(i + 1);
-    } else if (ch !== D && ch !== 32 && ch !== 13 && ch !== 9) {
-      hasValue = true;
-    }
+    records++;
+    if (hasValue) valued++;
+    if (records % SLICE === 0 && end + 1 < n) boundaries.push(end + 1);
+    pos = end + 1;
   }
   if (inQuotes) {
     return {
@@ -159,8 +179,6 @@ export function openCsv(buf: Buffer): { source: CsvRowSource } | { refusal: Refu
       ),
     };
   }
-  const lastEndsWithNewline = n > 0 && text.charCodeAt(n - 1) === NL;
-  if (!lastEndsWithNewline && n > 0 && hasValue) valued++;
   if (boundaries[boundaries.length - 1] !== n) boundaries.push(n);
   return {
     source: new CsvRowSource(text, delimiter, newline, boundaries, valued, {

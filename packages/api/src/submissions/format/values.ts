@@ -40,8 +40,13 @@ export type NumberRead =
 
 const NUMBER_WITH_UNIT = /^([-+]?(?:\d+(?:[.,]\d*)?|[.,]\d+))\s*([^\d\s].*)?$/;
 
+/** Digits with an optional decimal point: read directly (the common case). */
+const PLAIN_NUMBER = /^\d{1,9}(\.\d{1,9})?$/;
+
 /** A number, possibly written with a decimal comma or followed by a unit ("7.2 %"). */
 export function readNumber(cell: Cell): NumberRead {
+  if (typeof cell === 'string' && PLAIN_NUMBER.test(cell))
+    return { ok: true, value: Number(cell), unitText: null };
   if (typeof cell === 'number') {
     return Number.isFinite(cell)
       ? { ok: true, value: cell, unitText: null }
@@ -68,8 +73,11 @@ export function readNumber(cell: Cell): NumberRead {
 export type YearRead =
   { ok: true; year: number } | { ok: false; reason: 'not_a_year' | 'two_digit_year' | 'full_date' };
 
+const FOUR_DIGITS = /^\d{4}$/;
+
 /** A four-digit year. A full date (a Date cell or date text) is reported as such. */
 export function readYear(cell: Cell): YearRead {
+  if (typeof cell === 'string' && FOUR_DIGITS.test(cell)) return { ok: true, year: Number(cell) };
   if (cell instanceof Date) return { ok: false, reason: 'full_date' };
   if (typeof cell === 'number') {
     return Number.isInteger(cell) && cell >= 1000 && cell <= 9999
@@ -110,7 +118,18 @@ const NOT_RECORDED = new Set(['', 'unknown', 'notrecorded', 'notknown', 'na', 'n
 
 export type YesNoRead = { ok: true; value: YesNo } | { ok: false };
 
+const YES_NO_EXACT: Record<string, YesNoRead> = {
+  yes: { ok: true, value: true },
+  no: { ok: true, value: false },
+  Yes: { ok: true, value: true },
+  No: { ok: true, value: false },
+};
+
 export function readYesNo(cell: Cell): YesNoRead {
+  if (typeof cell === 'string') {
+    const exact = YES_NO_EXACT[cell];
+    if (exact) return exact;
+  }
   if (typeof cell === 'boolean') return { ok: true, value: cell };
   if (typeof cell === 'number') {
     if (cell === 1) return { ok: true, value: true };
@@ -172,7 +191,9 @@ const MONTHS: Record<string, number> = {
   december: 12,
 };
 
-const daysIn = (year: number, month: number) => new Date(Date.UTC(year, month, 0)).getUTCDate();
+const DAYS = [31, 28, 31, 30, 31, 30, 31, 31, 30, 31, 30, 31];
+const daysIn = (year: number, month: number) =>
+  month === 2 && ((year % 4 === 0 && year % 100 !== 0) || year % 400 === 0) ? 29 : DAYS[month - 1]!;
 
 function valid(year: number, month: number, day: number | null): DateRead {
   if (month < 1 || month > 12) return { ok: false, reason: 'impossible' };
@@ -231,6 +252,8 @@ export function readDate(cell: Cell, convention: DateConvention, date1904 = fals
     return month ? { ok: true, ...month } : { ok: false, reason: 'not_a_date' };
   }
   if (typeof cell !== 'string') return { ok: false, reason: 'not_a_date' };
+  const fast = isoDateFast(cell);
+  if (fast !== null) return fast;
   const text = cell.trim();
   let m: RegExpExecArray | null;
   if ((m = ISO.exec(text))) return valid(Number(m[1]), Number(m[2]), Number(m[3]));
@@ -282,6 +305,23 @@ export function readDate(cell: Cell, convention: DateConvention, date1904 = fals
     if (month) return { ok: true, ...month };
   }
   return { ok: false, reason: 'not_a_date' };
+}
+
+/** 'YYYY-MM-DD' read by character codes (the common case), or null to take the general path. */
+function isoDateFast(text: string): DateRead | null {
+  if (text.length !== 10 || text.charCodeAt(4) !== 45 || text.charCodeAt(7) !== 45) return null;
+  let year = 0;
+  for (let i = 0; i < 4; i++) {
+    const d = text.charCodeAt(i) - 48;
+    if (d < 0 || d > 9) return null;
+    year = year * 10 + d;
+  }
+  const m0 = text.charCodeAt(5) - 48;
+  const m1 = text.charCodeAt(6) - 48;
+  const d0 = text.charCodeAt(8) - 48;
+  const d1 = text.charCodeAt(9) - 48;
+  if (m0 < 0 || m0 > 9 || m1 < 0 || m1 > 9 || d0 < 0 || d0 > 9 || d1 < 0 || d1 > 9) return null;
+  return valid(year, m0 * 10 + m1, d0 * 10 + d1);
 }
 
 export const monthString = (year: number, month: number) => `${year}-${two(month)}`;

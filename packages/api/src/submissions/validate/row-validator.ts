@@ -11,6 +11,8 @@
 import { COL, RECORD_COLUMNS, type RecordRow } from '../../records/record-columns.js';
 import {
   CARE_PROCESSES,
+  COLUMN_BY_KEY,
+  COLUMNS,
   type ColumnDef,
   DIAGNOSTIC_THRESHOLDS,
   findUnit,
@@ -52,7 +54,6 @@ export interface ValidationContext {
   currentMonthIndex: number;
   dateConvention: DateConvention;
   date1904: boolean;
-  pseudonym: (practiceCode: string, recordRef: string) => string;
 }
 
 export type RowOutcome =
@@ -79,6 +80,26 @@ const PROCESS_TARGET: Record<string, { month: number; values: number[] }> = {
   retinal_screening: { month: COL.retinal_screening_month, values: [] },
 };
 
+const NO_CELLS: Cell[] = [];
+const PLAIN_NUMBER = /^\d{1,6}(\.\d{1,6})?$/;
+const digit = (text: string, i: number) => {
+  const d = text.charCodeAt(i) - 48;
+  return d >= 0 && d <= 9 ? d : -1000;
+};
+const digits4 = (text: string) => {
+  const n = digit(text, 0) * 1000 + digit(text, 1) * 100 + digit(text, 2) * 10 + digit(text, 3);
+  return n >= 0 ? n : -1;
+};
+const exactCodeCache = new Map<ColumnDef, Map<string, string>>();
+/** Codes as written in the template (the common case), looked up without normalising. */
+function exactCodes(def: ColumnDef): Map<string, string> {
+  let map = exactCodeCache.get(def);
+  if (!map) {
+    map = new Map((def.codes ?? []).map((c) => [c.value, c.value]));
+    exactCodeCache.set(def, map);
+  }
+  return map;
+}
 const fmt = (value: number) => String(Math.round(value * 100) / 100);
 const quote = (text: string) => `“${text.length > 60 ? `${text.slice(0, 57)}…` : text}”`;
 
@@ -91,44 +112,66 @@ export class RowValidator {
   private refsLikeNationalNumbers = 0;
   private firstNationalLike: { row: number; value: string } | null = null;
   formulaCells = 0;
+  /** Position of each Cairn column in the row, −1 when the file does not have it */
+  private readonly index: Record<string, number> = {};
+  private readonly processes: {
+    def: (typeof CARE_PROCESSES)[number];
+    dateIndex: number;
+    valueIndices: number[];
+  }[];
+  // The row being validated
+  private row = 0;
+  private issues: Issue[] = [];
+  private errorCount = 0;
 
   constructor(
     private readonly mapping: HeaderMapping,
     private readonly context: ValidationContext,
     private readonly submissionId: number,
-  ) {}
+  ) {
+    for (const def of COLUMNS) this.index[def.key] = mapping.byKey.get(def.key)?.index ?? -1;
+    this.processes = CARE_PROCESSES.map((def) => ({
+      def,
+      dateIndex: this.index[def.dateColumn]!,
+      valueIndices: def.valueColumns.map((k) => this.index[k]!),
+    }));
+  }
+
+  private readonly add = (
+    code: IssueCodeKey,
+    key: string | null,
+    cell: Cell | string | null,
+    message: string,
+    fix: string,
+  ): void => {
+    const heading = key === null ? null : (this.col(key)?.heading ?? key);
+    const value = cell === null ? null : typeof cell === 'string' ? cell : cellText(cell);
+    const issue = makeIssue(code, this.row, heading, value, message, fix);
+    issue.key = key;
+    if (issue.severity === 'error') this.errorCount++;
+    this.issues.push(issue);
+  };
 
   private col(key: string): MappedColumn | undefined {
     return this.mapping.byKey.get(key);
   }
 
   private cell(cells: readonly Cell[], key: string): Cell {
-    const mapped = this.mapping.byKey.get(key);
-    if (!mapped) return null;
-    const value = cells[mapped.index];
+    const i = this.index[key]!;
+    if (i < 0) return null;
+    const value = cells[i];
     return value === undefined ? null : value;
   }
 
   validate(row: number, cells: readonly Cell[]): RowOutcome {
-    const issues: Issue[] = [];
-    const errors = () => issues.some((i) => i.severity === 'error');
+    this.row = row;
+    this.issues = [];
+    this.errorCount = 0;
+    const issues = this.issues;
+    const add = this.add;
     const record: RecordRow = new Array<string | number | null>(RECORD_COLUMNS.length).fill(null);
     record[COL.submission_id] = this.submissionId;
     record[COL.source_row] = row;
-
-    const add = (
-      code: IssueCodeKey,
-      key: string | null,
-      cell: Cell | string | null,
-      message: string,
-      fix: string,
-    ) => {
-      const heading = key === null ? null : (this.col(key)?.heading ?? key);
-      const value = cell === null ? null : typeof cell === 'string' ? cell : cellText(cell);
-      const issue = makeIssue(code, row, heading, value, message, fix);
-      issue.key = key;
-      issues.push(issue);
-    };
 
     // Cells that hold no value at all: spreadsheet errors, formulas never calculated.
     for (const mapped of this.mapping.columns) {
@@ -153,7 +196,7 @@ export class RowValidator {
         }
       }
     }
-    if (errors()) return { kind: 'rejected', issues };
+    if (this.errorCount > 0) return { kind: 'rejected', issues };
 
     // ── record_ref ──
     const refCell = this.cell(cells, 'record_ref');
@@ -287,8 +330,8 @@ export class RowValidator {
     }
 
     // ── coded person fields ──
-    record[COL.sex] = this.code(cells, 'sex', add) ?? 'U';
-    const diabetesType = this.code(cells, 'diabetes_type', add);
+    record[COL.sex] = this.code(cells, 'sex') ?? 'U';
+    const diabetesType = this.code(cells, 'diabetes_type');
     record[COL.diabetes_type] = diabetesType;
     if (diabetesType === null && isBlank(this.cell(cells, 'diabetes_type'))) {
       add(
@@ -300,12 +343,12 @@ export class RowValidator {
       );
     }
     if (this.col('deprivation_quintile')) {
-      const q = this.code(cells, 'deprivation_quintile', add);
+      const q = this.code(cells, 'deprivation_quintile');
       record[COL.deprivation_quintile] = q === null ? null : Number(q);
     }
 
     // ── diagnosis_year ──
-    const diagnosisYear = this.year(cells, 'diagnosis_year', add);
+    const diagnosisYear = this.year(cells, 'diagnosis_year');
     if (diagnosisYear !== null) {
       if (birthYear !== null && diagnosisYear < birthYear) {
         add(
@@ -329,11 +372,17 @@ export class RowValidator {
     }
 
     // ── care processes ──
-    for (const process of CARE_PROCESSES) {
+    for (const { def: process, dateIndex, valueIndices } of this.processes) {
       const target = PROCESS_TARGET[process.key]!;
-      const dateCell = this.cell(cells, process.dateColumn);
-      const valueCells = process.valueColumns.map((key) => this.cell(cells, key));
-      const anyValue = valueCells.some((c) => !isBlank(c));
+      const dateCell = dateIndex < 0 ? null : (cells[dateIndex] ?? null);
+      let anyValue = false;
+      const valueCells: Cell[] = valueIndices.length === 0 ? NO_CELLS : [];
+      for (const vi of valueIndices) {
+        const c = vi < 0 ? null : (cells[vi] ?? null);
+        valueCells.push(c);
+        if (!isBlank(c)) anyValue = true;
+      }
+      if (isBlank(dateCell) && !anyValue) continue;
       if (isBlank(dateCell)) {
         if (anyValue) {
           add(
@@ -346,7 +395,7 @@ export class RowValidator {
         }
         continue;
       }
-      const month = this.month(dateCell, process.dateColumn, birthYear, add);
+      const month = this.month(dateCell, process.dateColumn, birthYear);
       const values: (number | string)[] = [];
       let valuesOk = true;
       for (let i = 0; i < process.valueColumns.length; i++) {
@@ -357,7 +406,7 @@ export class RowValidator {
           continue;
         }
         const value =
-          key === 'smoking_status' ? this.code(cells, key, add) : this.measurement(cells, key, add);
+          key === 'smoking_status' ? this.code(cells, key) : this.measurement(cells, key);
         if (value === null) valuesOk = false;
         else values.push(value);
       }
@@ -374,7 +423,7 @@ export class RowValidator {
       }
       if (!valuesOk) {
         const missing = process.valueColumns.filter((_, i) => isBlank(valueCells[i]!));
-        if (missing.length > 0 && !errors()) {
+        if (missing.length > 0 && this.errorCount === 0) {
           add(
             'date_without_value',
             missing[0]!,
@@ -403,11 +452,11 @@ export class RowValidator {
     }
 
     // ── treatment and history ──
-    record[COL.on_statin] = this.yesNo(cells, 'on_statin', add);
-    const onInsulin = this.yesNo(cells, 'on_insulin', add);
+    record[COL.on_statin] = this.yesNo(cells, 'on_statin');
+    const onInsulin = this.yesNo(cells, 'on_insulin');
     record[COL.on_insulin] = onInsulin;
-    record[COL.cvd_history] = this.yesNo(cells, 'cvd_history', add);
-    const insulinYear = this.year(cells, 'insulin_start_year', add);
+    record[COL.cvd_history] = this.yesNo(cells, 'cvd_history');
+    const insulinYear = this.year(cells, 'insulin_start_year');
     if (insulinYear !== null) {
       const floor = diagnosisYear ?? birthYear;
       if (floor !== null && insulinYear < floor) {
@@ -441,8 +490,7 @@ export class RowValidator {
     }
 
     // ── optional diagnostic test ──
-    if (this.col('diagnostic_test') || this.col('diagnostic_value'))
-      this.diagnostic(cells, record, add);
+    if (this.col('diagnostic_test') || this.col('diagnostic_value')) this.diagnostic(cells, record);
 
     // ── clinical data-quality flags (methods.md §7) ──
     if (diabetesType === 'type1' && onInsulin === 0) {
@@ -455,10 +503,9 @@ export class RowValidator {
       );
     }
 
-    if (errors()) return { kind: 'rejected', issues };
+    if (this.errorCount > 0) return { kind: 'rejected', issues };
     const acceptedRef = record[COL.record_ref] as string;
     this.refs.set(acceptedRef, row);
-    record[COL.pseudonym] = this.context.pseudonym(this.context.practiceCode, acceptedRef);
     return { kind: 'accepted', record, issues: issues.length > 0 ? issues : null };
   }
 
@@ -477,18 +524,23 @@ export class RowValidator {
 
   // ───────────────────────────── helpers ─────────────────────────────
 
-  private code(cells: readonly Cell[], key: string, add: AddIssue): string | null {
-    const mapped = this.col(key);
-    if (!mapped) return null;
-    const cell = cells[mapped.index] ?? null;
+  private code(cells: readonly Cell[], key: string): string | null {
+    const i = this.index[key]!;
+    if (i < 0) return null;
+    const cell = cells[i] ?? null;
+    if (cell === null) return null;
+    const def = COLUMN_BY_KEY.get(key)!;
+    if (typeof cell === 'string') {
+      const exact = exactCodes(def).get(cell);
+      if (exact !== undefined) return exact;
+    }
     if (isBlank(cell)) return null;
-    const def = mapped.def;
     const text = typeof cell === 'number' ? String(cell) : cellText(cell);
     const wanted = normaliseCode(text);
     for (const code of def.codes ?? []) {
       if (normaliseCode(code.value) === wanted || code.aliases.includes(wanted)) return code.value;
     }
-    add(
+    this.add(
       'invalid_code',
       key,
       cell,
@@ -498,11 +550,11 @@ export class RowValidator {
     return null;
   }
 
-  private yesNo(cells: readonly Cell[], key: string, add: AddIssue): number | null {
+  private yesNo(cells: readonly Cell[], key: string): number | null {
     const cell = this.cell(cells, key);
     const read = readYesNo(cell);
     if (!read.ok) {
-      add(
+      this.add(
         'invalid_yes_no',
         key,
         cell,
@@ -514,13 +566,13 @@ export class RowValidator {
     return read.value === null ? null : read.value ? 1 : 0;
   }
 
-  private year(cells: readonly Cell[], key: string, add: AddIssue): number | null {
+  private year(cells: readonly Cell[], key: string): number | null {
     const cell = this.cell(cells, key);
     if (isBlank(cell)) return null;
     const read = readYear(cell);
     if (read.ok) {
       if (read.year < 1900) {
-        add(
+        this.add(
           key === 'diagnosis_year' ? 'diagnosis_year_out_of_range' : 'invalid_year',
           key,
           cell,
@@ -534,7 +586,7 @@ export class RowValidator {
     if (read.reason === 'full_date') {
       const date = readDate(cell, this.context.dateConvention, this.context.date1904);
       if (date.ok) {
-        add(
+        this.add(
           'year_taken_from_date',
           key,
           cell,
@@ -545,7 +597,7 @@ export class RowValidator {
       }
     }
     if (read.reason === 'two_digit_year') {
-      add(
+      this.add(
         'two_digit_year',
         key,
         cell,
@@ -553,7 +605,7 @@ export class RowValidator {
         'Write the year in full, e.g. 2014.',
       );
     } else {
-      add(
+      this.add(
         'invalid_year',
         key,
         cell,
@@ -564,13 +616,35 @@ export class RowValidator {
     return null;
   }
 
-  private month(cell: Cell, key: string, birthYear: number | null, add: AddIssue): string | null {
+  private month(cell: Cell, key: string, birthYear: number | null): string | null {
+    // Fast path: an ISO date 'YYYY-MM-DD' inside the window (nearly every date of a clean file).
+    if (
+      typeof cell === 'string' &&
+      cell.length === 10 &&
+      cell.charCodeAt(4) === 45 &&
+      cell.charCodeAt(7) === 45
+    ) {
+      const year = digits4(cell);
+      const m = digit(cell, 5) * 10 + digit(cell, 6);
+      const d = digit(cell, 8) * 10 + digit(cell, 9);
+      if (year > 0 && m >= 1 && m <= 12 && d >= 1 && d <= 28) {
+        const index = year * 12 + m - 1;
+        if (
+          index <= this.context.windowEndIndex &&
+          index <= this.context.currentMonthIndex &&
+          (birthYear === null || year >= birthYear) &&
+          year >= 1900
+        ) {
+          return cell.slice(0, 7);
+        }
+      }
+    }
     const read = readDate(cell, this.context.dateConvention, this.context.date1904);
     const text = cellText(cell);
     if (!read.ok) {
       switch (read.reason) {
         case 'ambiguous':
-          add(
+          this.add(
             'ambiguous_date',
             key,
             cell,
@@ -579,7 +653,7 @@ export class RowValidator {
           );
           break;
         case 'contradicts_convention':
-          add(
+          this.add(
             'date_contradicts_convention',
             key,
             cell,
@@ -588,7 +662,7 @@ export class RowValidator {
           );
           break;
         case 'two_digit_year':
-          add(
+          this.add(
             'two_digit_year',
             key,
             cell,
@@ -597,7 +671,7 @@ export class RowValidator {
           );
           break;
         case 'year_only':
-          add(
+          this.add(
             'date_year_only',
             key,
             cell,
@@ -606,7 +680,7 @@ export class RowValidator {
           );
           break;
         default:
-          add(
+          this.add(
             'invalid_date',
             key,
             cell,
@@ -619,7 +693,7 @@ export class RowValidator {
     const index = read.year * 12 + read.month - 1;
     const month = monthString(read.year, read.month);
     if (index > this.context.currentMonthIndex) {
-      add(
+      this.add(
         'date_in_future',
         key,
         cell,
@@ -629,7 +703,7 @@ export class RowValidator {
       return null;
     }
     if (index > this.context.windowEndIndex) {
-      add(
+      this.add(
         'date_after_window',
         key,
         cell,
@@ -639,7 +713,7 @@ export class RowValidator {
       return null;
     }
     if (read.year < 1900 || (birthYear !== null && read.year < birthYear)) {
-      add(
+      this.add(
         'date_before_birth',
         key,
         cell,
@@ -652,14 +726,35 @@ export class RowValidator {
   }
 
   /** A measurement in the column's canonical unit, converting (with a warning) where a unit says so. */
-  private measurement(cells: readonly Cell[], key: string, add: AddIssue): number | null {
+  private measurement(cells: readonly Cell[], key: string): number | null {
     const mapped = this.col(key)!;
     const def = mapped.def;
     const cell = cells[mapped.index] ?? null;
+    // Fast path: a plain number in the canonical unit, no unit given anywhere, within range.
+    if (
+      mapped.headingUnit === null &&
+      (def.unitColumn === undefined || isBlank(this.cell(cells, def.unitColumn)))
+    ) {
+      const value =
+        typeof cell === 'number'
+          ? cell
+          : typeof cell === 'string' && PLAIN_NUMBER.test(cell)
+            ? +cell
+            : NaN;
+      if (
+        value === value &&
+        def.range &&
+        value >= def.range.min &&
+        value <= def.range.max &&
+        !(def.key === 'hba1c_value' && value <= 20)
+      ) {
+        return value;
+      }
+    }
     const read = readNumber(cell);
     if (!read.ok) {
       if (read.reason === 'ambiguous_separator') {
-        add(
+        this.add(
           'ambiguous_number',
           key,
           cell,
@@ -667,7 +762,7 @@ export class RowValidator {
           'Write the number without thousands separators, with a full stop for decimals (e.g. 1200 or 1.2).',
         );
       } else {
-        add(
+        this.add(
           'invalid_number',
           key,
           cell,
@@ -677,7 +772,7 @@ export class RowValidator {
       }
       return null;
     }
-    const resolved = this.unitFor(cells, def, mapped, read.unitText, read.value, add);
+    const resolved = this.unitFor(cells, def, mapped, read.unitText, read.value);
     if (resolved === null) return null;
     const { unit, assumed } = resolved;
     const canonical = def.units![0]!;
@@ -687,7 +782,7 @@ export class RowValidator {
         unit === canonical
           ? `${fmt(read.value)} ${canonical.code}`
           : `${fmt(read.value)} ${unit.code} (${fmt(value)} ${canonical.code})`;
-      add(
+      this.add(
         'out_of_range',
         key,
         cell,
@@ -699,7 +794,7 @@ export class RowValidator {
       return null;
     }
     if (assumed) {
-      add(
+      this.add(
         'hba1c_percent_assumed',
         key,
         cell,
@@ -707,7 +802,7 @@ export class RowValidator {
         'Say the unit in hba1c_unit (mmol/mol or %) so that Cairn does not have to guess.',
       );
     } else if (unit !== canonical) {
-      add(
+      this.add(
         'unit_converted',
         key,
         cell,
@@ -724,7 +819,6 @@ export class RowValidator {
     mapped: MappedColumn,
     inlineText: string | null,
     value: number,
-    add: AddIssue,
   ): { unit: UnitDef; assumed: boolean } | null {
     let fromColumn: UnitDef | null = null;
     if (def.unitColumn && this.col(def.unitColumn)) {
@@ -732,7 +826,7 @@ export class RowValidator {
       if (!isBlank(unitCell)) {
         fromColumn = findUnit(def, cellText(unitCell));
         if (!fromColumn) {
-          add(
+          this.add(
             'invalid_unit',
             def.unitColumn,
             unitCell,
@@ -747,7 +841,7 @@ export class RowValidator {
     if (inlineText !== null) {
       inline = findUnit(def, inlineText);
       if (!inline) {
-        add(
+        this.add(
           'invalid_unit',
           def.key,
           inlineText,
@@ -758,7 +852,7 @@ export class RowValidator {
       }
     }
     if (fromColumn && inline && fromColumn !== inline) {
-      add(
+      this.add(
         'unit_conflict',
         def.key,
         `${value} ${inline.code}`,
@@ -774,12 +868,12 @@ export class RowValidator {
     return { unit: def.units![0]!, assumed: false };
   }
 
-  private diagnostic(cells: readonly Cell[], record: RecordRow, add: AddIssue): void {
-    const test = this.code(cells, 'diagnostic_test', add);
+  private diagnostic(cells: readonly Cell[], record: RecordRow): void {
+    const test = this.code(cells, 'diagnostic_test');
     const valueCell = this.cell(cells, 'diagnostic_value');
     if (test === null) {
       if (!isBlank(valueCell)) {
-        add(
+        this.add(
           'diagnostic_value_dropped',
           'diagnostic_value',
           valueCell,
@@ -793,7 +887,7 @@ export class RowValidator {
     if (isBlank(valueCell)) return;
     const read = readNumber(valueCell);
     if (!read.ok) {
-      add(
+      this.add(
         'invalid_number',
         'diagnostic_value',
         valueCell,
@@ -816,7 +910,7 @@ export class RowValidator {
         ),
       );
       if (!found) {
-        add(
+        this.add(
           'invalid_unit',
           'diagnostic_unit',
           unitText,
@@ -833,7 +927,7 @@ export class RowValidator {
     record[COL.diagnostic_value] = value;
     const threshold = DIAGNOSTIC_THRESHOLDS[test]!;
     if (value < threshold.min) {
-      add(
+      this.add(
         'diagnostic_below_threshold',
         'diagnostic_value',
         valueCell,
@@ -843,11 +937,3 @@ export class RowValidator {
     }
   }
 }
-
-type AddIssue = (
-  code: IssueCodeKey,
-  key: string | null,
-  cell: Cell | string | null,
-  message: string,
-  fix: string,
-) => void;

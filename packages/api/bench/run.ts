@@ -1,0 +1,255 @@
+/**
+ * The extract ingest benchmark (`npm run bench -w @cairn/api`, or the root
+ * `npm run bench`). Everything in one run, against references measured in
+ * that same run on the same files and the same table:
+ *
+ *   1. a 100,000-row CSV end to end (stored upload → parse → validate →
+ *      stage into care_records → commit → report ready), against
+ *      LOAD DATA LOCAL INFILE of the same rows into the same table;
+ *   2. the same rows as XLSX end to end, against a bare exceljs streaming
+ *      read of that XLSX (same reader options, nothing done with the cells);
+ *   3. a 5,000-row practice file from upload to report over HTTP (≤ 2 s);
+ *   4. peak RSS of an API process ingesting a 200,000-row file (≤ 400 MB),
+ *      in a child process of its own (bench/rss-child.ts).
+ *
+ * Targets: CSV ≥ 0.5 × LOAD DATA rows/s; XLSX ≥ 0.8 × bare exceljs rows/s.
+ * Exit code 1 when a target is missed. `--quick`: 20,000 rows instead.
+ *
+ * The end-to-end ingest runs the production build (dist/), as the API does.
+ */
+import { spawnSync } from 'node:child_process';
+import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { dirname, join } from 'node:path';
+import { Readable } from 'node:stream';
+import { fileURLToPath } from 'node:url';
+import ExcelJS from 'exceljs';
+import { QueryTypes } from 'sequelize';
+import { writeCsv, writeXlsx } from '../src/submissions/template/extract-writer.js';
+import { benchApp, fromDist } from './app.js';
+import { benchRows, BENCH_HEADINGS } from './rows.js';
+
+const here = dirname(fileURLToPath(import.meta.url));
+const dist = join(here, '..', 'dist');
+const quick = process.argv.includes('--quick');
+const N = quick ? 20_000 : 100_000;
+const work = join(tmpdir(), 'cairn-bench');
+mkdirSync(work, { recursive: true });
+
+const fmt = (n: number) => new Intl.NumberFormat('en-GB', { maximumFractionDigits: 0 }).format(n);
+const seconds = (ms: number) => `${(ms / 1000).toFixed(2)} s`;
+
+async function prepareFiles() {
+  const csv = join(work, `bench-${N}.csv`);
+  const xlsx = join(work, `bench-${N}.xlsx`);
+  if (!existsSync(csv))
+    writeFileSync(csv, writeCsv({ headings: BENCH_HEADINGS, rows: benchRows(N) }));
+  if (!existsSync(xlsx))
+    await writeXlsx(
+      { headings: BENCH_HEADINGS, rows: benchRows(N) },
+      { filename: xlsx, sharedStrings: true },
+    );
+  return { csv, xlsx };
+}
+
+async function bareExceljsRead(file: string): Promise<{ rows: number; ms: number }> {
+  const t0 = performance.now();
+  const reader = new ExcelJS.stream.xlsx.WorkbookReader(Readable.from([readFileSync(file)]), {
+    sharedStrings: 'cache',
+    styles: 'cache',
+    hyperlinks: 'ignore',
+    worksheets: 'emit',
+    entries: 'ignore',
+  });
+  let rows = 0;
+  for await (const sheet of reader) for await (const _row of sheet) rows++;
+  return { rows: rows - 1, ms: performance.now() - t0 };
+}
+
+async function main(): Promise<void> {
+  if (!existsSync(join(dist, 'main.js')))
+    throw new Error('packages/api/dist is missing: npm run build -w @cairn/api');
+  console.log(
+    `Cairn extract ingest benchmark: ${fmt(N)} rows × ${BENCH_HEADINGS.length} columns${quick ? ' (quick)' : ''}`,
+  );
+  const files = await prepareFiles();
+  console.log(
+    `  files: CSV ${(readFileSync(files.csv).length / 1_048_576).toFixed(1)} MB, XLSX ${(readFileSync(files.xlsx).length / 1_048_576).toFixed(1)} MB`,
+  );
+
+  const t = await benchApp();
+  let failed = false;
+  const check = (label: string, ok: boolean) => {
+    console.log(`  ${ok ? 'met   ' : 'MISSED'} ${label}`);
+    if (!ok) failed = true;
+  };
+  try {
+    const practices = await t.db.query<{ id: number; code: string }>(
+      'SELECT id, code FROM practices',
+      { type: QueryTypes.SELECT },
+    );
+    const practiceId = (code: string) => practices.find((p) => p.code === code)!.id;
+    const practice = practiceId('OV105');
+    const [region] = await t.db.query<{ id: number }>('SELECT id FROM regions', {
+      type: QueryTypes.SELECT,
+    });
+    const system = { id: null, label: 'benchmark', role: 'system' as const, regionId: region!.id };
+    const quarters = await t.get('quarters/quarters.service.js', 'QuartersService');
+    const quarter = (await quarters.open(system, { year: 2026, quarter: 3 })).id as number;
+    const intake = await t.get('submissions/intake.service.js', 'IntakeService');
+    const runner = await t.get('submissions/job-runner.service.js', 'JobRunner');
+
+    const ingest = async (file: string) => {
+      const id = await intake.store(system, practice, quarter, null, {
+        fileName: file.split('/').pop()!,
+        chunks: Readable.from([readFileSync(file)]),
+        truncated: () => false,
+      });
+      // Timed from the moment the stored upload is queued to the report being ready.
+      const t0 = performance.now();
+      await runner.waitFor([id]);
+      const ms = performance.now() - t0;
+      const [row] = await t.db.query<{
+        status: string;
+        rows_accepted: number;
+        started: string;
+        processed: string;
+      }>('SELECT status, rows_accepted FROM submissions WHERE id = ?', {
+        replacements: [id],
+        type: QueryTypes.SELECT,
+      });
+      if (row?.status !== 'awaiting_confirmation' || row.rows_accepted !== N)
+        throw new Error(`ingest ended ${row?.status} with ${row?.rows_accepted} rows`);
+      return { id, ms };
+    };
+
+    // Reference 1: LOAD DATA LOCAL INFILE of the same rows into the same table.
+    const csvRun = await ingest(files.csv);
+    const { RECORD_COLUMNS } = await fromDist('records/record-columns.js');
+    const { LOAD_RECORDS_SQL } = await fromDist('records/record-loader.js');
+    const { acquireRaw, releaseRaw } = await fromDist('records/raw-connection.js');
+    const exported = await t.db.query<Record<string, unknown>>(
+      `SELECT ${(RECORD_COLUMNS as string[]).join(', ')} FROM care_records WHERE submission_id = ? ORDER BY source_row`,
+      {
+        replacements: [csvRun.id],
+        type: QueryTypes.SELECT,
+      },
+    );
+    const [ref] = await t.db.query(
+      `INSERT INTO submissions (practice_id, quarter_id, status, file_name, file_size_bytes, uploaded_by_label, uploaded_at)
+       VALUES (?, ?, 'rejected', 'reference', 0, 'benchmark', NOW(3))`,
+      { replacements: [practice, quarter], type: QueryTypes.INSERT },
+    );
+    const tsv =
+      exported
+        .map((r) =>
+          (RECORD_COLUMNS as string[])
+            .map((c) =>
+              c === 'submission_id' ? String(ref) : r[c] === null ? '\\N' : String(r[c]),
+            )
+            .join('\t'),
+        )
+        .join('\n') + '\n';
+    const raw = await acquireRaw(t.db);
+    const l0 = performance.now();
+    await raw.beginTransaction();
+    await raw.query({
+      sql: LOAD_RECORDS_SQL,
+      infileStreamFactory: () => Readable.from([Buffer.from(tsv)]),
+    });
+    await raw.commit();
+    const loadMs = performance.now() - l0;
+    await releaseRaw(t.db, raw);
+
+    const loadRate = (N / loadMs) * 1000;
+    const csvRate = (N / csvRun.ms) * 1000;
+    console.log('');
+    console.log(
+      `  LOAD DATA LOCAL INFILE (reference)  ${seconds(loadMs).padStart(8)}  ${fmt(loadRate).padStart(8)} rows/s`,
+    );
+    console.log(
+      `  CSV end to end                      ${seconds(csvRun.ms).padStart(8)}  ${fmt(csvRate).padStart(8)} rows/s   ratio ${(csvRate / loadRate).toFixed(2)} (target ≥ 0.50)`,
+    );
+
+    // Reference 2: a bare exceljs streaming read of the same XLSX.
+    const bare = await bareExceljsRead(files.xlsx);
+    const xlsxRun = await ingest(files.xlsx);
+    const bareRate = (bare.rows / bare.ms) * 1000;
+    const xlsxRate = (N / xlsxRun.ms) * 1000;
+    console.log(
+      `  bare exceljs streaming read (ref.)  ${seconds(bare.ms).padStart(8)}  ${fmt(bareRate).padStart(8)} rows/s`,
+    );
+    console.log(
+      `  XLSX end to end                     ${seconds(xlsxRun.ms).padStart(8)}  ${fmt(xlsxRate).padStart(8)} rows/s   ratio ${(xlsxRate / bareRate).toFixed(2)} (target ≥ 0.80)`,
+    );
+
+    // 3. A 5,000-row practice file, upload to report over HTTP as a practice lead.
+    const { signInAs } = await import('../test/support/auth.js');
+    const { upload, waitDone } = await import('../test/extracts-fixtures/api.js');
+    const lead = await signInAs(
+      t as unknown as Parameters<typeof signInAs>[0],
+      'practice_lead_one',
+    );
+    const small = practiceId('OV102');
+    const timings: Record<string, number> = {};
+    for (const kind of ['csv', 'xlsx'] as const) {
+      const rows = [...benchRows(5000)].map((r) =>
+        r.map((v, i) => (i === 0 ? `${kind}${String(v)}` : v)),
+      );
+      const buf =
+        kind === 'csv'
+          ? writeCsv({ headings: BENCH_HEADINGS, rows })
+          : (await writeXlsx({ headings: BENCH_HEADINGS, rows }, { sharedStrings: true }))!;
+      const u0 = performance.now();
+      const res = await upload(lead, small, quarter, buf, { name: `practice.${kind}` });
+      const done = await waitDone(lead, small, res.body.id);
+      await lead.get(`/api/practices/${small}/submissions/${res.body.id}/issues`).expect(200);
+      timings[kind] = performance.now() - u0;
+      if (done.counts?.rowsAccepted !== 5000)
+        throw new Error(`the 5,000-row ${kind} ended ${done.status}`);
+      await lead.post(`/api/practices/${small}/submissions/${res.body.id}/cancel`).expect(200);
+    }
+    console.log(
+      `  5,000-row practice file, upload to report: CSV ${seconds(timings.csv!)}, XLSX ${seconds(timings.xlsx!)} (target ≤ 2 s)`,
+    );
+
+    // 4. Peak RSS of an API process ingesting 200,000 rows.
+    const rss = spawnSync(
+      process.execPath,
+      ['--import', 'tsx/esm', join(here, 'rss-child.ts'), ...(quick ? ['--quick'] : [])],
+      {
+        cwd: join(here, '..'),
+        env: process.env,
+        encoding: 'utf8',
+        stdio: ['ignore', 'pipe', 'inherit'],
+      },
+    );
+    const line = rss.stdout.trim().split('\n').pop() ?? '';
+    const measured =
+      /peak RSS (\d+) MB ingesting (\d+) rows \((\w+), ([\d.]+) MB\) in ([\d.]+) s/.exec(line);
+    console.log(`  ${line || `the RSS child failed (exit ${rss.status})`}`);
+
+    console.log('');
+    check(
+      `CSV end to end ≥ 0.5 × LOAD DATA (${(csvRate / loadRate).toFixed(2)})`,
+      csvRate / loadRate >= 0.5,
+    );
+    check(
+      `XLSX end to end ≥ 0.8 × bare exceljs read (${(xlsxRate / bareRate).toFixed(2)})`,
+      xlsxRate / bareRate >= 0.8,
+    );
+    check(
+      `5,000-row file upload to report ≤ 2 s (CSV ${seconds(timings.csv!)}, XLSX ${seconds(timings.xlsx!)})`,
+      timings.csv! <= 2000 && timings.xlsx! <= 2000,
+    );
+    check(
+      `API peak RSS ≤ 400 MB ingesting ${measured?.[2] ?? '200000'} rows (${measured?.[1] ?? '?'} MB)`,
+      measured !== null && Number(measured[1]) <= 400,
+    );
+  } finally {
+    await t.close();
+  }
+  process.exitCode = failed ? 1 : 0;
+}
+
+await main();
