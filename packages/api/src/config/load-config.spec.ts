@@ -93,6 +93,59 @@ describe('configuration', () => {
     );
   });
 
+  it('refuses the test-only fault points in production, by name', () => {
+    for (const env of [
+      { NODE_ENV: 'production', CAIRN_TEST_PAUSE_CONFIRM_MS: '5000' },
+      { NODE_ENV: 'production', CAIRN_TEST_PAUSE_PROCESSING_MS: '0' },
+    ]) {
+      const problems = problemsOf(() => loadConfig({ root, profile: 'production', env }));
+      expect(problems).toEqual([
+        expect.stringMatching(
+          /^CAIRN_TEST_PAUSE_(CONFIRM|PROCESSING)_MS is a test-only fault point: it is refused unless the profile is test and NODE_ENV is not production \(here profile production, NODE_ENV production\)/,
+        ),
+      ]);
+    }
+    // NODE_ENV=production wins even if the test profile is asked for.
+    expect(
+      problemsOf(() =>
+        loadConfig({
+          root,
+          profile: 'test',
+          env: { NODE_ENV: 'production', CAIRN_TEST_PAUSE_CONFIRM_MS: '10' },
+        }),
+      )[0],
+    ).toMatch(/CAIRN_TEST_PAUSE_CONFIRM_MS is a test-only fault point/);
+    expect(
+      problemsOf(() =>
+        loadConfig({ root, profile: 'development', env: { CAIRN_TEST_PAUSE_CONFIRM_MS: '10' } }),
+      )[0],
+    ).toMatch(/here profile development, NODE_ENV unset/);
+  });
+
+  it('accepts a fault point under the test profile, and refuses a bad one', () => {
+    expect(
+      loadConfig({
+        root,
+        profile: 'test',
+        env: { NODE_ENV: 'test', CAIRN_TEST_PAUSE_CONFIRM_MS: '8000' },
+      }).profile,
+    ).toBe('test');
+    expect(
+      problemsOf(() =>
+        loadConfig({ root, profile: 'test', env: { CAIRN_TEST_PAUSE_CONFIRM_MS: 'soon' } }),
+      ),
+    ).toEqual([
+      'CAIRN_TEST_PAUSE_CONFIRM_MS = "soon": expected a whole number of milliseconds from 0 to 9999999',
+    ]);
+    expect(
+      problemsOf(() =>
+        loadConfig({ root, profile: 'test', env: { CAIRN_TEST_PAUSE_UPLOAD_MS: '10' } }),
+      ),
+    ).toEqual([
+      'CAIRN_TEST_PAUSE_UPLOAD_MS is not a known fault point: expected CAIRN_TEST_PAUSE_PROCESSING_MS or CAIRN_TEST_PAUSE_CONFIRM_MS',
+    ]);
+  });
+
   it('requires every secret, and says what form it takes', () => {
     const problems = problemsOf(() => loadSecrets({ CAIRN_DATABASE_PASSWORD: 'short' }));
     expect(problems).toEqual([

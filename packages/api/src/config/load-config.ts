@@ -148,6 +148,35 @@ export function profileFromEnv(env: NodeJS.ProcessEnv = process.env): CairnConfi
   return value;
 }
 
+/**
+ * Test-only fault points (CAIRN_TEST_PAUSE_<STEP>_MS: pause inside a step so
+ * that a test can kill the process there). They act only under the test
+ * profile; anywhere else, and whenever NODE_ENV is production, setting one
+ * is refused at start so that it can never slow or weaken a real deployment.
+ */
+export const FAULT_POINT_PATTERN = /^CAIRN_TEST_PAUSE_(PROCESSING|CONFIRM)_MS$/;
+
+function faultPointProblems(env: NodeJS.ProcessEnv, profile: CairnConfig['profile']): string[] {
+  const problems: string[] = [];
+  for (const [name, raw] of Object.entries(env)) {
+    if (!name.startsWith('CAIRN_TEST_PAUSE_') || raw === undefined) continue;
+    if (env.NODE_ENV === 'production' || profile !== 'test') {
+      problems.push(
+        `${name} is a test-only fault point: it is refused unless the profile is test and NODE_ENV is not production (here profile ${profile}, NODE_ENV ${env.NODE_ENV ?? 'unset'}); remove it from the environment`,
+      );
+    } else if (!FAULT_POINT_PATTERN.test(name)) {
+      problems.push(
+        `${name} is not a known fault point: expected CAIRN_TEST_PAUSE_PROCESSING_MS or CAIRN_TEST_PAUSE_CONFIRM_MS`,
+      );
+    } else if (!/^\d{1,7}$/.test(raw.trim())) {
+      problems.push(
+        `${name} = ${JSON.stringify(raw)}: expected a whole number of milliseconds from 0 to 9999999`,
+      );
+    }
+  }
+  return problems;
+}
+
 export interface LoadOptions {
   root?: string;
   profile?: CairnConfig['profile'];
@@ -177,6 +206,7 @@ export function loadConfig(options: LoadOptions = {}): CairnConfig {
     merge(merged, data, file.slice(root.length + 1), origins);
   }
   applyEnv(merged, env, origins);
+  problems.push(...faultPointProblems(env, profile));
   if (problems.length > 0) throw new ConfigError(problems);
 
   const result = configSchema.safeParse(merged);

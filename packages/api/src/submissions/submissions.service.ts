@@ -296,7 +296,6 @@ export class SubmissionsService {
               { currentSubmissionId: previous },
             );
           }
-          await faultPause('confirm');
           if (previous !== null) {
             await execute(
               this.sequelize,
@@ -330,6 +329,9 @@ export class SubmissionsService {
             },
             transaction,
           );
+          // Test-only (CAIRN_TEST_PAUSE_CONFIRM_MS, refused outside the test profile): every
+          // write of the switch is done but not committed, so a test can kill the process here.
+          await faultPause('confirm');
         });
         break;
       } catch (error) {

@@ -1,0 +1,112 @@
+/**
+ * The built API (packages/api/dist/main.js) as a real OS process against a
+ * test file's database, on a free port, so that a test can SIGKILL it and
+ * start another. Configuration through CAIRN_* environment variables, as a
+ * deployment would set it.
+ *
+ *   const api = await startApiProcess(t, { CAIRN_EXTRACTS_LEASE_SECONDS: '2' });
+ *   const lead = onProcess(await signInAs(t, 'regional_lead'), api);  // same session
+ *   await api.kill();                                                 // SIGKILL
+ */
+import { type ChildProcess, spawn } from 'node:child_process';
+import { existsSync } from 'node:fs';
+import { join } from 'node:path';
+import request from 'supertest';
+import type TestAgent from 'supertest/lib/agent.js';
+import { findRepoRoot } from '../../src/config/load-config.js';
+import type { SignedInAgent } from './auth.js';
+import { freePort } from './ports.js';
+import type { TestApp } from './test-app.js';
+
+export interface ApiProcess {
+  baseUrl: string;
+  pid: number;
+  /** Everything the process printed so far */
+  output(): string;
+  /** SIGKILL: no shutdown hooks, no goodbye to MariaDB; resolves once the process is gone */
+  kill(): Promise<void>;
+  /** SIGTERM and wait (the normal shutdown) */
+  stop(): Promise<void>;
+}
+
+const root = findRepoRoot();
+const mainJs = join(root, 'packages', 'api', 'dist', 'main.js');
+
+function exited(child: ChildProcess): Promise<void> {
+  return new Promise((resolve) => {
+    if (child.exitCode !== null || child.signalCode !== null) return resolve();
+    child.once('exit', () => resolve());
+  });
+}
+
+export async function startApiProcess(
+  t: TestApp,
+  env: Record<string, string> = {},
+): Promise<ApiProcess> {
+  if (!existsSync(mainJs))
+    throw new Error(`${mainJs} is missing: run \`npm run build -w @cairn/api\` first`);
+  const port = await freePort();
+  const childEnv: NodeJS.ProcessEnv = {
+    ...process.env,
+    CAIRN_PROFILE: 'test',
+    NODE_ENV: 'test',
+    CAIRN_ROOT: root,
+    CAIRN_DATABASE_NAME: t.databaseName,
+    CAIRN_SERVER_PORT: String(port),
+    CAIRN_SERVER_SERVE_WEB: 'false',
+    CAIRN_LOGGING_LEVEL: 'warn',
+    CAIRN_LOGGING_REQUESTS: 'false',
+    ...env,
+  };
+  // jest's own flags are not for the API process.
+  delete childEnv.NODE_OPTIONS;
+  const child = spawn(process.execPath, ['--enable-source-maps', mainJs], {
+    env: childEnv,
+    cwd: root,
+    stdio: ['ignore', 'pipe', 'pipe'],
+  });
+  let output = '';
+  child.stdout!.on('data', (d: Buffer) => (output += d.toString()));
+  child.stderr!.on('data', (d: Buffer) => (output += d.toString()));
+  const baseUrl = `http://127.0.0.1:${port}`;
+  const deadline = Date.now() + 30_000;
+  for (;;) {
+    if (child.exitCode !== null)
+      throw new Error(
+        `the API process exited (${child.exitCode}) before it was healthy:\n${output}`,
+      );
+    try {
+      if ((await fetch(`${baseUrl}/api/health`)).ok) break;
+    } catch {
+      // not listening yet
+    }
+    if (Date.now() > deadline) {
+      child.kill('SIGKILL');
+      throw new Error(`the API process was not healthy within 30 s:\n${output}`);
+    }
+    await new Promise((r) => setTimeout(r, 100));
+  }
+  return {
+    baseUrl,
+    pid: child.pid!,
+    output: () => output,
+    kill: async () => {
+      child.kill('SIGKILL');
+      await exited(child);
+    },
+    stop: async () => {
+      child.kill('SIGTERM');
+      const timer = setTimeout(() => child.kill('SIGKILL'), 15_000);
+      await exited(child);
+      clearTimeout(timer);
+    },
+  };
+}
+
+/** An agent for `api` carrying the session of `signedIn` (sessions live in MariaDB). */
+export function onProcess(signedIn: SignedInAgent, api: ApiProcess): TestAgent {
+  const agent = request.agent(api.baseUrl);
+  (agent as unknown as { jar: unknown }).jar = (signedIn as unknown as { jar: unknown }).jar;
+  agent.set('X-CSRF-Token', signedIn.csrfToken);
+  return agent;
+}
