@@ -3,8 +3,10 @@
  * three decisions a practice lead takes — confirm, cancel, retry.
  *
  * Confirm is one short transaction: lock the practice-quarter pointer, check
- * the submission still awaits confirmation, mark the previous current one
- * superseded, switch the pointer, append the audit event. The records were
+ * the submission still awaits confirmation and that the pointer is still what
+ * the request read (two confirms at once: the second is refused with 409
+ * current-submission-changed), mark the previous current one superseded,
+ * switch the pointer, append the audit event. The records were
  * staged while the extract was read, so readers (who always go through the
  * pointer) see the old set or the new set, never a mix.
  */
@@ -246,6 +248,8 @@ export class SubmissionsService {
   async confirm(user: Actor, practiceId: number, submissionId: number): Promise<SubmissionRow> {
     const row = await this.row(practiceId, submissionId);
     this.assertWriter(user, row);
+    /** What was current when this request read the practice-quarter */
+    const expected = row.current_submission_id ?? null;
     // The pointer row exists before the transaction, so the lock below is a plain row lock.
     await this.sequelize.query(
       'INSERT IGNORE INTO practice_quarters (practice_id, quarter_id) VALUES (?, ?)',
@@ -287,6 +291,17 @@ export class SubmissionsService {
             );
           }
           const previous = pointer?.current_submission_id ?? null;
+          // Someone else switched this practice-quarter after this request read it (two confirms
+          // at once): refuse rather than silently replace what they just made current.
+          if (previous !== expected) {
+            throw new ProblemException(
+              HttpStatus.CONFLICT,
+              'current-submission-changed',
+              'Another submission was just made current',
+              `While this confirm was being handled, ${previous === null ? 'the current submission was withdrawn' : `submission ${previous} was made current`} for ${row.year} Q${row.quarter}, so submission ${submissionId} was not confirmed. Look at the practice's submissions again, then confirm this one if it should replace it.`,
+              { currentSubmissionId: previous },
+            );
+          }
           if (previous !== null && previous > submissionId) {
             throw new ProblemException(
               HttpStatus.CONFLICT,
