@@ -17,6 +17,19 @@ const everyone: readonly Role[] = ['regional_lead', 'practice_lead', 'auditor'];
  */
 export const navItems: NavItem[] = [
   { label: 'Home', to: '/', icon: 'home', roles: everyone },
+  {
+    label: 'Upload extract',
+    to: '/extracts/upload',
+    icon: 'upload',
+    roles: ['practice_lead', 'regional_lead'],
+  },
+  {
+    label: 'Submissions',
+    to: '/submissions',
+    icon: 'list-columns',
+    roles: ['practice_lead', 'regional_lead'],
+  },
+  { label: 'Coverage', to: '/coverage', icon: 'grid-view', roles: ['regional_lead', 'auditor'] },
   { label: 'Users', to: '/users', icon: 'people', roles: ['regional_lead'] },
   {
     label: 'Audit trail',

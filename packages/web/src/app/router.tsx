@@ -36,6 +36,39 @@ export const routes: RouteObject[] = [
             Component: m.AuditTrail,
           })),
       },
+      {
+        path: 'extracts/upload',
+        lazy: () =>
+          import('../features/extracts/routes/UploadExtract').then((m) => ({
+            Component: m.UploadExtract,
+          })),
+      },
+      {
+        path: 'submissions',
+        lazy: () =>
+          import('../features/extracts/routes/Submissions').then((m) => ({
+            Component: m.Submissions,
+          })),
+      },
+      {
+        path: 'practices/:practiceId/submissions',
+        lazy: () =>
+          import('../features/extracts/routes/Submissions').then((m) => ({
+            Component: m.Submissions,
+          })),
+      },
+      {
+        path: 'practices/:practiceId/submissions/:submissionId',
+        lazy: () =>
+          import('../features/extracts/routes/Submission').then((m) => ({
+            Component: m.Submission,
+          })),
+      },
+      {
+        path: 'coverage',
+        lazy: () =>
+          import('../features/extracts/routes/Coverage').then((m) => ({ Component: m.Coverage })),
+      },
       { path: '*', element: <NotFound /> },
     ],
   },

@@ -43,12 +43,24 @@ describe('session', () => {
     expect(new Headers(callsOf(fetchMock)[1]![1]?.headers).get('X-CSRF-Token')).toBeNull();
   });
 
-  it('shows Users to the regional lead only, and Audit trail to the regional lead and auditor', () => {
-    expect(navigationFor(lead).map((i) => i.label)).toEqual(['Home', 'Users', 'Audit trail']);
-    expect(navigationFor({ ...lead, role: 'auditor' }).map((i) => i.label)).toEqual([
+  it('shows each role its own navigation: extracts for practice and regional leads, coverage for regional lead and auditor, Users to the regional lead only', () => {
+    expect(navigationFor(lead).map((i) => i.label)).toEqual([
       'Home',
+      'Upload extract',
+      'Submissions',
+      'Coverage',
+      'Users',
       'Audit trail',
     ]);
-    expect(navigationFor({ ...lead, role: 'practice_lead' }).map((i) => i.label)).toEqual(['Home']);
+    expect(navigationFor({ ...lead, role: 'auditor' }).map((i) => i.label)).toEqual([
+      'Home',
+      'Coverage',
+      'Audit trail',
+    ]);
+    expect(navigationFor({ ...lead, role: 'practice_lead' }).map((i) => i.label)).toEqual([
+      'Home',
+      'Upload extract',
+      'Submissions',
+    ]);
   });
 });

@@ -1,0 +1,101 @@
+/**
+ * The writes of extracts: upload, and the three decisions on a submission
+ * (confirm, cancel, retry). Each refreshes what it changed, by key.
+ */
+import { useMutation, useQueryClient } from '@tanstack/react-query';
+import { ApiError, apiFetch } from '../../../lib/api-client';
+import { type DateConvention, extractsKeys, type Submission } from './extracts';
+
+export interface ExtractUpload {
+  practiceId: number;
+  quarterId: number;
+  file: File;
+  dateConvention: DateConvention | null;
+}
+
+/** POST the file as multipart (part "file"); answers 202 with the new submission, processing. */
+export function uploadExtract({
+  practiceId,
+  quarterId,
+  file,
+  dateConvention,
+}: ExtractUpload): Promise<Submission> {
+  const body = new FormData();
+  body.append('file', file, file.name);
+  const query = dateConvention ? `?dateConvention=${dateConvention}` : '';
+  return apiFetch<Submission>(
+    `/api/practices/${practiceId}/quarters/${quarterId}/extracts${query}`,
+    {
+      method: 'POST',
+      body,
+    },
+  );
+}
+
+async function refreshAfterChange(
+  client: ReturnType<typeof useQueryClient>,
+  practiceId: number,
+): Promise<void> {
+  await Promise.all([
+    client.invalidateQueries({ queryKey: extractsKeys.practice(practiceId) }),
+    client.invalidateQueries({ queryKey: extractsKeys.coverageAll() }),
+    client.invalidateQueries({ queryKey: ['audit-events'] }),
+  ]);
+}
+
+export function useUploadExtract() {
+  const client = useQueryClient();
+  return useMutation({
+    mutationFn: uploadExtract,
+    onSuccess: async (submission, upload) => {
+      client.setQueryData(extractsKeys.submission(upload.practiceId, submission.id), submission);
+      await refreshAfterChange(client, upload.practiceId);
+    },
+    onError: async (error, upload) => {
+      // A file over the size limit is kept as a rejected submission, so the history changed.
+      if (error instanceof ApiError && typeof error.problem.submissionId === 'number')
+        await refreshAfterChange(client, upload.practiceId);
+    },
+  });
+}
+
+export type SubmissionDecision = 'confirm' | 'cancel' | 'retry';
+
+export function useSubmissionDecision(practiceId: number, submissionId: number) {
+  const client = useQueryClient();
+  return useMutation({
+    mutationFn: (decision: SubmissionDecision) =>
+      apiFetch<Submission>(`/api/practices/${practiceId}/submissions/${submissionId}/${decision}`, {
+        method: 'POST',
+      }),
+    onSuccess: async (submission) => {
+      client.setQueryData(extractsKeys.submission(practiceId, submissionId), submission);
+      await refreshAfterChange(client, practiceId);
+    },
+  });
+}
+
+/** The problem extensions the upload route adds to a refusal (identical file, too large). */
+export interface UploadProblem {
+  title: string;
+  detail?: string;
+  code?: string;
+  submissionId?: number;
+  submissionStatus?: string;
+  fix?: string;
+  maxBytes?: number;
+}
+
+export function uploadProblemOf(error: unknown): UploadProblem | null {
+  if (!(error instanceof ApiError)) return null;
+  const p = error.problem;
+  return {
+    title: p.title,
+    detail: p.detail,
+    code: typeof p.code === 'string' ? p.code : undefined,
+    submissionId: typeof p.submissionId === 'number' ? p.submissionId : undefined,
+    submissionStatus: typeof p.submissionStatus === 'string' ? p.submissionStatus : undefined,
+    fix: typeof p.fix === 'string' ? p.fix : undefined,
+    maxBytes: typeof p.maxBytes === 'number' ? p.maxBytes : undefined,
+  };
+}

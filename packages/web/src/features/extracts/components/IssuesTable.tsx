@@ -1,0 +1,230 @@
+import {
+  Button,
+  ButtonGroup,
+  Callout,
+  Classes,
+  HTMLSelect,
+  NonIdealState,
+  Spinner,
+} from '@blueprintjs/core';
+import { Cell, Column, Table2 } from '@blueprintjs/table';
+import { useEffect, useState } from 'react';
+import { formatCount } from '../../../lib/format';
+import { ProblemCallout } from '../../users/components/problem';
+import {
+  type Issue,
+  type IssueFilters,
+  type IssueSort,
+  type Submission,
+  useIssues,
+} from '../api/extracts';
+import { SeverityTag, severityLook } from './StatusTag';
+
+export const ISSUE_PAGE = 500;
+const ROW_HEIGHT = 54;
+/** Column widths at their narrowest; stretched to fill the page's width. */
+const BASE_WIDTHS = [56, 140, 140, 120, 160, 255, 255];
+
+/** The base widths scaled to fill `width` (whole pixels, summing to it). */
+export function fillWidths(width: number, base: number[] = BASE_WIDTHS): number[] {
+  const total = base.reduce((a, b) => a + b, 0);
+  if (!(width > total)) return base;
+  const scaled = base.map((w) => Math.floor((w * width) / total));
+  scaled[scaled.length - 1]! += width - scaled.reduce((a, b) => a + b, 0);
+  return scaled;
+}
+
+/** The width of an element, kept up to date (0 until it is measured). */
+function useWidth() {
+  const [element, setElement] = useState<HTMLDivElement | null>(null);
+  const [width, setWidth] = useState(0);
+  useEffect(() => {
+    if (!element || typeof ResizeObserver === 'undefined') return;
+    const observer = new ResizeObserver(([entry]) =>
+      setWidth(Math.floor(entry?.contentRect.width ?? 0)),
+    );
+    observer.observe(element);
+    return () => observer.disconnect();
+  }, [element]);
+  return [setElement, width] as const;
+}
+
+const sorts: { value: IssueSort; label: string }[] = [
+  { value: 'row', label: 'Row, first to last' },
+  { value: '-row', label: 'Row, last to first' },
+  { value: 'severity', label: 'Kind, row errors first' },
+  { value: '-severity', label: 'Kind, warnings first' },
+  { value: 'code', label: 'Code, A to Z' },
+  { value: '-code', label: 'Code, Z to A' },
+  { value: 'column', label: 'Column, A to Z' },
+  { value: '-column', label: 'Column, Z to A' },
+];
+
+interface Props {
+  submission: Submission;
+  filters: IssueFilters;
+  onChange: (next: IssueFilters) => void;
+}
+
+/** Every issue of the report, filtered, sorted and paged by the server. */
+export function IssuesTable({ submission, filters, onChange }: Props) {
+  const [boxRef, boxWidth] = useWidth();
+  const issues = useIssues(submission.practice.id, submission.id, filters, true);
+  const page = issues.data;
+  const items: Issue[] = page?.items ?? [];
+  const offset = filters.offset ?? 0;
+  const total = page?.total ?? 0;
+  const codes = submission.issuesByCode.filter(
+    (c) => c.severity !== 'refusal' && (!filters.severity || c.severity === filters.severity),
+  );
+  const set = (patch: Partial<IssueFilters>) => onChange({ ...filters, offset: 0, ...patch });
+  const filtered = Boolean(filters.severity || filters.code || filters.column);
+
+  const text = (row: number, value: (i: Issue) => string | null) => {
+    const content = items[row] ? (value(items[row]) ?? '') : '';
+    return (
+      <Cell wrapText tooltip={content || undefined}>
+        {content}
+      </Cell>
+    );
+  };
+
+  return (
+    <section className="cairn-issues" aria-labelledby="cairn-issues-heading">
+      <h3 id="cairn-issues-heading" className={Classes.HEADING}>
+        Issues, row by row
+      </h3>
+      <div className="cairn-filters" role="search" aria-label="Filter the issues">
+        <HTMLSelect
+          aria-label="Kind of issue"
+          value={filters.severity ?? ''}
+          onChange={(e) =>
+            set({ severity: e.currentTarget.value as IssueFilters['severity'], code: '' })
+          }
+        >
+          <option value="">Every kind</option>
+          <option value="error">{severityLook.error.plural} (row refused)</option>
+          <option value="warning">{severityLook.warning.plural} (row kept)</option>
+          <option value="flag">{severityLook.flag.plural} (row kept)</option>
+        </HTMLSelect>
+        <HTMLSelect
+          aria-label="Code"
+          value={filters.code ?? ''}
+          onChange={(e) => set({ code: e.currentTarget.value })}
+        >
+          <option value="">Every code</option>
+          {codes.map((c) => (
+            <option key={c.code} value={c.code}>
+              {c.code} · {c.title} ({formatCount(c.count)})
+            </option>
+          ))}
+        </HTMLSelect>
+        <HTMLSelect
+          aria-label="Column"
+          value={filters.column ?? ''}
+          onChange={(e) => set({ column: e.currentTarget.value })}
+        >
+          <option value="">Every column</option>
+          {(page?.columns ?? []).map((c) => (
+            <option key={c.column} value={c.column}>
+              {c.column} ({formatCount(c.count)})
+            </option>
+          ))}
+        </HTMLSelect>
+        <HTMLSelect
+          aria-label="Sort by"
+          value={filters.sort ?? 'row'}
+          onChange={(e) => set({ sort: e.currentTarget.value as IssueSort })}
+        >
+          {sorts.map((s) => (
+            <option key={s.value} value={s.value}>
+              Sort: {s.label}
+            </option>
+          ))}
+        </HTMLSelect>
+        {filtered ? (
+          <Button
+            variant="minimal"
+            icon="filter-remove"
+            onClick={() => set({ severity: '', code: '', column: '' })}
+          >
+            Clear filters
+          </Button>
+        ) : null}
+        <span className="cairn-muted cairn-count" aria-live="polite">
+          {page
+            ? total === 0
+              ? 'No issues'
+              : `${formatCount(offset + 1)}–${formatCount(offset + items.length)} of ${formatCount(total)} ${total === 1 ? 'issue' : 'issues'}`
+            : ''}
+        </span>
+      </div>
+      {page && !page.recordRefsShown ? (
+        <Callout icon="eye-off" compact className="cairn-note">
+          Record references are shown as pseudonyms: only the practice&apos;s own leads see them as
+          given.
+        </Callout>
+      ) : null}
+      <ProblemCallout error={issues.error} />
+      {issues.isPending ? (
+        <Spinner aria-label="Loading the issues" />
+      ) : items.length === 0 ? (
+        <NonIdealState
+          icon={filtered ? 'filter' : 'tick-circle'}
+          title={filtered ? 'No issues match' : 'No issues'}
+          description={filtered ? 'Change or clear the filters.' : 'Every row was read cleanly.'}
+        />
+      ) : (
+        <div
+          ref={boxRef}
+          className="cairn-issues-table"
+          style={{ height: Math.min(items.length, 10) * ROW_HEIGHT + 32 }}
+          aria-busy={issues.isFetching}
+        >
+          <Table2
+            numRows={items.length}
+            defaultRowHeight={ROW_HEIGHT}
+            enableRowHeader={false}
+            enableRowResizing={false}
+            columnWidths={fillWidths(boxWidth)}
+            cellRendererDependencies={[items, boxWidth]}
+          >
+            <Column
+              name="Row"
+              cellRenderer={(row) => text(row, (i) => (i.row === null ? 'file' : String(i.row)))}
+            />
+            <Column
+              name="Kind"
+              cellRenderer={(row) => (
+                <Cell>{items[row] ? <SeverityTag severity={items[row].severity} /> : null}</Cell>
+              )}
+            />
+            <Column name="Column" cellRenderer={(row) => text(row, (i) => i.column)} />
+            <Column name="Value as given" cellRenderer={(row) => text(row, (i) => i.value)} />
+            <Column name="Code" cellRenderer={(row) => text(row, (i) => i.code)} />
+            <Column name="What is wrong" cellRenderer={(row) => text(row, (i) => i.message)} />
+            <Column name="How to fix it" cellRenderer={(row) => text(row, (i) => i.fix)} />
+          </Table2>
+        </div>
+      )}
+      {total > ISSUE_PAGE ? (
+        <ButtonGroup className="cairn-pager">
+          <Button
+            icon="chevron-left"
+            disabled={offset === 0}
+            onClick={() => onChange({ ...filters, offset: Math.max(offset - ISSUE_PAGE, 0) })}
+          >
+            Previous {ISSUE_PAGE}
+          </Button>
+          <Button
+            endIcon="chevron-right"
+            disabled={offset + ISSUE_PAGE >= total}
+            onClick={() => onChange({ ...filters, offset: offset + ISSUE_PAGE })}
+          >
+            Next {ISSUE_PAGE}
+          </Button>
+        </ButtonGroup>
+      ) : null}
+    </section>
+  );
+}

@@ -1,0 +1,678 @@
+import { screen, waitFor, within } from '@testing-library/react';
+import userEvent from '@testing-library/user-event';
+import { afterEach, describe, expect, it, vi } from 'vitest';
+import { renderApp } from '../../../test/render';
+import type { Me } from '../session/api/me';
+import type { Coverage, IssuePage, Quarter, Submission, SubmissionHistory } from './api/extracts';
+import { fillWidths } from './components/IssuesTable';
+
+const about = {
+  product: 'Cairn',
+  version: '0.1.0',
+  regionName: 'Ostrevale',
+  practices: 30,
+  localities: 4,
+  clinicalCaution: 'x',
+};
+const priya: Me = {
+  id: 3,
+  email: 'priya@x.example',
+  displayName: 'Priya Calloway',
+  role: 'practice_lead',
+  regionName: 'Ostrevale',
+  practices: [{ id: 12, code: 'OV102', name: 'Quarrybank Surgery' }],
+};
+const auditor: Me = {
+  ...priya,
+  id: 5,
+  displayName: 'Tobias Renwick',
+  role: 'auditor',
+  practices: [],
+};
+const regional: Me = {
+  ...priya,
+  id: 1,
+  displayName: 'Imogen Varley',
+  role: 'regional_lead',
+  practices: [],
+};
+
+const q3: Quarter = {
+  id: 8,
+  year: 2026,
+  quarter: 3,
+  label: '2026 Q3',
+  windowStart: '2025-10',
+  windowEnd: '2026-09',
+  measureSetId: 'cairn-default-2026.1',
+  submissionDeadline: '2026-12-16',
+  status: 'open',
+  openedAt: '2026-10-01T09:00:00.000Z',
+  closedAt: null,
+};
+const q2: Quarter = { ...q3, id: 7, quarter: 2, label: '2026 Q2', status: 'closed' };
+
+function submission(over: Partial<Submission> = {}): Submission {
+  return {
+    id: 41,
+    status: 'awaiting_confirmation',
+    statusLabel: 'Awaiting confirmation',
+    phase: null,
+    isCurrent: false,
+    practice: { id: 12, code: 'OV102', name: 'Quarrybank Surgery' },
+    quarter: {
+      id: 8,
+      year: 2026,
+      quarter: 3,
+      label: '2026 Q3',
+      windowStart: '2025-10',
+      windowEnd: '2026-09',
+      status: 'open',
+    },
+    file: {
+      name: 'q3.xlsx',
+      sizeBytes: 48_213,
+      sha256: 'ab'.repeat(32),
+      kind: 'xlsx',
+      sheetName: 'data',
+      dateConvention: null,
+      delimiter: null,
+      encoding: null,
+      kept: false,
+    },
+    uploadedBy: 'priya@x.example',
+    uploadedAt: '2026-12-01T10:00:00.000Z',
+    processingStartedAt: '2026-12-01T10:00:01.000Z',
+    processedAt: '2026-12-01T10:00:03.000Z',
+    confirmedAt: null,
+    confirmedBy: null,
+    cancelledAt: null,
+    cancelledBy: null,
+    supersededAt: null,
+    supersededBySubmissionId: null,
+    failedAt: null,
+    progress: { rowsDone: 51, rowsTotal: 51 },
+    counts: {
+      rowsRead: 51,
+      rowsAccepted: 48,
+      rowsRejected: 3,
+      rowsBlank: 0,
+      errors: 3,
+      warnings: 2,
+      flags: 1,
+    },
+    issuesByCode: [
+      {
+        code: 'out_of_range',
+        severity: 'error',
+        title: 'Value outside the plausible range',
+        count: 2,
+      },
+      { code: 'invalid_date', severity: 'error', title: 'Not a date', count: 1 },
+      {
+        code: 'unit_converted',
+        severity: 'warning',
+        title: 'Value converted to Cairn’s unit',
+        count: 2,
+      },
+      {
+        code: 'type1_not_on_insulin',
+        severity: 'flag',
+        title: 'Type 1 diabetes but not on insulin',
+        count: 1,
+      },
+    ],
+    refusal: null,
+    failure: null,
+    headerRow: 1,
+    columnsFound: ['record_ref'],
+    columnsIgnored: [],
+    actions: { confirm: true, cancel: true, retry: false },
+    ...over,
+  };
+}
+
+const issuePage: IssuePage = {
+  total: 2,
+  offset: 0,
+  limit: 500,
+  recordRefsShown: true,
+  columns: [
+    { column: 'hba1c_value', count: 2 },
+    { column: 'bp_date', count: 1 },
+  ],
+  items: [
+    {
+      seq: 1,
+      severity: 'error',
+      code: 'out_of_range',
+      title: 'Value outside the plausible range',
+      row: 5,
+      column: 'hba1c_value',
+      columnKey: 'hba1c_value',
+      value: '900',
+      message: 'HbA1c 900 mmol/mol is outside the plausible range',
+      fix: 'Check the value',
+    },
+    {
+      seq: 2,
+      severity: 'error',
+      code: 'invalid_date',
+      title: 'Not a date',
+      row: 9,
+      column: 'bp_date',
+      columnKey: 'bp_date',
+      value: 'soon',
+      message: 'Not a date',
+      fix: 'Write the date as YYYY-MM-DD',
+    },
+  ],
+};
+
+const current = submission({
+  id: 30,
+  status: 'accepted',
+  statusLabel: 'Accepted',
+  isCurrent: true,
+  uploadedAt: '2026-11-01T10:00:00.000Z',
+  actions: { confirm: false, cancel: false, retry: false },
+});
+
+function history(subs: Submission[], currentId: number | null = 30): SubmissionHistory {
+  return {
+    practice: { id: 12, code: 'OV102', name: 'Quarrybank Surgery' },
+    canUpload: true,
+    quarters: [
+      { quarter: q3, currentSubmissionId: currentId, submissions: subs },
+      { quarter: q2, currentSubmissionId: null, submissions: [] },
+    ],
+  };
+}
+
+type Answer = { status?: number; body: unknown };
+type Handler = (path: string, init: RequestInit | undefined) => Answer | undefined;
+
+/** A fetch answering from a function of the path (with its query) and the request. */
+function stubApi(user: Me, handler: Handler) {
+  const fetchMock = vi.fn(async (input: RequestInfo | URL, init?: RequestInit) => {
+    const url = typeof input === 'string' ? input : input instanceof URL ? input.href : input.url;
+    const path = url.replace(/^https?:\/\/[^/]+/, '');
+    const answer: Answer | undefined =
+      path === '/api/about'
+        ? { body: about }
+        : path === '/api/session'
+          ? { body: { user, csrfToken: 'tok' } }
+          : handler(path, init);
+    const status = answer?.status ?? (answer ? 200 : 404);
+    const body = answer?.body ?? { type: '/api/problems/not-found', title: 'Not found', status };
+    return new Response(JSON.stringify(body), {
+      status,
+      headers: { 'Content-Type': status >= 400 ? 'application/problem+json' : 'application/json' },
+    });
+  });
+  vi.stubGlobal('fetch', fetchMock);
+  return fetchMock;
+}
+
+const pathsOf = (mock: ReturnType<typeof stubApi>) =>
+  (mock.mock.calls as unknown as [string, RequestInit | undefined][]).map((c) => String(c[0]));
+
+afterEach(() => vi.unstubAllGlobals());
+
+describe('submission page', () => {
+  it('shows a real progress bar while Cairn checks the file, then the report', async () => {
+    let state: Submission = submission({
+      status: 'processing',
+      statusLabel: 'Processing',
+      phase: 'reading',
+      progress: { rowsDone: 250, rowsTotal: 1000 },
+      counts: null,
+      issuesByCode: [],
+      actions: { confirm: false, cancel: true, retry: false },
+    });
+    stubApi(priya, (path) => {
+      if (path === '/api/practices/12/submissions/41') return { body: state };
+      if (path === '/api/practices/12/submissions') return { body: history([state, current]) };
+      if (path.startsWith('/api/practices/12/submissions/41/issues')) return { body: issuePage };
+      return undefined;
+    });
+    renderApp('/practices/12/submissions/41');
+    const bar = await screen.findByRole('progressbar', { name: 'Rows checked' });
+    expect(bar.getAttribute('aria-valuenow')).toBe('25');
+    expect(screen.getAllByText('250 of 1,000 rows checked').length).toBeGreaterThan(0);
+    expect(screen.getByText('Processing').closest('.bp6-tag')).toBeTruthy();
+    expect(screen.getByRole('button', { name: 'Cancel submission' })).toBeTruthy();
+
+    state = submission();
+    expect(await screen.findByText('Rows read', {}, { timeout: 4000 })).toBeTruthy();
+    expect(screen.queryByRole('progressbar', { name: 'Rows checked' })).toBeNull();
+    expect(screen.getByText('Awaiting confirmation', { selector: '.bp6-tag *' })).toBeTruthy();
+  });
+
+  it('sums up the report: rows read, accepted, refused, warnings by code; flags carry the clinical caution', async () => {
+    stubApi(priya, (path) => {
+      if (path === '/api/practices/12/submissions/41') return { body: submission() };
+      if (path === '/api/practices/12/submissions')
+        return { body: history([submission(), current]) };
+      if (path.startsWith('/api/practices/12/submissions/41/issues')) return { body: issuePage };
+      return undefined;
+    });
+    renderApp('/practices/12/submissions/41');
+    const summary = await screen.findByRole('region', { name: 'Summary' });
+    const figure = (label: string) =>
+      within(summary)
+        .getByText(label)
+        .closest('.cairn-figure')
+        ?.querySelector('.cairn-figure-value')?.textContent;
+    expect(figure('Rows read')).toBe('51');
+    expect(figure('Rows accepted')).toBe('48');
+    expect(figure('Rows refused')).toBe('3');
+    expect(figure('Warnings')).toBe('2');
+    expect(figure('Data-quality flags')).toBe('1');
+    const byCode = within(summary).getByRole('table', { name: 'Issues by code' });
+    expect(within(byCode).getByText('unit_converted')).toBeTruthy();
+    expect(within(byCode).getByText('Value converted to Cairn’s unit')).toBeTruthy();
+    expect(screen.getByText('Audit and improvement support')).toBeTruthy();
+    expect(screen.getByRole('button', { name: /Refused rows \(XLSX\)/ }).getAttribute('href')).toBe(
+      '/api/practices/12/submissions/41/rejected-rows.xlsx',
+    );
+    expect(screen.getByRole('button', { name: /Full report \(JSON\)/ }).getAttribute('href')).toBe(
+      '/api/practices/12/submissions/41/report.json',
+    );
+    expect(await screen.findByText('1–2 of 2 issues')).toBeTruthy();
+  });
+
+  it('asks the server for filtered and sorted issues', async () => {
+    const fetchMock = stubApi(priya, (path) => {
+      if (path === '/api/practices/12/submissions/41') return { body: submission() };
+      if (path === '/api/practices/12/submissions')
+        return { body: history([submission(), current]) };
+      if (path.startsWith('/api/practices/12/submissions/41/issues')) return { body: issuePage };
+      return undefined;
+    });
+    renderApp('/practices/12/submissions/41');
+    await screen.findByText('1–2 of 2 issues');
+    expect(pathsOf(fetchMock)).toContain('/api/practices/12/submissions/41/issues?limit=500');
+
+    await userEvent.selectOptions(screen.getByRole('combobox', { name: 'Kind of issue' }), 'error');
+    await waitFor(() =>
+      expect(pathsOf(fetchMock)).toContain(
+        '/api/practices/12/submissions/41/issues?severity=error&limit=500',
+      ),
+    );
+    await userEvent.selectOptions(screen.getByRole('combobox', { name: 'Column' }), 'hba1c_value');
+    await waitFor(() =>
+      expect(pathsOf(fetchMock)).toContain(
+        '/api/practices/12/submissions/41/issues?severity=error&column=hba1c_value&limit=500',
+      ),
+    );
+    await userEvent.selectOptions(screen.getByRole('combobox', { name: 'Sort by' }), '-row');
+    await waitFor(() =>
+      expect(pathsOf(fetchMock)).toContain(
+        '/api/practices/12/submissions/41/issues?severity=error&column=hba1c_value&sort=-row&limit=500',
+      ),
+    );
+    await userEvent.click(screen.getByRole('button', { name: 'Clear filters' }));
+    await userEvent.click(screen.getByRole('button', { name: 'Show only out_of_range' }));
+    await waitFor(() =>
+      expect(pathsOf(fetchMock)).toContain(
+        '/api/practices/12/submissions/41/issues?code=out_of_range&sort=-row&limit=500',
+      ),
+    );
+    expect((screen.getByRole('combobox', { name: 'Code' }) as HTMLSelectElement).value).toBe(
+      'out_of_range',
+    );
+  });
+
+  it('confirms through an alert that names the submission it replaces', async () => {
+    let confirmed = false;
+    const fetchMock = stubApi(priya, (path, init) => {
+      if (path === '/api/practices/12/submissions/41/confirm' && init?.method === 'POST') {
+        confirmed = true;
+        return {
+          body: submission({
+            status: 'accepted',
+            isCurrent: true,
+            actions: { confirm: false, cancel: false, retry: false },
+          }),
+        };
+      }
+      if (path === '/api/practices/12/submissions/41')
+        return {
+          body: confirmed
+            ? submission({
+                status: 'accepted',
+                isCurrent: true,
+                actions: { confirm: false, cancel: false, retry: false },
+              })
+            : submission(),
+        };
+      if (path === '/api/practices/12/submissions')
+        return { body: history([submission(), current]) };
+      if (path.startsWith('/api/practices/12/submissions/41/issues')) return { body: issuePage };
+      return undefined;
+    });
+    renderApp('/practices/12/submissions/41');
+    await screen.findByText(/Confirming it replaces submission 30/);
+    await userEvent.click(screen.getByRole('button', { name: 'Confirm submission' }));
+    const alert = await screen.findByRole('alertdialog');
+    expect(within(alert).getByText(/It replaces the current submission 30/)).toBeTruthy();
+    expect(within(alert).getByText(/will be marked\s+superseded/)).toBeTruthy();
+    await userEvent.click(within(alert).getByRole('button', { name: 'Confirm submission' }));
+    await screen.findByText('Current submission for 2026 Q3');
+    const post = (fetchMock.mock.calls as unknown as [string, RequestInit | undefined][]).find(
+      (c) => c[1]?.method === 'POST',
+    )!;
+    expect(post[0]).toBe('/api/practices/12/submissions/41/confirm');
+    expect(new Headers(post[1]?.headers).get('X-CSRF-Token')).toBe('tok');
+  });
+
+  it('never shows write buttons to an auditor, who can still read and download', async () => {
+    const readOnly = submission({ actions: { confirm: false, cancel: false, retry: false } });
+    stubApi(auditor, (path) => {
+      if (path === '/api/practices/12/submissions/41') return { body: readOnly };
+      if (path === '/api/practices/12/submissions')
+        return { body: { ...history([readOnly, current]), canUpload: false } };
+      if (path.startsWith('/api/practices/12/submissions/41/issues'))
+        return { body: { ...issuePage, recordRefsShown: false } };
+      return undefined;
+    });
+    renderApp('/practices/12/submissions/41');
+    await screen.findByRole('region', { name: 'Summary' });
+    expect(screen.queryByRole('button', { name: 'Confirm submission' })).toBeNull();
+    expect(screen.queryByRole('button', { name: 'Cancel submission' })).toBeNull();
+    expect(screen.queryByRole('button', { name: 'Check again' })).toBeNull();
+    expect(screen.getByRole('button', { name: /Full report \(JSON\)/ })).toBeTruthy();
+    expect(await screen.findByText(/Record references are shown as pseudonyms/)).toBeTruthy();
+    expect(screen.queryByText(/upload the whole extract again/)).toBeNull();
+    expect(screen.queryByRole('link', { name: 'Upload extract' })).toBeNull();
+    expect(screen.getByRole('link', { name: 'Coverage' })).toBeTruthy();
+  });
+
+  it('puts a refused file’s message and its fix first', async () => {
+    const rejected = submission({
+      status: 'rejected',
+      statusLabel: 'Rejected',
+      counts: null,
+      issuesByCode: [
+        {
+          code: 'missing_columns',
+          severity: 'refusal',
+          title: 'Required columns missing',
+          count: 1,
+        },
+      ],
+      refusal: {
+        code: 'missing_columns',
+        title: 'Required columns missing',
+        message: 'The file has no column birth_year.',
+        fix: 'Add the column birth_year, as in Cairn’s template.',
+        detail: null,
+      },
+      actions: { confirm: false, cancel: false, retry: false },
+    });
+    stubApi(priya, (path) => {
+      if (path === '/api/practices/12/submissions/41') return { body: rejected };
+      if (path === '/api/practices/12/submissions') return { body: history([rejected, current]) };
+      if (path.startsWith('/api/practices/12/submissions/41/issues'))
+        return { body: { ...issuePage, total: 0, items: [], columns: [] } };
+      return undefined;
+    });
+    renderApp('/practices/12/submissions/41');
+    const alert = await screen.findByRole('alert');
+    expect(within(alert).getByText('This file was refused: Required columns missing')).toBeTruthy();
+    expect(within(alert).getByText('The file has no column birth_year.')).toBeTruthy();
+    expect(within(alert).getByText('How to fix it')).toBeTruthy();
+    expect(
+      within(alert).getByText('Add the column birth_year, as in Cairn’s template.'),
+    ).toBeTruthy();
+    expect(
+      within(alert)
+        .getByRole('link', { name: /Upload a corrected extract/ })
+        .getAttribute('href'),
+    ).toBe('/extracts/upload?practice=12&quarter=8');
+  });
+
+  it('offers Check again for a failed job whose file is kept', async () => {
+    const failed = submission({
+      status: 'failed',
+      statusLabel: 'Failed',
+      counts: null,
+      issuesByCode: [],
+      failure: { message: 'The database went away.', attempts: 3, canRetry: true },
+      actions: { confirm: false, cancel: true, retry: true },
+    });
+    stubApi(priya, (path) => {
+      if (path === '/api/practices/12/submissions/41') return { body: failed };
+      if (path === '/api/practices/12/submissions') return { body: history([failed, current]) };
+      return undefined;
+    });
+    renderApp('/practices/12/submissions/41');
+    expect(await screen.findByText('Cairn could not finish checking this extract')).toBeTruthy();
+    expect(screen.getByText('The database went away.')).toBeTruthy();
+    expect(screen.getByRole('button', { name: 'Check again' })).toBeTruthy();
+  });
+});
+
+describe('issues table', () => {
+  it('stretches its columns to the width it has, never below their narrowest', () => {
+    const base = [50, 100, 150];
+    expect(fillWidths(200, base)).toEqual(base);
+    const wide = fillWidths(601, base);
+    expect(wide.reduce((a, b) => a + b, 0)).toBe(601);
+    expect(wide[0]).toBe(100);
+    expect(wide[1]).toBe(200);
+  });
+});
+
+describe('submissions history', () => {
+  it('lists each quarter’s submissions with status tags in words and icons', async () => {
+    const superseded = submission({
+      id: 20,
+      status: 'superseded',
+      statusLabel: 'Superseded',
+      actions: { confirm: false, cancel: false, retry: false },
+    });
+    stubApi(priya, (path) => {
+      if (path === '/api/practices/12/submissions')
+        return { body: history([submission(), current, superseded]) };
+      return undefined;
+    });
+    renderApp('/submissions');
+    expect(await screen.findByText('Audit quarter 2026 Q3')).toBeTruthy();
+    const row = (id: number) =>
+      document.querySelector(`tr[data-submission="${id}"]`) as HTMLElement;
+    for (const [id, label] of [
+      [41, 'Awaiting confirmation'],
+      [30, 'Accepted'],
+      [20, 'Superseded'],
+    ] as const) {
+      const tag = within(row(id)).getByText(label).closest('.bp6-tag')!;
+      expect(tag.querySelector('.bp6-icon')).toBeTruthy();
+    }
+    expect(within(row(30)).getByText('Current')).toBeTruthy();
+    expect(within(row(41)).getByRole('link', { name: 'Submission 41' }).getAttribute('href')).toBe(
+      '/practices/12/submissions/41',
+    );
+    expect(screen.getByText('No extract was sent for 2026 Q2.')).toBeTruthy();
+  });
+});
+
+describe('upload page', () => {
+  const format = {
+    limits: { maxBytes: 10 * 1_048_576, maxRows: 5000 },
+    columns: [
+      {
+        key: 'record_ref',
+        group: 'person',
+        meaning: 'Your reference for the record',
+        allowed: 'text',
+        required: 'required',
+        columnRequired: true,
+        valueRequired: true,
+        units: [],
+        codes: null,
+        example: 'A-1',
+      },
+    ],
+    issueCodes: [],
+  };
+
+  it('offers the templates, shows the server’s limits and explains an identical file', async () => {
+    const fetchMock = stubApi(priya, (path, init) => {
+      if (path === '/api/quarters') return { body: [q3, q2] };
+      if (path === '/api/extracts/format') return { body: format };
+      if (path === '/api/practices/12/submissions') return { body: history([current]) };
+      if (path.startsWith('/api/practices/12/quarters/8/extracts') && init?.method === 'POST')
+        return {
+          status: 409,
+          body: {
+            type: '/api/problems/identical-extract',
+            title: 'This file was already uploaded',
+            status: 409,
+            detail:
+              'This file is identical to the extract uploaded on 2026-11-01 10:00 UTC by priya@x.example (submission 30), which is already the current submission for 2026 Q3. Nothing was changed.',
+            code: 'identical_extract',
+            submissionId: 30,
+            submissionStatus: 'accepted',
+          },
+        };
+      return undefined;
+    });
+    renderApp('/extracts/upload');
+    expect(await screen.findByRole('heading', { name: 'Upload extract' })).toBeTruthy();
+    expect(
+      screen.getByRole('button', { name: /Download template \(XLSX\)/ }).getAttribute('href'),
+    ).toBe('/api/extracts/template.xlsx');
+    expect(
+      screen.getByRole('button', { name: /Download template \(CSV\)/ }).getAttribute('href'),
+    ).toBe('/api/extracts/template.csv');
+    expect(await screen.findByText(/at most 10 MB and 5,000 rows/)).toBeTruthy();
+    expect(screen.getByText('OV102 · Quarrybank Surgery')).toBeTruthy();
+    expect(await screen.findByText(/A new extract replaces it only when/)).toBeTruthy();
+    // Only open quarters for a practice lead.
+    const quarter = screen.getByLabelText('Audit quarter') as HTMLSelectElement;
+    expect([...quarter.options].map((o) => o.textContent)).toEqual([
+      '2026 Q3 (deadline 16 Dec 2026)',
+    ]);
+
+    await userEvent.click(screen.getByLabelText('Day first: 04/05/2026 is 4 May 2026'));
+    const file = new File(['record_ref\nA-1\n'], 'q3.csv', { type: 'text/csv' });
+    await userEvent.upload(screen.getByLabelText('Extract file'), file);
+    expect(screen.getByText('q3.csv')).toBeTruthy();
+    await userEvent.click(screen.getByRole('button', { name: 'Upload and check' }));
+    expect(await screen.findByText('This file was already uploaded')).toBeTruthy();
+    expect(screen.getByRole('link', { name: 'Open submission 30' }).getAttribute('href')).toBe(
+      '/practices/12/submissions/30',
+    );
+    const post = (fetchMock.mock.calls as unknown as [string, RequestInit | undefined][]).find(
+      (c) => c[1]?.method === 'POST',
+    )!;
+    expect(post[0]).toBe('/api/practices/12/quarters/8/extracts?dateConvention=day_first');
+    expect((post[1]?.body as FormData).get('file')).toBeInstanceOf(File);
+  });
+
+  it('refuses a file over the server’s size limit before sending it', async () => {
+    const fetchMock = stubApi(priya, (path) => {
+      if (path === '/api/quarters') return { body: [q3] };
+      if (path === '/api/extracts/format')
+        return { body: { ...format, limits: { maxBytes: 10, maxRows: 5000 } } };
+      if (path === '/api/practices/12/submissions') return { body: history([]) };
+      return undefined;
+    });
+    renderApp('/extracts/upload');
+    await screen.findByText(/at most 10 bytes/);
+    await userEvent.upload(
+      screen.getByLabelText('Extract file'),
+      new File(['x'.repeat(100)], 'big.csv', { type: 'text/csv' }),
+    );
+    expect(screen.getByText('This file is too large')).toBeTruthy();
+    expect(screen.getByRole('button', { name: 'Upload and check' }).hasAttribute('disabled')).toBe(
+      true,
+    );
+    expect(
+      (fetchMock.mock.calls as unknown as [string, RequestInit | undefined][]).some(
+        (c) => c[1]?.method === 'POST',
+      ),
+    ).toBe(false);
+  });
+});
+
+describe('coverage', () => {
+  const coverage: Coverage = {
+    quarter: q3,
+    totals: { practices: 3, current: 1, awaitingConfirmation: 1, none: 1, records: 447 },
+    practices: [
+      {
+        practice: { id: 11, code: 'OV101', name: 'Wrenfield Health Centre', locality: 'Ostre' },
+        state: 'current',
+        current: {
+          submissionId: 30,
+          records: 447,
+          confirmedAt: '2026-11-02T10:00:00.000Z',
+          confirmedBy: 'a@x.example',
+        },
+        waiting: [],
+        lastProblem: null,
+      },
+      {
+        practice: { id: 12, code: 'OV102', name: 'Quarrybank Surgery', locality: 'Harnleigh Fold' },
+        state: 'awaiting_confirmation',
+        current: null,
+        waiting: [
+          {
+            submissionId: 41,
+            status: 'awaiting_confirmation',
+            uploadedAt: '2026-12-01T10:00:00.000Z',
+          },
+        ],
+        lastProblem: null,
+      },
+      {
+        practice: {
+          id: 13,
+          code: 'OV103',
+          name: 'Harnleigh Old Mill Practice',
+          locality: 'Harnleigh Fold',
+        },
+        state: 'none',
+        current: null,
+        waiting: [],
+        lastProblem: {
+          submissionId: 39,
+          status: 'rejected',
+          code: 'missing_columns',
+          uploadedAt: '2026-11-30T10:00:00.000Z',
+        },
+      },
+    ],
+  };
+
+  it('counts practices by state and filters them', async () => {
+    const fetchMock = stubApi(regional, (path) => {
+      if (path === '/api/quarters') return { body: [q3, q2] };
+      if (path === '/api/quarters/8/coverage') return { body: coverage };
+      return undefined;
+    });
+    renderApp('/coverage');
+    expect(await screen.findByText('OV101 · Wrenfield Health Centre')).toBeTruthy();
+    expect(pathsOf(fetchMock)).toContain('/api/quarters/8/coverage');
+    expect(screen.getByText('3 practices')).toBeTruthy();
+    await userEvent.click(screen.getByRole('radio', { name: 'No submission (1)' }));
+    expect(await screen.findByText('1 practice')).toBeTruthy();
+    expect(screen.queryByText('OV101 · Wrenfield Health Centre')).toBeNull();
+    const row = document.querySelector('tr[data-practice="OV103"]') as HTMLElement;
+    expect(within(row).getByText('Rejected').closest('.bp6-tag')).toBeTruthy();
+    expect(within(row).getByText('missing_columns')).toBeTruthy();
+    await userEvent.click(screen.getByRole('radio', { name: /^All/ }));
+    await userEvent.type(screen.getByRole('textbox', { name: /Search practice/ }), 'quarry');
+    expect(await screen.findByText('1 practice')).toBeTruthy();
+    expect(screen.getByText('OV102 · Quarrybank Surgery')).toBeTruthy();
+  });
+
+  it('is not offered to a practice lead', async () => {
+    stubApi(priya, () => undefined);
+    renderApp('/coverage');
+    expect(await screen.findByText('Not available for your role')).toBeTruthy();
+  });
+});
