@@ -365,8 +365,8 @@ function UploadScreen() {
             {format.data ? (
               <>
                 <p className="cairn-muted">
-                  One row per person with diabetes; no names, national patient numbers, addresses or full dates
-                  of birth. Up to {formatBytes(format.data.limits.maxBytes)} and{' '}
+                  One row per person with diabetes; no names, national patient numbers, addresses or
+                  full dates of birth. Up to {formatBytes(format.data.limits.maxBytes)} and{' '}
                   {formatCount(format.data.limits.maxRows)} rows.
                 </p>
                 <Button
