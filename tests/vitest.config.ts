@@ -7,7 +7,7 @@ export default defineConfig({
     include: ['reference/**/*.test.ts', 'browser/**/*.test.ts', 'reliability/**/*.test.ts'],
     environment: 'node',
     testTimeout: 120_000,
-    hookTimeout: 180_000,
+    hookTimeout: 300_000,
     fileParallelism: false,
     setupFiles: ['./support/env.ts'],
   },

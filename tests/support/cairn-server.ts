@@ -11,16 +11,28 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { repoRoot } from './paths.ts';
 
+const handedOut = new Set<number>();
+
+/**
+ * A port free on 127.0.0.1 now, never one this process handed out before (the kernel may
+ * offer a just-released port again, and two servers of one test would then collide).
+ */
 export async function freePort(): Promise<number> {
-  return new Promise((resolve, reject) => {
-    const server = createServer();
-    server.unref();
-    server.on('error', reject);
-    server.listen(0, '127.0.0.1', () => {
-      const address = server.address();
-      server.close(() => resolve(typeof address === 'object' && address ? address.port : 0));
+  for (;;) {
+    const port = await new Promise<number>((resolve, reject) => {
+      const server = createServer();
+      server.unref();
+      server.on('error', reject);
+      server.listen(0, '127.0.0.1', () => {
+        const address = server.address();
+        server.close(() => resolve(typeof address === 'object' && address ? address.port : 0));
+      });
     });
-  });
+    if (!handedOut.has(port)) {
+      handedOut.add(port);
+      return port;
+    }
+  }
 }
 
 export interface CairnServer {
@@ -69,6 +81,20 @@ async function waitHealthy(url: string, child: ChildProcess, timeoutMs: number):
 export async function startCairn(options: StartOptions = {}): Promise<CairnServer> {
   if (!existsSync(join(apiDist, 'main.js')))
     throw new Error('packages/api/dist is missing: run `npm test` (it builds) or `npm run build`');
+  // A port taken between choosing it and binding it makes a process exit at once: try again on
+  // new ports (twice at most); any other failure is reported with everything the processes said.
+  for (let attempt = 1; ; attempt++) {
+    try {
+      return await startOnce(options);
+    } catch (error) {
+      if (!(error instanceof PortTakenError) || attempt >= 3) throw error;
+    }
+  }
+}
+
+class PortTakenError extends Error {}
+
+async function startOnce(options: StartOptions): Promise<CairnServer> {
   const [port, fakesPort, smtpPort] = [await freePort(), await freePort(), await freePort()];
   const databaseName = `cairn_test_${randomBytes(5).toString('hex')}`;
   const env: NodeJS.ProcessEnv = {
@@ -107,10 +133,13 @@ export async function startCairn(options: StartOptions = {}): Promise<CairnServe
   const api = run(join(apiDist, 'main.js'));
   const baseUrl = `http://127.0.0.1:${port}`;
   try {
-    await waitHealthy(`${baseUrl}/api/health`, api, 60_000);
+    await waitHealthy(`${baseUrl}/api/health`, api, 120_000);
   } catch (error) {
     for (const child of children) child.kill('SIGKILL');
-    throw new Error(`${(error as Error).message}\n${output}`, { cause: error });
+    cli(['drop-test-database'], env);
+    const message = `${(error as Error).message} (API on port ${port}, fakes on ${fakesPort} and ${smtpPort})\n${output}`;
+    if (/EADDRINUSE/.test(output)) throw new PortTakenError(message, { cause: error });
+    throw new Error(message, { cause: error });
   }
 
   return {
