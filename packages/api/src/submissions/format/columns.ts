@@ -31,6 +31,8 @@ export interface UnitDef {
   aliases: readonly string[];
   /** Conversion to the column's canonical unit (identity for the canonical unit) */
   toCanonical: (value: number) => number;
+  /** The conversion rule and its source, in words (methods.md §6); none for a canonical unit */
+  rule?: string;
 }
 
 export interface CodeDef {
@@ -87,12 +89,14 @@ export const UNITS = {
     code: '%',
     aliases: ['%', 'percent', 'pct', 'dcct', 'ngsp'],
     toCanonical: (v: number) => round(0)(hba1cMmolMolFromPercent(v)),
+    rule: 'mmol/mol = (% − 2.15) × 10.929, rounded to a whole number (IFCC–NGSP master equation, Hoelzel et al., Clin Chem 2004;50:166–74)',
   },
   mmolL: { code: 'mmol/L', aliases: ['mmol/l', 'mmoll', 'mmol_l'], toCanonical: identity },
   cholesterolMgDl: {
     code: 'mg/dL',
     aliases: ['mg/dl', 'mgdl', 'mg_dl'],
     toCanonical: (v: number) => round(1)(cholesterolMmolLFromMgDl(v)),
+    rule: 'mmol/L = mg/dL ÷ 38.67, to 0.1 (molar mass of cholesterol 386.65 g/mol)',
   },
   umolL: {
     code: 'umol/L',
@@ -103,17 +107,20 @@ export const UNITS = {
     code: 'mg/dL',
     aliases: ['mg/dl', 'mgdl', 'mg_dl'],
     toCanonical: (v: number) => round(0)(creatinineUmolLFromMgDl(v)),
+    rule: 'µmol/L = mg/dL × 88.42, rounded to a whole number (molar mass of creatinine 113.12 g/mol)',
   },
   mgMmol: { code: 'mg/mmol', aliases: ['mg/mmol', 'mgmmol', 'mg_mmol'], toCanonical: identity },
   acrMgG: {
     code: 'mg/g',
     aliases: ['mg/g', 'mgg', 'mg_g', 'ug/mg', 'µg/mg'],
     toCanonical: (v: number) => round(1)(acrMgMmolFromMgG(v)),
+    rule: 'mg/mmol = mg/g ÷ 8.84, to 0.1 (from the molar mass of creatinine)',
   },
   glucoseMgDl: {
     code: 'mg/dL',
     aliases: ['mg/dl', 'mgdl', 'mg_dl'],
     toCanonical: (v: number) => round(1)(glucoseMmolLFromMgDl(v)),
+    rule: 'mmol/L = mg/dL ÷ 18.016, to 0.1 (molar mass of glucose 180.16 g/mol)',
   },
   kgM2: { code: 'kg/m2', aliases: ['kg/m2', 'kg/m²', 'kgm2', 'kg_m2'], toCanonical: identity },
   mmHg: { code: 'mmHg', aliases: ['mmhg', 'mm_hg'], toCanonical: identity },
