@@ -200,5 +200,11 @@ export async function readFile(sequelize: Sequelize, id: number): Promise<Buffer
     'SELECT data FROM extract_file_chunks WHERE submission_id = ? ORDER BY seq',
     { replacements: [id], type: QueryTypes.SELECT },
   );
-  return Buffer.concat(rows.map((r) => Buffer.from(r.data)));
+  // One copy: the chunks are Buffers already, and are let go as soon as they are joined.
+  const total = rows.reduce((sum, r) => sum + r.data.length, 0);
+  const bytes = Buffer.allocUnsafe(total);
+  let offset = 0;
+  for (const row of rows) offset += (row.data as Buffer).copy(bytes, offset);
+  rows.length = 0;
+  return bytes;
 }

@@ -190,6 +190,23 @@ export async function prescanXlsx(
   }
 }
 
+/**
+ * Position of the next `<row` start tag at or after `from` (not `<rowBreaks` and the like):
+ * −1 when there is none, −2 when the text ends inside a possible tag name.
+ */
+function nextRowTag(text: string, from: number): number {
+  let at = text.indexOf('<row', from);
+  while (at >= 0) {
+    const next = text.charCodeAt(at + 4);
+    if (Number.isNaN(next)) return -2;
+    // space, tab, line feed, carriage return, '>' or '/'
+    if (next === 32 || next === 9 || next === 10 || next === 13 || next === 62 || next === 47)
+      return at;
+    at = text.indexOf('<row', at + 4);
+  }
+  return -1;
+}
+
 /** Scans a worksheet's XML in chunks for rows with values, hidden rows and columns, and merges. */
 class SheetScan {
   valuedRows = 0;
@@ -226,14 +243,21 @@ class SheetScan {
         this.phase = text[close - 1] === '/' ? 'tail' : 'rows';
         pos = close + 1;
       } else if (this.phase === 'rows') {
-        const rowStart = text.indexOf('<row', pos);
-        const dataEnd = text.indexOf('</sheetData>', pos);
-        if (dataEnd >= 0 && (rowStart < 0 || dataEnd < rowStart)) {
-          this.phase = 'tail';
-          pos = dataEnd + 12;
-          continue;
-        }
+        // Every search below is bounded by the next row, so a chunk is scanned once (a search
+        // to the end of the chunk for each row would make the scan quadratic in the chunk size).
+        const rowStart = nextRowTag(text, pos);
         if (rowStart < 0) {
+          const dataEnd = text.indexOf('</sheetData>', pos);
+          if (dataEnd >= 0) {
+            this.phase = 'tail';
+            pos = dataEnd + 12;
+            continue;
+          }
+          pos = Math.max(pos, text.length - 16);
+          break;
+        }
+        // Rows live only inside sheetData: a row tag found means the data has not ended.
+        if (rowStart === -2) {
           pos = Math.max(pos, text.length - 16);
           break;
         }
@@ -257,9 +281,8 @@ class SheetScan {
           pos = rowStart;
           break;
         }
-        const v = text.indexOf('<v', tagEnd);
-        const is = text.indexOf('<is>', tagEnd);
-        if ((v >= 0 && v < rowEnd) || (is >= 0 && is < rowEnd)) this.valuedRows++;
+        const body = text.slice(tagEnd, rowEnd);
+        if (body.includes('<v') || body.includes('<is>')) this.valuedRows++;
         pos = rowEnd + 6;
       } else {
         const m = text.indexOf('<mergeCell ', pos);
