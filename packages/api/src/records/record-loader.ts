@@ -1,8 +1,8 @@
 /**
- * Stages validated records into care_records as the extract is read: one
- * `LOAD DATA LOCAL INFILE` statement inside one transaction, fed by a stream
- * the pipeline writes to (so parsing in Node and inserting in MariaDB run at
- * the same time). `finish()` commits; `abort()` rolls back, so a refused,
+ * Stages validated records into care_records as the extract is read:
+ * `LOAD DATA LOCAL INFILE` statements of ROWS_PER_STATEMENT rows inside one
+ * transaction, fed by streams the pipeline writes to (so parsing in Node and
+ * inserting in MariaDB run at the same time). `finish()` commits; `abort()` rolls back, so a refused,
  * cancelled or crashed read leaves nothing behind (a killed process's open
  * transaction is rolled back by the server).
  *
@@ -72,16 +72,29 @@ export const LOAD_RECORDS_SQL =
   "FIELDS TERMINATED BY '\\t' ESCAPED BY '\\\\' LINES TERMINATED BY '\\n' " +
   `(${RECORD_COLUMNS.join(', ')})`;
 
+/**
+ * Rows per LOAD DATA statement. The connector sends a LOCAL INFILE stream only when its 16 MB
+ * packet buffer is full or the stream ends, so one statement for a whole file would reach
+ * MariaDB only after the last row was read. Statements of a few thousand rows (about 1 MB)
+ * reach it as the file is read, so MariaDB stores one slice while the next is being checked.
+ */
+export const ROWS_PER_STATEMENT = 5000;
+/** Statements sent but not yet answered before the reader waits for MariaDB. */
+const STATEMENTS_AHEAD = 2;
+
 export class RecordLoader {
   private written = 0;
-  private settled: Promise<RawResult> | null = null;
+  private staged = 0;
+  private current: PassThrough | null = null;
+  private currentRows = 0;
+  private readonly inflight: Promise<void>[] = [];
+  private readonly streams = new Set<PassThrough>();
   private failure: Error | null = null;
   private closed = false;
 
   private constructor(
     private readonly sequelize: Sequelize,
     private readonly connection: RawConnection,
-    private readonly stream: PassThrough,
   ) {}
 
   static async open(
@@ -89,12 +102,15 @@ export class RecordLoader {
     pseudonym: { practiceCode: string; secret: string },
   ): Promise<RecordLoader> {
     const connection = await acquireRaw(sequelize);
-    const stream = new PassThrough({ highWaterMark: 1 << 20 });
-    const loader = new RecordLoader(sequelize, connection, stream);
+    const loader = new RecordLoader(sequelize, connection);
     try {
       const pads = hmacPads(pseudonym.secret);
+      // foreign_key_checks = 0 for this session while it stages: every staged row belongs to the
+      // submission this process holds the lease of, and the check would take a shared lock on
+      // that submission's row until commit, blocking the lease renewals and progress updates
+      // other connections make to it. Restored before the connection goes back to the pool.
       await connection.query(
-        'SET @cairn_ipad = UNHEX(?), @cairn_opad = UNHEX(?), @cairn_practice = ?',
+        'SET @cairn_ipad = UNHEX(?), @cairn_opad = UNHEX(?), @cairn_practice = ?, foreign_key_checks = 0',
         [pads.ipad, pads.opad, pseudonym.practiceCode],
       );
       await connection.beginTransaction();
@@ -102,15 +118,6 @@ export class RecordLoader {
       await releaseRaw(sequelize, connection);
       throw error;
     }
-    loader.settled = connection
-      .query<RawResult>({ sql: LOAD_STAGED_SQL, infileStreamFactory: () => stream })
-      .catch((error: Error) => {
-        loader.failure = error;
-        stream.destroy();
-        throw error;
-      });
-    // Keep an early failure from being an unhandled rejection; it is rethrown by write/finish.
-    loader.settled.catch(() => undefined);
     return loader;
   }
 
@@ -118,43 +125,67 @@ export class RecordLoader {
     return this.written;
   }
 
+  /** Starts the next LOAD DATA statement; the connector queues it behind those still running. */
+  private startStatement(): PassThrough {
+    const stream = new PassThrough({ highWaterMark: 4 << 20 });
+    this.streams.add(stream);
+    const done = this.connection
+      .query<RawResult>({ sql: LOAD_STAGED_SQL, infileStreamFactory: () => stream })
+      .then(
+        (result) => {
+          this.staged += result.affectedRows;
+          this.streams.delete(stream);
+        },
+        (error: Error) => {
+          this.failure ??= error;
+          for (const s of this.streams) s.destroy();
+          throw error;
+        },
+      );
+    // Keep an early failure from being an unhandled rejection; it is rethrown by write/finish.
+    done.catch(() => undefined);
+    this.inflight.push(done);
+    this.current = stream;
+    this.currentRows = 0;
+    return stream;
+  }
+
+  private endStatement(): void {
+    this.current?.end();
+    this.current = null;
+  }
+
   async write(rows: RecordRow[]): Promise<void> {
     if (this.failure) throw this.failure;
     let text = '';
-    for (const row of rows) text += tsvLine(row);
-    this.written += rows.length;
-    if (!this.stream.write(text)) {
-      await new Promise<void>((resolve, reject) => {
-        const onDrain = () => {
-          cleanup();
-          resolve();
-        };
-        const onClose = () => {
-          cleanup();
-          reject(this.failure ?? new Error('the record stream closed'));
-        };
-        const cleanup = () => {
-          this.stream.off('drain', onDrain);
-          this.stream.off('close', onClose);
-        };
-        this.stream.on('drain', onDrain);
-        this.stream.on('close', onClose);
-      });
+    for (const row of rows) {
+      if (this.current === null) this.startStatement();
+      text += tsvLine(row);
+      if (++this.currentRows >= ROWS_PER_STATEMENT) {
+        this.current!.write(text);
+        text = '';
+        this.endStatement();
+      }
     }
+    if (text !== '') this.current!.write(text);
+    this.written += rows.length;
+    // Memory stays bounded: wait for MariaDB when it is more than a couple of slices behind.
+    while (this.inflight.length > STATEMENTS_AHEAD + 1) {
+      await this.inflight.shift();
+    }
+    if (this.failure) throw this.failure;
   }
 
-  /** Ends the stream, waits for MariaDB, checks the count and commits. Returns the rows staged. */
+  /** Ends the last statement, waits for MariaDB, checks the count and commits. Returns the rows staged. */
   async finish(): Promise<number> {
-    this.stream.end();
+    this.endStatement();
     try {
-      const result = await this.settled!;
-      if (result.affectedRows !== this.written) {
-        throw new Error(
-          `staged ${result.affectedRows} of ${this.written} records (warnings: ${result.warningStatus ?? 0})`,
-        );
+      while (this.inflight.length > 0) await this.inflight.shift();
+      if (this.staged !== this.written) {
+        throw new Error(`staged ${this.staged} of ${this.written} records`);
       }
       await this.connection.commit();
-      return result.affectedRows;
+      return this.staged;
     } catch (error) {
       await this.connection.rollback().catch(() => undefined);
       throw error;
@@ -163,11 +194,11 @@ export class RecordLoader {
     }
   }
 
-  /** Stops the statement and rolls its rows back. */
+  /** Stops the statements and rolls their rows back. */
   async abort(): Promise<void> {
     if (this.closed) return;
-    this.stream.destroy(new Error('aborted'));
-    await this.settled!.catch(() => undefined);
+    for (const stream of this.streams) stream.destroy(new Error('aborted'));
+    await Promise.allSettled(this.inflight.splice(0));
     await this.connection.rollback().catch(() => undefined);
     await this.release();
   }
@@ -177,7 +208,9 @@ export class RecordLoader {
     this.closed = true;
     // The key pads must not stay on a pooled connection.
     await this.connection
-      .query('SET @cairn_ipad = NULL, @cairn_opad = NULL, @cairn_practice = NULL')
+      .query(
+        'SET @cairn_ipad = NULL, @cairn_opad = NULL, @cairn_practice = NULL, foreign_key_checks = 1',
+      )
       .catch(() => undefined);
     await releaseRaw(this.sequelize, this.connection);
   }
