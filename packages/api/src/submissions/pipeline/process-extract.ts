@@ -145,6 +145,7 @@ export async function processExtract(
   submissionId: number,
   limits: ExtractLimits,
   sinks: ExtractSinks,
+  options: { open?: OpenExtract } = {},
 ): Promise<ExtractOutcome> {
   const outcome: ExtractOutcome = {
     kind: null,
@@ -174,23 +175,56 @@ export async function processExtract(
   };
 
   // ── what the file is ──
+  const opened = await (options.open ?? openExtract)(bytes, fileName, limits);
+  outcome.kind = opened.kind;
+  if ('refusal' in opened) return refuse(opened.refusal);
+  return readRows(opened.source, outcome, context, submissionId, limits, sinks);
+}
+
+/** What the file is, and its rows ready to be read; or why it is refused. */
+export type OpenedExtract =
+  { kind: 'xlsx' | 'csv' | null; refusal: Refusal } | { kind: 'xlsx' | 'csv'; source: RowSource };
+
+export type OpenExtract = (
+  bytes: Buffer,
+  fileName: string,
+  limits: ExtractLimits,
+) => Promise<OpenedExtract>;
+
+/** Sniffs the file, prescans a workbook, and opens its row source in this thread. */
+export async function openExtract(
+  bytes: Buffer,
+  fileName: string,
+  limits: ExtractLimits,
+): Promise<OpenedExtract> {
   const sniffed = sniff(bytes, fileName, limits.maxZipEntries);
-  if (sniffed.kind === 'refused') return refuse(sniffed.refusal);
-  outcome.kind = sniffed.kind;
-  let source: RowSource;
+  if (sniffed.kind === 'refused') return { kind: null, refusal: sniffed.refusal };
   if (sniffed.kind === 'xlsx') {
     try {
       const prescan = await prescanXlsx(bytes, sniffed.entries, limits.maxUncompressedBytes);
-      source = new XlsxRowSource(bytes, prescan);
+      return { kind: 'xlsx', source: new XlsxRowSource(bytes, prescan) };
     } catch (error) {
-      if (error instanceof PrescanRefusal) return refuse(error.refusal);
+      if (error instanceof PrescanRefusal) return { kind: 'xlsx', refusal: error.refusal };
       throw error;
     }
-  } else {
-    const opened = openCsv(bytes);
-    if ('refusal' in opened) return refuse(opened.refusal);
-    source = opened.source;
   }
+  const opened = openCsv(bytes);
+  if ('refusal' in opened) return { kind: 'csv', refusal: opened.refusal };
+  return { kind: 'csv', source: opened.source };
+}
+
+async function readRows(
+  source: RowSource,
+  outcome: ExtractOutcome,
+  context: ValidationContext,
+  submissionId: number,
+  limits: ExtractLimits,
+  sinks: ExtractSinks,
+): Promise<ExtractOutcome> {
+  const refuse = (r: Refusal) => {
+    outcome.refusal = r;
+    return outcome;
+  };
   outcome.sheetName = source.notes.sheetName;
   outcome.delimiter = source.notes.delimiter;
   outcome.encoding = source.notes.encoding;
@@ -271,7 +305,12 @@ export async function processExtract(
       .filter((w) => w.code === 'unknown_column')
       .map((w) => w.heading);
     outcome.refColumnIndex = state.mapping.byKey.get('record_ref')?.index ?? null;
-    state.validator = new RowValidator(state.mapping, context, submissionId);
+    state.validator = new RowValidator(
+      state.mapping,
+      // A workbook in the 1904 date system (older Mac Excel) counts its date serials from 1904.
+      source.date1904 ? { ...context, date1904: true } : context,
+      submissionId,
+    );
     for (const w of state.mapping.warnings) {
       await addIssue(
         w.code === 'unknown_column'
