@@ -15,6 +15,7 @@ import {
   type ExtractsWorld,
 } from './extracts-fixtures/api.js';
 import { csvOf, goodRow, goodRows, xlsxOf } from './extracts-fixtures/rows.js';
+import { alterWorkbook } from './extracts-fixtures/zip.js';
 
 describe('extracts: upload, report, confirm', () => {
   let t: TestApp;
@@ -92,6 +93,38 @@ describe('extracts: upload, report, confirm', () => {
     });
     expect(done).toMatchObject({ status: 'awaiting_confirmation', counts: { rowsAccepted: 30 } });
   });
+  it('reads the date serials of a workbook in the 1904 date system from 1904', async () => {
+    const lead = await signInAs(t, 'practice_lead_one');
+    const practice = w.practice('OV102');
+    const quarter = w.quarter('2026 Q3');
+    // 14 May 2026 as a 1904-system serial: days since 1904-01-01 (ECMA-376 Part 1, §18.17.4.1).
+    const serial1904 = (Date.UTC(2026, 4, 14) - Date.UTC(1904, 0, 1)) / 86_400_000;
+    const rows = goodRows(4, 1200).map((r) => ({ ...r, hba1c_date: serial1904 }));
+    const workbook = alterWorkbook(await xlsxOf(rows), (parts) =>
+      parts.map((p) =>
+        p.name === 'xl/workbook.xml'
+          ? {
+              ...p,
+              data: Buffer.from(
+                p.data.toString('utf8').includes('<workbookPr')
+                  ? p.data.toString('utf8').replace('<workbookPr', '<workbookPr date1904="1"')
+                  : p.data
+                      .toString('utf8')
+                      .replace(/(<workbook\b[^>]*>)/, '$1<workbookPr date1904="1"/>'),
+              ),
+            }
+          : p,
+      ),
+    );
+    const done = await uploadAndWait(lead, practice, quarter, workbook, { name: 'mac.xlsx' });
+    expect(done).toMatchObject({ status: 'awaiting_confirmation', counts: { rowsAccepted: 4 } });
+    const months = await t.db.query<{ hba1c_month: string }>(
+      'SELECT hba1c_month FROM care_records WHERE submission_id = ? ORDER BY source_row',
+      { replacements: [done.id], type: QueryTypes.SELECT },
+    );
+    expect(months.map((m) => m.hba1c_month)).toEqual(['2026-05', '2026-05', '2026-05', '2026-05']);
+  });
+
   it('stores the keyed pseudonym of methods.md §9, computed while loading, equal to @cairn/metrics', async () => {
     const lead = await signInAs(t, 'practice_lead_one');
     const practice = w.practice('OV102');
