@@ -80,7 +80,6 @@ export interface SubmissionSummaryJson {
   delimiter?: string | null;
   encoding?: string | null;
   refusalDetail?: Record<string, unknown> | null;
-  identicalTo?: number | null;
 }
 
 export const SELECT_SUBMISSION = `

@@ -9,12 +9,12 @@ import {
   Spinner,
   Tag,
 } from '@blueprintjs/core';
-import { NavLink, Outlet, ScrollRestoration } from 'react-router-dom';
+import { NavLink, Outlet, ScrollRestoration, useLocation } from 'react-router-dom';
 import { CairnMark } from '../components/CairnMark';
 import { CLINICAL_CAUTION } from '../components/ClinicalCaution';
 import { useAbout } from '../features/landing/api/about';
 import { roleLabels, useMe } from '../features/session/api/me';
-import { navigationFor } from './navigation';
+import { alsoActive, navigationFor } from './navigation';
 import { useTheme } from './theme';
 import './AppLayout.css';
 
@@ -23,6 +23,7 @@ export function AppLayout() {
   const about = useAbout();
   const { theme, toggle } = useTheme();
   const items = navigationFor(me.data);
+  const { pathname } = useLocation();
 
   return (
     <div className="cairn-shell">
@@ -45,7 +46,9 @@ export function AppLayout() {
                 key={item.to}
                 to={item.to}
                 end={item.to === '/'}
-                className={({ isActive }) => `cairn-nav-link${isActive ? ' active' : ''}`}
+                className={({ isActive }) =>
+                  `cairn-nav-link${isActive || alsoActive(item, pathname) ? ' active' : ''}`
+                }
               >
                 {item.label}
               </NavLink>

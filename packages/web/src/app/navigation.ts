@@ -7,6 +7,8 @@ export interface NavItem {
   icon: IconName;
   /** Roles that see this item */
   roles: readonly Role[];
+  /** Other addresses that belong to this item (a submission page belongs to Submissions) */
+  activeFor?: RegExp;
 }
 
 const everyone: readonly Role[] = ['regional_lead', 'practice_lead', 'auditor'];
@@ -28,6 +30,7 @@ export const navItems: NavItem[] = [
     to: '/submissions',
     icon: 'list-columns',
     roles: ['practice_lead', 'regional_lead'],
+    activeFor: /^\/practices\/[^/]+\/submissions(\/|$)/,
   },
   { label: 'Coverage', to: '/coverage', icon: 'grid-view', roles: ['regional_lead', 'auditor'] },
   { label: 'Users', to: '/users', icon: 'people', roles: ['regional_lead'] },
@@ -38,6 +41,11 @@ export const navItems: NavItem[] = [
     roles: ['regional_lead', 'auditor'],
   },
 ];
+
+/** Whether `item` is the current section for `pathname`, beyond its own address. */
+export function alsoActive(item: NavItem, pathname: string): boolean {
+  return item.activeFor?.test(pathname) ?? false;
+}
 
 export function navigationFor(me: Me | null | undefined): NavItem[] {
   if (!me) return [];

@@ -1,6 +1,6 @@
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import { stubFetch } from '../../../test/render';
-import { navigationFor } from '../../app/navigation';
+import { alsoActive, navigationFor } from '../../app/navigation';
 import { apiFetch } from '../../lib/api-client';
 import { fetchSession, type Me } from './api/me';
 
@@ -62,5 +62,15 @@ describe('session', () => {
       'Upload extract',
       'Submissions',
     ]);
+  });
+
+  it('keeps Submissions highlighted on a submission’s own page, and nothing else', () => {
+    const submissions = navigationFor(lead).find((i) => i.label === 'Submissions')!;
+    expect(alsoActive(submissions, '/practices/12/submissions/340')).toBe(true);
+    expect(alsoActive(submissions, '/practices/12/submissions')).toBe(true);
+    expect(alsoActive(submissions, '/practices/12/submissionsx')).toBe(false);
+    expect(alsoActive(submissions, '/coverage')).toBe(false);
+    const coverage = navigationFor(lead).find((i) => i.label === 'Coverage')!;
+    expect(alsoActive(coverage, '/practices/12/submissions/340')).toBe(false);
   });
 });
