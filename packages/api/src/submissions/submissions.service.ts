@@ -522,7 +522,8 @@ export class SubmissionsService {
       totals: {
         practices: rows.length,
         current: rows.filter((r) => r.state === 'current').length,
-        awaitingConfirmation: rows.filter((r) => r.state === 'awaiting_confirmation').length,
+        // Every practice with an extract waiting, whether or not it already has a current one.
+        awaitingConfirmation: rows.filter((r) => r.waiting.length > 0).length,
         none: rows.filter((r) => r.state === 'none').length,
         records: rows.reduce((n, r) => n + (r.current?.records ?? 0), 0),
       },

@@ -601,7 +601,7 @@ describe('upload page', () => {
 describe('coverage', () => {
   const coverage: Coverage = {
     quarter: q3,
-    totals: { practices: 3, current: 1, awaitingConfirmation: 1, none: 1, records: 447 },
+    totals: { practices: 3, current: 1, awaitingConfirmation: 2, none: 1, records: 447 },
     practices: [
       {
         practice: { id: 11, code: 'OV101', name: 'Wrenfield Health Centre', locality: 'Ostre' },
@@ -612,7 +612,14 @@ describe('coverage', () => {
           confirmedAt: '2026-11-02T10:00:00.000Z',
           confirmedBy: 'a@x.example',
         },
-        waiting: [],
+        // A new extract waiting to replace the current one.
+        waiting: [
+          {
+            submissionId: 44,
+            status: 'awaiting_confirmation',
+            uploadedAt: '2026-12-01T11:00:00.000Z',
+          },
+        ],
         lastProblem: null,
       },
       {
@@ -664,6 +671,12 @@ describe('coverage', () => {
     const row = document.querySelector('tr[data-practice="OV103"]') as HTMLElement;
     expect(within(row).getByText('Rejected').closest('.bp6-tag')).toBeTruthy();
     expect(within(row).getByText('missing_columns')).toBeTruthy();
+    // Awaiting confirmation: every practice with an extract waiting, also one with a current one.
+    await userEvent.click(screen.getByRole('radio', { name: 'Awaiting confirmation (2)' }));
+    expect(await screen.findByText('2 practices')).toBeTruthy();
+    expect(screen.getByText('OV101 · Wrenfield Health Centre')).toBeTruthy();
+    expect(screen.getByText('OV102 · Quarrybank Surgery')).toBeTruthy();
+    expect(screen.queryByText('OV103 · Harnleigh Old Mill Practice')).toBeNull();
     await userEvent.click(screen.getByRole('radio', { name: /^All/ }));
     await userEvent.type(screen.getByRole('textbox', { name: /Search practice/ }), 'quarry');
     expect(await screen.findByText('1 practice')).toBeTruthy();

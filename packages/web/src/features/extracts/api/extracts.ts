@@ -203,6 +203,7 @@ export interface Coverage {
   totals: {
     practices: number;
     current: number;
+    /** Practices with an extract waiting for confirmation (some also have a current one) */
     awaitingConfirmation: number;
     none: number;
     records: number;

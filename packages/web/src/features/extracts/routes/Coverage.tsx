@@ -51,7 +51,9 @@ function CoverageScreen() {
   const data = coverage.data;
   const rows = (data?.practices ?? []).filter(
     (p) =>
-      (state === 'all' || p.state === state) &&
+      (state === 'all' ||
+        // Awaiting confirmation: any practice with an extract waiting, current or not.
+        (state === 'awaiting_confirmation' ? p.waiting.length > 0 : p.state === state)) &&
       (!deferred ||
         `${p.practice.code} ${p.practice.name} ${p.practice.locality ?? ''}`
           .toLowerCase()
