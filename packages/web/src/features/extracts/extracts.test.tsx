@@ -4,7 +4,7 @@ import { afterEach, describe, expect, it, vi } from 'vitest';
 import { renderApp } from '../../../test/render';
 import type { Me } from '../session/api/me';
 import type { Coverage, IssuePage, Quarter, Submission, SubmissionHistory } from './api/extracts';
-import { fillWidths } from './components/IssuesTable';
+import { fillWidths, rowHeightsFor } from './components/IssuesTable';
 
 const about = {
   product: 'Cairn',
@@ -462,6 +462,29 @@ describe('issues table', () => {
     expect(wide.reduce((a, b) => a + b, 0)).toBe(601);
     expect(wide[0]).toBe(100);
     expect(wide[1]).toBe(200);
+  });
+
+  it('gives a long message the height it needs, so that no text is cut off', () => {
+    const widths = fillWidths(1200);
+    const short = {
+      column: 'bp_date',
+      value: 'x',
+      code: 'invalid_date',
+      message: 'Not a date.',
+      fix: 'Fix it.',
+    };
+    const long = {
+      ...short,
+      message: 'Type 1 diabetes is recorded but on_insulin is “no”. '.repeat(4),
+    };
+    const [a, b] = rowHeightsFor([short, long], widths);
+    expect(a).toBe(54);
+    expect(b).toBeGreaterThan(54);
+    // The long message fits: its lines at the column's width, 16 px each.
+    const perLine = Math.floor((widths[5]! - 22) / 6.6);
+    expect(b).toBeGreaterThanOrEqual(Math.ceil(long.message.length / perLine) * 16);
+    const huge = { ...short, fix: 'x'.repeat(5000) };
+    expect(rowHeightsFor([huge], widths)[0]).toBe(8 * 16 + 10);
   });
 });
 

@@ -8,7 +8,7 @@ import {
   Spinner,
 } from '@blueprintjs/core';
 import { Cell, Column, Table2 } from '@blueprintjs/table';
-import { useEffect, useState } from 'react';
+import { useEffect, useMemo, useState } from 'react';
 import { formatCount } from '../../../lib/format';
 import { ProblemCallout } from '../../users/components/problem';
 import {
@@ -32,6 +32,33 @@ export function fillWidths(width: number, base: number[] = BASE_WIDTHS): number[
   const scaled = base.map((w) => Math.floor((w * width) / total));
   scaled[scaled.length - 1]! += width - scaled.reduce((a, b) => a + b, 0);
   return scaled;
+}
+
+const LINE_HEIGHT = 16;
+/** Average width of a character of the table's 12 px text, and a cell's side padding. */
+const CHAR_WIDTH = 6.6;
+const CELL_PADDING = 22;
+const MAX_ROW_HEIGHT = 8 * LINE_HEIGHT + 10;
+
+/**
+ * Row heights that fit each issue's longest wrapped text (message, fix, value…) in the
+ * column widths, so that no message is cut off; at least ROW_HEIGHT, at most eight lines.
+ */
+export function rowHeightsFor(
+  items: readonly Pick<Issue, 'column' | 'value' | 'code' | 'message' | 'fix'>[],
+  widths: readonly number[],
+): number[] {
+  // Columns 2 to 6 hold wrapped text: column, value as given, code, message, fix.
+  const texts = (i: (typeof items)[number]) => [i.column, i.value, i.code, i.message, i.fix];
+  return items.map((item) => {
+    let lines = 1;
+    texts(item).forEach((text, k) => {
+      const width = Math.max(20, (widths[k + 2] ?? 120) - CELL_PADDING);
+      const perLine = Math.max(1, Math.floor(width / CHAR_WIDTH));
+      lines = Math.max(lines, Math.ceil((text ?? '').length / perLine));
+    });
+    return Math.min(MAX_ROW_HEIGHT, Math.max(ROW_HEIGHT, lines * LINE_HEIGHT + 10));
+  });
 }
 
 /** The width of an element, kept up to date (0 until it is measured). */
@@ -71,7 +98,7 @@ export function IssuesTable({ submission, filters, onChange }: Props) {
   const [boxRef, boxWidth] = useWidth();
   const issues = useIssues(submission.practice.id, submission.id, filters, true);
   const page = issues.data;
-  const items: Issue[] = page?.items ?? [];
+  const items: Issue[] = useMemo(() => page?.items ?? [], [page]);
   const offset = filters.offset ?? 0;
   const total = page?.total ?? 0;
   const codes = submission.issuesByCode.filter(
@@ -79,6 +106,8 @@ export function IssuesTable({ submission, filters, onChange }: Props) {
   );
   const set = (patch: Partial<IssueFilters>) => onChange({ ...filters, offset: 0, ...patch });
   const filtered = Boolean(filters.severity || filters.code || filters.column);
+  const widths = useMemo(() => fillWidths(boxWidth), [boxWidth]);
+  const rowHeights = useMemo(() => rowHeightsFor(items, widths), [items, widths]);
 
   const text = (row: number, value: (i: Issue) => string | null) => {
     const content = items[row] ? (value(items[row]) ?? '') : '';
@@ -178,15 +207,16 @@ export function IssuesTable({ submission, filters, onChange }: Props) {
         <div
           ref={boxRef}
           className="cairn-issues-table"
-          style={{ height: Math.min(items.length, 10) * ROW_HEIGHT + 32 }}
+          style={{ height: rowHeights.slice(0, 10).reduce((a, b) => a + b, 0) + 32 }}
           aria-busy={issues.isFetching}
         >
           <Table2
             numRows={items.length}
             defaultRowHeight={ROW_HEIGHT}
+            rowHeights={rowHeights}
             enableRowHeader={false}
             enableRowResizing={false}
-            columnWidths={fillWidths(boxWidth)}
+            columnWidths={widths}
             cellRendererDependencies={[items, boxWidth]}
           >
             <Column
