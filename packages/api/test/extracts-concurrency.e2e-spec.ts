@@ -170,6 +170,38 @@ describe('extracts: concurrency across two API processes', () => {
     }
   }, 120_000);
 
+  it('the same file uploaded twice at once, to both processes: one is taken, the other is refused as identical', async () => {
+    const practice = w.practice('OV106');
+    for (let r = 0; r < 6; r++) {
+      const file = csvOf(goodRows(300 + r, 70_000 + 1000 * r));
+      const answers = await Promise.all(
+        regional.map((agent, i) =>
+          upload(agent, practice, w.quarter(QUARTER), file, { name: `twice-${r}-${i}.csv` }),
+        ),
+      );
+      expect(answers.map((a) => a.status).sort()).toEqual([202, 409]);
+      const taken = answers.find((a) => a.status === 202)!;
+      const refused = answers.find((a) => a.status === 409)!;
+      expect(refused.body).toMatchObject({
+        type: '/api/problems/identical-extract',
+        code: 'identical_extract',
+        submissionId: taken.body.id,
+      });
+      // Only the taken upload remains; it is checked once.
+      const sha = refused.body.sha256 as string;
+      const [row] = await t.db.query<{ n: number }>(
+        'SELECT COUNT(*) AS n FROM submissions WHERE practice_id = ? AND quarter_id = ? AND file_sha256 = ?',
+        { replacements: [practice, w.quarter(QUARTER), sha], type: QueryTypes.SELECT },
+      );
+      expect(Number(row!.n)).toBe(1);
+      const done = await waitDone(regional[0], practice, taken.body.id);
+      expect(done).toMatchObject({
+        status: 'awaiting_confirmation',
+        counts: { rowsAccepted: 300 + r },
+      });
+    }
+  }, 120_000);
+
   it('ten practices upload and confirm at once: right counts everywhere, jobs spread over both processes, none read twice', async () => {
     const sessions: { practice: string; who: PersonaKey }[] = [
       { practice: 'OV102', who: 'practice_lead_one' },

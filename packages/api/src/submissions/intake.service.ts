@@ -281,19 +281,50 @@ export class IntakeService {
     }
 
     const sha256 = hash.digest('hex');
-    const [identical] = await this.sequelize.query<{
-      id: number;
-      status: SubmissionStatus;
-      uploaded_at: Date;
-      uploaded_by_label: string;
-      refusal_message: string | null;
-    }>(
-      `SELECT id, status, uploaded_at, uploaded_by_label, refusal_message FROM submissions
-        WHERE practice_id = ? AND quarter_id = ? AND file_sha256 = ? AND id <> ?
-          AND status IN ('processing', 'awaiting_confirmation', 'accepted', 'rejected')
-        ORDER BY id DESC LIMIT 1`,
-      { replacements: [practiceId, quarterId, sha256, id], type: QueryTypes.SELECT },
-    );
+    // The identical-file check and the recording of this file's hash are one transaction that
+    // holds the practice's row: two uploads of the same file at the same moment are decided one
+    // after the other, so the second sees the first (a check, then a separate write, let both in).
+    const identical = await this.sequelize.transaction(async (transaction) => {
+      await this.sequelize.query('SELECT id FROM practices WHERE id = ? FOR UPDATE', {
+        replacements: [practiceId],
+        type: QueryTypes.SELECT,
+        transaction,
+      });
+      const [found] = await this.sequelize.query<{
+        id: number;
+        status: SubmissionStatus;
+        uploaded_at: Date;
+        uploaded_by_label: string;
+        refusal_message: string | null;
+      }>(
+        `SELECT id, status, uploaded_at, uploaded_by_label, refusal_message FROM submissions
+          WHERE practice_id = ? AND quarter_id = ? AND file_sha256 = ? AND id <> ?
+            AND status IN ('processing', 'awaiting_confirmation', 'accepted', 'rejected')
+          ORDER BY id DESC LIMIT 1 LOCK IN SHARE MODE`,
+        { replacements: [practiceId, quarterId, sha256, id], type: QueryTypes.SELECT, transaction },
+      );
+      if (found) return found;
+      await execute(
+        this.sequelize,
+        `UPDATE submissions SET file_sha256 = ?, file_size_bytes = ?, lease_owner = NULL, lease_expires_at = NULL WHERE id = ?`,
+        [sha256, size, id],
+        transaction,
+      );
+      await this.audit.append(
+        {
+          action: 'submission.uploaded',
+          summary: `Extract “${fileName}” (${fmtMb(size)}) uploaded; queued for checking`,
+          actor: { id: actor.id, label: actor.label },
+          regionId,
+          practiceId,
+          subjectType: 'submission',
+          subjectId: id,
+          detail: { sha256, size, dateConvention },
+        },
+        transaction,
+      );
+      return null;
+    });
     if (identical) {
       await this.sequelize.query('DELETE FROM submissions WHERE id = ?', {
         replacements: [id],
@@ -334,27 +365,6 @@ export class IntakeService {
       );
     }
 
-    await this.sequelize.transaction(async (transaction) => {
-      await execute(
-        this.sequelize,
-        `UPDATE submissions SET file_sha256 = ?, file_size_bytes = ?, lease_owner = NULL, lease_expires_at = NULL WHERE id = ?`,
-        [sha256, size, id],
-        transaction,
-      );
-      await this.audit.append(
-        {
-          action: 'submission.uploaded',
-          summary: `Extract “${fileName}” (${fmtMb(size)}) uploaded; queued for checking`,
-          actor: { id: actor.id, label: actor.label },
-          regionId,
-          practiceId,
-          subjectType: 'submission',
-          subjectId: id,
-          detail: { sha256, size, dateConvention },
-        },
-        transaction,
-      );
-    });
     this.runner.kick();
     return id;
   }
