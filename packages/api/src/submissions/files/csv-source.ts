@@ -50,12 +50,9 @@ export class CsvRowSource implements RowSource {
       });
       const batch: SourceRow[] = new Array<SourceRow>(parsed.data.length);
       for (let r = 0; r < parsed.data.length; r++) {
-        const record = parsed.data[r]!;
-        const cells: Cell[] = new Array<Cell>(record.length);
-        for (let c = 0; c < record.length; c++) {
-          const value = record[c]!;
-          cells[c] = value === '' ? null : value;
-        }
+        // The parsed record becomes the row's cells in place (blank fields read as null).
+        const cells = parsed.data[r]! as Cell[];
+        for (let c = 0; c < cells.length; c++) if (cells[c] === '') cells[c] = null;
         batch[r] = { row: ++row, cells };
       }
       yield batch;
