@@ -126,7 +126,7 @@ export class RecordLoader {
   }
 
   /** Starts the next LOAD DATA statement; the connector queues it behind those still running. */
-  private startStatement(): PassThrough {
+  private startStatement(): void {
     const stream = new PassThrough({ highWaterMark: 4 << 20 });
     this.streams.add(stream);
     const done = this.connection
@@ -147,7 +147,6 @@ export class RecordLoader {
     this.inflight.push(done);
     this.current = stream;
     this.currentRows = 0;
-    return stream;
   }
 
   private endStatement(): void {

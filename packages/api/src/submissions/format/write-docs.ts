@@ -4,11 +4,12 @@
  * config/default.json.
  */
 import { readFileSync, writeFileSync } from 'node:fs';
-import { dirname, join } from 'node:path';
+import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
+import { findRepoRoot } from '../../config/load-config.js';
 import { renderExtractFormatDoc } from './docs.js';
 
-export const repoRoot = join(dirname(fileURLToPath(import.meta.url)), '..', '..', '..', '..', '..');
+const repoRoot = findRepoRoot();
 export const docPath = join(repoRoot, 'docs', 'extract-format.md');
 
 export function defaultLimits() {

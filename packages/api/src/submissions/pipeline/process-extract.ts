@@ -145,7 +145,6 @@ export async function processExtract(
   submissionId: number,
   limits: ExtractLimits,
   sinks: ExtractSinks,
-  options: { open?: OpenExtract } = {},
 ): Promise<ExtractOutcome> {
   const outcome: ExtractOutcome = {
     kind: null,
@@ -169,15 +168,13 @@ export async function processExtract(
     delimiter: null,
     encoding: null,
   };
-  const refuse = (r: Refusal) => {
-    outcome.refusal = r;
-    return outcome;
-  };
-
   // ── what the file is ──
-  const opened = await (options.open ?? openExtract)(bytes, fileName, limits);
+  const opened = await openExtract(bytes, fileName, limits);
   outcome.kind = opened.kind;
-  if ('refusal' in opened) return refuse(opened.refusal);
+  if ('refusal' in opened) {
+    outcome.refusal = opened.refusal;
+    return outcome;
+  }
   return readRows(opened.source, outcome, context, submissionId, limits, sinks);
 }
 
@@ -185,13 +182,7 @@ export async function processExtract(
 export type OpenedExtract =
   { kind: 'xlsx' | 'csv' | null; refusal: Refusal } | { kind: 'xlsx' | 'csv'; source: RowSource };
 
-export type OpenExtract = (
-  bytes: Buffer,
-  fileName: string,
-  limits: ExtractLimits,
-) => Promise<OpenedExtract>;
-
-/** Sniffs the file, prescans a workbook, and opens its row source in this thread. */
+/** Sniffs the file, prescans a workbook, and opens its row source. */
 export async function openExtract(
   bytes: Buffer,
   fileName: string,
