@@ -1,6 +1,7 @@
-import { Button, Card, Classes, HTMLTable } from '@blueprintjs/core';
+import { Button, Classes, HTMLTable } from '@blueprintjs/core';
 import { formatCount } from '../../../lib/format';
 import type { IssueCount, Submission } from '../api/extracts';
+import { Figure } from './Figure';
 import { SeverityTag } from './StatusTag';
 
 interface Props {
@@ -8,16 +9,6 @@ interface Props {
   /** Chosen code in the issues table, if any */
   activeCode?: string;
   onPickCode?: (code: string) => void;
-}
-
-function Figure({ label, value, note }: { label: string; value: number; note?: string }) {
-  return (
-    <Card className="cairn-figure" compact>
-      <div className="cairn-figure-value">{formatCount(value)}</div>
-      <div className="cairn-figure-label">{label}</div>
-      {note ? <div className="cairn-figure-note cairn-muted">{note}</div> : null}
-    </Card>
-  );
 }
 
 /** The validation report at a glance: rows read, accepted, refused; issues by code. */

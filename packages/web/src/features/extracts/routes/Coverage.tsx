@@ -1,5 +1,4 @@
 import {
-  Card,
   H2,
   HTMLSelect,
   HTMLTable,
@@ -16,6 +15,7 @@ import { ProblemCallout } from '../../users/components/problem';
 import { type CoverageState, useCoverage, useQuarters } from '../api/extracts';
 import { formatDate, formatMonth } from '../components/format';
 import { CoverageTag, coverageLook, StatusTag } from '../components/StatusTag';
+import { Figure } from '../components/Figure';
 import './Extracts.css';
 
 /** `/coverage`: which practices have a current submission for an audit quarter. */
@@ -104,42 +104,22 @@ function CoverageScreen() {
 
       {totals ? (
         <div className="cairn-figures cairn-coverage-totals" role="list">
-          <div role="listitem">
-            <Card compact className="cairn-figure">
-              <div className="cairn-figure-value">{formatCount(totals.practices)}</div>
-              <div className="cairn-figure-label">Practices</div>
-            </Card>
-          </div>
-          <div role="listitem">
-            <Card compact className="cairn-figure">
-              <div className="cairn-figure-value">{formatCount(totals.current)}</div>
-              <div className="cairn-figure-label">
-                <CoverageTag state="current" />
-              </div>
-            </Card>
-          </div>
-          <div role="listitem">
-            <Card compact className="cairn-figure">
-              <div className="cairn-figure-value">{formatCount(totals.awaitingConfirmation)}</div>
-              <div className="cairn-figure-label">
-                <CoverageTag state="awaiting_confirmation" />
-              </div>
-            </Card>
-          </div>
-          <div role="listitem">
-            <Card compact className="cairn-figure">
-              <div className="cairn-figure-value">{formatCount(totals.none)}</div>
-              <div className="cairn-figure-label">
-                <CoverageTag state="none" />
-              </div>
-            </Card>
-          </div>
-          <div role="listitem">
-            <Card compact className="cairn-figure">
-              <div className="cairn-figure-value">{formatCount(totals.records)}</div>
-              <div className="cairn-figure-label">Records in current submissions</div>
-            </Card>
-          </div>
+          {(
+            [
+              ['Practices', totals.practices],
+              [<CoverageTag key="current" state="current" />, totals.current],
+              [
+                <CoverageTag key="awaiting" state="awaiting_confirmation" />,
+                totals.awaitingConfirmation,
+              ],
+              [<CoverageTag key="none" state="none" />, totals.none],
+              ['Records in current submissions', totals.records],
+            ] as const
+          ).map(([label, value], i) => (
+            <div role="listitem" key={i}>
+              <Figure label={label} value={value} />
+            </div>
+          ))}
         </div>
       ) : null}
 
