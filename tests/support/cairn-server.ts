@@ -118,7 +118,7 @@ async function startOnce(options: StartOptions): Promise<CairnServer> {
   const children: ChildProcess[] = [];
   let output = '';
   const run = (script: string) => {
-    const child = spawn(process.execPath, ['--enable-source-maps', script], {
+    const child = spawn(process.execPath, [script], {
       env,
       cwd: repoRoot,
       stdio: ['ignore', 'pipe', 'pipe'],

@@ -1,8 +1,9 @@
 /**
  * The built API (packages/api/dist/main.js) as a real OS process against a
  * test file's database, on a free port, so that a test can SIGKILL it and
- * start another. Configuration through CAIRN_* environment variables, as a
- * deployment would set it.
+ * start another. Started as `npm start` starts it (scripts/start.ts);
+ * configuration through CAIRN_* environment variables, as a deployment
+ * would set it.
  *
  *   const api = await startApiProcess(t, { CAIRN_EXTRACTS_LEASE_SECONDS: '2' });
  *   const lead = onProcess(await signInAs(t, 'regional_lead'), api);  // same session
@@ -60,7 +61,7 @@ export async function startApiProcess(
   };
   // jest's own flags are not for the API process.
   delete childEnv.NODE_OPTIONS;
-  const child = spawn(process.execPath, ['--enable-source-maps', mainJs], {
+  const child = spawn(process.execPath, [mainJs], {
     env: childEnv,
     cwd: root,
     stdio: ['ignore', 'pipe', 'pipe'],
