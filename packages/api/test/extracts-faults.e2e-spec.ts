@@ -12,7 +12,7 @@
  */
 import { QueryTypes, Transaction } from 'sequelize';
 import type TestAgent from 'supertest/lib/agent.js';
-import { type ApiProcess, onProcess, startApiProcess } from './support/api-process.js';
+import { type ApiProcess, onProcess, openRequest, startApiProcess } from './support/api-process.js';
 import { signInAs, type SignedInAgent } from './support/auth.js';
 import { createTestApp, type TestApp } from './support/test-app.js';
 import {
@@ -225,11 +225,14 @@ describe('extracts: the API process killed', () => {
 
     try {
       api = await start({ CAIRN_TEST_PAUSE_CONFIRM_MS: '60000' });
-      agent = onProcess(regional, api);
-      const confirming = agent.post(`/api/practices/${practice}/submissions/${next}/confirm`).then(
-        (r) => ({ status: r.status }),
-        (error: Error) => ({ error: error.message }),
+      // On a connection of its own, fully written before the kill: the kill can only cut it.
+      const confirming = openRequest(
+        regional,
+        api,
+        'POST',
+        `/api/practices/${practice}/submissions/${next}/confirm`,
       );
+      await confirming.sent;
       // Inside the paused transaction every write of the switch is done, not committed.
       await until('the confirm transaction to have switched (uncommitted)', async () => {
         const [pq] = await dirty<{ current: number | null }>(
@@ -240,8 +243,11 @@ describe('extracts: the API process killed', () => {
       });
       expect((await currentState(t, practice, quarter)).current).toBe(previous);
       await api.kill();
-      expect(await confirming).toEqual({
+      // No response at all: not a byte arrived before the connection was cut.
+      expect(await confirming.outcome).toEqual({
         error: expect.stringMatching(/socket hang up|ECONNRESET/),
+        code: 'ECONNRESET',
+        responseBytes: 0,
       });
 
       // The server notices the dropped connection and rolls the transaction back.

@@ -10,6 +10,7 @@
  *   await api.kill();                                                 // SIGKILL
  */
 import { type ChildProcess, spawn } from 'node:child_process';
+import { request as httpRequest } from 'node:http';
 import { existsSync } from 'node:fs';
 import { join } from 'node:path';
 import request from 'supertest';
@@ -110,4 +111,53 @@ export function onProcess(signedIn: SignedInAgent, api: ApiProcess): TestAgent {
   (agent as unknown as { jar: unknown }).jar = (signedIn as unknown as { jar: unknown }).jar;
   agent.set('X-CSRF-Token', signedIn.csrfToken);
   return agent;
+}
+
+export type OpenRequestOutcome =
+  { status: number } | { error: string; code: string | undefined; responseBytes: number };
+
+/**
+ * A request of `signedIn`'s session to `api` on a connection of its own (no
+ * pooled keep-alive socket), for a test that cuts the process mid-request:
+ * `sent` resolves once the request is connected and fully written, so a kill
+ * after it can only break an open connection; `outcome` is the response
+ * status, or the error with the number of response bytes that had arrived.
+ */
+export function openRequest(
+  signedIn: SignedInAgent,
+  api: ApiProcess,
+  method: string,
+  path: string,
+): { sent: Promise<void>; outcome: Promise<OpenRequestOutcome> } {
+  let markSent!: () => void;
+  let failSent!: (error: Error) => void;
+  const sent = new Promise<void>((resolve, reject) => {
+    markSent = resolve;
+    failSent = reject;
+  });
+  const outcome = new Promise<OpenRequestOutcome>((resolve) => {
+    let responseBytes = 0;
+    const req = httpRequest(`${api.baseUrl}${path}`, {
+      method,
+      agent: false,
+      headers: {
+        cookie: signedIn.cookie,
+        'x-csrf-token': signedIn.csrfToken,
+        'content-length': '0',
+      },
+    });
+    req.on('socket', (socket) => {
+      socket.on('data', (d: Buffer) => (responseBytes += d.length));
+    });
+    req.on('response', (res) => {
+      res.resume();
+      resolve({ status: res.statusCode ?? 0 });
+    });
+    req.on('error', (error: NodeJS.ErrnoException) => {
+      failSent(error);
+      resolve({ error: error.message, code: error.code, responseBytes });
+    });
+    req.end(() => markSent());
+  });
+  return { sent, outcome };
 }

@@ -54,6 +54,8 @@ export type SignedInAgent = TestAgent & {
   csrfToken: string;
   /** GET /api/session's user right after sign-in */
   user: SessionUser;
+  /** The session cookie as a Cookie header value, for a client other than this agent */
+  cookie: string;
 };
 
 const idps = new WeakMap<TestApp, Promise<FakeIdp>>();
@@ -192,12 +194,15 @@ export async function signInAs(
   if (res.status !== 303 || refused) {
     throw new Error(`sign-in as ${who} was refused (${refused ?? `HTTP ${res.status}`})`);
   }
+  const cookie = ((res.headers['set-cookie'] as string[] | undefined) ?? [])
+    .map((c) => c.split(';')[0]!)
+    .join('; ');
   const session = await started.agent.get('/api/session').expect(200);
   const body = session.body as { user: SessionUser | null; csrfToken: string | null };
   if (!body.user || !body.csrfToken)
     throw new Error(`after signing in as ${who}, /api/session has no user`);
   started.agent.set('X-CSRF-Token', body.csrfToken);
-  return Object.assign(started.agent, { csrfToken: body.csrfToken, user: body.user });
+  return Object.assign(started.agent, { csrfToken: body.csrfToken, user: body.user, cookie });
 }
 
 /** Loads the invented demo organisation (seed-data/generate.ts) into the test's database. */
