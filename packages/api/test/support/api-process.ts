@@ -47,7 +47,20 @@ export async function startApiProcess(
 ): Promise<ApiProcess> {
   if (!existsSync(mainJs))
     throw new Error(`${mainJs} is missing: run \`npm run build -w @cairn/api\` first`);
-  const port = await freePort();
+  // Another jest worker may take the same free port between our probe and the child's listen:
+  // that start fails with EADDRINUSE and is tried again on a new port.
+  for (let attempt = 1; ; attempt++) {
+    try {
+      return await launch(t, await freePort(), env);
+    } catch (error) {
+      if (!(error instanceof PortTakenError) || attempt === 3) throw error;
+    }
+  }
+}
+
+class PortTakenError extends Error {}
+
+async function launch(t: TestApp, port: number, env: Record<string, string>): Promise<ApiProcess> {
   const childEnv: NodeJS.ProcessEnv = {
     ...process.env,
     CAIRN_PROFILE: 'test',
@@ -73,12 +86,15 @@ export async function startApiProcess(
   const baseUrl = `http://127.0.0.1:${port}`;
   const deadline = Date.now() + 30_000;
   for (;;) {
-    if (child.exitCode !== null)
-      throw new Error(
-        `the API process exited (${child.exitCode}) before it was healthy:\n${output}`,
-      );
+    if (child.exitCode !== null) {
+      const message = `the API process exited (${child.exitCode}) before it was healthy:\n${output}`;
+      throw /EADDRINUSE/.test(output) ? new PortTakenError(message) : new Error(message);
+    }
     try {
-      if ((await fetch(`${baseUrl}/api/health`)).ok) break;
+      const res = await fetch(`${baseUrl}/api/health`);
+      // Healthy, and this child's own answer (not another process that holds the port).
+      const body = (await res.json()) as { process?: { pid?: number } };
+      if (res.ok && body.process?.pid === child.pid) break;
     } catch {
       // not listening yet
     }
