@@ -519,6 +519,16 @@ describe('submissions history', () => {
     );
     expect(screen.getByText('No extract was sent for 2026 Q2.')).toBeTruthy();
   });
+
+  it('sends an auditor, who has no practices of their own, to Coverage to choose one', async () => {
+    stubApi(auditor, () => undefined);
+    renderApp('/submissions');
+    expect(await screen.findByText('Choose a practice')).toBeTruthy();
+    expect(screen.queryByText(/not assigned to a practice/)).toBeNull();
+    const state = screen.getByText('Choose a practice').closest('.bp6-non-ideal-state')!;
+    const link = within(state as HTMLElement).getByRole('link', { name: 'Coverage' });
+    expect(link.getAttribute('href')).toBe('/coverage');
+  });
 });
 
 describe('upload page', () => {

@@ -104,9 +104,17 @@ function SubmissionsScreen() {
             icon="office"
             title="Choose a practice"
             description={
-              choices.practices.length > 0
-                ? 'Pick a practice above to see its submissions.'
-                : 'You are not assigned to a practice yet. Ask your regional lead to add your practice to your account.'
+              choices.practices.length > 0 ? (
+                'Pick a practice above to see its submissions.'
+              ) : me.data?.role === 'practice_lead' ? (
+                'You are not assigned to a practice yet. Ask your regional lead to add your practice to your account.'
+              ) : (
+                // Auditors read every practice of the region: they start from the quarter's coverage.
+                <>
+                  Open a practice from <Link to="/coverage">Coverage</Link>, which lists every
+                  practice of the region for the audit quarter, to see its submissions.
+                </>
+              )
             }
           />
         )
