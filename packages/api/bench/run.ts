@@ -111,10 +111,10 @@ async function main(): Promise<void> {
     const intake = await t.get('submissions/intake.service.js', 'IntakeService');
     const runner = await t.get('submissions/job-runner.service.js', 'JobRunner');
 
-    const ingest = async (file: string | Buffer, forPractice = practice, rows = N) => {
+    const ingest = async (file: string, forPractice = practice, rows = N) => {
       const id = await intake.store(system, forPractice, quarter, null, {
-        fileName: typeof file === 'string' ? file.split('/').pop()! : 'warm-up.xlsx',
-        chunks: Readable.from([typeof file === 'string' ? readFileSync(file) : file]),
+        fileName: file.split('/').pop()!,
+        chunks: Readable.from([readFileSync(file)]),
         truncated: () => false,
       });
       // Timed from the moment the stored upload is queued to the report being ready.
@@ -136,13 +136,13 @@ async function main(): Promise<void> {
     };
 
     // Warm-up, untimed: a small CSV and a small XLSX through the same pipeline.
-    const warmRows = () => benchRows(WARM_UP_ROWS);
     const warmCsv = join(work, `warm-up-${WARM_UP_ROWS}.csv`);
-    writeFileSync(warmCsv, writeCsv({ headings: BENCH_HEADINGS, rows: warmRows() }));
-    const warmXlsx = (await writeXlsx(
-      { headings: BENCH_HEADINGS, rows: warmRows() },
-      { sharedStrings: true },
-    ))!;
+    const warmXlsx = join(work, `warm-up-${WARM_UP_ROWS}.xlsx`);
+    writeFileSync(warmCsv, writeCsv({ headings: BENCH_HEADINGS, rows: benchRows(WARM_UP_ROWS) }));
+    await writeXlsx(
+      { headings: BENCH_HEADINGS, rows: benchRows(WARM_UP_ROWS) },
+      { filename: warmXlsx, sharedStrings: true },
+    );
     await ingest(warmCsv, practiceId('OV104'), WARM_UP_ROWS);
     await ingest(warmXlsx, practiceId('OV104'), WARM_UP_ROWS);
 
