@@ -20,6 +20,7 @@ import { CAIRN_SECRETS } from '../config/config.module.js';
 import { acquireRaw, releaseRaw, type RawConnection } from '../records/raw-connection.js';
 import { RecordLoader } from '../records/record-loader.js';
 import type { Issue } from './format/issue-codes.js';
+import { UploadHandoff } from './upload-handoff.js';
 import {
   type ExtractOutcome,
   processExtract,
@@ -76,6 +77,7 @@ export class ExtractProcessor {
     @Inject(ConfigService) private readonly config: ConfigService<CairnConfig, true>,
     @Inject(CAIRN_SECRETS) secrets: CairnSecrets,
     @Inject(AuditTrailService) private readonly audit: AuditTrailService,
+    @Inject(UploadHandoff) private readonly handoff: UploadHandoff,
   ) {
     this.secret = secrets.CAIRN_PSEUDONYM_SECRET;
   }
@@ -105,7 +107,8 @@ export class ExtractProcessor {
       type: QueryTypes.DELETE,
     });
 
-    const bytes = await readFile(this.sequelize, id);
+    // Usually this process received the upload a moment ago and still holds its bytes.
+    const bytes = this.handoff.take(id) ?? (await readFile(this.sequelize, id));
     const now = new Date();
     const context = {
       practiceCode: submission.practice_code,

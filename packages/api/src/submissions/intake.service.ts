@@ -1,8 +1,10 @@
 /**
  * Receiving an extract: the multipart upload is streamed (busboy) into
  * extract_file_chunks under a new submission, hashed on the way, and counted
- * against the size limit without holding the file in memory. When it has all
- * arrived the submission is queued for any API process to check.
+ * against the size limit. When it has all arrived the submission is queued for
+ * any API process to check. A bounded copy of the bytes may stay in memory
+ * for a minute (UploadHandoff), so that this process, which is kicked to
+ * check it at once, need not read the file back from MariaDB.
  *
  * Refused here, before any checking: a file over the size limit (a rejected
  * submission, so history shows it), and a file identical (SHA-256) to one
@@ -24,6 +26,7 @@ import type { QuarterRow } from '../quarters/quarters.service.js';
 import { QuartersService } from '../quarters/quarters.service.js';
 import { JobRunner, UPLOAD_LEASE_PREFIX } from './job-runner.service.js';
 import { deleteFile, execute, findSubmission, type SubmissionStatus } from './submission-store.js';
+import { type HandoffCollector, UploadHandoff } from './upload-handoff.js';
 
 const CHUNK_BYTES = 1 << 20;
 
@@ -63,6 +66,7 @@ export class IntakeService {
     @Inject(AuditTrailService) private readonly audit: AuditTrailService,
     @Inject(QuartersService) private readonly quarters: QuartersService,
     @Inject(JobRunner) private readonly runner: JobRunner,
+    @Inject(UploadHandoff) private readonly handoff: UploadHandoff,
   ) {}
 
   /** The quarter, checked: in the practice's region, and open (regional leads may also send to a closed one). */
@@ -169,6 +173,26 @@ export class IntakeService {
     dateConvention: 'day_first' | 'month_first' | null,
     upload: ExtractUpload,
   ): Promise<number> {
+    // What is written, in order, for this process's job runner to check without reading it back.
+    const kept = this.handoff.collector(this.config.get('extracts', { infer: true }).workers > 0);
+    try {
+      const id = await this.storeParts(actor, practiceId, quarterId, dateConvention, upload, kept);
+      kept.commit(id);
+      this.runner.kick();
+      return id;
+    } finally {
+      kept.close();
+    }
+  }
+
+  private async storeParts(
+    actor: UploadActor,
+    practiceId: number,
+    quarterId: number,
+    dateConvention: 'day_first' | 'month_first' | null,
+    upload: ExtractUpload,
+    kept: HandoffCollector,
+  ): Promise<number> {
     const maxBytes = this.config.get('extracts', { infer: true }).maxBytes;
     const fileName = cleanFileName(upload.fileName);
     const [insertId] = await this.sequelize.query(
@@ -199,6 +223,7 @@ export class IntakeService {
       const data = Buffer.concat(pending, pendingBytes);
       pending = [];
       pendingBytes = 0;
+      kept.add(data);
       for (let at = 0; at < data.length; at += CHUNK_BYTES) {
         await this.sequelize.query(
           'INSERT INTO extract_file_chunks (submission_id, seq, data) VALUES (?, ?, ?)',
@@ -365,7 +390,6 @@ export class IntakeService {
       );
     }
 
-    this.runner.kick();
     return id;
   }
 }

@@ -8,12 +8,20 @@ import { JobRunner } from './job-runner.service.js';
 import { ReportService } from './report/report.service.js';
 import { SubmissionsController } from './submissions.controller.js';
 import { SubmissionsService } from './submissions.service.js';
+import { UploadHandoff } from './upload-handoff.js';
 
 /** Extracts: template, upload, checking as a job, validation report, confirm/cancel/retry, coverage. */
 @Module({
   imports: [QuartersModule],
   controllers: [ExtractsController, SubmissionsController, CoverageController],
-  providers: [ExtractProcessor, JobRunner, IntakeService, SubmissionsService, ReportService],
+  providers: [
+    ExtractProcessor,
+    JobRunner,
+    IntakeService,
+    SubmissionsService,
+    ReportService,
+    { provide: UploadHandoff, useFactory: () => new UploadHandoff() },
+  ],
   exports: [IntakeService, SubmissionsService, JobRunner],
 })
 export class SubmissionsModule {}
