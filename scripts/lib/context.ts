@@ -12,7 +12,12 @@ import {
   type CairnSecrets,
   secretNames,
 } from '../../packages/api/src/config/config.schema.ts';
-import { loadConfig, resolvePath } from '../../packages/api/src/config/load-config.ts';
+import {
+  loadConfig,
+  resolvePath,
+  unknownEnvWarnings,
+} from '../../packages/api/src/config/load-config.ts';
+import { log } from './log.ts';
 import type { MariadbPaths } from './mariadb.ts';
 
 export const root = join(dirname(fileURLToPath(import.meta.url)), '..', '..');
@@ -57,6 +62,7 @@ function localSecrets(profile: CairnConfig['profile']): CairnSecrets {
 
 export function loadContext(profile: CairnConfig['profile']): Context {
   const config = loadConfig({ root, profile });
+  for (const warning of unknownEnvWarnings(config)) log.warn(warning);
   const secrets = profile === 'production' ? ({} as CairnSecrets) : localSecrets(profile);
   const dataDir = resolvePath(root, config.mariadb.dataDir);
   const mariadb: MariadbPaths = {

@@ -1,7 +1,13 @@
 import { mkdtempSync, mkdirSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { ConfigError, envNameFor, loadConfig, loadSecrets } from './load-config.js';
+import {
+  ConfigError,
+  envNameFor,
+  loadConfig,
+  loadSecrets,
+  unknownEnvWarnings,
+} from './load-config.js';
 import { findRepoRoot } from './load-config.js';
 
 const root = findRepoRoot();
@@ -77,6 +83,25 @@ describe('configuration', () => {
     expect(problemsOf(() => loadConfig({ root: dir, profile: 'test', env: {} }))[0]).toMatch(
       /unknown key database\.pool_max/,
     );
+  });
+
+  it('warns of a CAIRN_* variable that names no setting, with the nearest name', () => {
+    const config = loadConfig({ root, profile: 'test', env: {} });
+    expect(
+      unknownEnvWarnings(config, {
+        CAIRN_SERVER_PROT: '3001',
+        CAIRN_WIBBLE: '1',
+        CAIRN_SERVER_PORT: '3001',
+        CAIRN_DATABASE_PASSWORD: 'x',
+        CAIRN_PROFILE: 'test',
+        CAIRN_TEST_PAUSE_CONFIRM_MS: '10',
+        CAIRN_CHROMIUM: '/usr/bin/chromium',
+        PATH: '/usr/bin',
+      }),
+    ).toEqual([
+      'CAIRN_SERVER_PROT is set but is not a Cairn setting, so it has no effect; did you mean CAIRN_SERVER_PORT? Every key of config/default.json has its variable (README, Configuration).',
+      'CAIRN_WIBBLE is set but is not a Cairn setting, so it has no effect. Every key of config/default.json has its variable (README, Configuration).',
+    ]);
   });
 
   it('refuses secrets in configuration files', () => {

@@ -232,6 +232,72 @@ export function loadConfig(options: LoadOptions = {}): CairnConfig {
   return result.data;
 }
 
+/** CAIRN_* variables that are not settings: read by the scripts and the tests themselves. */
+const OPERATIONAL_ENV = new Set([
+  'CAIRN_PROFILE',
+  'CAIRN_ROOT',
+  'CAIRN_CHROMIUM',
+  'CAIRN_SEED_DEMO_EXTRACTS',
+  'CAIRN_TEST_LOG_LEVEL',
+]);
+const OPERATIONAL_PREFIXES = ['CAIRN_TEST_PAUSE_'];
+
+function settingNames(value: unknown, prefix: string[], into: Set<string>): Set<string> {
+  if (isObject(value)) {
+    for (const [key, child] of Object.entries(value)) settingNames(child, [...prefix, key], into);
+  } else if (prefix.length > 0) {
+    into.add(envNameFor(prefix));
+  }
+  return into;
+}
+
+function editDistance(a: string, b: string): number {
+  let previous = Array.from({ length: b.length + 1 }, (_, j) => j);
+  for (let i = 1; i <= a.length; i++) {
+    const current = [i];
+    for (let j = 1; j <= b.length; j++) {
+      current[j] = Math.min(
+        previous[j]! + 1,
+        current[j - 1]! + 1,
+        previous[j - 1]! + (a[i - 1] === b[j - 1] ? 0 : 1),
+      );
+    }
+    previous = current;
+  }
+  return previous[b.length]!;
+}
+
+/**
+ * CAIRN_* environment variables that Cairn does not read (a misspelt setting is otherwise
+ * silently ignored), each with the nearest name Cairn knows when there is a close one.
+ */
+export function unknownEnvWarnings(
+  config: CairnConfig,
+  env: NodeJS.ProcessEnv = process.env,
+): string[] {
+  const known = settingNames(config, [], new Set<string>([...secretNames, ...OPERATIONAL_ENV]));
+  const warnings: string[] = [];
+  for (const name of Object.keys(env).sort()) {
+    if (!name.startsWith('CAIRN_') || known.has(name)) continue;
+    if (OPERATIONAL_PREFIXES.some((prefix) => name.startsWith(prefix))) continue;
+    let nearest: string | null = null;
+    let best = Infinity;
+    for (const candidate of known) {
+      const d = editDistance(name, candidate);
+      if (d < best) {
+        best = d;
+        nearest = candidate;
+      }
+    }
+    warnings.push(
+      `${name} is set but is not a Cairn setting, so it has no effect` +
+        (nearest !== null && best <= 3 ? `; did you mean ${nearest}?` : '.') +
+        ' Every key of config/default.json has its variable (README, Configuration).',
+    );
+  }
+  return warnings;
+}
+
 /** Reads and validates the secrets from the environment. */
 export function loadSecrets(env: NodeJS.ProcessEnv = process.env): CairnSecrets {
   const result = secretsSchema.safeParse(env);
