@@ -39,11 +39,14 @@ const N = quick ? 20_000 : 100_000;
 const work = join(tmpdir(), 'cairn-bench');
 mkdirSync(work, { recursive: true });
 
-const RUNS = 3;
+const RUNS = 5;
 const WARM_UP_ROWS = 10_000;
 const median = (values: number[]) => [...values].sort((a, b) => a - b)[values.length >> 1]!;
 const fmt = (n: number) => new Intl.NumberFormat('en-GB', { maximumFractionDigits: 0 }).format(n);
 const seconds = (ms: number) => `${(ms / 1000).toFixed(2)} s`;
+/** Every run's time, in run order: this machine's run-to-run spread, next to the medians. */
+const spread = (label: string, values: number[]) =>
+  `      ${label}: ${values.map((ms) => (ms / 1000).toFixed(2)).join(', ')} s`;
 
 async function prepareFiles() {
   const csv = join(work, `bench-${N}.csv`);
@@ -203,6 +206,13 @@ async function main(): Promise<void> {
     console.log(
       `  CSV end to end                      ${seconds(csvMs).padStart(8)}  ${fmt(csvRate).padStart(8)} rows/s   ratio ${(csvRate / loadRate).toFixed(2)} (target ≥ 0.50)`,
     );
+    console.log(spread('runs, LOAD DATA', loadTimes));
+    console.log(
+      spread(
+        'runs, CSV end to end',
+        csvRuns.map((r) => r.ms),
+      ),
+    );
 
     // 2. XLSX end to end, and a bare exceljs streaming read of the same XLSX.
     const bareTimes: number[] = [];
@@ -223,6 +233,8 @@ async function main(): Promise<void> {
     console.log(
       `  XLSX end to end                     ${seconds(xlsxMs).padStart(8)}  ${fmt(xlsxRate).padStart(8)} rows/s   ratio ${(xlsxRate / bareRate).toFixed(2)} (target ≥ 0.80)`,
     );
+    console.log(spread('runs, bare exceljs read', bareTimes));
+    console.log(spread('runs, XLSX end to end', xlsxTimes));
 
     // 3. A 5,000-row practice file, upload to report over HTTP as a practice lead.
     const { signInAs } = await import('../test/support/auth.js');
