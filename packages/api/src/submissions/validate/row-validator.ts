@@ -80,7 +80,6 @@ const PROCESS_TARGET: Record<string, { month: number; values: number[] }> = {
   retinal_screening: { month: COL.retinal_screening_month, values: [] },
 };
 
-const NO_CELLS: Cell[] = [];
 const PLAIN_NUMBER = /^\d{1,6}(\.\d{1,6})?$/;
 const digit = (text: string, i: number) => {
   const d = text.charCodeAt(i) - 48;
@@ -118,7 +117,13 @@ export class RowValidator {
     def: (typeof CARE_PROCESSES)[number];
     dateIndex: number;
     valueIndices: number[];
+    target: { month: number; values: number[] };
+    /** Scratch arrays, reused row after row (nothing of them outlives one care process) */
+    valueCells: Cell[];
+    values: (number | string)[];
   }[];
+  /** 'YYYY-MM' of month indices already seen (the same few months recur on every row) */
+  private readonly monthText = new Map<number, string>();
   // The row being validated
   private row = 0;
   private issues: Issue[] = [];
@@ -134,6 +139,9 @@ export class RowValidator {
       def,
       dateIndex: this.index[def.dateColumn]!,
       valueIndices: def.valueColumns.map((k) => this.index[k]!),
+      target: PROCESS_TARGET[def.key]!,
+      valueCells: [],
+      values: [],
     }));
   }
 
@@ -372,11 +380,12 @@ export class RowValidator {
     }
 
     // ── care processes ──
-    for (const { def: process, dateIndex, valueIndices } of this.processes) {
-      const target = PROCESS_TARGET[process.key]!;
+    for (const care of this.processes) {
+      const { def: process, dateIndex, valueIndices, target } = care;
       const dateCell = dateIndex < 0 ? null : (cells[dateIndex] ?? null);
       let anyValue = false;
-      const valueCells: Cell[] = valueIndices.length === 0 ? NO_CELLS : [];
+      const valueCells = care.valueCells;
+      valueCells.length = 0;
       for (const vi of valueIndices) {
         const c = vi < 0 ? null : (cells[vi] ?? null);
         valueCells.push(c);
@@ -396,7 +405,8 @@ export class RowValidator {
         continue;
       }
       const month = this.month(dateCell, process.dateColumn, birthYear);
-      const values: (number | string)[] = [];
+      const values = care.values;
+      values.length = 0;
       let valuesOk = true;
       for (let i = 0; i < process.valueColumns.length; i++) {
         const key = process.valueColumns[i]!;
@@ -448,7 +458,7 @@ export class RowValidator {
         }
       }
       record[target.month] = month;
-      target.values.forEach((index, i) => (record[index] = values[i]!));
+      for (let i = 0; i < target.values.length; i++) record[target.values[i]!] = values[i]!;
     }
 
     // ── treatment and history ──
@@ -635,7 +645,12 @@ export class RowValidator {
           (birthYear === null || year >= birthYear) &&
           year >= 1900
         ) {
-          return cell.slice(0, 7);
+          let text = this.monthText.get(index);
+          if (text === undefined) {
+            text = cell.slice(0, 7);
+            this.monthText.set(index, text);
+          }
+          return text;
         }
       }
     }
