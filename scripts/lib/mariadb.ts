@@ -133,12 +133,16 @@ export function ensureDataDir(bin: MariadbBinaries, p: MariadbPaths): 'created' 
     if (entries.length === 0) {
       rmSync(p.dataDir, { recursive: true, force: true });
     } else if (!entries.includes(MARKER) || !entries.includes('mysql')) {
+      const another = `${show(p, p.dataDir)}-2`;
+      const fromEnv = process.env.CAIRN_MARIADB_DATA_DIR;
       fail(
         `The MariaDB data directory ${show(p, p.dataDir)} exists but is not a complete Cairn data directory ` +
           `(no ${MARKER} marker or no mysql/ system tables: it was probably left half-initialised by a start that was killed, ` +
           `or made by hand). Cairn never deletes a data directory itself.\n` +
           `  If it holds nothing you need: rm -rf ${show(p, p.dataDir)} and run the command again.\n` +
-          `  To keep it and use another: set ${p.configHint}.dataDir (e.g. CAIRN_MARIADB_DATA_DIR=.data/mariadb-2).`,
+          (fromEnv
+            ? `  To keep it and use another: CAIRN_MARIADB_DATA_DIR (${fromEnv}) names this one; point it at a new folder, e.g. CAIRN_MARIADB_DATA_DIR=${another}.`
+            : `  To keep it and use another: set ${p.configHint}.dataDir, e.g. CAIRN_MARIADB_DATA_DIR=${another}.`),
       );
     } else {
       return 'existing';

@@ -70,6 +70,11 @@ describe('configuration', () => {
     ]);
   });
 
+  it('ends by asking to fix the value, or the values when there are several', () => {
+    expect(new ConfigError(['one']).message).toMatch(/\nFix the value named above /);
+    expect(new ConfigError(['one', 'two']).message).toMatch(/\nFix the values named above /);
+  });
+
   it('refuses an out-of-range value from a file', () => {
     const dir = withLocal({ server: { port: 70000 } });
     const problems = problemsOf(() => loadConfig({ root: dir, profile: 'test', env: {} }));

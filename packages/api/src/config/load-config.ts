@@ -19,7 +19,7 @@ export class ConfigError extends Error {
   constructor(readonly problems: string[]) {
     super(
       `Cairn's configuration is not valid:\n${problems.map((p) => `  - ${p}`).join('\n')}\n` +
-        'Fix the value named above (config/*.json or the environment variable) and start again.',
+        `Fix the ${problems.length === 1 ? 'value' : 'values'} named above (config/*.json or the environment variable) and start again.`,
     );
     this.name = 'ConfigError';
   }
