@@ -7,8 +7,8 @@
  * go reads the file from MariaDB as before.
  *
  * Bounded: at most HANDOFF_MAX_BYTES held in all (uploads still arriving
- * included), each entry for at most HANDOFF_MAX_AGE_MS. An upload that does
- * not fit is simply not kept.
+ * included), each entry for at most HANDOFF_MAX_AGE_MS (a timer lets it go).
+ * An upload that does not fit is simply not kept.
  */
 /** Total bytes held (about two extracts at the default 25 MB limit). */
 export const HANDOFF_MAX_BYTES = 64 << 20;
@@ -18,7 +18,7 @@ export const HANDOFF_MAX_AGE_MS = 60_000;
 interface Entry {
   parts: Buffer[];
   bytes: number;
-  keptAt: number;
+  timer: NodeJS.Timeout;
 }
 
 /** Collects one upload's stored parts, holding room for them as they come. */
@@ -40,7 +40,6 @@ export class UploadHandoff {
   constructor(
     private readonly maxBytes = HANDOFF_MAX_BYTES,
     private readonly maxAgeMs = HANDOFF_MAX_AGE_MS,
-    private readonly now: () => number = Date.now,
   ) {}
 
   /** Bytes held now, arriving uploads included (for tests and diagnostics). */
@@ -63,7 +62,6 @@ export class UploadHandoff {
     return {
       add: (part) => {
         if (parts === null) return;
-        this.expire();
         if (this.held + part.length > this.maxBytes) return giveBack();
         this.held += part.length;
         bytes += part.length;
@@ -72,7 +70,9 @@ export class UploadHandoff {
       commit: (id) => {
         if (parts === null || bytes === 0) return giveBack();
         this.drop(id);
-        this.entries.set(id, { parts, bytes, keptAt: this.now() });
+        const timer = setTimeout(() => this.drop(id), this.maxAgeMs);
+        timer.unref();
+        this.entries.set(id, { parts, bytes, timer });
         // The room now belongs to the entry.
         parts = null;
         bytes = 0;
@@ -83,7 +83,6 @@ export class UploadHandoff {
 
   /** The bytes of submission `id` if this process still holds them; they are let go. */
   take(id: number): Buffer | null {
-    this.expire();
     const entry = this.entries.get(id);
     if (!entry) return null;
     this.drop(id);
@@ -91,17 +90,11 @@ export class UploadHandoff {
   }
 
   /** Lets go of submission `id`'s bytes. */
-  drop(id: number): void {
+  private drop(id: number): void {
     const entry = this.entries.get(id);
     if (!entry) return;
+    clearTimeout(entry.timer);
     this.entries.delete(id);
     this.held -= entry.bytes;
-  }
-
-  private expire(): void {
-    const oldest = this.now() - this.maxAgeMs;
-    for (const [id, entry] of this.entries) {
-      if (entry.keptAt < oldest) this.drop(id);
-    }
   }
 }
