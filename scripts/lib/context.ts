@@ -13,6 +13,7 @@ import {
   secretNames,
 } from '../../packages/api/src/config/config.schema.ts';
 import {
+  ENV_CHECKED,
   loadConfig,
   resolvePath,
   unknownEnvWarnings,
@@ -81,6 +82,8 @@ export function loadContext(profile: CairnConfig['profile']): Context {
     ...secrets,
     CAIRN_ROOT: root,
     CAIRN_PROFILE: profile,
+    // Unknown CAIRN_* variables were reported above; the API need not say so again.
+    [ENV_CHECKED]: '1',
     NODE_ENV: profile === 'production' ? 'production' : profile === 'test' ? 'test' : 'development',
   };
   return { root, config, secrets, mariadb, childEnv };

@@ -1,10 +1,14 @@
 /** Starts one Cairn API process (stateless: sessions, jobs and outbox live in MariaDB). */
 import 'reflect-metadata';
 import { createApp } from './app.factory.js';
-import { loadConfig } from './config/load-config.js';
+import { ENV_CHECKED, loadConfig, unknownEnvWarnings } from './config/load-config.js';
 
 async function main(): Promise<void> {
   const config = loadConfig();
+  if (process.env[ENV_CHECKED] !== '1') {
+    for (const msg of unknownEnvWarnings(config))
+      console.warn(JSON.stringify({ level: 40, msg, pid: process.pid }));
+  }
   const app = await createApp({ config });
   await app.listen(config.server.port, config.server.host);
   console.log(

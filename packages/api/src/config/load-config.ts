@@ -232,9 +232,15 @@ export function loadConfig(options: LoadOptions = {}): CairnConfig {
   return result.data;
 }
 
+/**
+ * Set by the npm scripts for the processes they start, once they have warned of unknown
+ * CAIRN_* variables themselves (so that the API does not warn a second time).
+ */
+export const ENV_CHECKED = 'CAIRN_ENV_CHECKED';
+
 /** CAIRN_* variables that are not settings: read by the scripts and the tests themselves. */
 const OPERATIONAL_ENV = new Set([
-  'CAIRN_PROFILE',
+  ENV_CHECKED,
   'CAIRN_ROOT',
   'CAIRN_CHROMIUM',
   'CAIRN_SEED_DEMO_EXTRACTS',
