@@ -605,6 +605,41 @@ describe('upload page', () => {
     expect((post[1]?.body as FormData).get('file')).toBeInstanceOf(File);
   });
 
+  it('says what is still to choose while the upload button cannot be pressed', async () => {
+    const daniel: Me = {
+      ...priya,
+      id: 4,
+      displayName: 'Daniel Oyelaran',
+      practices: [
+        { id: 11, code: 'OV101', name: 'Wrenfield Health Centre' },
+        { id: 13, code: 'OV103', name: 'Harnleigh Old Mill Practice' },
+      ],
+    };
+    stubApi(daniel, (path) => {
+      if (path === '/api/quarters') return { body: [q3] };
+      if (path === '/api/extracts/format') return { body: format };
+      if (path === '/api/practices/11/submissions') return { body: history([]) };
+      return undefined;
+    });
+    renderApp('/extracts/upload');
+    const button = await screen.findByRole('button', { name: 'Upload and check' });
+    expect(
+      await screen.findByText('To upload, choose the practice and the extract file.'),
+    ).toBeTruthy();
+    expect(button.hasAttribute('disabled')).toBe(true);
+    expect(button.getAttribute('aria-describedby')).toBe('cairn-upload-still-to-choose');
+    await userEvent.upload(
+      screen.getByLabelText('Extract file'),
+      new File(['record_ref\nA-1\n'], 'q3.csv', { type: 'text/csv' }),
+    );
+    expect(screen.getByText('To upload, choose the practice.')).toBeTruthy();
+    await userEvent.click(screen.getByLabelText('OV101 · Wrenfield Health Centre'));
+    expect(screen.queryByText(/^To upload, choose/)).toBeNull();
+    expect(screen.getByRole('button', { name: 'Upload and check' }).hasAttribute('disabled')).toBe(
+      false,
+    );
+  });
+
   it('refuses a file over the server’s size limit before sending it', async () => {
     const fetchMock = stubApi(priya, (path) => {
       if (path === '/api/quarters') return { body: [q3] };

@@ -85,6 +85,16 @@ function UploadScreen() {
   const maxBytes = format.data?.limits.maxBytes;
   const tooLarge = file !== null && maxBytes !== undefined && file.size > maxBytes;
   const ready = practice !== null && quarter !== null && file !== null && !tooLarge;
+  // Said beside the disabled button, so that nobody wonders why it cannot be pressed.
+  const missing = [
+    practice === null ? 'the practice' : null,
+    quarter === null ? 'the audit quarter' : null,
+    file === null ? 'the extract file' : null,
+  ].filter((m): m is string => m !== null);
+  const stillToChoose =
+    missing.length === 0 || tooLarge
+      ? null
+      : `To upload, choose ${missing.length === 1 ? missing[0] : `${missing.slice(0, -1).join(', ')} and ${missing[missing.length - 1]}`}.`;
 
   const choose = (key: 'practice' | 'quarter', value: string) => {
     const next = new URLSearchParams(params);
@@ -339,10 +349,16 @@ function UploadScreen() {
                 size="large"
                 disabled={!ready}
                 loading={upload.isPending}
+                aria-describedby={stillToChoose ? 'cairn-upload-still-to-choose' : undefined}
               >
                 Upload and check
               </Button>
               {upload.isPending ? <span className="cairn-muted">Sending the file…</span> : null}
+              {stillToChoose && !upload.isPending ? (
+                <span className="cairn-muted" id="cairn-upload-still-to-choose">
+                  {stillToChoose}
+                </span>
+              ) : null}
             </div>
           </Card>
         </form>
