@@ -6,7 +6,7 @@
  *
  * A quote-aware pass first finds record boundaries, counts the records
  * holding values (row limit, progress) and catches an unclosed quote; the
- * records are then parsed by papaparse in slices of a thousand, so the API
+ * records are then parsed by papaparse in slices of 250, so the API
  * keeps answering while a large file is read.
  */
 import Papa from 'papaparse';
@@ -14,7 +14,7 @@ import { type Refusal, refusal } from '../format/issue-codes.js';
 import type { Cell } from '../format/values.js';
 import type { RowSource, SourceNotes, SourceRow } from './row-source.js';
 
-const SLICE = 1000;
+const SLICE = 250;
 
 export class CsvRowSource implements RowSource {
   readonly kind = 'csv' as const;

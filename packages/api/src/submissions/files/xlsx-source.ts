@@ -12,7 +12,7 @@ import { type Cell, CellProblem } from '../format/values.js';
 import type { RowSource, SourceNotes, SourceRow } from './row-source.js';
 import type { CellRange, XlsxPrescan } from './xlsx-prescan.js';
 
-const BATCH = 500;
+const BATCH = 100;
 
 export function toCell(value: unknown, onFormula: () => void): Cell {
   if (value === null || value === undefined) return null;

@@ -88,7 +88,7 @@ const TEMPLATE_SHEETS = new Set([
   'readme',
 ]);
 const ISSUE_BATCH = 1000;
-const RECORD_BATCH = 1000;
+const RECORD_BATCH = 200;
 const REJECTED_BATCH = 500;
 
 const listRows = (rows: number[], max = 12) =>
