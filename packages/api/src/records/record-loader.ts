@@ -10,33 +10,11 @@
  * practice_quarters.current_submission_id to their submission.
  */
 import { createHash } from 'node:crypto';
-import { PassThrough } from 'node:stream';
+import { PassThrough, Readable } from 'node:stream';
 import type { Sequelize } from 'sequelize';
 import { acquireRaw, type RawConnection, type RawResult, releaseRaw } from './raw-connection.js';
 import { COL, RECORD_COLUMNS, type RecordRow } from './record-columns.js';
-
-// eslint-disable-next-line no-control-regex
-const NEEDS_ESCAPE = /[\\\t\n\r\u0000]/;
-
-/** A value in LOAD DATA's default text format: \N for NULL, backslash escapes. */
-export function tsvField(value: string | number | null): string {
-  if (value === null) return '\\N';
-  if (typeof value === 'number') return String(value);
-  if (!NEEDS_ESCAPE.test(value)) return value;
-  // eslint-disable-next-line no-control-regex
-  return value.replace(/[\\\t\n\r\u0000]/g, (ch) =>
-    ch === '\\' ? '\\\\' : ch === '\t' ? '\\t' : ch === '\n' ? '\\n' : ch === '\r' ? '\\r' : '\\0',
-  );
-}
-
-/** A staged record as one line of LOAD DATA text; the pseudonym column is left to MariaDB. */
-export function tsvLine(row: RecordRow): string {
-  let line = tsvField(row[0]!);
-  for (let i = 1; i < row.length; i++) {
-    if (i !== COL.pseudonym) line += '\t' + tsvField(row[i] ?? null);
-  }
-  return line + '\n';
-}
+import { TsvEncoder } from './tsv-encoder.js';
 
 /**
  * The HMAC-SHA256 key pads (RFC 2104) of the pseudonym secret. MariaDB computes each staged
@@ -87,9 +65,16 @@ export class RecordLoader {
   private staged = 0;
   private current: PassThrough | null = null;
   private currentRows = 0;
+  /** The current statement's rows as LOAD DATA text, in buffers handed to its stream */
+  private readonly encoder = new TsvEncoder((chunk) => this.current!.write(chunk));
   private readonly inflight: Promise<void>[] = [];
-  private readonly streams = new Set<PassThrough>();
+  /** Statements not yet answered, and whether MariaDB has asked for their rows yet */
+  private readonly streams = new Map<
+    PassThrough,
+    { requested: boolean; ended: boolean; stopped: boolean }
+  >();
   private failure: Error | null = null;
+  private aborting = false;
   private closed = false;
 
   private constructor(
@@ -128,9 +113,23 @@ export class RecordLoader {
   /** Starts the next LOAD DATA statement; the connector queues it behind those still running. */
   private startStatement(): void {
     const stream = new PassThrough({ highWaterMark: 4 << 20 });
-    this.streams.add(stream);
+    // The connector listens to a stream only once MariaDB asks for its statement's rows; until
+    // then a stream destroyed by stopStatements() would raise an 'error' event nobody hears, which ends
+    // the process. Failures reach the loader through the statement's own result instead.
+    stream.on('error', () => undefined);
+    const state = { requested: false, ended: false, stopped: false };
+    // Once its rows have all gone, a statement only waits for MariaDB's answer: nothing to stop.
+    stream.once('end', () => (state.ended = true));
+    this.streams.set(stream, state);
     const done = this.connection
-      .query<RawResult>({ sql: LOAD_STAGED_SQL, infileStreamFactory: () => stream })
+      .query<RawResult>({
+        sql: LOAD_STAGED_SQL,
+        infileStreamFactory: () => {
+          state.requested = true;
+          // A statement stopped before MariaDB reached it loads nothing (and is rolled back).
+          return state.stopped ? Readable.from([]) : stream;
+        },
+      })
       .then(
         (result) => {
           this.staged += result.affectedRows;
@@ -138,7 +137,8 @@ export class RecordLoader {
         },
         (error: Error) => {
           this.failure ??= error;
-          for (const s of this.streams) s.destroy();
+          this.streams.delete(stream);
+          this.stopStatements();
           throw error;
         },
       );
@@ -149,24 +149,37 @@ export class RecordLoader {
     this.currentRows = 0;
   }
 
+  /**
+   * Stops every statement not yet answered. One MariaDB is reading ends with an error (the
+   * connector then tells MariaDB the rows are over, and the statement fails); one still waiting
+   * for its turn gets no rows when MariaDB reaches it. A stream the connector was never given
+   * must not simply be destroyed: MariaDB would wait for its rows, and the connection with it.
+   */
+  private stopStatements(): void {
+    for (const [stream, state] of this.streams) {
+      if (state.stopped || state.ended) continue;
+      state.stopped = true;
+      if (state.requested) stream.destroy(new Error('staging stopped'));
+      else stream.destroy();
+    }
+    this.current = null;
+    this.encoder.discard();
+  }
+
   private endStatement(): void {
+    if (this.current) this.encoder.flush();
     this.current?.end();
     this.current = null;
   }
 
   async write(rows: RecordRow[]): Promise<void> {
     if (this.failure) throw this.failure;
-    let text = '';
+    if (this.closed || this.aborting) throw new Error('the record loader was stopped');
     for (const row of rows) {
       if (this.current === null) this.startStatement();
-      text += tsvLine(row);
-      if (++this.currentRows >= ROWS_PER_STATEMENT) {
-        this.current!.write(text);
-        text = '';
-        this.endStatement();
-      }
+      this.encoder.line(row, COL.pseudonym);
+      if (++this.currentRows >= ROWS_PER_STATEMENT) this.endStatement();
     }
-    if (text !== '') this.current!.write(text);
     this.written += rows.length;
     // Memory stays bounded: wait for MariaDB when it is more than a couple of slices behind.
     while (this.inflight.length > STATEMENTS_AHEAD + 1) {
@@ -196,7 +209,8 @@ export class RecordLoader {
   /** Stops the statements and rolls their rows back. */
   async abort(): Promise<void> {
     if (this.closed) return;
-    for (const stream of this.streams) stream.destroy(new Error('aborted'));
+    this.aborting = true;
+    this.stopStatements();
     await Promise.allSettled(this.inflight.splice(0));
     await this.connection.rollback().catch(() => undefined);
     await this.release();
