@@ -15,7 +15,6 @@ const TAB = 0x09;
 const NL = 0x0a;
 const BACKSLASH = 0x5c;
 const N = 0x4e;
-const MINUS = 0x2d;
 const ZERO = 0x30;
 
 // eslint-disable-next-line no-control-regex
@@ -84,93 +83,76 @@ export class TsvEncoder {
 
   /** One record as a line; the value at `skip` (a column MariaDB fills itself) is left out. */
   line(values: readonly (TsvValue | undefined)[], skip = -1): void {
+    // Room for the whole line at its longest, made once: a number is at most 24 characters, a
+    // UTF-16 unit of text at most 3 bytes of UTF-8 (an escape is 2), plus a tab or line break each.
+    let need = 0;
+    for (let i = 0; i < values.length; i++) {
+      const v = values[i];
+      need += typeof v === 'string' ? v.length * 3 + 1 : 25;
+    }
+    this.room(need);
+    const buf = this.buf;
+    let pos = this.pos;
     let first = true;
     for (let i = 0; i < values.length; i++) {
       if (i === skip) continue;
-      if (!first) {
-        this.room(1);
-        this.buf[this.pos++] = TAB;
-      }
-      first = false;
-      this.value(values[i] ?? null);
-    }
-    this.room(1);
-    this.buf[this.pos++] = NL;
-  }
-
-  value(value: TsvValue): void {
-    if (value === null) {
-      this.room(2);
-      this.buf[this.pos++] = BACKSLASH;
-      this.buf[this.pos++] = N;
-    } else if (typeof value === 'number') {
-      this.number(value);
-    } else {
-      this.text(value);
-    }
-  }
-
-  private number(value: number): void {
-    const negative = value < 0;
-    const magnitude = negative ? -value : value;
-    if (magnitude < 4294967296 && magnitude === Math.floor(magnitude)) {
-      // Whole numbers, the usual case (years, rows, blood pressures): digits written directly.
-      let n = magnitude >>> 0;
-      let digits = 1;
-      for (let t = n; t >= 10; t = (t / 10) >>> 0) digits++;
-      this.room(digits + 1);
-      if (negative) this.buf[this.pos++] = MINUS;
-      let p = this.pos + digits;
-      this.pos = p;
-      do {
-        const q = (n / 10) >>> 0;
-        this.buf[--p] = ZERO + (n - q * 10);
-        n = q;
-      } while (n > 0);
-      return;
-    }
-    // Fractions (53.2), and the rare very large or small number: as JavaScript writes it, which
-    // MariaDB reads back exactly (1e-7 included).
-    this.ascii(String(value));
-  }
-
-  /** Text of printable ASCII (what String(number) gives). */
-  private ascii(text: string): void {
-    this.room(text.length);
-    for (let i = 0; i < text.length; i++) this.buf[this.pos++] = text.charCodeAt(i);
-  }
-
-  private text(text: string): void {
-    const length = text.length;
-    // Room for the worst case, made once: every UTF-16 unit 3 bytes of UTF-8 (an escape is 2).
-    this.room(length * 3);
-    const start = this.pos;
-    for (let i = 0; i < length; i++) {
-      const code = text.charCodeAt(i);
-      if (code >= 0x80) {
-        // Not ASCII: start again from this string's beginning with the general path.
-        this.pos = start;
-        this.unicode(text);
-        return;
-      }
-      const escape = escapeOf(code);
-      if (escape !== 0) {
-        this.buf[this.pos++] = BACKSLASH;
-        this.buf[this.pos++] = escape;
+      if (first) first = false;
+      else buf[pos++] = TAB;
+      const v = values[i] ?? null;
+      if (v === null) {
+        buf[pos++] = BACKSLASH;
+        buf[pos++] = N;
+      } else if (typeof v === 'number') {
+        if (v >= 0 && v < 4294967296 && v === Math.floor(v)) {
+          // Whole numbers, the usual case (years, rows, blood pressures): digits written directly.
+          let n = v >>> 0;
+          let digits = 1;
+          for (let t = n; t >= 10; t = (t / 10) >>> 0) digits++;
+          let p = pos + digits;
+          pos = p;
+          do {
+            const q = (n / 10) >>> 0;
+            buf[--p] = ZERO + (n - q * 10);
+            n = q;
+          } while (n > 0);
+        } else {
+          // Fractions (53.2), negative numbers, the rare very large or small one: as JavaScript
+          // writes it, which MariaDB reads back exactly (1e-7 included).
+          const text = String(v);
+          for (let k = 0; k < text.length; k++) buf[pos++] = text.charCodeAt(k);
+        }
       } else {
-        this.buf[this.pos++] = code;
+        let ascii = true;
+        const start = pos;
+        for (let k = 0; k < v.length; k++) {
+          const code = v.charCodeAt(k);
+          if (code >= 0x80) {
+            ascii = false;
+            break;
+          }
+          const escape = escapeOf(code);
+          if (escape !== 0) {
+            buf[pos++] = BACKSLASH;
+            buf[pos++] = escape;
+          } else {
+            buf[pos++] = code;
+          }
+        }
+        if (!ascii) pos = start + this.unicodeAt(v, start);
       }
     }
+    buf[pos++] = NL;
+    this.pos = pos;
   }
 
-  private unicode(text: string): void {
+  /** Text beyond ASCII, escaped, as UTF-8 at `at` (room made by the caller); returns its length. */
+  private unicodeAt(text: string, at: number): number {
     const escaped = NEEDS_ESCAPE.test(text)
       ? text.replace(
           NEEDS_ESCAPE_ALL,
           (ch) => `\\${String.fromCharCode(escapeOf(ch.charCodeAt(0)))}`,
         )
       : text;
-    this.room(escaped.length * 3);
-    this.pos += this.buf.write(escaped, this.pos, 'utf8');
+    return this.buf.write(escaped, at, 'utf8');
   }
 }

@@ -140,8 +140,8 @@ export class RowValidator {
       dateIndex: this.index[def.dateColumn]!,
       valueIndices: def.valueColumns.map((k) => this.index[k]!),
       target: PROCESS_TARGET[def.key]!,
-      valueCells: [],
-      values: [],
+      valueCells: def.valueColumns.map(() => null),
+      values: def.valueColumns.map(() => 0),
     }));
   }
 
@@ -384,11 +384,12 @@ export class RowValidator {
       const { def: process, dateIndex, valueIndices, target } = care;
       const dateCell = dateIndex < 0 ? null : (cells[dateIndex] ?? null);
       let anyValue = false;
+      // Scratch arrays of fixed length, overwritten in full (or not read) on every row.
       const valueCells = care.valueCells;
-      valueCells.length = 0;
-      for (const vi of valueIndices) {
+      for (let i = 0; i < valueIndices.length; i++) {
+        const vi = valueIndices[i]!;
         const c = vi < 0 ? null : (cells[vi] ?? null);
-        valueCells.push(c);
+        valueCells[i] = c;
         if (!isBlank(c)) anyValue = true;
       }
       if (isBlank(dateCell) && !anyValue) continue;
@@ -406,7 +407,6 @@ export class RowValidator {
       }
       const month = this.month(dateCell, process.dateColumn, birthYear);
       const values = care.values;
-      values.length = 0;
       let valuesOk = true;
       for (let i = 0; i < process.valueColumns.length; i++) {
         const key = process.valueColumns[i]!;
@@ -418,7 +418,7 @@ export class RowValidator {
         const value =
           key === 'smoking_status' ? this.code(cells, key) : this.measurement(cells, key);
         if (value === null) valuesOk = false;
-        else values.push(value);
+        else values[i] = value;
       }
       if (month === null) continue;
       if (process.valueColumns.length > 0 && !anyValue) {
