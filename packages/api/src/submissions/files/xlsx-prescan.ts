@@ -148,13 +148,12 @@ export async function prescanXlsx(
         const s = scan;
         let first = true;
         await inflateEntry(buf, entry, budget, (chunk) => {
-          const text = chunk.toString('latin1');
           if (first) {
             first = false;
-            if (DTD.test(text.slice(0, 4096)))
+            if (DTD.test(chunk.toString('latin1', 0, 4096)))
               throw new PrescanRefusal(entitiesRefusal(entry.name));
           }
-          s.push(text);
+          s.push(chunk);
         });
         s.end();
       } else {
@@ -190,41 +189,57 @@ export async function prescanXlsx(
   }
 }
 
+const ROW_TAG = Buffer.from('<row', 'latin1');
+const ROW_END = Buffer.from('</row>', 'latin1');
+const SHEET_DATA = Buffer.from('<sheetData', 'latin1');
+const SHEET_DATA_END = Buffer.from('</sheetData>', 'latin1');
+const MERGE_CELL = Buffer.from('<mergeCell ', 'latin1');
+const VALUE_TAG = Buffer.from('<v', 'latin1');
+const INLINE_STRING = Buffer.from('<is>', 'latin1');
+const GT = 0x3e;
+const SLASH = 0x2f;
+
 /**
  * Position of the next `<row` start tag at or after `from` (not `<rowBreaks` and the like):
- * −1 when there is none, −2 when the text ends inside a possible tag name.
+ * −1 when there is none, −2 when the bytes end inside a possible tag name.
  */
-function nextRowTag(text: string, from: number): number {
-  let at = text.indexOf('<row', from);
+function nextRowTag(xml: Buffer, from: number): number {
+  let at = xml.indexOf(ROW_TAG, from);
   while (at >= 0) {
-    const next = text.charCodeAt(at + 4);
-    if (Number.isNaN(next)) return -2;
+    if (at + 4 >= xml.length) return -2;
+    const next = xml[at + 4];
     // space, tab, line feed, carriage return, '>' or '/'
-    if (next === 32 || next === 9 || next === 10 || next === 13 || next === 62 || next === 47)
+    if (next === 32 || next === 9 || next === 10 || next === 13 || next === GT || next === SLASH)
       return at;
-    at = text.indexOf('<row', at + 4);
+    at = xml.indexOf(ROW_TAG, at + 4);
   }
   return -1;
 }
 
-/** Scans a worksheet's XML in chunks for rows with values, hidden rows and columns, and merges. */
+/**
+ * Scans a worksheet's XML in chunks for rows with values, hidden rows and columns, and merges.
+ * It searches the expanded bytes themselves and makes text only of the few tags it reads: the
+ * sheet of a large extract is a hundred megabytes or more, and turning every chunk of it into a
+ * string kept the garbage collector busy while exceljs read the same sheet.
+ */
 class SheetScan {
   valuedRows = 0;
   hiddenRows: number[] = [];
   hiddenColumns: number[] = [];
   merges: CellRange[] = [];
-  private carry = '';
+  private carry: Buffer | null = null;
   private phase: 'head' | 'rows' | 'tail' = 'head';
   private rowNumber = 0;
 
-  push(chunk: string): void {
-    const text = this.carry + chunk;
+  push(chunk: Buffer): void {
+    const xml = this.carry ? Buffer.concat([this.carry, chunk]) : chunk;
     let pos = 0;
     for (;;) {
       if (this.phase === 'head') {
-        const sheetData = text.indexOf('<sheetData', pos);
-        const headEnd = sheetData < 0 ? text.length - 512 : sheetData;
-        for (const m of text.slice(pos, Math.max(pos, headEnd)).matchAll(/<col\b[^>]*>/g)) {
+        const sheetData = xml.indexOf(SHEET_DATA, pos);
+        const headEnd = sheetData < 0 ? xml.length - 512 : sheetData;
+        const head = xml.toString('latin1', pos, Math.max(pos, headEnd));
+        for (const m of head.matchAll(/<col\b[^>]*>/g)) {
           if (/\shidden="(1|true)"/.test(m[0])) {
             const min = Number(attr(m[0], 'min'));
             const max = Math.min(Number(attr(m[0], 'max')), min + 200);
@@ -235,76 +250,79 @@ class SheetScan {
           pos = Math.max(pos, headEnd);
           break;
         }
-        const close = text.indexOf('>', sheetData);
+        const close = xml.indexOf(GT, sheetData);
         if (close < 0) {
           pos = sheetData;
           break;
         }
-        this.phase = text[close - 1] === '/' ? 'tail' : 'rows';
+        this.phase = xml[close - 1] === SLASH ? 'tail' : 'rows';
         pos = close + 1;
       } else if (this.phase === 'rows') {
         // Every search below is bounded by the next row, so a chunk is scanned once (a search
         // to the end of the chunk for each row would make the scan quadratic in the chunk size).
-        const rowStart = nextRowTag(text, pos);
+        const rowStart = nextRowTag(xml, pos);
         if (rowStart < 0) {
-          const dataEnd = text.indexOf('</sheetData>', pos);
+          const dataEnd = xml.indexOf(SHEET_DATA_END, pos);
           if (dataEnd >= 0) {
             this.phase = 'tail';
-            pos = dataEnd + 12;
+            pos = dataEnd + SHEET_DATA_END.length;
             continue;
           }
-          pos = Math.max(pos, text.length - 16);
+          pos = Math.max(pos, xml.length - 16);
           break;
         }
         // Rows live only inside sheetData: a row tag found means the data has not ended.
         if (rowStart === -2) {
-          pos = Math.max(pos, text.length - 16);
+          pos = Math.max(pos, xml.length - 16);
           break;
         }
-        const tagEnd = text.indexOf('>', rowStart);
+        const tagEnd = xml.indexOf(GT, rowStart);
         if (tagEnd < 0) {
           pos = rowStart;
           break;
         }
-        const tag = text.slice(rowStart, tagEnd + 1);
+        const tag = xml.toString('latin1', rowStart, tagEnd + 1);
         const r = /\sr="(\d+)"/.exec(tag);
-        this.rowNumber = r ? Number(r[1]) : this.rowNumber + 1;
-        if (/\shidden="(1|true)"/.test(tag)) this.hiddenRows.push(this.rowNumber);
-        if (tag.endsWith('/>')) {
+        const rowNumber = r ? Number(r[1]) : this.rowNumber + 1;
+        if (xml[tagEnd - 1] === SLASH) {
+          this.rowNumber = rowNumber;
+          if (/\shidden="(1|true)"/.test(tag)) this.hiddenRows.push(rowNumber);
           pos = tagEnd + 1;
           continue;
         }
-        const rowEnd = text.indexOf('</row>', tagEnd);
+        const rowEnd = xml.indexOf(ROW_END, tagEnd);
+        // Incomplete row: keep it for the next chunk (its tag will be read again).
         if (rowEnd < 0) {
-          // Incomplete row: keep it for the next chunk (the row number will be read again).
-          if (/\shidden="(1|true)"/.test(tag)) this.hiddenRows.pop();
           pos = rowStart;
           break;
         }
-        const body = text.slice(tagEnd, rowEnd);
-        if (body.includes('<v') || body.includes('<is>')) this.valuedRows++;
-        pos = rowEnd + 6;
+        this.rowNumber = rowNumber;
+        if (/\shidden="(1|true)"/.test(tag)) this.hiddenRows.push(rowNumber);
+        const body = xml.subarray(tagEnd, rowEnd);
+        if (body.indexOf(VALUE_TAG) >= 0 || body.indexOf(INLINE_STRING) >= 0) this.valuedRows++;
+        pos = rowEnd + ROW_END.length;
       } else {
-        const m = text.indexOf('<mergeCell ', pos);
+        const m = xml.indexOf(MERGE_CELL, pos);
         if (m < 0) {
-          pos = Math.max(pos, text.length - 64);
+          pos = Math.max(pos, xml.length - 64);
           break;
         }
-        const end = text.indexOf('>', m);
+        const end = xml.indexOf(GT, m);
         if (end < 0) {
           pos = m;
           break;
         }
-        const ref = attr(text.slice(m, end + 1), 'ref');
+        const ref = attr(xml.toString('latin1', m, end + 1), 'ref');
         const range = ref ? parseRange(ref) : null;
         if (range) this.merges.push(range);
         pos = end + 1;
       }
     }
-    this.carry = text.slice(pos);
+    // What is left (a row cut by the chunk's end) is copied, so the chunk itself can go.
+    this.carry = pos < xml.length ? Buffer.from(xml.subarray(pos)) : null;
   }
 
   end(): void {
-    this.carry = '';
+    this.carry = null;
   }
 }
