@@ -3,8 +3,8 @@
  * describes it (FIELDS TERMINATED BY '\t' ESCAPED BY '\\' LINES TERMINATED
  * BY '\n'): \N is NULL; a backslash, tab, line feed, carriage return or NUL
  * inside a value is written as \\, \t, \n, \r, \0. Each case is checked
- * against that rule written the plain way (strings, then UTF-8), and
- * staging into MariaDB itself is covered by the extract e2e tests.
+ * against that rule written the plain way (strings, then UTF-8); reading
+ * the bytes back through MariaDB is test/record-loader.e2e-spec.ts.
  */
 import { TsvEncoder, type TsvValue } from './tsv-encoder.js';
 

@@ -4,11 +4,10 @@
  * tab, line break, carriage return or NUL), written straight into Buffers.
  *
  * A record is a few dozen short values (numbers, months, codes), and a
- * large extract is a hundred thousand records: building them as strings and
- * converting those to bytes made, on a 100,000-row file, hundreds of
- * megabytes of short-lived strings for the garbage collector to go through
- * while the workbook was still being read. Bytes written into a buffer
- * outside the JavaScript heap leave it nothing to do.
+ * large extract is a hundred thousand records: building each line as
+ * strings and then converting it to bytes made several short-lived strings
+ * per value for the garbage collector while the file was still being read.
+ * Bytes written into a buffer outside the JavaScript heap leave it nothing.
  */
 
 const TAB = 0x09;
@@ -55,11 +54,6 @@ export class TsvEncoder {
     private readonly chunkBytes = 1 << 20,
   ) {
     this.buf = Buffer.allocUnsafe(chunkBytes);
-  }
-
-  /** Bytes written and not yet emitted */
-  get pending(): number {
-    return this.pos;
   }
 
   /** Emits what has been written so far (nothing when empty). */
