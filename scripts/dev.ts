@@ -20,6 +20,7 @@ import {
 } from './lib/mariadb.ts';
 import { runSync, waitFor } from './lib/proc.ts';
 import { prepareDemoData } from './lib/seed.ts';
+import { API_NODE_FLAGS } from '../packages/api/src/node-flags.ts';
 
 async function main(): Promise<void> {
   const ctx = loadContext('development');
@@ -34,10 +35,14 @@ async function main(): Promise<void> {
   for (const target of buildTargets.slice(0, 2)) buildIfStale(ctx.root, target);
   const apiDist = join(ctx.root, 'packages', 'api', 'dist');
   for (const args of [['migrate'], ['seed-demo', prepareDemoData(ctx.root)]]) {
-    const result = runSync(process.execPath, [join(apiDist, 'cli.js'), ...args], {
-      env: ctx.childEnv,
-      cwd: ctx.root,
-    });
+    const result = runSync(
+      process.execPath,
+      [...API_NODE_FLAGS, join(apiDist, 'cli.js'), ...args],
+      {
+        env: ctx.childEnv,
+        cwd: ctx.root,
+      },
+    );
     process.stdout.write(result.stdout + result.stderr);
   }
 
@@ -50,7 +55,12 @@ async function main(): Promise<void> {
   const bin_ = (name: string) => join(ctx.root, 'node_modules', '.bin', name);
   run(bin_('tsc'), ['-p', 'packages/api/tsconfig.build.json', '--watch', '--preserveWatchOutput']);
   run(process.execPath, ['--enable-source-maps', '--watch', join(apiDist, 'dev', 'main.js')]);
-  run(process.execPath, ['--enable-source-maps', '--watch', join(apiDist, 'main.js')]);
+  run(process.execPath, [
+    ...API_NODE_FLAGS,
+    '--enable-source-maps',
+    '--watch',
+    join(apiDist, 'main.js'),
+  ]);
   run(bin_('vite'), [], join(ctx.root, 'packages', 'web'));
 
   let stopping = false;

@@ -26,6 +26,7 @@ import {
 import { isPortOpen, runSync, waitFor } from './lib/proc.ts';
 import { pipeLogs } from './lib/pretty-log.ts';
 import { prepareDemoData } from './lib/seed.ts';
+import { API_NODE_FLAGS } from '../packages/api/src/node-flags.ts';
 
 async function main(): Promise<void> {
   const started = Date.now();
@@ -98,10 +99,14 @@ async function main(): Promise<void> {
 
   const apiDist = join(ctx.root, 'packages', 'api', 'dist');
   const cli = (args: string[]) => {
-    const result = runSync(process.execPath, [join(apiDist, 'cli.js'), ...args], {
-      env: ctx.childEnv,
-      cwd: ctx.root,
-    });
+    const result = runSync(
+      process.execPath,
+      [...API_NODE_FLAGS, join(apiDist, 'cli.js'), ...args],
+      {
+        env: ctx.childEnv,
+        cwd: ctx.root,
+      },
+    );
     if (result.status !== 0) {
       log.error(`${args[0]} failed:\n${result.stdout}${result.stderr}`);
       return false;
@@ -117,7 +122,7 @@ async function main(): Promise<void> {
     // No --enable-source-maps here (npm run dev has it): with it the API needs about 110 MB more
     // and a quarter longer to check a 200,000-row workbook (npm run bench); stack traces then
     // point into dist/, which tsc keeps close to the sources.
-    const child = spawn(process.execPath, [script], {
+    const child = spawn(process.execPath, [...API_NODE_FLAGS, script], {
       cwd: ctx.root,
       env: ctx.childEnv,
       stdio: ['ignore', 'pipe', 'pipe'],

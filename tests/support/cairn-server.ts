@@ -9,6 +9,7 @@ import { existsSync, mkdtempSync } from 'node:fs';
 import { createServer } from 'node:net';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
+import { API_NODE_FLAGS } from '../../packages/api/src/node-flags.ts';
 import { repoRoot } from './paths.ts';
 
 const handedOut = new Set<number>();
@@ -54,11 +55,15 @@ export interface StartOptions {
 const apiDist = join(repoRoot, 'packages', 'api', 'dist');
 
 function cli(args: string[], env: NodeJS.ProcessEnv): void {
-  const result = spawnSync(process.execPath, [join(apiDist, 'cli.js'), ...args], {
-    env,
-    cwd: repoRoot,
-    encoding: 'utf8',
-  });
+  const result = spawnSync(
+    process.execPath,
+    [...API_NODE_FLAGS, join(apiDist, 'cli.js'), ...args],
+    {
+      env,
+      cwd: repoRoot,
+      encoding: 'utf8',
+    },
+  );
   if (result.status !== 0)
     throw new Error(`cli ${args.join(' ')} failed:\n${result.stdout}\n${result.stderr}`);
 }
@@ -117,8 +122,8 @@ async function startOnce(options: StartOptions): Promise<CairnServer> {
 
   const children: ChildProcess[] = [];
   let output = '';
-  const run = (script: string) => {
-    const child = spawn(process.execPath, [script], {
+  const run = (script: string, flags: readonly string[] = []) => {
+    const child = spawn(process.execPath, [...flags, script], {
       env,
       cwd: repoRoot,
       stdio: ['ignore', 'pipe', 'pipe'],
@@ -130,7 +135,7 @@ async function startOnce(options: StartOptions): Promise<CairnServer> {
   };
   const fakes = join(apiDist, 'dev', 'main.js');
   if (existsSync(fakes)) run(fakes);
-  const api = run(join(apiDist, 'main.js'));
+  const api = run(join(apiDist, 'main.js'), API_NODE_FLAGS);
   const baseUrl = `http://127.0.0.1:${port}`;
   try {
     await waitHealthy(`${baseUrl}/api/health`, api, 120_000);

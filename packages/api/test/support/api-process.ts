@@ -16,6 +16,7 @@ import { join } from 'node:path';
 import request from 'supertest';
 import type TestAgent from 'supertest/lib/agent.js';
 import { findRepoRoot } from '../../src/config/load-config.js';
+import { API_NODE_FLAGS } from '../../src/node-flags.js';
 import type { SignedInAgent } from './auth.js';
 import { freePort } from './ports.js';
 import type { TestApp } from './test-app.js';
@@ -75,7 +76,7 @@ async function launch(t: TestApp, port: number, env: Record<string, string>): Pr
   };
   // jest's own flags are not for the API process.
   delete childEnv.NODE_OPTIONS;
-  const child = spawn(process.execPath, [mainJs], {
+  const child = spawn(process.execPath, [...API_NODE_FLAGS, mainJs], {
     env: childEnv,
     cwd: root,
     stdio: ['ignore', 'pipe', 'pipe'],
