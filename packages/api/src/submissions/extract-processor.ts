@@ -125,17 +125,30 @@ export class ExtractProcessor {
     const aux: RawConnection = await acquireRaw(this.sequelize);
     let seq = 0;
     let lastBeat = 0;
+    // The beat before this one: sent, and checked here rather than waited for when it was sent.
+    let lastUpdate: Promise<{ affectedRows: number }> | null = null;
     const heartbeat = async (rowsDone: number, rowsTotal: number | null, force = false) => {
       if (shouldStop()) throw new ShuttingDownError();
       const nowMs = Date.now();
       if (!force && nowMs - lastBeat < 250) return;
       lastBeat = nowMs;
-      const result = await aux.query<{ affectedRows: number }>(
+      // Progress and lease renewal go out while the next rows are checked; the reader waits
+      // only for the previous beat's answer, a quarter of a second old by now. (Waiting for each
+      // answer cost a round trip to a MariaDB busy staging rows, four times a second.)
+      const previous = lastUpdate;
+      lastUpdate = null;
+      if (previous && (await previous).affectedRows === 0) throw new LeaseLostError();
+      const update = aux.query<{ affectedRows: number }>(
         `UPDATE submissions SET rows_done = ?, rows_total = ?, lease_expires_at = NOW(3) + INTERVAL ? SECOND
           WHERE id = ? AND status = 'processing' AND lease_owner = ?`,
         [rowsDone, rowsTotal, leaseSeconds, id, leaseOwner],
       );
-      if (result.affectedRows === 0) throw new LeaseLostError();
+      if (force) {
+        if ((await update).affectedRows === 0) throw new LeaseLostError();
+      } else {
+        update.catch(() => undefined); // its failure is seen at the next beat
+        lastUpdate = update;
+      }
     };
 
     let outcome: ExtractOutcome;
@@ -186,7 +199,11 @@ export class ExtractProcessor {
           checkpoint: () => faultPause('processing'),
         },
       );
+      const unchecked = lastUpdate as Promise<{ affectedRows: number }> | null;
+      lastUpdate = null;
+      if (unchecked && (await unchecked).affectedRows === 0) throw new LeaseLostError();
     } catch (error) {
+      await (lastUpdate as Promise<unknown> | null)?.catch(() => undefined);
       await (loader as RecordLoader | null)?.abort();
       await releaseRaw(this.sequelize, aux);
       if (error instanceof LeaseLostError) {
