@@ -5,14 +5,82 @@
  * a problem cell), errors as { error }. Merged ranges, invisible to the
  * streaming reader, are filled in from the prescan: every cell of a merge
  * shows the value of its top-left cell, as it does on screen.
+ *
+ * The reader is given the workbook's parts in the order it needs them
+ * (readerOrder): otherwise it writes every sheet saved before the shared
+ * strings, expanded, to a temporary file and reads it back, and most programs
+ * save the sheets first.
  */
 import { Readable } from 'node:stream';
+import { crc32 } from 'node:zlib';
 import ExcelJS from 'exceljs';
 import { type Cell, CellProblem } from '../format/values.js';
 import type { RowSource, SourceNotes, SourceRow } from './row-source.js';
 import type { CellRange, XlsxPrescan } from './xlsx-prescan.js';
+import type { ZipEntry } from './zip.js';
 
-const BATCH = 100;
+const BATCH = 25;
+
+/** The parts exceljs's streaming reader reads before it can read a sheet without a temporary file */
+const READER_FIRST = [
+  'xl/_rels/workbook.xml.rels',
+  'xl/workbook.xml',
+  'xl/styles.xml',
+  'xl/sharedStrings.xml',
+] as const;
+const SHARED_STRINGS = 'xl/sharedStrings.xml';
+/** Shared strings with none in them, for a workbook saved with its text in the cells (inline strings). */
+const EMPTY_SHARED_STRINGS = Buffer.from(
+  '<?xml version="1.0" encoding="UTF-8" standalone="yes"?>\n' +
+    '<sst xmlns="http://schemas.openxmlformats.org/spreadsheetml/2006/main" count="0" uniqueCount="0"/>',
+);
+
+/**
+ * The workbook's bytes in the order exceljs's streaming reader wants them: the workbook, its
+ * relationships, styles and shared strings, then the one sheet Cairn reads, and nothing else.
+ * exceljs reads a ZIP front to back and parses a sheet at once only if the shared strings and
+ * the workbook's relationships came before it; a sheet that comes earlier (the order most
+ * programs save in) it writes, expanded, to a temporary file and reads back afterwards. Here no
+ * row of an extract is written to disk, and the time that took is saved. Each part is passed on
+ * as saved (local header, compressed data, data descriptor), which is all a front-to-back ZIP
+ * reader uses; a workbook without shared strings gets an empty set of them, stored uncompressed.
+ * Returns null, for the file to be read as saved, when a part the reader needs is missing.
+ */
+export function readerOrder(
+  buf: Buffer,
+  entries: readonly ZipEntry[],
+  sheetPath: string,
+): Buffer[] | null {
+  const byName = new Map(entries.map((e) => [e.name, e]));
+  const sheet = byName.get(sheetPath);
+  if (!sheet || !byName.has('xl/workbook.xml') || !byName.has('xl/_rels/workbook.xml.rels'))
+    return null;
+  const parts: Buffer[] = [];
+  for (const name of READER_FIRST) {
+    const entry = byName.get(name);
+    if (entry) parts.push(buf.subarray(entry.localOffset, entry.end));
+    else if (name === SHARED_STRINGS) parts.push(storedEntry(SHARED_STRINGS, EMPTY_SHARED_STRINGS));
+  }
+  parts.push(buf.subarray(sheet.localOffset, sheet.end));
+  return parts;
+}
+
+/** The local file header and data of an uncompressed ZIP part (APPNOTE.TXT 4.3.7). */
+function storedEntry(name: string, data: Buffer): Buffer {
+  const nameBytes = Buffer.from(name, 'utf8');
+  const header = Buffer.alloc(30);
+  header.writeUInt32LE(0x04034b50, 0);
+  header.writeUInt16LE(10, 4); // version needed to extract: 1.0
+  header.writeUInt16LE(0x0800, 6); // the name is UTF-8
+  header.writeUInt16LE(0, 8); // stored, not compressed
+  header.writeUInt32LE(0, 10); // time and date
+  header.writeUInt32LE(crc32(data), 14);
+  header.writeUInt32LE(data.length, 18);
+  header.writeUInt32LE(data.length, 22);
+  header.writeUInt16LE(nameBytes.length, 26);
+  header.writeUInt16LE(0, 28);
+  return Buffer.concat([header, nameBytes, data]);
+}
 
 export function toCell(value: unknown, onFormula: () => void): Cell {
   if (value === null || value === undefined) return null;
@@ -59,6 +127,7 @@ export class XlsxRowSource implements RowSource {
   constructor(
     private readonly buf: Buffer,
     private readonly prescan: XlsxPrescan,
+    private readonly entries: readonly ZipEntry[],
   ) {
     this.valuedRows = prescan.valuedRows;
     this.date1904 = prescan.date1904;
@@ -74,7 +143,8 @@ export class XlsxRowSource implements RowSource {
   }
 
   async *batches(): AsyncGenerator<SourceRow[]> {
-    const reader = new ExcelJS.stream.xlsx.WorkbookReader(Readable.from([this.buf]), {
+    const parts = readerOrder(this.buf, this.entries, this.prescan.sheetPath) ?? [this.buf];
+    const reader = new ExcelJS.stream.xlsx.WorkbookReader(Readable.from(parts), {
       sharedStrings: 'cache',
       styles: 'cache',
       hyperlinks: 'ignore',

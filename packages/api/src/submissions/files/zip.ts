@@ -16,6 +16,8 @@ export interface ZipEntry {
   uncompressedSize: number;
   localOffset: number;
   dataStart: number;
+  /** The byte after the part as saved: its data and any data descriptor after it */
+  end: number;
 }
 
 export class ZipError extends Error {
@@ -120,6 +122,7 @@ export function readZipDirectory(buf: Buffer, maxEntries = 10_000): ZipEntry[] {
       uncompressedSize,
       localOffset,
       dataStart,
+      end: 0, // set below, once every part's start is known
     });
     p += 46 + nameLength + extraLength + commentLength;
   }
@@ -127,17 +130,21 @@ export function readZipDirectory(buf: Buffer, maxEntries = 10_000): ZipEntry[] {
   // The parts must tile the file: nothing hidden between them, nothing overlapping.
   const sorted = [...entries].sort((a, b) => a.dataStart - b.dataStart);
   let expected = 0;
+  let previous: ZipEntry | null = null;
   for (const entry of sorted) {
     const gap = entry.localOffset - expected;
     if (gap < 0 || (gap !== 0 && gap !== 12 && gap !== 16 && gap !== 20 && gap !== 24)) {
       throw new ZipError('damaged', 'the ZIP parts overlap or leave unexplained gaps');
     }
+    if (previous) previous.end = entry.localOffset;
+    previous = entry;
     expected = entry.dataStart + entry.compressedSize;
   }
   const tail = cdOffset - expected;
   if (tail < 0 || (tail !== 0 && tail !== 12 && tail !== 16 && tail !== 20 && tail !== 24)) {
     throw new ZipError('damaged', 'the ZIP parts overlap or leave unexplained gaps');
   }
+  if (previous) previous.end = cdOffset;
   return entries;
 }
 

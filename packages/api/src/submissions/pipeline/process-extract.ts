@@ -88,7 +88,7 @@ const TEMPLATE_SHEETS = new Set([
   'readme',
 ]);
 const ISSUE_BATCH = 1000;
-const RECORD_BATCH = 200;
+const RECORD_BATCH = 50;
 const REJECTED_BATCH = 500;
 
 const listRows = (rows: number[], max = 12) =>
@@ -193,7 +193,7 @@ export async function openExtract(
   if (sniffed.kind === 'xlsx') {
     try {
       const prescan = await prescanXlsx(bytes, sniffed.entries, limits.maxUncompressedBytes);
-      return { kind: 'xlsx', source: new XlsxRowSource(bytes, prescan) };
+      return { kind: 'xlsx', source: new XlsxRowSource(bytes, prescan, sniffed.entries) };
     } catch (error) {
       if (error instanceof PrescanRefusal) return { kind: 'xlsx', refusal: error.refusal };
       throw error;
