@@ -1,9 +1,36 @@
-import { Callout, Card, H2, HTMLTable, Intent, NonIdealState } from '@blueprintjs/core';
-import { ClinicalCaution } from '../components/ClinicalCaution';
+import {
+  Callout,
+  Card,
+  H2,
+  H3,
+  HTMLTable,
+  Intent,
+  NonIdealState,
+  Spinner,
+} from '@blueprintjs/core';
+import { Link } from 'react-router-dom';
+import { formatCount } from '../lib/format';
+import {
+  type Quarter,
+  type Submission,
+  useCoverage,
+  useHistory,
+  useQuarters,
+} from '../features/extracts/api/extracts';
+import { Figure } from '../features/extracts/components/Figure';
+import { formatDate } from '../features/extracts/components/format';
+import { LinkButton } from '../features/extracts/components/LinkButton';
+import { CoverageTag, StatusTag } from '../features/extracts/components/StatusTag';
 import { Landing } from '../features/landing/routes/Landing';
-import { roleLabels, useMe } from '../features/session/api/me';
+import { type Me, roleLabels, useMe } from '../features/session/api/me';
+import '../features/extracts/routes/Extracts.css';
+import './Home.css';
 
-/** `/`: the landing page when signed out; the person's starting point when signed in. */
+/**
+ * `/`: the landing page when signed out; when signed in, where the person
+ * stands this audit quarter and the next thing to do. The clinical caution
+ * is in the footer of every screen (AppLayout).
+ */
 export function Home() {
   const me = useMe();
   if (me.isPending) return null;
@@ -24,36 +51,214 @@ export function Home() {
       <p>
         You are signed in as <strong>{roleLabels[user.role]}</strong> for {user.regionName}.
       </p>
-      {user.role === 'practice_lead' && user.practices.length === 0 ? (
-        <Callout intent={Intent.WARNING} icon="info-sign" title="No practice yet">
-          You are not assigned to a practice yet. Ask your regional lead to add your practice to
-          your account.
-        </Callout>
-      ) : null}
+      {user.role === 'practice_lead' ? (
+        <PracticeLeadHome user={user} />
+      ) : (
+        <RegionHome user={user} />
+      )}
+    </div>
+  );
+}
+
+/** The audit quarter that is open for extracts, else the latest one. */
+function quarterNow(quarters: Quarter[] | undefined): Quarter | null {
+  const list = quarters ?? [];
+  return list.find((q) => q.status === 'open') ?? list[0] ?? null;
+}
+
+function QuarterLine({ quarter }: { quarter: Quarter }) {
+  return (
+    <p className="cairn-muted">
+      {quarter.status === 'open'
+        ? `Extracts for ${quarter.label} are due by ${formatDate(quarter.submissionDeadline)}.`
+        : `${quarter.label} is closed; no audit quarter is open for extracts.`}
+    </p>
+  );
+}
+
+function PracticeLeadHome({ user }: { user: Me }) {
+  const quarters = useQuarters();
+  const quarter = quarterNow(quarters.data);
+  if (user.practices.length === 0) {
+    return (
+      <Callout intent={Intent.WARNING} icon="info-sign" title="No practice yet">
+        You are not assigned to a practice yet. Ask your regional lead to add your practice to your
+        account.
+      </Callout>
+    );
+  }
+  return (
+    <section aria-labelledby="home-practices">
+      <H3 id="home-practices">Your practices{quarter ? ` this quarter (${quarter.label})` : ''}</H3>
+      {quarter ? <QuarterLine quarter={quarter} /> : null}
+      <Card className="cairn-home-card">
+        <HTMLTable compact striped className="cairn-home-table">
+          <thead>
+            <tr>
+              <th>Practice</th>
+              <th>Code</th>
+              <th>{quarter ? quarter.label : 'Audit quarter'}</th>
+              <th>Next step</th>
+            </tr>
+          </thead>
+          <tbody>
+            {user.practices.map((practice) => (
+              <PracticeRow key={practice.id} practice={practice} quarter={quarter} />
+            ))}
+          </tbody>
+        </HTMLTable>
+      </Card>
+    </section>
+  );
+}
+
+function PracticeRow({
+  practice,
+  quarter,
+}: {
+  practice: Me['practices'][number];
+  quarter: Quarter | null;
+}) {
+  const history = useHistory(practice.id);
+  const entry = history.data?.quarters.find((q) => q.quarter.id === quarter?.id);
+  const current = entry?.submissions.find((s) => s.id === entry.currentSubmissionId) ?? null;
+  // The newest extract still being read or waiting for its sender's decision.
+  const open = entry?.submissions.find(
+    (s: Submission) => s.status === 'processing' || s.status === 'awaiting_confirmation',
+  );
+  const upload =
+    quarter && quarter.status === 'open' && history.data?.canUpload
+      ? `/extracts/upload?practice=${practice.id}&quarter=${quarter.id}`
+      : null;
+  return (
+    <tr data-practice={practice.code}>
+      <td>{practice.name}</td>
+      <td>{practice.code}</td>
+      <td>
+        {history.isPending ? (
+          <Spinner size={14} aria-label={`Reading ${practice.code}'s submissions`} />
+        ) : history.isError ? (
+          <span className="cairn-muted">Could not read submissions</span>
+        ) : open ? (
+          <Link to={`/practices/${practice.id}/submissions/${open.id}`}>
+            <StatusTag status={open.status} /> <span>Submission {open.id}</span>
+          </Link>
+        ) : current ? (
+          <span>
+            <CoverageTag state="current" />{' '}
+            {current.counts ? `${formatCount(current.counts.rowsAccepted)} records` : null}
+          </span>
+        ) : (
+          <CoverageTag state="none" />
+        )}
+      </td>
+      <td className="cairn-home-actions">
+        {open?.status === 'awaiting_confirmation' ? (
+          <LinkButton
+            small
+            intent={Intent.PRIMARY}
+            icon="eye-open"
+            to={`/practices/${practice.id}/submissions/${open.id}`}
+            text="Read the report and confirm"
+          />
+        ) : upload && !current && !open ? (
+          <LinkButton
+            small
+            intent={Intent.PRIMARY}
+            icon="upload"
+            to={upload}
+            text="Upload extract"
+          />
+        ) : upload && !open ? (
+          <LinkButton small icon="upload" to={upload} text="Send a corrected extract" />
+        ) : null}
+        <LinkButton
+          small
+          variant="minimal"
+          icon="list-columns"
+          to={`/practices/${practice.id}/submissions`}
+          text="Submissions"
+        />
+      </td>
+    </tr>
+  );
+}
+
+/** Regional lead and auditor: the region's coverage of the quarter at a glance. */
+function RegionHome({ user }: { user: Me }) {
+  const quarters = useQuarters();
+  const quarter = quarterNow(quarters.data);
+  const coverage = useCoverage(quarter?.id ?? null);
+  const totals = coverage.data?.totals;
+  const coverageLink = (state?: string) =>
+    `/coverage?quarter=${quarter?.id ?? ''}${state ? `&state=${state}` : ''}`;
+  return (
+    <section aria-labelledby="home-region">
+      <H3 id="home-region">{quarter ? `The region in ${quarter.label}` : 'The region'}</H3>
       {user.role === 'auditor' ? (
         <p>You can read every practice of the region; you cannot change anything.</p>
       ) : null}
-      {user.role === 'practice_lead' && user.practices.length > 0 ? (
-        <Card>
-          <HTMLTable compact striped>
-            <thead>
-              <tr>
-                <th>Your practices</th>
-                <th>Code</th>
-              </tr>
-            </thead>
-            <tbody>
-              {user.practices.map((practice) => (
-                <tr key={practice.id}>
-                  <td>{practice.name}</td>
-                  <td>{practice.code}</td>
-                </tr>
-              ))}
-            </tbody>
-          </HTMLTable>
-        </Card>
+      {quarter ? <QuarterLine quarter={quarter} /> : null}
+      {quarters.isPending || (quarter && coverage.isPending) ? (
+        <Spinner size={20} aria-label="Reading the quarter's coverage" />
       ) : null}
-      <ClinicalCaution />
-    </div>
+      {!quarters.isPending && !quarter ? (
+        <NonIdealState icon="calendar" title="No audit quarters yet" />
+      ) : null}
+      {coverage.isError ? (
+        <Callout intent={Intent.DANGER} title="Cairn could not read the coverage">
+          {coverage.error.message}
+        </Callout>
+      ) : null}
+      {totals ? (
+        <>
+          <div className="cairn-figures" role="list" aria-label="Coverage">
+            {(
+              [
+                ['Practices', totals.practices, null],
+                [<CoverageTag key="c" state="current" />, totals.current, 'current'],
+                [
+                  <CoverageTag key="a" state="awaiting_confirmation" />,
+                  totals.awaitingConfirmation,
+                  'awaiting_confirmation',
+                ],
+                [<CoverageTag key="n" state="none" />, totals.none, 'none'],
+              ] as const
+            ).map(([label, value, state], i) => (
+              <div role="listitem" key={i}>
+                {state && value > 0 ? (
+                  <Link className="cairn-home-figure-link" to={coverageLink(state)}>
+                    <Figure label={label} value={value} />
+                  </Link>
+                ) : (
+                  <Figure label={label} value={value} />
+                )}
+              </div>
+            ))}
+          </div>
+          <p>
+            {totals.none === 0
+              ? 'Every practice has sent an extract for this quarter.'
+              : `${formatCount(totals.none)} of ${formatCount(totals.practices)} practices ${totals.none === 1 ? 'has' : 'have'} no current submission yet.`}{' '}
+            {formatCount(totals.records)} records are in current submissions.
+          </p>
+          <div className="cairn-home-actions">
+            <LinkButton
+              intent={Intent.PRIMARY}
+              icon="grid-view"
+              to={coverageLink()}
+              text="Open coverage"
+            />
+            {user.role === 'regional_lead' ? (
+              <>
+                <LinkButton icon="upload" to="/extracts/upload" text="Upload for a practice" />
+                <LinkButton variant="minimal" icon="people" to="/users" text="Users" />
+              </>
+            ) : null}
+            <LinkButton variant="minimal" icon="history" to="/audit-trail" text="Audit trail" />
+          </div>
+        </>
+      ) : null}
+    </section>
   );
 }

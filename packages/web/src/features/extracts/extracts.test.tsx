@@ -757,3 +757,105 @@ describe('coverage', () => {
     expect(await screen.findByText('Not available for your role')).toBeTruthy();
   });
 });
+
+describe('home page', () => {
+  const totals = { practices: 30, current: 24, awaitingConfirmation: 3, none: 5, records: 14_210 };
+  const regionCoverage: Coverage = { quarter: q3, totals, practices: [] };
+
+  it('shows a practice lead where each practice stands this quarter and the next step', async () => {
+    stubApi(
+      {
+        ...priya,
+        practices: [...priya.practices, { id: 14, code: 'OV104', name: 'Ashgrove Practice' }],
+      },
+      (path) => {
+        if (path === '/api/quarters') return { body: [q3, q2] };
+        if (path === '/api/practices/12/submissions')
+          return { body: history([submission()], null) };
+        if (path === '/api/practices/14/submissions')
+          return {
+            body: {
+              ...history([], null),
+              practice: { id: 14, code: 'OV104', name: 'Ashgrove Practice' },
+            },
+          };
+        return undefined;
+      },
+    );
+    renderApp('/');
+    expect(await screen.findByRole('heading', { name: 'Welcome, Priya Calloway' })).toBeTruthy();
+    expect(await screen.findByText('Extracts for 2026 Q3 are due by 16 Dec 2026.')).toBeTruthy();
+    const row = (code: string) =>
+      document.querySelector(`tr[data-practice="${code}"]`) as HTMLElement;
+    await waitFor(() => expect(within(row('OV102')).getByText('Submission 41')).toBeTruthy());
+    expect(within(row('OV102')).getByText('Awaiting confirmation')).toBeTruthy();
+    expect(
+      within(row('OV102'))
+        .getByRole('link', { name: /Read the report and confirm/ })
+        .getAttribute('href'),
+    ).toBe('/practices/12/submissions/41');
+    await waitFor(() => expect(within(row('OV104')).getByText('No submission')).toBeTruthy());
+    expect(
+      within(row('OV104'))
+        .getByRole('link', { name: /Upload extract/ })
+        .getAttribute('href'),
+    ).toBe('/extracts/upload?practice=14&quarter=8');
+    expect(
+      within(row('OV104'))
+        .getByRole('link', { name: /Submissions/ })
+        .getAttribute('href'),
+    ).toBe('/practices/14/submissions');
+  });
+
+  it('offers a corrected extract once a practice has a current submission', async () => {
+    const accepted = submission({
+      id: 30,
+      status: 'accepted',
+      statusLabel: 'Accepted',
+      isCurrent: true,
+    });
+    stubApi(priya, (path) => {
+      if (path === '/api/quarters') return { body: [q3] };
+      if (path === '/api/practices/12/submissions') return { body: history([accepted], 30) };
+      return undefined;
+    });
+    renderApp('/');
+    const cell = await screen.findByText('Current submission');
+    const row = cell.closest('tr') as HTMLElement;
+    expect(within(row).getByRole('link', { name: /Send a corrected extract/ })).toBeTruthy();
+    expect(within(row).queryByRole('link', { name: /^Upload extract/ })).toBeNull();
+  });
+
+  it('gives a regional lead the quarter’s coverage at a glance, each count leading to its practices', async () => {
+    stubApi(regional, (path) => {
+      if (path === '/api/quarters') return { body: [q3, q2] };
+      if (path === '/api/quarters/8/coverage') return { body: regionCoverage };
+      return undefined;
+    });
+    renderApp('/');
+    expect(await screen.findByRole('heading', { name: 'The region in 2026 Q3' })).toBeTruthy();
+    expect(
+      await screen.findByText(/5 of 30 practices have no current submission yet\./),
+    ).toBeTruthy();
+    const figures = screen.getByRole('list', { name: 'Coverage' });
+    const none = within(figures).getByText('No submission').closest('a')!;
+    expect(none.getAttribute('href')).toBe('/coverage?quarter=8&state=none');
+    expect(screen.getByRole('link', { name: /Open coverage/ }).getAttribute('href')).toBe(
+      '/coverage?quarter=8',
+    );
+    expect(screen.getByRole('link', { name: /Upload for a practice/ })).toBeTruthy();
+  });
+
+  it('shows an auditor the same coverage, read-only', async () => {
+    stubApi(auditor, (path) => {
+      if (path === '/api/quarters') return { body: [q3] };
+      if (path === '/api/quarters/8/coverage') return { body: regionCoverage };
+      return undefined;
+    });
+    renderApp('/');
+    expect(await screen.findByText(/you cannot change anything/)).toBeTruthy();
+    expect(await screen.findByRole('link', { name: /Open coverage/ })).toBeTruthy();
+    expect(screen.queryByRole('link', { name: /Upload for a practice/ })).toBeNull();
+    expect(screen.queryByRole('link', { name: /Users/ })).toBeNull();
+  });
+});
