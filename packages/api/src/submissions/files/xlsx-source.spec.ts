@@ -117,6 +117,13 @@ describe('readerOrder', () => {
         'xl/sharedStrings.xml',
         'xl/worksheets/sheet2.xml',
       ]);
+      // Then the central directory as saved, ending with its end record: the input never ends
+      // where the sheet does.
+      const whole = Buffer.concat(parts);
+      expect(whole.readUInt32LE(whole.length - 22)).toBe(0x06054b50);
+      expect(whole.subarray(whole.length - 22).equals(bytes.subarray(bytes.length - 22))).toBe(
+        true,
+      );
     },
   );
 

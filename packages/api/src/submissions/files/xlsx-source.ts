@@ -42,8 +42,9 @@ const EMPTY_SHARED_STRINGS = Buffer.from(
  * the workbook's relationships came before it; a sheet that comes earlier (the order most
  * programs save in) it writes, expanded, to a temporary file and reads back afterwards. Here no
  * row of an extract is written to disk, and the time that took is saved. Each part is passed on
- * as saved (local header, compressed data, data descriptor), which is all a front-to-back ZIP
- * reader uses; a workbook without shared strings gets an empty set of them, stored uncompressed.
+ * as saved (local header, compressed data, data descriptor), then the central directory, which
+ * is all a front-to-back ZIP reader uses; a workbook without shared strings gets an empty set of
+ * them, stored uncompressed.
  * Returns null, for the file to be read as saved, when a part the reader needs is missing.
  */
 export function readerOrder(
@@ -62,6 +63,11 @@ export function readerOrder(
     else if (name === SHARED_STRINGS) parts.push(storedEntry(SHARED_STRINGS, EMPTY_SHARED_STRINGS));
   }
   parts.push(buf.subarray(sheet.localOffset, sheet.end));
+  // And the directory after them, as saved: the reader stops at its signature. Without it the
+  // input would end exactly where the sheet does, and unzipper, asked for the next signature
+  // when the input has just finished, fails with FILE_ENDED though the bytes are in its buffer.
+  const directory = entries.reduce((at, e) => Math.max(at, e.end), 0);
+  parts.push(buf.subarray(directory));
   return parts;
 }
 
