@@ -27,4 +27,6 @@ export interface RowSource {
   /** Formula cells whose saved result was used */
   formulaCells: number;
   batches(): AsyncGenerator<SourceRow[]>;
+  /** Stops reading ahead, when the rows are not all wanted */
+  close?(): Promise<void>;
 }

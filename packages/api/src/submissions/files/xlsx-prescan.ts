@@ -101,11 +101,60 @@ async function readText(buf: Buffer, entry: ZipEntry, budget: InflateBudget): Pr
   return text;
 }
 
-export async function prescanXlsx(
+/** What the workbook says of itself: the sheet to read, and the byte budget its other parts left. */
+export interface XlsxPlan {
+  sheetName: string;
+  sheetPath: string;
+  otherSheets: string[];
+  date1904: boolean;
+  /** The chosen sheet's part, not yet expanded */
+  sheet: ZipEntry;
+  /** What is left of the byte budget for expanding the chosen sheet */
+  budget: InflateBudget;
+}
+
+/** What only a scan of the whole chosen sheet tells. */
+export interface SheetFacts {
+  valuedRows: number;
+  merges: CellRange[];
+  hiddenRows: number[];
+  hiddenColumns: number[];
+}
+
+/** A zip failure as the refusal a practice lead reads; anything else is rethrown. */
+function asRefusal(error: unknown, capBytes: number): never {
+  if (error instanceof PrescanRefusal) throw error;
+  if (error instanceof ZipError) {
+    if (error.reason === 'too_large') throw new PrescanRefusal(tooLarge(capBytes));
+    if (error.reason === 'encrypted') throw new PrescanRefusal(encrypted());
+    throw new PrescanRefusal(unreadable(error.message));
+  }
+  throw error;
+}
+
+/** Expands one part under the budget for its checks only, refusing declarations in its head. */
+async function checkPart(buf: Buffer, entry: ZipEntry, budget: InflateBudget): Promise<void> {
+  let first = true;
+  await inflateEntry(buf, entry, budget, (chunk) => {
+    if (first) {
+      first = false;
+      if (DTD.test(chunk.toString('latin1', 0, 4096)))
+        throw new PrescanRefusal(entitiesRefusal(entry.name));
+    }
+  });
+}
+
+/**
+ * Everything of the prescan but the chosen sheet's own scan: which sheet to read, and every
+ * other XML part expanded under the byte budget and checked for declarations. These parts are
+ * small, and exceljs reads some of them (shared strings, styles) whole before the sheet, so they
+ * are checked before exceljs is given the file.
+ */
+export async function planXlsx(
   buf: Buffer,
   entries: ZipEntry[],
   capBytes: number,
-): Promise<XlsxPrescan> {
+): Promise<XlsxPlan> {
   const byName = new Map(entries.map((e) => [e.name, e]));
   const declared = entries.reduce((sum, e) => sum + e.uncompressedSize, 0);
   if (declared > capBytes) throw new PrescanRefusal(tooLarge(capBytes));
@@ -137,56 +186,77 @@ export async function prescanXlsx(
       throw new PrescanRefusal(unreadable('it has no worksheet Cairn can read'));
     const chosen = worksheets.find((s) => s.name.trim().toLowerCase() === 'data') ?? worksheets[0]!;
     const date1904 = /<(?:\w+:)?workbookPr\b[^>]*\sdate1904="(1|true)"/.test(workbook);
+    const sheet = byName.get(chosen.path)!;
 
-    // Check every XML part against the budget and for declarations; scan the chosen sheet.
-    let scan: SheetScan | null = null;
+    // Every other XML part against the budget and for declarations; the chosen sheet is scanned
+    // apart (scanSheet), with what the budget has left.
     for (const entry of entries) {
-      if (!/\.(xml|rels|vml)$/i.test(entry.name) || entry === workbookEntry || entry === relsEntry)
-        continue;
-      if (entry.name === chosen.path) {
-        scan = new SheetScan();
-        const s = scan;
-        let first = true;
-        await inflateEntry(buf, entry, budget, (chunk) => {
-          if (first) {
-            first = false;
-            if (DTD.test(chunk.toString('latin1', 0, 4096)))
-              throw new PrescanRefusal(entitiesRefusal(entry.name));
-          }
-          s.push(chunk);
-        });
-        s.end();
-      } else {
-        let first = true;
-        await inflateEntry(buf, entry, budget, (chunk) => {
-          if (first) {
-            first = false;
-            if (DTD.test(chunk.toString('latin1', 0, 4096)))
-              throw new PrescanRefusal(entitiesRefusal(entry.name));
-          }
-        });
-      }
+      if (!/\.(xml|rels|vml)$/i.test(entry.name)) continue;
+      if (entry === workbookEntry || entry === relsEntry || entry === sheet) continue;
+      await checkPart(buf, entry, budget);
     }
-    const result = scan!;
     return {
       sheetName: chosen.name,
       sheetPath: chosen.path,
       otherSheets: sheets.filter((s) => s !== chosen).map((s) => s.name),
       date1904,
-      valuedRows: result.valuedRows,
-      merges: result.merges,
-      hiddenRows: result.hiddenRows,
-      hiddenColumns: result.hiddenColumns,
+      sheet,
+      budget,
     };
   } catch (error) {
-    if (error instanceof PrescanRefusal) throw error;
-    if (error instanceof ZipError) {
-      if (error.reason === 'too_large') throw new PrescanRefusal(tooLarge(capBytes));
-      if (error.reason === 'encrypted') throw new PrescanRefusal(encrypted());
-      throw new PrescanRefusal(unreadable(error.message));
-    }
-    throw error;
+    asRefusal(error, capBytes);
   }
+}
+
+/**
+ * The chosen sheet expanded under what is left of the budget: refused if it declares a DOCTYPE
+ * or entities, else its rows with values, hidden rows and columns, and merges. `sheet` may be a
+ * part alone in `buf` (dataStart 0), as the scan thread receives it (sheet-scan-thread.ts).
+ */
+export async function scanSheet(
+  buf: Buffer,
+  sheet: ZipEntry,
+  budget: InflateBudget,
+  capBytes: number,
+): Promise<SheetFacts> {
+  const scan = new SheetScan();
+  let first = true;
+  try {
+    await inflateEntry(buf, sheet, budget, (chunk) => {
+      if (first) {
+        first = false;
+        if (DTD.test(chunk.toString('latin1', 0, 4096)))
+          throw new PrescanRefusal(entitiesRefusal(sheet.name));
+      }
+      scan.push(chunk);
+    });
+  } catch (error) {
+    asRefusal(error, capBytes);
+  }
+  scan.end();
+  return {
+    valuedRows: scan.valuedRows,
+    merges: scan.merges,
+    hiddenRows: scan.hiddenRows,
+    hiddenColumns: scan.hiddenColumns,
+  };
+}
+
+/** The whole prescan in one step, the sheet scanned on this thread. */
+export async function prescanXlsx(
+  buf: Buffer,
+  entries: ZipEntry[],
+  capBytes: number,
+): Promise<XlsxPrescan> {
+  const plan = await planXlsx(buf, entries, capBytes);
+  const facts = await scanSheet(buf, plan.sheet, plan.budget, capBytes);
+  return {
+    sheetName: plan.sheetName,
+    sheetPath: plan.sheetPath,
+    otherSheets: plan.otherSheets,
+    date1904: plan.date1904,
+    ...facts,
+  };
 }
 
 const ROW_TAG = Buffer.from('<row', 'latin1');

@@ -16,7 +16,7 @@ import { crc32 } from 'node:zlib';
 import ExcelJS from 'exceljs';
 import { type Cell, CellProblem } from '../format/values.js';
 import type { RowSource, SourceNotes, SourceRow } from './row-source.js';
-import type { CellRange, XlsxPrescan } from './xlsx-prescan.js';
+import type { CellRange, SheetFacts, XlsxPrescan } from './xlsx-prescan.js';
 import type { ZipEntry } from './zip.js';
 
 const BATCH = 25;
@@ -123,64 +123,170 @@ export function toCell(value: unknown, onFormula: () => void): Cell {
   return null;
 }
 
+/** The sheet as the prescan's plan names it (xlsx-prescan.ts, planXlsx). */
+export type XlsxSheetPlan = Pick<
+  XlsxPrescan,
+  'sheetName' | 'sheetPath' | 'otherSheets' | 'date1904'
+>;
+
+/**
+ * Rows exceljs may read ahead while the sheet's own scan (its row count, merges, hidden rows)
+ * is still running, on a thread of its own for a large sheet (sheet-scan-thread.ts). Past this
+ * many, reading waits for the scan, so a workbook the scan then refuses has cost little.
+ */
+const READ_AHEAD_ROWS = 20_000;
+
 export class XlsxRowSource implements RowSource {
   readonly kind = 'xlsx' as const;
   formulaCells = 0;
-  readonly valuedRows: number;
   readonly date1904: boolean;
-  readonly notes: SourceNotes;
+  /** Settles once the sheet's scan is done; rejects with its refusal (PrescanRefusal). */
+  readonly ready: Promise<void>;
+  private facts: SheetFacts | null = null;
+  private scanSettled = false;
+  private readonly raw: AsyncGenerator<SourceRow[]>;
+  /** Batches read while the scan ran, their merges not yet filled */
+  private early: SourceRow[][] = [];
+  private rawDone = false;
+  private readError: unknown = null;
+  private readonly readingAhead: Promise<void>;
+  private noteCache: SourceNotes | null = null;
 
+  /**
+   * Starts reading at once; `facts` (the sheet's scan, usually still running) is needed before
+   * the first batch is handed out, and `ready` says when it is known.
+   */
   constructor(
     private readonly buf: Buffer,
-    private readonly prescan: XlsxPrescan,
+    private readonly plan: XlsxSheetPlan,
+    facts: Promise<SheetFacts> | SheetFacts,
     private readonly entries: readonly ZipEntry[],
   ) {
-    this.valuedRows = prescan.valuedRows;
-    this.date1904 = prescan.date1904;
-    this.notes = {
-      sheetName: prescan.sheetName,
-      otherSheets: prescan.otherSheets,
-      merges: prescan.merges,
-      hiddenRows: prescan.hiddenRows,
-      hiddenColumns: prescan.hiddenColumns,
+    this.date1904 = plan.date1904;
+    this.ready = Promise.resolve(facts).then(
+      (known) => {
+        this.facts = known;
+        this.scanSettled = true;
+      },
+      (error: unknown) => {
+        this.scanSettled = true;
+        throw error;
+      },
+    );
+    this.ready.catch(() => undefined); // the caller awaits it; never an unhandled rejection
+    this.raw = this.read();
+    this.readingAhead = this.readAhead();
+  }
+
+  private known(): SheetFacts {
+    if (!this.facts) throw new Error('the sheet scan has not finished');
+    return this.facts;
+  }
+
+  get valuedRows(): number {
+    return this.known().valuedRows;
+  }
+
+  get notes(): SourceNotes {
+    const facts = this.known();
+    this.noteCache ??= {
+      sheetName: this.plan.sheetName,
+      otherSheets: this.plan.otherSheets,
+      merges: facts.merges,
+      hiddenRows: facts.hiddenRows,
+      hiddenColumns: facts.hiddenColumns,
       delimiter: null,
       encoding: null,
     };
+    return this.noteCache;
+  }
+
+  /** Reads batches until the scan is done (or enough are waiting). */
+  private async readAhead(): Promise<void> {
+    let rows = 0;
+    try {
+      while (!this.scanSettled && rows < READ_AHEAD_ROWS) {
+        const next = await this.raw.next();
+        if (next.done) {
+          this.rawDone = true;
+          return;
+        }
+        this.early.push(next.value);
+        rows += next.value.length;
+      }
+    } catch (error) {
+      this.readError = error;
+      this.rawDone = true;
+    }
   }
 
   async *batches(): AsyncGenerator<SourceRow[]> {
-    const parts = readerOrder(this.buf, this.entries, this.prescan.sheetPath) ?? [this.buf];
-    const reader = new ExcelJS.stream.xlsx.WorkbookReader(Readable.from(parts), {
-      sharedStrings: 'cache',
-      styles: 'cache',
-      hyperlinks: 'ignore',
-      worksheets: 'emit',
-      entries: 'ignore',
-    });
-    const merges = new MergeFiller(this.prescan.merges);
-    const onFormula = () => void this.formulaCells++;
-    let batch: SourceRow[] = [];
-    let found = false;
-    for await (const worksheet of reader) {
-      if (found || (worksheet as unknown as { name: string }).name !== this.prescan.sheetName)
-        continue;
-      found = true;
-      for await (const row of worksheet) {
-        const values = row.values as unknown[];
-        const cells: Cell[] = new Array<Cell>(Math.max(0, values.length - 1));
-        for (let c = 1; c < values.length; c++) cells[c - 1] = toCell(values[c], onFormula);
-        for (let c = 0; c < cells.length; c++) if (cells[c] === undefined) cells[c] = null;
-        if (merges.active) merges.fill(row.number, cells);
-        batch.push({ row: row.number, cells });
-        if (batch.length >= BATCH) {
-          yield batch;
-          batch = [];
-        }
+    await this.ready;
+    await this.readingAhead;
+    if (this.readError) throw this.readError;
+    const merges = new MergeFiller(this.known().merges);
+    const fill = (batch: SourceRow[]) => {
+      if (merges.active) for (const r of batch) merges.fill(r.row, r.cells);
+      return batch;
+    };
+    const early = this.early;
+    this.early = [];
+    for (const batch of early) yield fill(batch);
+    if (this.rawDone) return;
+    for await (const batch of this.raw) yield fill(batch);
+  }
+
+  /** Stops reading (the file was refused, or its rows are not wanted). */
+  async close(): Promise<void> {
+    await this.readingAhead;
+    this.early = [];
+    await this.raw.return(undefined);
+  }
+
+  /** The sheet's rows as exceljs reads them, in batches; merges are filled in by batches(). */
+  private read(): AsyncGenerator<SourceRow[]> {
+    return readSheet(this.buf, this.entries, this.plan, (n) => void (this.formulaCells += n));
+  }
+}
+
+/**
+ * The chosen sheet's rows as exceljs reads them, in batches of BATCH, merges not filled in;
+ * `onFormula` counts the formula cells read.
+ */
+export async function* readSheet(
+  buf: Buffer,
+  entries: readonly ZipEntry[],
+  plan: Pick<XlsxSheetPlan, 'sheetName' | 'sheetPath'>,
+  onFormula: (cells: number) => void,
+): AsyncGenerator<SourceRow[]> {
+  const parts = readerOrder(buf, entries, plan.sheetPath) ?? [buf];
+  const reader = new ExcelJS.stream.xlsx.WorkbookReader(Readable.from(parts), {
+    sharedStrings: 'cache',
+    styles: 'cache',
+    hyperlinks: 'ignore',
+    worksheets: 'emit',
+    entries: 'ignore',
+  });
+  const countFormula = () => onFormula(1);
+  let batch: SourceRow[] = [];
+  let found = false;
+  for await (const worksheet of reader) {
+    if (found || (worksheet as unknown as { name: string }).name !== plan.sheetName) continue;
+    found = true;
+    for await (const row of worksheet) {
+      const values = row.values as unknown[];
+      const cells: Cell[] = new Array<Cell>(Math.max(0, values.length - 1));
+      for (let c = 1; c < values.length; c++) cells[c - 1] = toCell(values[c], countFormula);
+      for (let c = 0; c < cells.length; c++) if (cells[c] === undefined) cells[c] = null;
+      batch.push({ row: row.number, cells });
+      if (batch.length >= BATCH) {
+        yield batch;
+        batch = [];
       }
     }
-    if (batch.length > 0) yield batch;
-    if (!found) throw new SheetNotReadError(this.prescan.sheetName);
   }
+  if (batch.length > 0) yield batch;
+  if (!found) throw new SheetNotReadError(plan.sheetName);
 }
 
 /** The chosen sheet never came out of the reader (a workbook written by an unusual program). */

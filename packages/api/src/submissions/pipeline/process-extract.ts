@@ -25,7 +25,8 @@ import { type Cell, cellText, isBlank } from '../format/values.js';
 import { openCsv } from '../files/csv-source.js';
 import type { RowSource } from '../files/row-source.js';
 import { sniff, unreadable } from '../files/sniff.js';
-import { prescanXlsx, PrescanRefusal } from '../files/xlsx-prescan.js';
+import { scanSheetFacts } from '../files/sheet-scan-thread.js';
+import { planXlsx, PrescanRefusal } from '../files/xlsx-prescan.js';
 import { SheetNotReadError, XlsxRowSource } from '../files/xlsx-source.js';
 import { RowValidator, type ValidationContext } from '../validate/row-validator.js';
 
@@ -175,7 +176,11 @@ export async function processExtract(
     outcome.refusal = opened.refusal;
     return outcome;
   }
-  return readRows(opened.source, outcome, context, submissionId, limits, sinks);
+  try {
+    return await readRows(opened.source, outcome, context, submissionId, limits, sinks);
+  } finally {
+    await opened.source.close?.();
+  }
 }
 
 /** What the file is, and its rows ready to be read; or why it is refused. */
@@ -191,10 +196,22 @@ export async function openExtract(
   const sniffed = sniff(bytes, fileName, limits.maxZipEntries);
   if (sniffed.kind === 'refused') return { kind: null, refusal: sniffed.refusal };
   if (sniffed.kind === 'xlsx') {
+    const cap = limits.maxUncompressedBytes;
+    let source: XlsxRowSource | null = null;
     try {
-      const prescan = await prescanXlsx(bytes, sniffed.entries, limits.maxUncompressedBytes);
-      return { kind: 'xlsx', source: new XlsxRowSource(bytes, prescan, sniffed.entries) };
+      const plan = await planXlsx(bytes, sniffed.entries, cap);
+      // exceljs starts on the rows while the sheet's scan runs (on a thread of its own when the
+      // sheet is large); no row is handed out before the scan is done.
+      source = new XlsxRowSource(
+        bytes,
+        plan,
+        scanSheetFacts(bytes, plan.sheet, plan.budget, cap),
+        sniffed.entries,
+      );
+      await source.ready;
+      return { kind: 'xlsx', source };
     } catch (error) {
+      await source?.close();
       if (error instanceof PrescanRefusal) return { kind: 'xlsx', refusal: error.refusal };
       throw error;
     }
