@@ -13,11 +13,14 @@
  *      in a child process of its own (bench/rss-child.ts).
  *
  * Targets: CSV ≥ 0.5 × LOAD DATA rows/s; XLSX ≥ 0.8 × bare exceljs rows/s.
- * Each of 1 and 2, ours and the reference alike, is the median of RUNS runs,
- * timed after one untimed ingest of each file (and one untimed bare read):
+ * Each of 1 and 2, ours and the reference alike, is the median of RUNS runs
+ * (XLSX_RUNS for the workbook), timed after one untimed ingest of each file
+ * (and one untimed bare read):
  * the steady state of an API process that has checked files before, not the
  * first files a fresh process compiles its code for (with a small warm-up
  * file the first timed runs were still up to 30 % slower than the later ones).
+ * The workbook's ratio is the median of each run's own ratio (a bare read,
+ * then the ingest, seconds apart), the ratio of the medians printed beside it.
  * Exit code 1 when a target is missed. `--quick`: 20,000 rows instead.
  *
  * The end-to-end ingest runs the production build (dist/), as the API does.
@@ -58,6 +61,8 @@ const work = join(tmpdir(), 'cairn-bench');
 mkdirSync(work, { recursive: true });
 
 const RUNS = 5;
+/** The workbook's runs: more of them, its spread being the larger */
+const XLSX_RUNS = 7;
 const median = (values: number[]) => [...values].sort((a, b) => a - b)[values.length >> 1]!;
 const fmt = (n: number) => new Intl.NumberFormat('en-GB', { maximumFractionDigits: 0 }).format(n);
 const seconds = (ms: number) => `${(ms / 1000).toFixed(2)} s`;
@@ -134,7 +139,8 @@ async function main(): Promise<void> {
     const spare = practices
       .filter((p) => p.code !== 'OV102' && p.code !== 'OV104')
       .sort((a, b) => a.code.localeCompare(b.code));
-    if (spare.length < 2 * RUNS) throw new Error(`the bench needs ${2 * RUNS} practices`);
+    if (spare.length < RUNS + XLSX_RUNS)
+      throw new Error(`the bench needs ${RUNS + XLSX_RUNS} practices`);
     const practiceOf = (run: number) => spare[run]!.id;
     const practice = practiceOf(0);
     const [region] = await t.db.query<{ id: number }>('SELECT id FROM regions', {
@@ -246,7 +252,7 @@ async function main(): Promise<void> {
     const bareTimes: number[] = [];
     const orderedTimes: number[] = [];
     const xlsxTimes: number[] = [];
-    for (let run = 0; run < RUNS; run++) {
+    for (let run = 0; run < XLSX_RUNS; run++) {
       const bare = await bareExceljsRead(files.xlsx);
       if (bare.rows !== N) throw new Error(`the bare read found ${bare.rows} rows`);
       bareTimes.push(bare.ms);
@@ -258,14 +264,21 @@ async function main(): Promise<void> {
     const xlsxMs = median(xlsxTimes);
     const bareRate = (N / bareMs) * 1000;
     const xlsxRate = (N / xlsxMs) * 1000;
+    // Each run's ratio of its bare read to the ingest that followed it, seconds apart: this
+    // machine's speed drifts by a third within a minute, and a pair shares the drift.
+    const pairRatios = bareTimes.map((bare, i) => bare / xlsxTimes[i]!);
+    const xlsxRatio = median(pairRatios);
     console.log(
       `  bare exceljs streaming read (ref.)  ${seconds(bareMs).padStart(8)}  ${fmt(bareRate).padStart(8)} rows/s`,
     );
     console.log(
-      `  XLSX end to end                     ${seconds(xlsxMs).padStart(8)}  ${fmt(xlsxRate).padStart(8)} rows/s   ratio ${(xlsxRate / bareRate).toFixed(2)} (target ≥ 0.80)`,
+      `  XLSX end to end                     ${seconds(xlsxMs).padStart(8)}  ${fmt(xlsxRate).padStart(8)} rows/s   ratio ${xlsxRatio.toFixed(2)} (target ≥ 0.80)`,
     );
     console.log(spread('runs, bare exceljs read', bareTimes));
     console.log(spread('runs, XLSX end to end', xlsxTimes));
+    console.log(
+      `      ratio of each run's pair (bare read, then ingest): ${pairRatios.map((r) => r.toFixed(2)).join(', ')}; median ${xlsxRatio.toFixed(2)}; ratio of the medians ${(xlsxRate / bareRate).toFixed(2)}`,
+    );
     console.log(
       `      for comparison, not a target: a bare read of the parts in the ingest's order ${seconds(orderedMs)} (ratio ${(orderedMs / xlsxMs).toFixed(2)})`,
     );
@@ -322,8 +335,8 @@ async function main(): Promise<void> {
       csvRate / loadRate >= 0.5,
     );
     check(
-      `XLSX end to end ≥ 0.8 × bare exceljs read (${(xlsxRate / bareRate).toFixed(2)})`,
-      xlsxRate / bareRate >= 0.8,
+      `XLSX end to end ≥ 0.8 × bare exceljs read (${xlsxRatio.toFixed(2)}, median of the runs' pairs)`,
+      xlsxRatio >= 0.8,
     );
     check(
       `5,000-row file upload to report ≤ 2 s (CSV ${seconds(timings.csv!)}, XLSX ${seconds(timings.xlsx!)})`,
