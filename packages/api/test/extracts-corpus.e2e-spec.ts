@@ -373,6 +373,46 @@ const cases: Case[] = [
     },
   },
   {
+    name: 'a sheet that expands to more than its directory says',
+    file: async () => ({
+      buf: alterWorkbook(await xlsxOf(goodRows(20)), (parts) =>
+        parts.map((p) =>
+          p.name === 'xl/worksheets/sheet1.xml'
+            ? { name: p.name, data: p.data, declaredSize: p.data.length - 40 }
+            : p,
+        ),
+      ),
+      name: 'extract.xlsx',
+    }),
+    expect: {
+      refusal: {
+        code: 'unreadable_file',
+        message:
+          'The workbook is damaged and cannot be read (the part xl/worksheets/sheet1.xml is not the size its directory says). It may have been cut short while it was copied or downloaded.',
+      },
+    },
+  },
+  {
+    name: 'a sheet that expands to less than its directory says',
+    file: async () => ({
+      buf: alterWorkbook(await xlsxOf(goodRows(20)), (parts) =>
+        parts.map((p) =>
+          p.name === 'xl/worksheets/sheet1.xml'
+            ? { name: p.name, data: p.data, declaredSize: p.data.length + 40 }
+            : p,
+        ),
+      ),
+      name: 'extract.xlsx',
+    }),
+    expect: {
+      refusal: {
+        code: 'unreadable_file',
+        message:
+          'The workbook is damaged and cannot be read (the part xl/worksheets/sheet1.xml is not the size its directory says). It may have been cut short while it was copied or downloaded.',
+      },
+    },
+  },
+  {
     name: 'XML entity declarations (entity expansion)',
     file: async () => ({
       buf: alterWorkbook(await xlsxOf(goodRows(2)), (parts) =>

@@ -12,12 +12,12 @@
  * save the sheets first.
  */
 import { Readable } from 'node:stream';
-import { crc32 } from 'node:zlib';
+import { crc32, createInflateRaw } from 'node:zlib';
 import ExcelJS from 'exceljs';
 import { type Cell, CellProblem } from '../format/values.js';
 import type { RowSource, SourceNotes, SourceRow } from './row-source.js';
 import type { CellRange, SheetFacts, XlsxPrescan } from './xlsx-prescan.js';
-import type { ZipEntry } from './zip.js';
+import { ZipError, type ZipEntry } from './zip.js';
 
 const BATCH = 25;
 
@@ -69,6 +69,90 @@ export function readerOrder(
   const directory = entries.reduce((at, e) => Math.max(at, e.end), 0);
   parts.push(buf.subarray(directory));
   return parts;
+}
+
+/** Expanded bytes of the sheet kept ready ahead of exceljs (64 KB each: 4 MB) */
+const EXPANDED_AHEAD = 64;
+const EXPAND_CHUNK = 1 << 16;
+
+/**
+ * What exceljs reads: the parts in its order (readerOrder), the sheet among them already
+ * expanded and passed on as a stored part. The sheet is expanded by zlib on its own threads
+ * a few megabytes ahead of the XML parser, instead of one small piece at a time when the parser
+ * asks for it: with MariaDB and the sheet's scan busy on the other core, the reading thread
+ * otherwise waited for each piece. The expanded size must be the one the workbook's directory
+ * declares (the local header says so); a sheet expanding to more or less is damaged.
+ */
+export function readerInput(
+  buf: Buffer,
+  entries: readonly ZipEntry[],
+  sheetPath: string,
+): ReaderInput {
+  const parts = readerOrder(buf, entries, sheetPath);
+  const none = () => null;
+  if (!parts) return { input: Readable.from([buf]), problem: none };
+  const sheet = entries.find((e) => e.name === sheetPath)!;
+  if (sheet.method !== 8 || sheet.encrypted || sheet.uncompressedSize >= 0xffffffff)
+    return { input: Readable.from(parts), problem: none };
+  const before = parts.slice(0, -2);
+  const directory = parts[parts.length - 1]!;
+  let problem: ZipError | null = null;
+  // The input never fails as a stream (the reader would not hear it, and wait): on a problem it
+  // ends short of the sheet's declared size, the reader fails, and problem() says why.
+  async function* bytes(): AsyncGenerator<Buffer> {
+    yield* before;
+    yield storedHeader(sheet.name, sheet.uncompressedSize);
+    const inflate = createInflateRaw({ chunkSize: EXPAND_CHUNK });
+    inflate.end(buf.subarray(sheet.dataStart, sheet.dataStart + sheet.compressedSize));
+    let expanded = 0;
+    try {
+      for await (const chunk of inflate as AsyncIterable<Buffer>) {
+        expanded += chunk.length;
+        if (expanded > sheet.uncompressedSize) break;
+        yield chunk;
+      }
+    } catch {
+      problem = new ZipError('damaged', `the part ${sheet.name} cannot be expanded`);
+      return;
+    } finally {
+      inflate.destroy();
+    }
+    if (expanded !== sheet.uncompressedSize) {
+      problem = new ZipError(
+        'damaged',
+        `the part ${sheet.name} is not the size its directory says`,
+      );
+      return;
+    }
+    yield directory;
+  }
+  return {
+    input: Readable.from(bytes(), { highWaterMark: EXPANDED_AHEAD }),
+    problem: () => problem,
+  };
+}
+
+export interface ReaderInput {
+  input: Readable;
+  /** Why the input ended early (the sheet is damaged), once it has */
+  problem(): ZipError | null;
+}
+
+/** The local file header of an uncompressed part of `size` bytes; no CRC (nothing checks it here). */
+function storedHeader(name: string, size: number): Buffer {
+  const nameBytes = Buffer.from(name, 'utf8');
+  const header = Buffer.alloc(30);
+  header.writeUInt32LE(0x04034b50, 0);
+  header.writeUInt16LE(10, 4);
+  header.writeUInt16LE(0x0800, 6);
+  header.writeUInt16LE(0, 8);
+  header.writeUInt32LE(0, 10);
+  header.writeUInt32LE(0, 14);
+  header.writeUInt32LE(size, 18);
+  header.writeUInt32LE(size, 22);
+  header.writeUInt16LE(nameBytes.length, 26);
+  header.writeUInt16LE(0, 28);
+  return Buffer.concat([header, nameBytes]);
 }
 
 /** The local file header and data of an uncompressed ZIP part (APPNOTE.TXT 4.3.7). */
@@ -259,8 +343,8 @@ export async function* readSheet(
   plan: Pick<XlsxSheetPlan, 'sheetName' | 'sheetPath'>,
   onFormula: (cells: number) => void,
 ): AsyncGenerator<SourceRow[]> {
-  const parts = readerOrder(buf, entries, plan.sheetPath) ?? [buf];
-  const reader = new ExcelJS.stream.xlsx.WorkbookReader(Readable.from(parts), {
+  const { input, problem } = readerInput(buf, entries, plan.sheetPath);
+  const reader = new ExcelJS.stream.xlsx.WorkbookReader(input, {
     sharedStrings: 'cache',
     styles: 'cache',
     hyperlinks: 'ignore',
@@ -270,21 +354,28 @@ export async function* readSheet(
   const countFormula = () => onFormula(1);
   let batch: SourceRow[] = [];
   let found = false;
-  for await (const worksheet of reader) {
-    if (found || (worksheet as unknown as { name: string }).name !== plan.sheetName) continue;
-    found = true;
-    for await (const row of worksheet) {
-      const values = row.values as unknown[];
-      const cells: Cell[] = new Array<Cell>(Math.max(0, values.length - 1));
-      for (let c = 1; c < values.length; c++) cells[c - 1] = toCell(values[c], countFormula);
-      for (let c = 0; c < cells.length; c++) if (cells[c] === undefined) cells[c] = null;
-      batch.push({ row: row.number, cells });
-      if (batch.length >= BATCH) {
-        yield batch;
-        batch = [];
+  try {
+    for await (const worksheet of reader) {
+      if (found || (worksheet as unknown as { name: string }).name !== plan.sheetName) continue;
+      found = true;
+      for await (const row of worksheet) {
+        const values = row.values as unknown[];
+        const cells: Cell[] = new Array<Cell>(Math.max(0, values.length - 1));
+        for (let c = 1; c < values.length; c++) cells[c - 1] = toCell(values[c], countFormula);
+        for (let c = 0; c < cells.length; c++) if (cells[c] === undefined) cells[c] = null;
+        batch.push({ row: row.number, cells });
+        if (batch.length >= BATCH) {
+          yield batch;
+          batch = [];
+        }
       }
     }
+  } catch (error) {
+    // The reader's own complaint (the input ended early) says less than why it did.
+    throw problem() ?? error;
   }
+  const damaged = problem();
+  if (damaged) throw damaged;
   if (batch.length > 0) yield batch;
   if (!found) throw new SheetNotReadError(plan.sheetName);
 }

@@ -25,6 +25,7 @@ import { type Cell, cellText, isBlank } from '../format/values.js';
 import { openCsv } from '../files/csv-source.js';
 import type { RowSource } from '../files/row-source.js';
 import { sniff, unreadable } from '../files/sniff.js';
+import { ZipError } from '../files/zip.js';
 import { scanSheetFacts } from '../files/sheet-scan-thread.js';
 import { planXlsx, PrescanRefusal } from '../files/xlsx-prescan.js';
 import { SheetNotReadError, XlsxRowSource } from '../files/xlsx-source.js';
@@ -504,6 +505,7 @@ async function readRows(
   } catch (error) {
     if (error instanceof SheetNotReadError)
       return refuse(unreadable(`the sheet “${error.sheetName}” could not be read`));
+    if (error instanceof ZipError) return refuse(unreadable(error.message));
     if (isExceljsParseError(error)) return refuse(unreadable('its sheet XML is not well formed'));
     throw error;
   }
