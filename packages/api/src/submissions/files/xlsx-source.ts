@@ -101,7 +101,8 @@ export function readerInput(
   // ends short of the sheet's declared size, the reader fails, and problem() says why.
   async function* bytes(): AsyncGenerator<Buffer> {
     yield* before;
-    yield storedHeader(sheet.name, sheet.uncompressedSize);
+    // CRC 0: known only once the sheet is expanded, and the streaming reader does not check it.
+    yield storedHeader(sheet.name, sheet.uncompressedSize, 0);
     const inflate = createInflateRaw({ chunkSize: EXPAND_CHUNK });
     inflate.end(buf.subarray(sheet.dataStart, sheet.dataStart + sheet.compressedSize));
     let expanded = 0;
@@ -138,25 +139,8 @@ export interface ReaderInput {
   problem(): ZipError | null;
 }
 
-/** The local file header of an uncompressed part of `size` bytes; no CRC (nothing checks it here). */
-function storedHeader(name: string, size: number): Buffer {
-  const nameBytes = Buffer.from(name, 'utf8');
-  const header = Buffer.alloc(30);
-  header.writeUInt32LE(0x04034b50, 0);
-  header.writeUInt16LE(10, 4);
-  header.writeUInt16LE(0x0800, 6);
-  header.writeUInt16LE(0, 8);
-  header.writeUInt32LE(0, 10);
-  header.writeUInt32LE(0, 14);
-  header.writeUInt32LE(size, 18);
-  header.writeUInt32LE(size, 22);
-  header.writeUInt16LE(nameBytes.length, 26);
-  header.writeUInt16LE(0, 28);
-  return Buffer.concat([header, nameBytes]);
-}
-
-/** The local file header and data of an uncompressed ZIP part (APPNOTE.TXT 4.3.7). */
-function storedEntry(name: string, data: Buffer): Buffer {
+/** The local file header of an uncompressed part of `size` bytes (APPNOTE.TXT 4.3.7). */
+function storedHeader(name: string, size: number, crc: number): Buffer {
   const nameBytes = Buffer.from(name, 'utf8');
   const header = Buffer.alloc(30);
   header.writeUInt32LE(0x04034b50, 0);
@@ -164,12 +148,17 @@ function storedEntry(name: string, data: Buffer): Buffer {
   header.writeUInt16LE(0x0800, 6); // the name is UTF-8
   header.writeUInt16LE(0, 8); // stored, not compressed
   header.writeUInt32LE(0, 10); // time and date
-  header.writeUInt32LE(crc32(data), 14);
-  header.writeUInt32LE(data.length, 18);
-  header.writeUInt32LE(data.length, 22);
+  header.writeUInt32LE(crc, 14);
+  header.writeUInt32LE(size, 18);
+  header.writeUInt32LE(size, 22);
   header.writeUInt16LE(nameBytes.length, 26);
   header.writeUInt16LE(0, 28);
-  return Buffer.concat([header, nameBytes, data]);
+  return Buffer.concat([header, nameBytes]);
+}
+
+/** The local file header and data of an uncompressed ZIP part. */
+function storedEntry(name: string, data: Buffer): Buffer {
+  return Buffer.concat([storedHeader(name, data.length, crc32(data)), data]);
 }
 
 export function toCell(value: unknown, onFormula: () => void): Cell {
