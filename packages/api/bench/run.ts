@@ -105,13 +105,9 @@ async function bareExceljsRead(
       'xl/worksheets/sheet1.xml',
     ).input;
   }
-  const reader = new ExcelJS.stream.xlsx.WorkbookReader(input, {
-    sharedStrings: 'cache',
-    styles: 'cache',
-    hyperlinks: 'ignore',
-    worksheets: 'emit',
-    entries: 'ignore',
-  });
+  // The ingest's own reader options (xlsx-source.ts): the same work asked of exceljs.
+  const { READER_OPTIONS } = await fromDist('submissions/files/xlsx-source.js');
+  const reader = new ExcelJS.stream.xlsx.WorkbookReader(input, READER_OPTIONS);
   let rows = 0;
   for await (const sheet of reader) for await (const _row of sheet) rows++;
   return { rows: rows - 1, ms: performance.now() - t0 };

@@ -16,7 +16,7 @@ import {
   type XlsxPlan,
 } from '../src/submissions/files/xlsx-prescan.js';
 import { openExtract } from '../src/submissions/pipeline/process-extract.js';
-import { alterWorkbook } from './extracts-fixtures/zip.js';
+import { editSheetXml } from './extracts-fixtures/zip.js';
 import { goodRows, xlsxOf } from './extracts-fixtures/rows.js';
 
 const CAP = 100 << 20;
@@ -50,22 +50,8 @@ describe('sheet scan on a thread', () => {
       merges: ['C5:C7'],
       hiddenRows: [9, 12],
     });
-    const hidden = alterWorkbook(bytes, (parts) =>
-      parts.map((p) =>
-        p.name === 'xl/worksheets/sheet1.xml'
-          ? {
-              name: p.name,
-              data: Buffer.from(
-                p.data
-                  .toString('utf8')
-                  .replace(
-                    '<sheetData',
-                    '<cols><col min="4" max="5" hidden="1"/></cols><sheetData',
-                  ),
-              ),
-            }
-          : p,
-      ),
+    const hidden = editSheetXml(bytes, (xml) =>
+      xml.replace('<sheetData', '<cols><col min="4" max="5" hidden="1"/></cols><sheetData'),
     );
     const before = { ...scanThreadStats };
     const plan = await planOf(hidden);
@@ -82,19 +68,8 @@ describe('sheet scan on a thread', () => {
   });
 
   it('refuses a sheet declaring entities, as the scan on this thread does', async () => {
-    const bytes = alterWorkbook(await xlsxOf(goodRows(2)), (parts) =>
-      parts.map((p) =>
-        p.name === 'xl/worksheets/sheet1.xml'
-          ? {
-              name: p.name,
-              data: Buffer.from(
-                p.data
-                  .toString('utf8')
-                  .replace('?>', '?><!DOCTYPE worksheet [<!ENTITY a "aaaaaaaaaa">]>'),
-              ),
-            }
-          : p,
-      ),
+    const bytes = editSheetXml(await xlsxOf(goodRows(2)), (xml) =>
+      xml.replace('?>', '?><!DOCTYPE worksheet [<!ENTITY a "aaaaaaaaaa">]>'),
     );
     expect(await refusalOf(onThread(bytes))).toBe('xml_entities');
   });
@@ -120,17 +95,8 @@ describe('sheet scan on a thread', () => {
 
   it('stops reading ahead when the scan refuses a large workbook, or the rows are not all wanted', async () => {
     const good = await xlsxOf(goodRows(15_000), undefined, { sharedStrings: true });
-    const hostile = alterWorkbook(good, (parts) =>
-      parts.map((p) =>
-        p.name === 'xl/worksheets/sheet1.xml'
-          ? {
-              name: p.name,
-              data: Buffer.from(
-                p.data.toString('utf8').replace('?>', '?><!DOCTYPE worksheet [<!ENTITY a "a">]>'),
-              ),
-            }
-          : p,
-      ),
+    const hostile = editSheetXml(good, (xml) =>
+      xml.replace('?>', '?><!DOCTYPE worksheet [<!ENTITY a "a">]>'),
     );
     const refused = await openExtract(hostile, 'extract.xlsx', limits);
     expect('refusal' in refused && refused.refusal.code).toBe('xml_entities');

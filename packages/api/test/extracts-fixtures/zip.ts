@@ -78,3 +78,18 @@ export function unzip(buf: Buffer): ZipPart[] {
 export function alterWorkbook(buf: Buffer, change: (parts: ZipPart[]) => ZipPart[]): Buffer {
   return buildZip(change(unzip(buf)));
 }
+
+/** Rebuilds a workbook with its data sheet changed: `change` gets the sheet part, returns it anew. */
+export function alterSheet(buf: Buffer, change: (sheet: ZipPart) => ZipPart): Buffer {
+  return alterWorkbook(buf, (parts) =>
+    parts.map((p) => (p.name === 'xl/worksheets/sheet1.xml' ? change(p) : p)),
+  );
+}
+
+/** Rebuilds a workbook with its data sheet's XML edited as text. */
+export function editSheetXml(buf: Buffer, edit: (xml: string) => string): Buffer {
+  return alterSheet(buf, (p) => ({
+    name: p.name,
+    data: Buffer.from(edit(p.data.toString('utf8'))),
+  }));
+}

@@ -21,6 +21,18 @@ import { ZipError, type ZipEntry } from './zip.js';
 
 const BATCH = 25;
 
+/**
+ * exceljs's streaming reader options: shared strings and styles kept (dates are told by their
+ * number format), hyperlinks ignored, each sheet handed out as it is reached.
+ */
+export const READER_OPTIONS = {
+  sharedStrings: 'cache',
+  styles: 'cache',
+  hyperlinks: 'ignore',
+  worksheets: 'emit',
+  entries: 'ignore',
+} as const;
+
 /** The parts exceljs's streaming reader reads before it can read a sheet without a temporary file */
 const READER_FIRST = [
   'xl/_rels/workbook.xml.rels',
@@ -333,13 +345,7 @@ export async function* readSheet(
   onFormula: (cells: number) => void,
 ): AsyncGenerator<SourceRow[]> {
   const { input, problem } = readerInput(buf, entries, plan.sheetPath);
-  const reader = new ExcelJS.stream.xlsx.WorkbookReader(input, {
-    sharedStrings: 'cache',
-    styles: 'cache',
-    hyperlinks: 'ignore',
-    worksheets: 'emit',
-    entries: 'ignore',
-  });
+  const reader = new ExcelJS.stream.xlsx.WorkbookReader(input, READER_OPTIONS);
   const countFormula = () => onFormula(1);
   let batch: SourceRow[] = [];
   let found = false;
