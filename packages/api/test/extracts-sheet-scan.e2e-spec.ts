@@ -60,7 +60,7 @@ describe('sheet scan on a thread', () => {
     expect(threaded).toEqual(inline);
     expect(threaded.valuedRows).toBe(301);
     expect(threaded.merges.map((m) => m.ref)).toEqual(['C5:C7']);
-    expect(threaded.hiddenRows).toHaveLength(2);
+    expect(threaded.hiddenRows).toEqual([9, 12]);
     expect(threaded.hiddenColumns).toEqual([4, 5]);
     // Scanned on the thread, not on this one after the thread failed.
     expect(scanThreadStats.scans).toBe(before.scans + 1);

@@ -108,7 +108,16 @@ export async function writeXlsx(
   });
   const dateFormat = options.dateFormat ?? 'yyyy-mm-dd';
   const hidden = new Set(options.hiddenRows ?? []);
-  for (const merge of options.merges ?? []) ws.mergeCells(merge);
+  // The streaming writer merges only rows it still holds, and makes the rows a merge covers
+  // itself: merging before the rows are added would push every added row below the range.
+  // So rows are held (not committed) until the last row a merge covers, then merged.
+  const merges = options.merges ?? [];
+  const lastMergedRow = Math.max(0, ...merges.map((ref) => Number(/(\d+)$/.exec(ref)?.[1] ?? 0)));
+  let merged = merges.length === 0;
+  const merge = () => {
+    for (const ref of merges) ws.mergeCells(ref);
+    merged = true;
+  };
   let rowNumber = 0;
   const add = (values: ExtractValue[]) => {
     rowNumber++;
@@ -117,11 +126,13 @@ export async function writeXlsx(
       if (v instanceof Date) row.getCell(i + 1).numFmt = dateFormat;
     });
     if (hidden.has(rowNumber)) row.hidden = true;
-    row.commit();
+    if (!merged && rowNumber >= lastMergedRow) merge();
+    if (merged) row.commit();
   };
   for (const title of options.titleRows ?? []) add(title);
   add(sheet.headings);
   for (const values of sheet.rows) add(values);
+  if (!merged) merge();
   ws.commit();
   for (const extra of options.sheetsAfter ?? []) {
     const other = workbook.addWorksheet(extra.name);
