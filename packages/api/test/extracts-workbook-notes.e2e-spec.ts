@@ -93,4 +93,35 @@ describe('workbook notes', () => {
     expect(issues.find((i) => i.code === 'hidden_rows')!.message).toContain('Rows 11 and 3001');
     expect(issues.find((i) => i.code === 'blank_rows')!.message).toContain('(row 501)');
   });
+
+  it('uses a formula cell’s saved result and counts only the results it used', async () => {
+    const book = new ExcelJS.Workbook();
+    const sheet = book.addWorksheet('data');
+    sheet.addRow(HEADINGS);
+    for (const values of toValues(goodRows(3))) sheet.addRow(values);
+    const bmi = String.fromCharCode(64 + HEADINGS.indexOf('bmi_value') + 1);
+    // Row 2: a formula with its result saved; row 3: one never calculated.
+    sheet.getCell(`${bmi}2`).value = { formula: '2810/100', result: 28.1 };
+    sheet.getCell(`${bmi}3`).value = { formula: '2930/100' } as ExcelJS.CellFormulaValue;
+    const records: RecordRow[] = [];
+    const issues: Issue[] = [];
+    await processExtract(
+      Buffer.from(await book.xlsx.writeBuffer()),
+      'formulas.xlsx',
+      context,
+      1,
+      limits,
+      {
+        records: (rows) => void records.push(...rows),
+        issues: (list) => void issues.push(...list),
+        rejectedRows: () => undefined,
+        progress: () => undefined,
+      },
+    );
+    expect(records.find((r) => r[COL.source_row] === 2)![COL.bmi_kg_m2]).toBe(28.1);
+    expect(issues.find((i) => i.code === 'formula_without_result')).toMatchObject({ row: 3 });
+    expect(issues.find((i) => i.code === 'formulas_used')!.message).toBe(
+      'One cell holds a formula; Cairn used the result saved in the file.',
+    );
+  });
 });

@@ -189,7 +189,6 @@ export function toCell(value: unknown, onFormula: () => void): Cell {
   if (value instanceof Date) return value;
   const v = value as Record<string, unknown>;
   if ('formula' in v || 'sharedFormula' in v) {
-    onFormula();
     const formula = String(v.formula ?? v.sharedFormula ?? '');
     if (!('result' in v) || v.result === undefined) return new CellProblem('no_result', formula);
     const result = v.result;
@@ -198,6 +197,7 @@ export function toCell(value: unknown, onFormula: () => void): Cell {
     if (result !== null && typeof result === 'object' && 'error' in (result as object)) {
       return new CellProblem('error', String((result as { error: unknown }).error));
     }
+    onFormula();
     return toCell(result, () => undefined);
   }
   if ('error' in v) return new CellProblem('error', String(v.error));
@@ -335,7 +335,7 @@ export class XlsxRowSource implements RowSource {
 
 /**
  * The chosen sheet's rows as exceljs reads them, in batches of BATCH, merges not filled in;
- * `onFormula` counts the formula cells read.
+ * `onFormula` counts the formula cells whose saved result was used.
  */
 export async function* readSheet(
   buf: Buffer,
