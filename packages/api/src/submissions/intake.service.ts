@@ -25,6 +25,7 @@ import type { CairnConfig } from '../config/config.schema.js';
 import type { QuarterRow } from '../quarters/quarters.service.js';
 import { QuartersService } from '../quarters/quarters.service.js';
 import { JobRunner, UPLOAD_LEASE_PREFIX } from './job-runner.service.js';
+import { withRaw } from '../records/raw-connection.js';
 import { deleteFile, execute, findSubmission, type SubmissionStatus } from './submission-store.js';
 import { type HandoffCollector, UploadHandoff } from './upload-handoff.js';
 
@@ -224,15 +225,17 @@ export class IntakeService {
       pending = [];
       pendingBytes = 0;
       kept.add(data);
-      for (let at = 0; at < data.length; at += CHUNK_BYTES) {
-        await this.sequelize.query(
+      const rows: unknown[][] = [];
+      for (let at = 0; at < data.length; at += CHUNK_BYTES)
+        rows.push([id, seq++, data.subarray(at, at + CHUNK_BYTES)]);
+      // The connector's batch sends each Buffer as it is (binary protocol); a replacement would
+      // write it into the SQL text as X'hex', a string twice its size.
+      await withRaw(this.sequelize, (connection) =>
+        connection.batch(
           'INSERT INTO extract_file_chunks (submission_id, seq, data) VALUES (?, ?, ?)',
-          {
-            replacements: [id, seq++, data.subarray(at, at + CHUNK_BYTES)],
-            type: QueryTypes.INSERT,
-          },
-        );
-      }
+          rows,
+        ),
+      );
     };
     try {
       for await (const chunk of upload.chunks) {
