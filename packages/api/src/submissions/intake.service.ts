@@ -225,17 +225,17 @@ export class IntakeService {
       pending = [];
       pendingBytes = 0;
       kept.add(data);
-      const rows: unknown[][] = [];
-      for (let at = 0; at < data.length; at += CHUNK_BYTES)
-        rows.push([id, seq++, data.subarray(at, at + CHUNK_BYTES)]);
-      // The connector's batch sends each Buffer as it is (binary protocol); a replacement would
-      // write it into the SQL text as X'hex', a string twice its size.
-      await withRaw(this.sequelize, (connection) =>
-        connection.batch(
-          'INSERT INTO extract_file_chunks (submission_id, seq, data) VALUES (?, ?, ?)',
-          rows,
-        ),
-      );
+      // The connector's batch sends a Buffer as it is (binary protocol); a replacement would
+      // write it into the SQL text as X'hex', a string twice its size. One chunk per statement
+      // keeps every packet far below MariaDB's max_allowed_packet.
+      await withRaw(this.sequelize, async (connection) => {
+        for (let at = 0; at < data.length; at += CHUNK_BYTES) {
+          await connection.batch(
+            'INSERT INTO extract_file_chunks (submission_id, seq, data) VALUES (?, ?, ?)',
+            [[id, seq++, data.subarray(at, at + CHUNK_BYTES)]],
+          );
+        }
+      });
     };
     try {
       for await (const chunk of upload.chunks) {
