@@ -5,15 +5,16 @@
  * chromium, starts the disposable test MariaDB (never the demo data), builds
  * what the suites need, then runs in turn:
  *
- *   lint        ESLint over the workspace (one check per file, from its JSON report)
- *   format      Prettier --check (one check)
- *   typecheck   tsc --noEmit per project (one check per project)
- *   metrics     vitest in packages/metrics (JSON report)
- *   web         vitest in packages/web (JSON report)
- *   api         jest in packages/api, e2e against MariaDB (JSON report)
- *   tests       vitest in tests/: reference and browser suites (JSON report)
+ *   lint        ESLint over the workspace                 checks: each passes or fails on its
+ *   format      Prettier: every file formatted           own line, listing what failed
+ *   typecheck   tsc --noEmit per project
+ *   metrics     vitest in packages/metrics                tests: counted one by one from each
+ *   web         vitest in packages/web                    runner's JSON report
+ *   api         jest in packages/api, e2e against MariaDB
+ *   tests       vitest in tests/: browser suites and the scripts' own tests
  *
- * and ends with one line, `N passed, N failed`, summed from those reports.
+ * and ends with the checks' verdict on one line, then `N passed, N failed` counting test cases
+ * only (lib/test-summary.ts). A failed check or test makes the exit code 1.
  * Options: --only a,b   run only the named steps;   --skip a,b   skip them.
  */
 import { existsSync, mkdirSync, readFileSync, rmSync } from 'node:fs';
@@ -22,21 +23,28 @@ import { buildIfStale, buildTargets } from './lib/build.ts';
 import { loadContext } from './lib/context.ts';
 import { ensureDebianPackage } from './lib/debian.ts';
 import { fail, log, runMain } from './lib/log.ts';
-import { runInherit } from './lib/proc.ts';
+import { runCapture, runInherit } from './lib/proc.ts';
 import { prepareDemoData } from './lib/seed.ts';
 import { acquireTestDatabase } from './lib/test-db.ts';
-
-interface StepResult {
-  step: string;
-  passed: number;
-  failed: number;
-  skipped: number;
-  seconds: number;
-  note?: string;
-}
+import {
+  type CheckResult,
+  jestCounts,
+  type JestReport,
+  listed,
+  summarise,
+  type TestCounts,
+  type TestResult,
+  vitestCounts,
+  type VitestReport,
+} from './lib/test-summary.ts';
 
 const steps = ['lint', 'format', 'typecheck', 'metrics', 'web', 'api', 'tests'] as const;
 type Step = (typeof steps)[number];
+
+/** What has run so far: the summary is printed from these even when a set-up step throws. */
+const checks: CheckResult[] = [];
+const tests: TestResult[] = [];
+const started = Date.now();
 
 function parseList(flag: string, args: string[]): Step[] | null {
   const index = args.indexOf(flag);
@@ -49,24 +57,6 @@ function parseList(flag: string, args: string[]): Step[] | null {
   return names as Step[];
 }
 
-interface VitestReport {
-  numPassedTests: number;
-  numFailedTests: number;
-  numPendingTests: number;
-  numTodoTests?: number;
-  numFailedTestSuites: number;
-  testResults: { status: string; message?: string; assertionResults: unknown[]; name: string }[];
-}
-
-interface JestReport {
-  numPassedTests: number;
-  numFailedTests: number;
-  numPendingTests: number;
-  numTodoTests: number;
-  numRuntimeErrorTestSuites: number;
-  success: boolean;
-}
-
 function readJson<T>(file: string): T | null {
   if (!existsSync(file)) return null;
   try {
@@ -77,7 +67,6 @@ function readJson<T>(file: string): T | null {
 }
 
 async function main(): Promise<void> {
-  const started = Date.now();
   const args = process.argv.slice(2);
   const only = parseList('--only', args);
   const skip = parseList('--skip', args) ?? [];
@@ -109,46 +98,41 @@ async function main(): Promise<void> {
   if (selected.includes('tests')) prepareDemoData(ctx.root);
 
   const database = needsDb ? await acquireTestDatabase(ctx) : null;
-  const outcomes: StepResult[] = [];
   const bin = (name: string) => join(ctx.root, 'node_modules', '.bin', name);
-
-  const timed = async (step: Step, run: () => Promise<Omit<StepResult, 'step' | 'seconds'>>) => {
-    if (!selected.includes(step)) return;
+  const announce = (step: Step) => {
     console.log('');
     log.step(`── ${step} ──`);
+  };
+
+  const check = async (step: Step, run: () => Promise<{ ok: boolean; detail: string }>) => {
+    if (!selected.includes(step)) return;
+    announce(step);
     const t0 = Date.now();
     const outcome = await run();
-    outcomes.push({ step, seconds: (Date.now() - t0) / 1000, ...outcome });
+    checks.push({ step, seconds: (Date.now() - t0) / 1000, ...outcome });
+  };
+
+  const testStep = async (step: Step, run: () => Promise<TestCounts>) => {
+    if (!selected.includes(step)) return;
+    announce(step);
+    const t0 = Date.now();
+    const outcome = await run();
+    tests.push({ step, seconds: (Date.now() - t0) / 1000, ...outcome });
   };
 
   const vitest = (step: Step, cwd: string, extra: string[] = []) =>
-    timed(step, async () => {
+    testStep(step, async () => {
       const report = join(results, `${step}.json`);
       const code = await runInherit(
         bin('vitest'),
         ['run', ...extra, '--reporter=default', '--reporter=json', `--outputFile.json=${report}`],
         { cwd, env },
       );
-      const json = readJson<VitestReport>(report);
-      if (!json)
-        return { passed: 0, failed: 1, skipped: 0, note: `vitest exited ${code} without a report` };
-      // A file that fails to load has no test results: count it as a failure.
-      const brokenFiles = json.testResults.filter(
-        (r) => r.status === 'failed' && r.assertionResults.length === 0,
-      ).length;
-      return {
-        passed: json.numPassedTests,
-        failed:
-          json.numFailedTests +
-          brokenFiles +
-          (code !== 0 && json.numFailedTests + brokenFiles === 0 ? 1 : 0),
-        skipped: json.numPendingTests + (json.numTodoTests ?? 0),
-        ...(brokenFiles ? { note: `${brokenFiles} file(s) failed to load` } : {}),
-      };
+      return vitestCounts(readJson<VitestReport>(report), code);
     });
 
   try {
-    await timed('lint', async () => {
+    await check('lint', async () => {
       const report = join(results, 'eslint.json');
       const code = await runInherit(
         bin('eslint'),
@@ -163,62 +147,65 @@ async function main(): Promise<void> {
           messages: { line: number; column: number; message: string; ruleId: string | null }[];
         }[]
       >(report);
-      if (!json)
-        return { passed: 0, failed: 1, skipped: 0, note: `eslint exited ${code} without a report` };
+      if (!json) return { ok: false, detail: `eslint exited ${code} without a report` };
+      const relative = (file: string) => file.slice(ctx.root.length + 1);
       const bad = json.filter((f) => f.errorCount + f.warningCount > 0);
       for (const file of bad) {
         for (const m of file.messages)
           console.log(
-            `  ${file.filePath.slice(ctx.root.length + 1)}:${m.line}:${m.column}  ${m.message}  (${m.ruleId ?? 'parse'})`,
+            `  ${relative(file.filePath)}:${m.line}:${m.column}  ${m.message}  (${m.ruleId ?? 'parse'})`,
           );
       }
-      return {
-        passed: json.length - bad.length,
-        failed: bad.length,
-        skipped: 0,
-        note: `${json.length} files`,
-      };
+      if (bad.length > 0) {
+        return {
+          ok: false,
+          detail: `${bad.length} of ${json.length} files with problems: ${listed(bad.map((f) => relative(f.filePath)))}`,
+        };
+      }
+      if (code !== 0) return { ok: false, detail: `eslint exited ${code}` };
+      return { ok: true, detail: `${json.length} files` };
     });
 
-    await timed('format', async () => {
-      const code = await runInherit(bin('prettier'), ['--check', '--log-level', 'warn', '.'], {
+    await check('format', async () => {
+      // --list-different prints each file that is not formatted; syntax errors go to stderr.
+      const { code, stdout } = await runCapture(bin('prettier'), ['--list-different', '.'], {
         cwd: ctx.root,
-        env,
+        env: { ...env, FORCE_COLOR: '0' },
       });
-      return code === 0
-        ? { passed: 1, failed: 0, skipped: 0 }
-        : {
-            passed: 0,
-            failed: 1,
-            skipped: 0,
-            note: 'run `npm run format` to fix the files listed above',
-          };
+      const files = stdout.split('\n').filter(Boolean);
+      for (const file of files) console.log(`  not formatted: ${file}`);
+      if (files.length > 0) {
+        return {
+          ok: false,
+          detail: `${files.length} file(s) not formatted (npm run format fixes them): ${listed(files)}`,
+        };
+      }
+      if (code !== 0) return { ok: false, detail: `prettier exited ${code} (see above)` };
+      return { ok: true, detail: 'every file formatted' };
     });
 
-    await timed('typecheck', async () => {
+    await check('typecheck', async () => {
       const projects = ['packages/metrics', 'packages/api', 'packages/web', 'scripts', 'tests'];
-      let passed = 0;
       const failedProjects: string[] = [];
       for (const project of projects) {
         const code = await runInherit(bin('tsc'), ['-p', project, '--noEmit', '--pretty'], {
           cwd: ctx.root,
           env,
         });
-        if (code === 0) passed++;
-        else failedProjects.push(project);
+        if (code !== 0) failedProjects.push(project);
       }
-      return {
-        passed,
-        failed: failedProjects.length,
-        skipped: 0,
-        ...(failedProjects.length ? { note: failedProjects.join(', ') } : {}),
-      };
+      return failedProjects.length === 0
+        ? { ok: true, detail: `${projects.length} projects` }
+        : {
+            ok: false,
+            detail: `${failedProjects.length} of ${projects.length} projects with errors: ${failedProjects.join(', ')}`,
+          };
     });
 
     await vitest('metrics', join(ctx.root, 'packages', 'metrics'));
     await vitest('web', join(ctx.root, 'packages', 'web'));
 
-    await timed('api', async () => {
+    await testStep('api', async () => {
       const report = join(results, 'api.json');
       const code = await runInherit(bin('jest'), ['--json', `--outputFile=${report}`], {
         cwd: join(ctx.root, 'packages', 'api'),
@@ -233,47 +220,37 @@ async function main(): Promise<void> {
             .join(' '),
         },
       });
-      const json = readJson<JestReport>(report);
-      if (!json)
-        return { passed: 0, failed: 1, skipped: 0, note: `jest exited ${code} without a report` };
-      const broken = json.numRuntimeErrorTestSuites;
-      return {
-        passed: json.numPassedTests,
-        failed:
-          json.numFailedTests + broken + (code !== 0 && json.numFailedTests + broken === 0 ? 1 : 0),
-        skipped: json.numPendingTests + json.numTodoTests,
-        ...(broken ? { note: `${broken} suite(s) failed to run` } : {}),
-      };
+      return jestCounts(readJson<JestReport>(report), code);
     });
 
     await vitest('tests', join(ctx.root, 'tests'));
   } finally {
     await database?.release();
   }
+}
 
-  const totalPassed = outcomes.reduce((n, o) => n + o.passed, 0);
-  const totalFailed = outcomes.reduce((n, o) => n + o.failed, 0);
+function printSummary(): 0 | 1 {
+  const { lines, exitCode } = summarise(checks, tests, (Date.now() - started) / 1000);
   console.log('');
   log.step('── summary ──');
-  for (const o of outcomes) {
-    const mark = o.failed > 0 ? 'FAIL' : 'ok  ';
-    console.log(
-      `  ${mark} ${o.step.padEnd(10)} ${String(o.passed).padStart(5)} passed ${String(o.failed).padStart(4)} failed` +
-        `${o.skipped ? ` ${o.skipped} skipped` : ''}  ${o.seconds.toFixed(1).padStart(6)} s${o.note ? `  (${o.note})` : ''}`,
-    );
-  }
-  console.log(`  total time ${((Date.now() - started) / 1000).toFixed(0)} s`);
-  console.log(`${totalPassed} passed, ${totalFailed} failed`);
-  process.exitCode = totalFailed > 0 || outcomes.length === 0 ? 1 : 0;
+  for (const line of lines) console.log(line);
+  return exitCode;
 }
 
 runMain(async () => {
   try {
     await main();
   } catch (error) {
-    // A set-up failure is a failure too: say so on the summary line.
+    // A set-up failure is a failure too: counted as one failed test, after what did run.
     log.error((error as Error).message);
-    console.log('0 passed, 1 failed');
-    process.exit(1);
+    tests.push({
+      step: 'set-up',
+      passed: 0,
+      failed: 1,
+      skipped: 0,
+      seconds: 0,
+      note: 'see the error above',
+    });
   }
+  process.exitCode = printSummary();
 });

@@ -53,6 +53,26 @@ export function runInherit(
   });
 }
 
+/** Runs a command with its standard output captured (stderr inherited); resolves with both. */
+export function runCapture(
+  command: string,
+  args: string[],
+  options: SpawnOptions = {},
+): Promise<{ code: number; stdout: string }> {
+  return new Promise((resolve, reject) => {
+    const child = spawn(command, args, { ...options, stdio: ['ignore', 'pipe', 'inherit'] });
+    const chunks: Buffer[] = [];
+    child.stdout?.on('data', (chunk: Buffer) => chunks.push(chunk));
+    child.on('error', reject);
+    child.on('close', (code, signal) =>
+      resolve({
+        code: code ?? (signal ? 128 : 1),
+        stdout: Buffer.concat(chunks).toString('utf8'),
+      }),
+    );
+  });
+}
+
 /** True when something accepts TCP connections on host:port. */
 export function isPortOpen(port: number, host = '127.0.0.1', timeoutMs = 500): Promise<boolean> {
   return new Promise((resolve) => {
