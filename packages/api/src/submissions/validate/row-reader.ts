@@ -23,6 +23,7 @@ import {
   type Cell,
   cellText,
   type DateConvention,
+  type DateRead,
   isBlank,
   monthString,
   normaliseCode,
@@ -227,7 +228,21 @@ export class RowReader {
 
   /** A date as its month, 'YYYY-MM', checked against the window, today and the birth year. */
   month(cell: Cell, key: string, birthYear: number | null): string | null {
-    // Fast path: an ISO date 'YYYY-MM-DD' inside the window (nearly every date of a clean file).
+    const plain = this.plainIsoMonth(cell, birthYear);
+    if (plain !== null) return plain;
+    const read = readDate(cell, this.context.dateConvention, this.context.date1904);
+    if (!read.ok) {
+      this.noteUnreadableDate(read, key, cell);
+      return null;
+    }
+    return this.placeMonth(read.year, read.month, key, cell, birthYear);
+  }
+
+  /**
+   * The fast path: an ISO date 'YYYY-MM-DD' that needs no check (nearly every date of a clean
+   * file), as its month; null for any other cell, which takes the general path.
+   */
+  private plainIsoMonth(cell: Cell, birthYear: number | null): string | null {
     if (
       typeof cell === 'string' &&
       cell.length === 10 &&
@@ -254,59 +269,70 @@ export class RowReader {
         }
       }
     }
-    const read = readDate(cell, this.context.dateConvention, this.context.date1904);
+    return null;
+  }
+
+  private noteUnreadableDate(read: DateRead & { ok: false }, key: string, cell: Cell): void {
     const text = cellText(cell);
-    if (!read.ok) {
-      switch (read.reason) {
-        case 'ambiguous':
-          this.add(
-            'ambiguous_date',
-            key,
-            cell,
-            `${quote(text)} can be read as ${read.readings![0]} (day first) or ${read.readings![1]} (month first).`,
-            'When you upload, say whether the file writes dates day first (DD/MM/YYYY) or month first (MM/DD/YYYY); or write dates as YYYY-MM-DD.',
-          );
-          break;
-        case 'contradicts_convention':
-          this.add(
-            'date_contradicts_convention',
-            key,
-            cell,
-            `${quote(text)} cannot be read ${this.context.dateConvention === 'day_first' ? 'day first' : 'month first'}, as this upload says dates are written.`,
-            'Check the date, or upload again choosing the other date order.',
-          );
-          break;
-        case 'two_digit_year':
-          this.add(
-            'two_digit_year',
-            key,
-            cell,
-            `The date ${quote(text)} has a two-digit year.`,
-            'Write the year in full, e.g. 14/05/2026 or 2026-05-14.',
-          );
-          break;
-        case 'year_only':
-          this.add(
-            'date_year_only',
-            key,
-            cell,
-            `${quote(text)} is a year without a month; Cairn needs at least the month.`,
-            'Write the date, e.g. 2026-05-14 or 2026-05.',
-          );
-          break;
-        default:
-          this.add(
-            'invalid_date',
-            key,
-            cell,
-            `${quote(text)} is not a date Cairn can read.`,
-            'Write the date as YYYY-MM-DD (e.g. 2026-05-14), DD/MM/YYYY, or use a date cell.',
-          );
-      }
-      return null;
+    switch (read.reason) {
+      case 'ambiguous':
+        this.add(
+          'ambiguous_date',
+          key,
+          cell,
+          `${quote(text)} can be read as ${read.readings![0]} (day first) or ${read.readings![1]} (month first).`,
+          'When you upload, say whether the file writes dates day first (DD/MM/YYYY) or month first (MM/DD/YYYY); or write dates as YYYY-MM-DD.',
+        );
+        break;
+      case 'contradicts_convention':
+        this.add(
+          'date_contradicts_convention',
+          key,
+          cell,
+          `${quote(text)} cannot be read ${this.context.dateConvention === 'day_first' ? 'day first' : 'month first'}, as this upload says dates are written.`,
+          'Check the date, or upload again choosing the other date order.',
+        );
+        break;
+      case 'two_digit_year':
+        this.add(
+          'two_digit_year',
+          key,
+          cell,
+          `The date ${quote(text)} has a two-digit year.`,
+          'Write the year in full, e.g. 14/05/2026 or 2026-05-14.',
+        );
+        break;
+      case 'year_only':
+        this.add(
+          'date_year_only',
+          key,
+          cell,
+          `${quote(text)} is a year without a month; Cairn needs at least the month.`,
+          'Write the date, e.g. 2026-05-14 or 2026-05.',
+        );
+        break;
+      default:
+        this.add(
+          'invalid_date',
+          key,
+          cell,
+          `${quote(text)} is not a date Cairn can read.`,
+          'Write the date as YYYY-MM-DD (e.g. 2026-05-14), DD/MM/YYYY, or use a date cell.',
+        );
     }
-    const index = read.year * 12 + read.month - 1;
-    const month = monthString(read.year, read.month);
+  }
+
+  /** A month read from a date: not in the future, not after the window, not before birth. */
+  private placeMonth(
+    year: number,
+    monthOfYear: number,
+    key: string,
+    cell: Cell,
+    birthYear: number | null,
+  ): string | null {
+    const text = cellText(cell);
+    const index = year * 12 + monthOfYear - 1;
+    const month = monthString(year, monthOfYear);
     if (index > this.context.currentMonthIndex) {
       this.add(
         'date_in_future',
@@ -327,7 +353,7 @@ export class RowReader {
       );
       return null;
     }
-    if (read.year < 1900 || (birthYear !== null && read.year < birthYear)) {
+    if (year < 1900 || (birthYear !== null && year < birthYear)) {
       this.add(
         'date_before_birth',
         key,
@@ -345,46 +371,11 @@ export class RowReader {
     const mapped = this.col(key)!;
     const def = mapped.def;
     const cell = cells[mapped.index] ?? null;
-    // Fast path: a plain number in the canonical unit, no unit given anywhere, within range.
-    if (
-      mapped.headingUnit === null &&
-      (def.unitColumn === undefined || isBlank(this.cell(cells, def.unitColumn)))
-    ) {
-      const value =
-        typeof cell === 'number'
-          ? cell
-          : typeof cell === 'string' && PLAIN_NUMBER.test(cell)
-            ? +cell
-            : NaN;
-      if (
-        value === value &&
-        def.range &&
-        value >= def.range.min &&
-        value <= def.range.max &&
-        !(def.key === 'hba1c_value' && value <= 20)
-      ) {
-        return value;
-      }
-    }
+    const plain = this.plainCanonicalValue(cells, mapped, cell);
+    if (plain !== null) return plain;
     const read = readNumber(cell);
     if (!read.ok) {
-      if (read.reason === 'ambiguous_separator') {
-        this.add(
-          'ambiguous_number',
-          key,
-          cell,
-          `${quote(cellText(cell))} could be a decimal comma or a thousands separator.`,
-          'Write the number without thousands separators, with a full stop for decimals (e.g. 1200 or 1.2).',
-        );
-      } else {
-        this.add(
-          'invalid_number',
-          key,
-          cell,
-          `${key} ${quote(cellText(cell))} is not a number.`,
-          'Write the result as a number (e.g. 58), or leave it blank if nothing was recorded.',
-        );
-      }
+      this.noteUnreadableNumber(read.reason, key, cell);
       return null;
     }
     const resolved = this.unitFor(cells, def, mapped, read.unitText, read.value);
@@ -393,19 +384,7 @@ export class RowReader {
     const canonical = def.units![0]!;
     const value = unit === canonical ? read.value : unit.toCanonical(read.value);
     if (def.range && (value < def.range.min || value > def.range.max)) {
-      const shown =
-        unit === canonical
-          ? `${fmt(read.value)} ${canonical.code}`
-          : `${fmt(read.value)} ${unit.code} (${fmt(value)} ${canonical.code})`;
-      this.add(
-        'out_of_range',
-        key,
-        cell,
-        `${key} ${shown} is outside the plausible range ${def.range.min}–${def.range.max} ${canonical.code}.`,
-        def.unitColumn
-          ? `Check the result and its unit; if it is in another unit, say so in ${def.unitColumn} (${def.units!.map((u) => u.code).join(' or ')}).`
-          : 'Check the result in the clinical system and correct it.',
-      );
+      this.noteOutOfRange(def, cell, read.value, unit, value);
       return null;
     }
     if (assumed) {
@@ -428,6 +407,93 @@ export class RowReader {
     return value;
   }
 
+  /**
+   * The fast path: a plain number in the canonical unit, no unit given anywhere, within range
+   * (nearly every result of a clean file); null for any other cell, which takes the general path.
+   */
+  private plainCanonicalValue(
+    cells: readonly Cell[],
+    mapped: MappedColumn,
+    cell: Cell,
+  ): number | null {
+    const def = mapped.def;
+    if (
+      mapped.headingUnit === null &&
+      (def.unitColumn === undefined || isBlank(this.cell(cells, def.unitColumn)))
+    ) {
+      const value =
+        typeof cell === 'number'
+          ? cell
+          : typeof cell === 'string' && PLAIN_NUMBER.test(cell)
+            ? +cell
+            : NaN;
+      if (
+        value === value &&
+        def.range &&
+        value >= def.range.min &&
+        value <= def.range.max &&
+        !(def.key === 'hba1c_value' && value <= 20)
+      ) {
+        return value;
+      }
+    }
+    return null;
+  }
+
+  private noteUnreadableNumber(
+    reason: 'not_a_number' | 'ambiguous_separator',
+    key: string,
+    cell: Cell,
+  ): void {
+    if (reason === 'ambiguous_separator') {
+      this.add(
+        'ambiguous_number',
+        key,
+        cell,
+        `${quote(cellText(cell))} could be a decimal comma or a thousands separator.`,
+        'Write the number without thousands separators, with a full stop for decimals (e.g. 1200 or 1.2).',
+      );
+    } else {
+      this.add(
+        'invalid_number',
+        key,
+        cell,
+        `${key} ${quote(cellText(cell))} is not a number.`,
+        'Write the result as a number (e.g. 58), or leave it blank if nothing was recorded.',
+      );
+    }
+  }
+
+  /** A result outside the column's plausible range (columns.ts), once in the canonical unit. */
+  private noteOutOfRange(
+    def: ColumnDef,
+    cell: Cell,
+    given: number,
+    unit: UnitDef,
+    value: number,
+  ): void {
+    const key = def.key;
+    const range = def.range!;
+    const canonical = def.units![0]!;
+    const shown =
+      unit === canonical
+        ? `${fmt(given)} ${canonical.code}`
+        : `${fmt(given)} ${unit.code} (${fmt(value)} ${canonical.code})`;
+    this.add(
+      'out_of_range',
+      key,
+      cell,
+      `${key} ${shown} is outside the plausible range ${range.min}–${range.max} ${canonical.code}.`,
+      def.unitColumn
+        ? `Check the result and its unit; if it is in another unit, say so in ${def.unitColumn} (${def.units!.map((u) => u.code).join(' or ')}).`
+        : 'Check the result in the clinical system and correct it.',
+    );
+  }
+
+  /**
+   * The unit of a result: from the unit column, after the number, or in the heading (they must
+   * agree); with none, the canonical unit, except an HbA1c from 3 to 20, read as % (`assumed`).
+   */
   private unitFor(
     cells: readonly Cell[],
     def: ColumnDef,

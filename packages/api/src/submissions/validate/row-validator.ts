@@ -120,7 +120,7 @@ export class RowValidator {
     const refused =
       this.checkRecordRef(row, cells, record) ?? this.checkBirthYear(row, cells, record);
     if (refused) return { kind: 'refused', refusal: refused };
-    /** The birth year, when plausible (null otherwise): later dates and years are checked against it */
+    // The birth year when plausible (null otherwise): later dates and years are checked against it.
     const birthYear = record[COL.birth_year] as number | null;
     this.readPersonCodes(cells, record);
     const diagnosisYear = this.checkDiagnosisYear(cells, record, birthYear);
@@ -563,6 +563,31 @@ export class RowValidator {
     }
     record[COL.diagnostic_test] = test;
     if (isBlank(valueCell)) return;
+    const value = this.readDiagnosticValue(test, valueCell, cells);
+    if (value === null) return;
+    record[COL.diagnostic_value] = value;
+    const threshold = DIAGNOSTIC_THRESHOLDS[test]!;
+    if (value < threshold.min) {
+      reader.add(
+        'diagnostic_below_threshold',
+        'diagnostic_value',
+        valueCell,
+        `The diagnostic ${test.replace(/_/g, ' ')} of ${fmt(value)} ${threshold.unit} is below the diagnostic threshold of ${threshold.min} ${threshold.unit} (${threshold.source}).`,
+        'Check the diagnosis and the test result recorded for this person.',
+      );
+    }
+  }
+
+  /**
+   * The diagnostic result in the test's canonical unit: glucose in mmol/L (or mg/dL), HbA1c in
+   * mmol/mol (or %, said so or from 3 to 20 with no unit); null, with an issue, when unreadable.
+   */
+  private readDiagnosticValue(
+    test: string,
+    valueCell: Cell,
+    cells: readonly Cell[],
+  ): number | null {
+    const reader = this.reader;
     const read = readNumber(valueCell);
     if (!read.ok) {
       reader.add(
@@ -572,7 +597,7 @@ export class RowValidator {
         `diagnostic_value ${quote(cellText(valueCell))} is not a number.`,
         'Write the result as a number, or leave it blank.',
       );
-      return;
+      return null;
     }
     const glucose = test !== 'hba1c';
     const allowed = glucose
@@ -595,24 +620,13 @@ export class RowValidator {
           `“${unitText}” is not a unit for a ${glucose ? 'glucose' : 'HbA1c'} result.`,
           `Use ${allowed.map((u) => u.code).join(' or ')}.`,
         );
-        return;
+        return null;
       }
       unit = found;
     } else if (!glucose && read.value >= 3 && read.value <= 20) {
       unit = UNITS.hba1cPercent;
     }
-    const value = unit.toCanonical(read.value);
-    record[COL.diagnostic_value] = value;
-    const threshold = DIAGNOSTIC_THRESHOLDS[test]!;
-    if (value < threshold.min) {
-      reader.add(
-        'diagnostic_below_threshold',
-        'diagnostic_value',
-        valueCell,
-        `The diagnostic ${test.replace(/_/g, ' ')} of ${fmt(value)} ${threshold.unit} is below the diagnostic threshold of ${threshold.min} ${threshold.unit} (${threshold.source}).`,
-        'Check the diagnosis and the test result recorded for this person.',
-      );
-    }
+    return unit.toCanonical(read.value);
   }
 
   /** Clinical data-quality flag (methods.md §7): type 1 diabetes recorded as not on insulin. */
