@@ -7,7 +7,7 @@
  * benchmark. Opening the file is here; reading its rows is read-rows.ts, and
  * what is said about the file as a whole is file-notes.ts.
  */
-import type { RecordRow } from '../../records/record-columns.js';
+import type { RecordRow } from '../../database/bulk-load/record-columns.js';
 import type { IssueCodeKey, Issue, Refusal } from '../format/issue-codes.js';
 import { openCsv } from '../files/csv-source.js';
 import type { RowSource } from '../files/row-source.js';

@@ -9,7 +9,7 @@
  * The data rows are the hot loop of an ingest (100,000 rows and more): it awaits only when a
  * batch is full or a row has issues, never once per row.
  */
-import type { RecordRow } from '../../records/record-columns.js';
+import type { RecordRow } from '../../database/bulk-load/record-columns.js';
 import type { RowSource } from '../files/row-source.js';
 import { unreadable } from '../files/sniff.js';
 import { SheetNotReadError } from '../files/xlsx-source.js';

@@ -8,7 +8,7 @@
  *
  * Every case is audit quarter 2026 Q3: review window 2025-10 … 2026-09, and "now" in 2026-10.
  */
-import { COL, RECORD_COLUMNS, type RecordRow } from '../../records/record-columns.js';
+import { COL, RECORD_COLUMNS, type RecordRow } from '../../database/bulk-load/record-columns.js';
 import { column, COLUMNS, DIAGNOSTIC_THRESHOLDS } from '../format/columns.js';
 import { mapHeader } from '../format/header.js';
 import { type Issue, ISSUE_CODES, type IssueCodeKey } from '../format/issue-codes.js';

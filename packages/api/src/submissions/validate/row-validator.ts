@@ -15,7 +15,7 @@
  * repeated reference refuses the later rows and warns on the first) and the
  * counts that decide the file-level identifier checks.
  */
-import { COL, RECORD_COLUMNS, type RecordRow } from '../../records/record-columns.js';
+import { COL, RECORD_COLUMNS, type RecordRow } from '../../database/bulk-load/record-columns.js';
 import {
   CARE_PROCESSES,
   DIAGNOSTIC_THRESHOLDS,
