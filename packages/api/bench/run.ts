@@ -192,9 +192,9 @@ async function main(): Promise<void> {
     // In a function of its own: the exported rows (100,000 objects) are garbage once it returns,
     // not live in this process's heap while the workbook runs below are timed.
     const loadTimes = await (async () => {
-      const { RECORD_COLUMNS } = await fromDist('records/record-columns.js');
-      const { LOAD_RECORDS_SQL } = await fromDist('records/record-loader.js');
-      const { acquireRaw, releaseRaw } = await fromDist('records/raw-connection.js');
+      const { RECORD_COLUMNS } = await fromDist('database/bulk-load/record-columns.js');
+      const { LOAD_RECORDS_SQL } = await fromDist('database/bulk-load/record-loader.js');
+      const { acquireRaw, releaseRaw } = await fromDist('database/bulk-load/raw-connection.js');
       const exported = await t.db.query<Record<string, unknown>>(
         `SELECT ${(RECORD_COLUMNS as string[]).join(', ')} FROM care_records WHERE submission_id = ? ORDER BY source_row`,
         {

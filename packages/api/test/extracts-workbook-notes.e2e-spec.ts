@@ -7,8 +7,8 @@
  * pipeline with sinks that collect.
  */
 import ExcelJS from 'exceljs';
-import type { RecordRow } from '../src/records/record-columns.js';
-import { COL } from '../src/records/record-columns.js';
+import type { RecordRow } from '../src/database/bulk-load/record-columns.js';
+import { COL } from '../src/database/bulk-load/record-columns.js';
 import type { Issue } from '../src/submissions/format/issue-codes.js';
 import { sniff } from '../src/submissions/files/sniff.js';
 import { prescanXlsx } from '../src/submissions/files/xlsx-prescan.js';

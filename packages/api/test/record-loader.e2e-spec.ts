@@ -5,8 +5,8 @@
  * everything back without bringing the process down.
  */
 import { QueryTypes, type Sequelize } from 'sequelize';
-import { COL, RECORD_COLUMNS, type RecordRow } from '../src/records/record-columns.js';
-import { RecordLoader, ROWS_PER_STATEMENT } from '../src/records/record-loader.js';
+import { COL, RECORD_COLUMNS, type RecordRow } from '../src/database/bulk-load/record-columns.js';
+import { RecordLoader, ROWS_PER_STATEMENT } from '../src/database/bulk-load/record-loader.js';
 import { freshDatabase, testConfig } from './support/test-app.js';
 
 const SECRET = 'record-loader-test-secret-0123456789';

@@ -17,8 +17,12 @@ import { Sequelize } from 'sequelize-typescript';
 import { AuditTrailService } from '../audit-trail/audit-trail.service.js';
 import type { CairnConfig, CairnSecrets } from '../config/config.schema.js';
 import { CAIRN_SECRETS } from '../config/config.module.js';
-import { acquireRaw, releaseRaw, type RawConnection } from '../records/raw-connection.js';
-import { RecordLoader } from '../records/record-loader.js';
+import {
+  acquireRaw,
+  releaseRaw,
+  type RawConnection,
+} from '../database/bulk-load/raw-connection.js';
+import { RecordLoader } from '../database/bulk-load/record-loader.js';
 import type { Issue } from './format/issue-codes.js';
 import { UploadHandoff } from './upload-handoff.js';
 import {

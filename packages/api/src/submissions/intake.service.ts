@@ -25,7 +25,7 @@ import type { CairnConfig } from '../config/config.schema.js';
 import type { QuarterRow } from '../quarters/quarters.service.js';
 import { QuartersService } from '../quarters/quarters.service.js';
 import { JobRunner, UPLOAD_LEASE_PREFIX } from './job-runner.service.js';
-import { withRaw } from '../records/raw-connection.js';
+import { withRaw } from '../database/bulk-load/raw-connection.js';
 import { deleteFile, execute, findSubmission, type SubmissionStatus } from './submission-store.js';
 import { type HandoffCollector, UploadHandoff } from './upload-handoff.js';
 

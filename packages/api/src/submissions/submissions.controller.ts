@@ -16,7 +16,7 @@ import type { Request, Response } from 'express';
 import { AnySignedIn, type AuthUser, CurrentUser, PracticeScoped, Roles } from '../auth/index.js';
 import { IssueQueryDto, SubmissionDto, UploadQueryDto } from './dto/submission.dto.js';
 import { IntakeService } from './intake.service.js';
-import { ReportService } from './report/report.service.js';
+import { ValidationReportService } from './validation-report/validation-report.service.js';
 import { findSubmission } from './submission-store.js';
 import { toView } from './submission-view.js';
 import { SubmissionsService } from './submissions.service.js';
@@ -36,7 +36,7 @@ export class SubmissionsController {
   constructor(
     @Inject(IntakeService) private readonly intake: IntakeService,
     @Inject(SubmissionsService) private readonly submissions: SubmissionsService,
-    @Inject(ReportService) private readonly reports: ReportService,
+    @Inject(ValidationReportService) private readonly reports: ValidationReportService,
     @Inject(Sequelize) private readonly sequelize: Sequelize,
   ) {}
 

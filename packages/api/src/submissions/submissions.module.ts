@@ -5,7 +5,7 @@ import { ExtractProcessor } from './extract-processor.js';
 import { ExtractsController } from './extracts.controller.js';
 import { IntakeService } from './intake.service.js';
 import { JobRunner } from './job-runner.service.js';
-import { ReportService } from './report/report.service.js';
+import { ValidationReportService } from './validation-report/validation-report.service.js';
 import { SubmissionsController } from './submissions.controller.js';
 import { SubmissionsService } from './submissions.service.js';
 import { UploadHandoff } from './upload-handoff.js';
@@ -19,7 +19,7 @@ import { UploadHandoff } from './upload-handoff.js';
     JobRunner,
     IntakeService,
     SubmissionsService,
-    ReportService,
+    ValidationReportService,
     { provide: UploadHandoff, useFactory: () => new UploadHandoff() },
   ],
   exports: [IntakeService, SubmissionsService, JobRunner],

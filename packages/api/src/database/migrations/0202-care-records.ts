@@ -1,7 +1,7 @@
 /**
  * Care records: one row per person of one submission, in canonical units
  * with months 'YYYY-MM' (the metrics engine's FlatCareRecord in snake case;
- * see src/records/record-columns.ts). Rows are written while an extract is
+ * see src/database/bulk-load/record-columns.ts). Rows are written while an extract is
  * processed ("staged" under the new submission, invisible to readers, who go
  * through practice_quarters.current_submission_id) and never change after.
  * Refused, cancelled and failed submissions have theirs removed; superseded

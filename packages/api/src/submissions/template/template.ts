@@ -10,7 +10,7 @@
 import ExcelJS from 'exceljs';
 import { COLUMNS } from '../format/columns.js';
 import { allowedValues, dropDownValues, requiredLabel } from '../format/describe.js';
-import { neutralise } from '../report/neutralise.js';
+import { neutralise } from '../../common/neutralise.js';
 
 const BRAND = 'FF1D4E5F';
 const SAND = 'FFE7DDC8';

@@ -2,7 +2,7 @@ import { AnchorButton, Callout, Card, H2, Intent } from '@blueprintjs/core';
 import { useSearchParams } from 'react-router-dom';
 import { CairnMark } from '../../../components/CairnMark';
 import { roleLabels, useSession } from '../../session/api/me';
-import { refusalText } from '../api/refusals';
+import { refusalText } from '../refusal-texts';
 import './SignIn.css';
 
 const endedTexts: Record<string, string> = {

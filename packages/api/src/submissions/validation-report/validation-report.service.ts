@@ -18,7 +18,7 @@ import { pseudonymiser } from '../extract-processor.js';
 import { ISSUE_CODES, type IssueCodeKey } from '../format/issue-codes.js';
 import { type SubmissionRow, summaryJson } from '../submission-store.js';
 import { seesRecordRefs, toView } from '../submission-view.js';
-import { neutralise } from './neutralise.js';
+import { neutralise } from '../../common/neutralise.js';
 
 interface IssueRow {
   seq: number;
@@ -35,7 +35,7 @@ interface IssueRow {
 const PAGE = 5000;
 
 @Injectable()
-export class ReportService {
+export class ValidationReportService {
   private readonly pseudonym: (practiceCode: string, ref: string) => string;
 
   constructor(
