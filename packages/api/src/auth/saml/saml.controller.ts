@@ -45,6 +45,7 @@ import { section } from '../config-section.js';
 
 export class SignOutDto {
   @ApiProperty({
+    type: String,
     description:
       "Where to send the browser: the identity provider's single logout (which returns to Cairn), or Cairn's signed-out page",
     example: '/sign-in?signedOut=1',
