@@ -1,11 +1,11 @@
 import { Controller, Get, Inject, Res } from '@nestjs/common';
 import { ConfigService } from '@nestjs/config';
-import { ApiOkResponse, ApiOperation, ApiProduces, ApiTags } from '@nestjs/swagger';
+import { ApiOkResponse, ApiOperation, ApiTags } from '@nestjs/swagger';
 import type { Response } from 'express';
 import { type Actor, CurrentActor } from '../auth/actor.js';
 import { Public, Roles } from '../auth/index.js';
 import type { CairnConfig } from '../config/config.schema.js';
-import { ExtractFormatDto, UploadOptionsDto } from './dto/submission.dto.js';
+import { ExtractFormatDto, fileResponse, UploadOptionsDto, XLSX } from './dto/submission.dto.js';
 import { COLUMNS, unitsOf } from './format/columns.js';
 import { allowedValues, requiredLabel } from './format/describe.js';
 import { ISSUE_CODES } from './format/issue-codes.js';
@@ -28,7 +28,7 @@ export class ExtractsController {
     summary:
       'The extract template as XLSX: data sheet with drop-downs, data dictionary, instructions',
   })
-  @ApiProduces('application/vnd.openxmlformats-officedocument.spreadsheetml.sheet')
+  @ApiOkResponse(fileResponse(XLSX, 'The template workbook'))
   async templateXlsx(@Res() res: Response) {
     this.xlsx ??= buildXlsxTemplate(this.config.get('extracts', { infer: true }).maxRows);
     res.setHeader(
@@ -42,7 +42,7 @@ export class ExtractsController {
   @Get('template.csv')
   @Public()
   @ApiOperation({ summary: 'The extract template as CSV (headings only, UTF-8)' })
-  @ApiProduces('text/csv')
+  @ApiOkResponse(fileResponse('text/csv', 'The headings, UTF-8'))
   templateCsv(@Res() res: Response) {
     res.setHeader('Content-Type', 'text/csv; charset=utf-8');
     res.setHeader('Content-Disposition', 'attachment; filename="cairn-extract-template.csv"');

@@ -16,18 +16,20 @@ import {
   ApiConsumes,
   ApiOkResponse,
   ApiOperation,
-  ApiProduces,
   ApiTags,
 } from '@nestjs/swagger';
 import type { Request, Response } from 'express';
 import { type Actor, CurrentActor } from '../auth/actor.js';
 import { AnySignedIn, PracticeScoped, Roles } from '../auth/index.js';
 import {
+  fileResponse,
   IssuePageDto,
   IssueQueryDto,
   SubmissionDto,
   SubmissionHistoryDto,
   UploadQueryDto,
+  ValidationReportFileDto,
+  XLSX,
 } from './dto/submission.dto.js';
 import { IntakeService } from './intake.service.js';
 import { type ReportDownload, SubmissionsService } from './submissions.service.js';
@@ -121,7 +123,7 @@ export class SubmissionsController {
   @AnySignedIn()
   @PracticeScoped('practiceId')
   @ApiOperation({ summary: 'The whole validation report as JSON (summary and every issue)' })
-  @ApiProduces('application/json')
+  @ApiOkResponse({ type: ValidationReportFileDto, description: 'Sent as an attachment' })
   async reportJson(
     @CurrentActor() actor: Actor,
     @Param('practiceId', ParseIntPipe) practiceId: number,
@@ -138,7 +140,7 @@ export class SubmissionsController {
   @AnySignedIn()
   @PracticeScoped('practiceId')
   @ApiOperation({ summary: 'The refused rows as given, with a column of Cairn’s issues, as XLSX' })
-  @ApiProduces('application/vnd.openxmlformats-officedocument.spreadsheetml.sheet')
+  @ApiOkResponse(fileResponse(XLSX, 'The refused rows, and an about sheet'))
   async rejectedRows(
     @CurrentActor() actor: Actor,
     @Param('practiceId', ParseIntPipe) practiceId: number,

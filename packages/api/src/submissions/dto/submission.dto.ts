@@ -518,3 +518,34 @@ export class ExtractFormatDto {
   @ApiProperty({ type: [FormatColumnDto] }) columns!: FormatColumnDto[];
   @ApiProperty({ type: [IssueCodeDto] }) issueCodes!: IssueCodeDto[];
 }
+
+// ── downloads ──
+
+/** An issue in the downloaded validation report. */
+export class ReportIssueDto {
+  @ApiProperty({ type: Number, nullable: true }) row!: number | null;
+  @ApiProperty({ type: String, nullable: true }) column!: string | null;
+  @ApiProperty({ type: String, nullable: true }) columnKey!: string | null;
+  @ApiProperty({ type: String, nullable: true }) value!: string | null;
+  @ApiProperty({ enum: ISSUE_SEVERITIES, enumName: 'IssueSeverity' }) severity!: IssueSeverity;
+  @ApiProperty({ type: String }) code!: string;
+  @ApiProperty({ type: String }) title!: string;
+  @ApiProperty({ type: String }) message!: string;
+  @ApiProperty({ type: String }) fix!: string;
+}
+
+/** The whole validation report, as downloaded (report.json). */
+export class ValidationReportFileDto {
+  @ApiProperty({ type: SubmissionDto }) submission!: SubmissionDto;
+  @ApiProperty({ type: Boolean }) recordRefsShown!: boolean;
+  @ApiProperty({ type: [ReportIssueDto], description: 'Every issue, in the order found' })
+  issues!: ReportIssueDto[];
+}
+
+/** The OpenAPI description of a file download. */
+export const fileResponse = (mediaType: string, description: string) => ({
+  description,
+  content: { [mediaType]: { schema: { type: 'string' as const, format: 'binary' } } },
+});
+
+export const XLSX = 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet';

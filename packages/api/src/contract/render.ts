@@ -1,0 +1,22 @@
+/** Renders the committed contract files: the OpenAPI document and the types generated from it. */
+import { join } from 'node:path';
+import type { OpenAPIObject } from '@nestjs/swagger';
+import openapiTS, { astToString } from 'openapi-typescript';
+import { findRepoRoot } from '../config/load-config.js';
+
+export const contractDir = () => join(findRepoRoot(), 'packages', 'web', 'src', 'lib', 'api');
+
+const HEADER = `/**
+ * Cairn's API types, generated from its OpenAPI document (openapi.json beside this file)
+ * by openapi-typescript. Do not edit: change the API's DTO classes, then run
+ * \`npm run api:contract\`.
+ */
+
+`;
+
+/** The two committed files: the document, and the types generated from it. */
+export async function renderContract(document: OpenAPIObject) {
+  const json = `${JSON.stringify(document, null, 2)}\n`;
+  const ast = await openapiTS(JSON.parse(json) as Parameters<typeof openapiTS>[0]);
+  return { 'openapi.json': json, 'schema.ts': HEADER + astToString(ast) };
+}
