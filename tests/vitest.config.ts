@@ -1,10 +1,16 @@
 import { defineConfig } from 'vitest/config';
 
-// Cross-package suites: reference/ (published check values) and browser/
+// Cross-package suites: reference/ (published check values), lint/ (the module
+// boundaries of eslint.config.js) and browser/
 // (headless Chromium against the built app). Browser files run one at a time.
 export default defineConfig({
   test: {
-    include: ['reference/**/*.test.ts', 'browser/**/*.test.ts', 'reliability/**/*.test.ts'],
+    include: [
+      'reference/**/*.test.ts',
+      'lint/**/*.test.ts',
+      'browser/**/*.test.ts',
+      'reliability/**/*.test.ts',
+    ],
     environment: 'node',
     testTimeout: 120_000,
     hookTimeout: 300_000,

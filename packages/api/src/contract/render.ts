@@ -17,6 +17,8 @@ const HEADER = `/**
 /** The two committed files: the document, and the types generated from it. */
 export async function renderContract(document: OpenAPIObject) {
   const json = `${JSON.stringify(document, null, 2)}\n`;
-  const ast = await openapiTS(JSON.parse(json) as Parameters<typeof openapiTS>[0]);
+  const ast = await openapiTS(JSON.parse(json) as Parameters<typeof openapiTS>[0], {
+    enumValues: true,
+  });
   return { 'openapi.json': json, 'schema.ts': HEADER + astToString(ast) };
 }

@@ -2,7 +2,7 @@
  * The owner of regions, localities and practices: every other module reads
  * them through this service (never through the models or raw SQL).
  */
-import { Inject, Injectable } from '@nestjs/common';
+import { Injectable } from '@nestjs/common';
 import { InjectModel } from '@nestjs/sequelize';
 import { Op, type Transaction } from 'sequelize';
 import { version } from '../version.js';

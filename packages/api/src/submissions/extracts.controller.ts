@@ -3,7 +3,7 @@ import { ConfigService } from '@nestjs/config';
 import { ApiOkResponse, ApiOperation, ApiTags } from '@nestjs/swagger';
 import type { Response } from 'express';
 import { type Actor, CurrentActor } from '../auth/actor.js';
-import { Public, Roles } from '../auth/index.js';
+import { AnySignedIn, Public } from '../auth/index.js';
 import type { CairnConfig } from '../config/config.schema.js';
 import { ExtractFormatDto, fileResponse, UploadOptionsDto, XLSX } from './dto/submission.dto.js';
 import { COLUMNS, unitsOf } from './format/columns.js';
@@ -81,7 +81,7 @@ export class ExtractsController {
   }
 
   @Get('upload-options')
-  @Roles('practice_lead', 'regional_lead')
+  @AnySignedIn()
   @ApiOperation({
     summary:
       'Where you may send extracts: the practices, and for each the audit quarters it may take one for',

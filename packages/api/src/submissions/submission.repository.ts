@@ -207,10 +207,14 @@ export class SubmissionRepository {
   ) {
     const where: string[] = ['submission_id = ?'];
     const params: unknown[] = [submissionId];
-    if (filter.severity) (where.push('severity = ?'), params.push(filter.severity));
-    if (filter.code) (where.push('code = ?'), params.push(filter.code));
-    if (filter.column) (where.push('column_name = ?'), params.push(filter.column));
-    if (filter.row !== undefined) (where.push('source_row = ?'), params.push(filter.row));
+    const add = (clause: string, value: unknown) => {
+      where.push(clause);
+      params.push(value);
+    };
+    if (filter.severity) add('severity = ?', filter.severity);
+    if (filter.code) add('code = ?', filter.code);
+    if (filter.column) add('column_name = ?', filter.column);
+    if (filter.row !== undefined) add('source_row = ?', filter.row);
     const order = ISSUE_SORTS[sort] ?? ISSUE_SORTS.row!;
     const [countRow] = await this.select<{ n: number }>(
       `SELECT COUNT(*) AS n FROM submission_issues WHERE ${where.join(' AND ')}`,

@@ -9,20 +9,16 @@ import {
   Spinner,
 } from '@blueprintjs/core';
 import { Link } from 'react-router-dom';
+import type { Me, Quarter, Submission } from '../lib/api/types';
 import { formatCount } from '../lib/format';
-import {
-  type Quarter,
-  type Submission,
-  useCoverage,
-  useHistory,
-  useQuarters,
-} from '../features/extracts/api/extracts';
+import { roleLabels } from '../lib/roles';
+import { useMe } from '../lib/session';
+import { useCoverage, useHistory, useQuarters } from '../features/extracts/api/extracts';
 import { Figure } from '../features/extracts/components/Figure';
 import { formatDate } from '../features/extracts/components/format';
 import { LinkButton } from '../features/extracts/components/LinkButton';
 import { CoverageTag, StatusTag } from '../features/extracts/components/StatusTag';
 import { Landing } from '../features/landing/routes/Landing';
-import { type Me, roleLabels, useMe } from '../features/session/api/me';
 import '../features/extracts/routes/Extracts.css';
 import './Home.css';
 
@@ -126,8 +122,9 @@ function PracticeRow({
   const open = entry?.submissions.find(
     (s: Submission) => s.status === 'processing' || s.status === 'awaiting_confirmation',
   );
+  // The API's upload action for this practice in this quarter.
   const upload =
-    quarter && quarter.status === 'open' && history.data?.canUpload
+    quarter && entry?.actions.upload
       ? `/extracts/upload?practice=${practice.id}&quarter=${quarter.id}`
       : null;
   return (

@@ -1956,3 +1956,28 @@ export interface operations {
         };
     };
 }
+type FlattenedDeepRequired<T> = {
+    [K in keyof T]-?: FlattenedDeepRequired<T[K] extends unknown[] | undefined | null ? Extract<T[K], unknown[]>[number] : T[K]>;
+};
+type ReadonlyArray<T> = [
+    Exclude<T, undefined>
+] extends [
+    unknown[]
+] ? Readonly<Exclude<T, undefined>> : Readonly<Exclude<T, undefined>[]>;
+export const roleValues: ReadonlyArray<FlattenedDeepRequired<components>["schemas"]["Role"]> = ["regional_lead", "practice_lead", "auditor"];
+export const userStatusValues: ReadonlyArray<FlattenedDeepRequired<components>["schemas"]["UserStatus"]> = ["active", "deactivated"];
+export const auditOutcomeValues: ReadonlyArray<FlattenedDeepRequired<components>["schemas"]["AuditOutcome"]> = ["success", "refused", "failed"];
+export const sessionEndValues: ReadonlyArray<FlattenedDeepRequired<components>["schemas"]["SessionEnd"]> = ["idle", "absolute", "deactivated", "removed"];
+export const healthProcessDtoStatusValues: ReadonlyArray<FlattenedDeepRequired<components>["schemas"]["HealthProcessDto"]["status"]> = ["up"];
+export const healthDatabaseDtoStatusValues: ReadonlyArray<FlattenedDeepRequired<components>["schemas"]["HealthDatabaseDto"]["status"]> = ["up", "down"];
+export const healthDtoStatusValues: ReadonlyArray<FlattenedDeepRequired<components>["schemas"]["HealthDto"]["status"]> = ["ok"];
+export const quarterStatusValues: ReadonlyArray<FlattenedDeepRequired<components>["schemas"]["QuarterStatus"]> = ["open", "closed"];
+export const quarterDtoQuarterValues: ReadonlyArray<FlattenedDeepRequired<components>["schemas"]["QuarterDto"]["quarter"]> = [1, 2, 3, 4];
+export const openQuarterDtoQuarterValues: ReadonlyArray<FlattenedDeepRequired<components>["schemas"]["OpenQuarterDto"]["quarter"]> = [1, 2, 3, 4];
+export const issueSeverityValues: ReadonlyArray<FlattenedDeepRequired<components>["schemas"]["IssueSeverity"]> = ["refusal", "error", "warning", "flag"];
+export const dateConventionValues: ReadonlyArray<FlattenedDeepRequired<components>["schemas"]["DateConvention"]> = ["day_first", "month_first"];
+export const submissionStatusValues: ReadonlyArray<FlattenedDeepRequired<components>["schemas"]["SubmissionStatus"]> = ["processing", "rejected", "awaiting_confirmation", "accepted", "superseded", "cancelled", "failed"];
+export const submissionPhaseValues: ReadonlyArray<FlattenedDeepRequired<components>["schemas"]["SubmissionPhase"]> = ["queued", "uploading", "reading"];
+export const rowIssueSeverityValues: ReadonlyArray<FlattenedDeepRequired<components>["schemas"]["RowIssueSeverity"]> = ["error", "warning", "flag"];
+export const issueSortValues: ReadonlyArray<FlattenedDeepRequired<components>["schemas"]["IssueSort"]> = ["row", "-row", "severity", "-severity", "code", "-code", "column", "-column"];
+export const coverageStateValues: ReadonlyArray<FlattenedDeepRequired<components>["schemas"]["CoverageState"]> = ["current", "awaiting_confirmation", "none"];

@@ -4,7 +4,8 @@
  */
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { ApiError, apiFetch } from '../../../lib/api-client';
-import { type DateConvention, extractsKeys, type Submission } from './extracts';
+import type { DateConvention, Submission } from '../../../lib/api/types';
+import { extractsKeys } from './extracts';
 
 export interface ExtractUpload {
   practiceId: number;

@@ -2,7 +2,7 @@ import { NonIdealState, Spinner } from '@blueprintjs/core';
 import { useQueryClient } from '@tanstack/react-query';
 import { useEffect, useRef, useState } from 'react';
 import { apiFetch, ApiError } from '../../../lib/api-client';
-import { fetchSession } from '../../session/api/me';
+import { fetchSession } from '../../../lib/session';
 
 /**
  * `/sign-out`: ends the Cairn session (a CSRF-protected POST), then follows
