@@ -46,10 +46,53 @@ const controllerData = [
   },
 ];
 
+// Raw SQL on a table is written only in the modules that own it (the migrations, the schema's
+// author, excepted). A SQL text naming another module's table after FROM, JOIN, INTO, UPDATE
+// or TABLE is refused: ask the owner's service (command-line code: the owner's command-line.ts).
+export const tableOwners = {
+  regions: ['organisations'],
+  localities: ['organisations'],
+  practices: ['organisations'],
+  users: ['users'],
+  memberships: ['users'],
+  sessions: ['auth'],
+  saml_requests: ['auth'],
+  auth_throttle: ['auth'],
+  audit_events: ['audit-trail'],
+  audit_quarters: ['quarters'],
+  submissions: ['submissions'],
+  practice_quarters: ['submissions'],
+  extract_file_chunks: ['submissions'],
+  submission_issues: ['submissions'],
+  submission_rejected_rows: ['submissions'],
+  // Staged by the submissions module through the bulk-load plumbing (records, database).
+  care_records: ['submissions', 'records', 'database'],
+  schema_migrations: ['database'],
+};
+
+const sqlTouching = (tables) =>
+  `/\\b(FROM|JOIN|INTO|UPDATE|TABLE)\\s+\`?(${tables.join('|')})\\b/i`;
+
+const foreignSql = (module) => {
+  const tables = Object.entries(tableOwners)
+    .filter(([, owners]) => !owners.includes(module))
+    .map(([table]) => table);
+  const message =
+    "SQL on another module's table: call the owning module's service instead (see tableOwners in eslint.config.js).";
+  return [
+    { selector: `Literal[value=${sqlTouching(tables)}]`, message },
+    { selector: `TemplateElement[value.raw=${sqlTouching(tables)}]`, message },
+  ];
+};
+
 const apiBoundaries = apiModules.flatMap((module) => [
   {
     files: [`packages/api/src/${module}/**/*.ts`],
-    rules: { 'no-restricted-imports': ['error', { patterns: otherModulesData(module) }] },
+    ignores: ['packages/api/src/database/migrations/**'],
+    rules: {
+      'no-restricted-imports': ['error', { patterns: otherModulesData(module) }],
+      'no-restricted-syntax': ['error', ...foreignSql(module)],
+    },
   },
   {
     files: [`packages/api/src/${module}/**/*.controller.ts`],

@@ -1,6 +1,8 @@
 /**
- * The module boundaries in eslint.config.js fire: each case is a snippet linted as if it were
- * a file at that path (ESLint's Node API; nothing is written).
+ * The module boundaries in eslint.config.js fire (imports of another module's models or
+ * repository, the database from a controller, another web feature; SQL on another module's
+ * table): each case is a snippet linted as if it were a file at that path (ESLint's Node API;
+ * nothing is written).
  */
 import { ESLint } from 'eslint';
 import { beforeAll, describe, expect, it } from 'vitest';
@@ -14,7 +16,7 @@ beforeAll(() => {
 async function restricted(filePath: string, code: string): Promise<string[]> {
   const [result] = await eslint.lintText(code, { filePath });
   return (result?.messages ?? [])
-    .filter((m) => m.ruleId === 'no-restricted-imports')
+    .filter((m) => m.ruleId === 'no-restricted-imports' || m.ruleId === 'no-restricted-syntax')
     .map((m) => m.message);
 }
 
@@ -49,6 +51,24 @@ describe('module boundaries (eslint.config.js)', () => {
       'packages/web/src/features/extracts/routes/Example.tsx',
       "import { useUsers } from '../../users/api/users';\nexport { useUsers };\n",
       /never imports another feature \(users\)/,
+    ],
+    [
+      "raw SQL on another module's table",
+      'packages/api/src/submissions/example.service.ts',
+      "export const sql = 'SELECT region_id FROM practices WHERE id = ?';\n",
+      /SQL on another module's table/,
+    ],
+    [
+      "raw SQL on another module's table, in a template",
+      'packages/api/src/quarters/example.service.ts',
+      'export const sql = (n: number) => `UPDATE submissions SET rows_done = ${n}`;\n',
+      /SQL on another module's table/,
+    ],
+    [
+      "raw SQL on the module's own table",
+      'packages/api/src/organisations/example.ts',
+      "export const sql = 'SELECT id FROM practices WHERE region_id = ?';\n",
+      null,
     ],
     [
       "a service importing its own module's models",
