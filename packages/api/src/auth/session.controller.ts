@@ -13,7 +13,9 @@ import { MeDto, SessionDto } from './dto/session.dto.js';
 import { MeService } from './me.service.js';
 import { SessionService } from './session.service.js';
 import { section } from './config-section.js';
+import { ApiProblems } from '../common/problem.dto.js';
 
+@ApiProblems()
 @ApiTags('session')
 @Controller()
 export class SessionController {

@@ -5,9 +5,11 @@ import { ProblemException } from '../common/problem.js';
 import { DatabaseHealthIndicator } from './database.health.js';
 import { type HealthDatabaseDto, HealthDto } from './dto/health.dto.js';
 import { Public } from '../auth/decorators.js';
+import { ApiProblems } from '../common/problem.dto.js';
 
 const startedAt = new Date();
 
+@ApiProblems()
 @ApiTags('health')
 @Public()
 @Controller('health')

@@ -1,10 +1,12 @@
 import { Body, Controller, Get, HttpCode, Inject, Param, ParseIntPipe, Post } from '@nestjs/common';
 import { ApiOkResponse, ApiOperation, ApiTags } from '@nestjs/swagger';
 import { type Actor, CurrentActor } from '../auth/actor.js';
-import { AnySignedIn, type AuthUser, CurrentUser, Roles } from '../auth/index.js';
+import { AnySignedIn, Roles } from '../auth/index.js';
 import { OpenQuarterDto, QuarterDto } from './dto/quarter.dto.js';
 import { QuartersService } from './quarters.service.js';
+import { ApiProblems } from '../common/problem.dto.js';
 
+@ApiProblems()
 @ApiTags('quarters')
 @Controller('quarters')
 export class QuartersController {
@@ -14,8 +16,8 @@ export class QuartersController {
   @AnySignedIn()
   @ApiOperation({ summary: 'The audit quarters of your region, latest first' })
   @ApiOkResponse({ type: [QuarterDto] })
-  list(@CurrentUser() user: AuthUser): Promise<QuarterDto[]> {
-    return this.quarters.list(user.regionId);
+  list(@CurrentActor() actor: Actor): Promise<QuarterDto[]> {
+    return this.quarters.list(actor.regionId);
   }
 
   @Get(':quarterId')
@@ -23,10 +25,10 @@ export class QuartersController {
   @ApiOperation({ summary: 'One audit quarter' })
   @ApiOkResponse({ type: QuarterDto })
   get(
-    @CurrentUser() user: AuthUser,
+    @CurrentActor() actor: Actor,
     @Param('quarterId', ParseIntPipe) quarterId: number,
   ): Promise<QuarterDto> {
-    return this.quarters.get(user, quarterId);
+    return this.quarters.get(actor, quarterId);
   }
 
   @Post()

@@ -11,7 +11,6 @@ import { QueryTypes, type Transaction } from 'sequelize';
 import { Sequelize } from 'sequelize-typescript';
 import { AuditTrailService } from '../audit-trail/audit-trail.service.js';
 import type { Actor } from '../auth/actor.js';
-import type { AuthUser } from '../auth/index.js';
 import { ProblemException } from '../common/problem.js';
 import type { CairnConfig } from '../config/config.schema.js';
 import type { QuarterDto, QuarterStatus } from './dto/quarter.dto.js';
@@ -87,9 +86,9 @@ export class QuartersService {
   }
 
   /** The quarter, if it is in the caller's region; 404 otherwise. */
-  async get(user: Pick<AuthUser, 'regionId'>, id: number): Promise<QuarterDto> {
+  async get(actor: Pick<Actor, 'regionId'>, id: number): Promise<QuarterDto> {
     const quarter = Number.isSafeInteger(id) ? await this.find(id) : null;
-    if (!quarter || quarter.regionId !== user.regionId) {
+    if (!quarter || quarter.regionId !== actor.regionId) {
       throw new ProblemException(
         HttpStatus.NOT_FOUND,
         'quarter-not-found',

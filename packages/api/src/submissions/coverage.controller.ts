@@ -4,7 +4,9 @@ import { type Actor, CurrentActor } from '../auth/actor.js';
 import { Roles } from '../auth/index.js';
 import { CoverageDto } from './dto/submission.dto.js';
 import { SubmissionsService } from './submissions.service.js';
+import { ApiProblems } from '../common/problem.dto.js';
 
+@ApiProblems()
 @ApiTags('submissions')
 @Controller('quarters/:quarterId/coverage')
 export class CoverageController {

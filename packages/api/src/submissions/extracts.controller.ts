@@ -11,7 +11,9 @@ import { allowedValues, requiredLabel } from './format/describe.js';
 import { ISSUE_CODES } from './format/issue-codes.js';
 import { SubmissionsService } from './submissions.service.js';
 import { buildCsvTemplate, buildXlsxTemplate } from './template/template.js';
+import { ApiProblems } from '../common/problem.dto.js';
 
+@ApiProblems()
 @ApiTags('extracts')
 @Controller('extracts')
 export class ExtractsController {

@@ -13,8 +13,10 @@ import {
 } from '@nestjs/common';
 import {
   ApiAcceptedResponse,
+  ApiConflictResponse,
   ApiConsumes,
   ApiOkResponse,
+  ApiPayloadTooLargeResponse,
   ApiOperation,
   ApiTags,
 } from '@nestjs/swagger';
@@ -27,12 +29,14 @@ import {
   IssueQueryDto,
   SubmissionDto,
   SubmissionHistoryDto,
+  UploadProblemDto,
   UploadQueryDto,
   ValidationReportFileDto,
   XLSX,
 } from './dto/submission.dto.js';
 import { IntakeService } from './intake.service.js';
 import { type ReportDownload, SubmissionsService } from './submissions.service.js';
+import { ApiProblems } from '../common/problem.dto.js';
 
 function send(res: Response, download: ReportDownload): Promise<void> {
   res.status(200);
@@ -41,6 +45,7 @@ function send(res: Response, download: ReportDownload): Promise<void> {
   return download.write(res);
 }
 
+@ApiProblems()
 @ApiTags('submissions')
 @Controller('practices/:practiceId')
 export class SubmissionsController {
@@ -61,6 +66,8 @@ export class SubmissionsController {
       'Answers 202 with the new submission, in status processing; poll it for progress and the report.',
   })
   @ApiAcceptedResponse({ type: SubmissionDto })
+  @ApiConflictResponse({ type: UploadProblemDto, description: 'Identical to an earlier file' })
+  @ApiPayloadTooLargeResponse({ type: UploadProblemDto, description: 'Over the size limit' })
   async upload(
     @CurrentActor() actor: Actor,
     @Param('practiceId', ParseIntPipe) practiceId: number,

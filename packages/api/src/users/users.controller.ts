@@ -15,8 +15,7 @@ import {
 } from '@nestjs/common';
 import { ApiCreatedResponse, ApiOkResponse, ApiOperation, ApiTags } from '@nestjs/swagger';
 import { type Actor, CurrentActor } from '../auth/actor.js';
-import type { AuthUser } from '../auth/auth-user.js';
-import { CurrentUser, PracticeScoped, Roles } from '../auth/decorators.js';
+import { PracticeScoped, Roles } from '../auth/decorators.js';
 import {
   CreateUserDto,
   ListUsersQuery,
@@ -26,7 +25,9 @@ import {
   UserOptionsDto,
 } from './dto/user.dto.js';
 import { UsersService } from './users.service.js';
+import { ApiProblems } from '../common/problem.dto.js';
 
+@ApiProblems()
 @ApiTags('users')
 @Controller('users')
 @Roles('regional_lead')
@@ -38,24 +39,24 @@ export class UsersController {
     summary: "The region's people, filtered by search text, role, status or practice",
   })
   @ApiOkResponse({ type: UserListDto })
-  list(@CurrentUser() user: AuthUser, @Query() query: ListUsersQuery): Promise<UserListDto> {
-    return this.users.list(user.regionId, query);
+  list(@CurrentActor() actor: Actor, @Query() query: ListUsersQuery): Promise<UserListDto> {
+    return this.users.list(actor.regionId, query);
   }
 
   @Get('options')
   @ApiOperation({ summary: 'What the users screen offers: the practices that can be assigned' })
   @ApiOkResponse({ type: UserOptionsDto })
-  options(@CurrentUser() user: AuthUser): Promise<UserOptionsDto> {
-    return this.users.options(user.regionId);
+  options(@CurrentActor() actor: Actor): Promise<UserOptionsDto> {
+    return this.users.options(actor.regionId);
   }
 
   @Get(':userId')
   @ApiOkResponse({ type: UserDto })
   get(
-    @CurrentUser() user: AuthUser,
+    @CurrentActor() actor: Actor,
     @Param('userId', ParseIntPipe) userId: number,
   ): Promise<UserDto> {
-    return this.users.get(user.regionId, userId);
+    return this.users.get(actor.regionId, userId);
   }
 
   @Post()

@@ -6,6 +6,7 @@
 import { ApiProperty, ApiPropertyOptional } from '@nestjs/swagger';
 import { Type } from 'class-transformer';
 import { IsIn, IsInt, IsOptional, IsString, MaxLength, Min } from 'class-validator';
+import { ProblemDto } from '../../common/problem.dto.js';
 import { PracticeDto, PracticeRefDto } from '../../organisations/dto/practice.dto.js';
 import { QuarterDto } from '../../quarters/dto/quarter.dto.js';
 import { ISSUE_SEVERITIES, type IssueSeverity } from '../format/issue-codes.js';
@@ -549,3 +550,24 @@ export const fileResponse = (mediaType: string, description: string) => ({
 });
 
 export const XLSX = 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet';
+
+/** An upload refused before checking: an identical file (409) or one over the size limit (413). */
+export class UploadProblemDto extends ProblemDto {
+  @ApiPropertyOptional({ type: String, enum: ['identical_extract', 'file_too_large'] })
+  code?: 'identical_extract' | 'file_too_large';
+
+  @ApiPropertyOptional({ type: String, description: 'How to fix it' })
+  fix?: string;
+
+  @ApiPropertyOptional({
+    type: Number,
+    description: 'The earlier identical submission, or the rejected one kept in the history',
+  })
+  submissionId?: number;
+
+  @ApiPropertyOptional({ enum: SUBMISSION_STATUSES, enumName: 'SubmissionStatus' })
+  submissionStatus?: SubmissionStatus;
+
+  @ApiPropertyOptional({ type: Number }) maxBytes?: number;
+  @ApiPropertyOptional({ type: String }) sha256?: string;
+}

@@ -455,6 +455,36 @@ describe('submission page', () => {
     ).toBe('/extracts/upload?practice=12&quarter=8');
   });
 
+  it('offers no new upload where the API allows none (a closed quarter, for a practice lead)', async () => {
+    const closedQ2 = { ...q2 };
+    const rejected = submission({
+      status: 'rejected',
+      statusLabel: 'Rejected',
+      quarter: closedQ2,
+      counts: null,
+      issuesByCode: [],
+      refusal: {
+        code: 'missing_columns',
+        title: 'Required columns missing',
+        message: 'The file has no column birth_year.',
+        fix: 'Add the column birth_year, as in Cairn’s template.',
+        detail: null,
+      },
+      actions: { confirm: false, cancel: false, retry: false, upload: false },
+    });
+    stubApi(priya, (path) => {
+      if (path === '/api/practices/12/submissions/41') return { body: rejected };
+      if (path === '/api/practices/12/submissions') return { body: history([current]) };
+      if (path.startsWith('/api/practices/12/submissions/41/issues'))
+        return { body: { ...issuePage, total: 0, items: [], columns: [] } };
+      return undefined;
+    });
+    renderApp('/practices/12/submissions/41');
+    const alert = await screen.findByRole('alert');
+    expect(within(alert).getByText('The file has no column birth_year.')).toBeTruthy();
+    expect(within(alert).queryByRole('link', { name: /Upload a corrected extract/ })).toBeNull();
+  });
+
   it('offers Check again for a failed job whose file is kept', async () => {
     const failed = submission({
       status: 'failed',
@@ -661,6 +691,30 @@ describe('upload page', () => {
     expect(screen.queryByText(/^To upload, choose/)).toBeNull();
     expect(screen.getByRole('button', { name: 'Upload and check' }).hasAttribute('disabled')).toBe(
       false,
+    );
+  });
+
+  it('offers a regional lead closed quarters too, as the API allows late corrections', async () => {
+    const practices = [
+      { id: 11, code: 'OV101', name: 'Wrenfield Health Centre' },
+      { id: 12, code: 'OV102', name: 'Quarrybank Surgery' },
+    ];
+    stubApi(regional, (path) => {
+      if (path === '/api/extracts/upload-options')
+        return { body: uploadOptions(practices, [q3.id, q2.id]) };
+      if (path === '/api/extracts/format') return { body: format };
+      if (path === '/api/practices/12/submissions') return { body: history([current]) };
+      return undefined;
+    });
+    renderApp('/extracts/upload?practice=12');
+    const quarter = (await screen.findByLabelText('Audit quarter')) as HTMLSelectElement;
+    expect([...quarter.options].map((o) => o.textContent)).toEqual([
+      '2026 Q3 (deadline 16 Dec 2026)',
+      '2026 Q2 (closed)',
+    ]);
+    const practice = screen.getByLabelText('Practice') as HTMLSelectElement;
+    expect([...practice.options].map((o) => o.textContent)).toContain(
+      'OV102 · Quarrybank Surgery (Harnleigh Fold)',
     );
   });
 

@@ -29,6 +29,11 @@ export {
   userStatusValues,
 } from './schema';
 
+// ── problem details (every error answer; RFC 9457) ──
+export type Problem = Schemas['ProblemDto'];
+export type FieldProblem = Schemas['FieldProblemDto'];
+export type UploadProblem = Schemas['UploadProblemDto'];
+
 // ── resources ──
 export type About = Schemas['AboutDto'];
 export type Session = Schemas['SessionDto'];

@@ -2,6 +2,7 @@ import { NonIdealState, Spinner } from '@blueprintjs/core';
 import { useQueryClient } from '@tanstack/react-query';
 import { useEffect, useRef, useState } from 'react';
 import { apiFetch, ApiError } from '../../../lib/api-client';
+import type { SignOut } from '../../../lib/api/types';
 import { fetchSession } from '../../../lib/session';
 
 /**
@@ -24,7 +25,7 @@ export function SignOut() {
           window.location.assign('/sign-in?signedOut=1');
           return;
         }
-        const { redirectUrl } = await apiFetch<{ redirectUrl: string }>('/api/auth/sign-out', {
+        const { redirectUrl } = await apiFetch<SignOut>('/api/auth/sign-out', {
           method: 'POST',
         });
         client.clear();
