@@ -2,6 +2,7 @@
 import { join } from 'node:path';
 import type { OpenAPIObject } from '@nestjs/swagger';
 import openapiTS, { astToString } from 'openapi-typescript';
+import { format, resolveConfig } from 'prettier';
 import { findRepoRoot } from '../config/load-config.js';
 
 export const contractDir = () => join(findRepoRoot(), 'packages', 'web', 'src', 'lib', 'api');
@@ -14,11 +15,22 @@ const HEADER = `/**
 
 `;
 
-/** The two committed files: the document, and the types generated from it. */
+/**
+ * The two committed files: the document, and the types generated from it, both formatted as
+ * Prettier formats the repository (so formatting them again changes nothing).
+ */
 export async function renderContract(document: OpenAPIObject) {
-  const json = `${JSON.stringify(document, null, 2)}\n`;
+  const dir = contractDir();
+  const options = { ...(await resolveConfig(join(dir, 'schema.ts'))) };
+  const json = JSON.stringify(document);
   const ast = await openapiTS(JSON.parse(json) as Parameters<typeof openapiTS>[0], {
     enumValues: true,
   });
-  return { 'openapi.json': json, 'schema.ts': HEADER + astToString(ast) };
+  return {
+    'openapi.json': await format(json, { ...options, filepath: join(dir, 'openapi.json') }),
+    'schema.ts': await format(HEADER + astToString(ast), {
+      ...options,
+      filepath: join(dir, 'schema.ts'),
+    }),
+  };
 }

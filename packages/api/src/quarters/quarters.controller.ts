@@ -1,5 +1,5 @@
 import { Body, Controller, Get, HttpCode, Inject, Param, ParseIntPipe, Post } from '@nestjs/common';
-import { ApiOkResponse, ApiOperation, ApiTags } from '@nestjs/swagger';
+import { ApiCreatedResponse, ApiOkResponse, ApiOperation, ApiTags } from '@nestjs/swagger';
 import { type Actor, CurrentActor } from '../auth/actor.js';
 import { AnySignedIn, Roles } from '../auth/index.js';
 import { OpenQuarterDto, QuarterDto } from './dto/quarter.dto.js';
@@ -34,7 +34,7 @@ export class QuartersController {
   @Post()
   @Roles('regional_lead')
   @ApiOperation({ summary: 'Open an audit quarter for submissions (regional lead)' })
-  @ApiOkResponse({ type: QuarterDto })
+  @ApiCreatedResponse({ type: QuarterDto })
   open(@CurrentActor() actor: Actor, @Body() body: OpenQuarterDto): Promise<QuarterDto> {
     return this.quarters.open(actor, body);
   }

@@ -919,6 +919,8 @@ describe('home page', () => {
     stubApi(regional, (path) => {
       if (path === '/api/quarters') return { body: [q3, q2] };
       if (path === '/api/quarters/8/coverage') return { body: regionCoverage };
+      if (path === '/api/extracts/upload-options')
+        return { body: uploadOptions([{ id: 11, code: 'OV101', name: 'x' }], [q3.id, q2.id]) };
       return undefined;
     });
     renderApp('/');
@@ -932,7 +934,7 @@ describe('home page', () => {
     expect(screen.getByRole('link', { name: /Open coverage/ }).getAttribute('href')).toBe(
       '/coverage?quarter=8',
     );
-    expect(screen.getByRole('link', { name: /Upload for a practice/ })).toBeTruthy();
+    expect(await screen.findByRole('link', { name: /Upload for a practice/ })).toBeTruthy();
   });
 
   it('shows an auditor the same coverage, read-only', async () => {
