@@ -13,8 +13,7 @@ export class PracticeAccess {
   constructor(@Inject(OrganisationsService) private readonly organisations: OrganisationsService) {}
 
   async find(practiceId: number): Promise<PracticeRef | null> {
-    const practice = await this.organisations.practice(practiceId);
-    return practice ? { id: practice.id, regionId: practice.regionId } : null;
+    return this.organisations.practiceRegion(practiceId);
   }
 
   async canRead(user: AuthUser, practiceId: number): Promise<boolean> {

@@ -75,6 +75,13 @@ export class OrganisationsService {
     return practice ? info(practice) : null;
   }
 
+  /** The practice's id and region only (access checks on every request; null when unknown). */
+  async practiceRegion(id: number): Promise<{ id: number; regionId: number } | null> {
+    if (!Number.isSafeInteger(id)) return null;
+    const practice = await this.practices.findByPk(id, { attributes: ['id', 'regionId'] });
+    return practice ? { id: practice.id, regionId: practice.regionId } : null;
+  }
+
   /** These practices (any region), by code; unknown ids are left out. */
   async practiceRefs(ids: readonly number[], transaction?: Transaction): Promise<PracticeRefDto[]> {
     if (ids.length === 0) return [];
