@@ -13,6 +13,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { Readable } from 'node:stream';
 import { QueryTypes } from 'sequelize';
+import { systemActor } from '../src/auth/actor.js';
 import { writeXlsx } from '../src/submissions/template/extract-writer.js';
 import { startApiProcess } from '../test/support/api-process.js';
 import type { TestApp } from '../test/support/test-app.js';
@@ -46,7 +47,7 @@ try {
     "SELECT id FROM practices WHERE code = 'OV105'",
     { type: QueryTypes.SELECT },
   );
-  const system = { id: null, label: 'benchmark', role: 'system' as const, regionId: region!.id };
+  const system = systemActor('benchmark', region!.id);
   const quarters = await t.get('quarters/quarters.service.js', 'QuartersService');
   const quarter = (await quarters.open(system, { year: 2026, quarter: 3 })).id as number;
   const intake = await t.get('submissions/intake.service.js', 'IntakeService');

@@ -33,6 +33,7 @@ import { Readable } from 'node:stream';
 import { fileURLToPath } from 'node:url';
 import ExcelJS from 'exceljs';
 import { QueryTypes } from 'sequelize';
+import { systemActor } from '../src/auth/actor.js';
 import { API_NODE_FLAGS } from '../src/node-flags.js';
 import { writeCsv, writeXlsx } from '../src/submissions/template/extract-writer.js';
 import { benchApp, fromDist } from './app.js';
@@ -147,7 +148,7 @@ async function main(): Promise<void> {
     const [region] = await t.db.query<{ id: number }>('SELECT id FROM regions', {
       type: QueryTypes.SELECT,
     });
-    const system = { id: null, label: 'benchmark', role: 'system' as const, regionId: region!.id };
+    const system = systemActor('benchmark', region!.id);
     const quarters = await t.get('quarters/quarters.service.js', 'QuartersService');
     const quarter = (await quarters.open(system, { year: 2026, quarter: 3 })).id as number;
     const intake = await t.get('submissions/intake.service.js', 'IntakeService');

@@ -6,7 +6,7 @@ import { type INestApplication, ValidationPipe } from '@nestjs/common';
 import { ConfigService } from '@nestjs/config';
 import { NestFactory } from '@nestjs/core';
 import type { NestExpressApplication } from '@nestjs/platform-express';
-import { DocumentBuilder, SwaggerModule } from '@nestjs/swagger';
+import { SwaggerModule } from '@nestjs/swagger';
 import helmet from 'helmet';
 import type { Logger } from 'pino';
 import { type AppModuleOptions, AppModule } from './app.module.js';
@@ -15,8 +15,8 @@ import { createRootLogger, PinoNestLogger, requestLogger } from './common/logger
 import { ProblemDetailsFilter } from './common/problem-details.filter.js';
 import type { CairnConfig } from './config/config.schema.js';
 import { loadConfig } from './config/load-config.js';
+import { describeApi } from './contract/openapi.js';
 import { serveWeb } from './web/serve-web.js';
-import { version } from './version.js';
 
 export interface CreateAppOptions extends AppModuleOptions {
   logger?: Logger;
@@ -79,17 +79,9 @@ export function configureApp(app: INestApplication, config: CairnConfig, logger:
   app.useGlobalFilters(new ProblemDetailsFilter());
   app.enableShutdownHooks();
 
-  const document = SwaggerModule.createDocument(
-    app,
-    new DocumentBuilder()
-      .setTitle('Cairn API')
-      .setDescription(
-        'Quarterly diabetes care audit and peer benchmarking. Errors are RFC 9457 problem details.',
-      )
-      .setVersion(version)
-      .build(),
-  );
-  SwaggerModule.setup('api/docs', app, document, { jsonDocumentUrl: 'api/docs/openapi.json' });
+  SwaggerModule.setup('api/docs', app, describeApi(app), {
+    jsonDocumentUrl: 'api/docs/openapi.json',
+  });
 
   if (config.server.serveWeb) serveWeb(express, app.get(ConfigService));
 }

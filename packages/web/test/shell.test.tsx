@@ -2,7 +2,7 @@ import { screen, waitFor } from '@testing-library/react';
 import userEvent from '@testing-library/user-event';
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import { navigationFor } from '../src/app/navigation';
-import type { Me } from '../src/features/session/api/me';
+import type { Me } from '../src/lib/api/types';
 import { renderApp, stubFetch } from './render';
 
 const about = {
@@ -21,6 +21,7 @@ const practiceLead: Me = {
   role: 'practice_lead',
   regionName: 'Ostrevale',
   practices: [{ id: 1, code: 'OV101', name: 'Wrenfield Health Centre' }],
+  sessionExpiresAt: '2026-12-01T18:00:00.000Z',
 };
 
 afterEach(() => vi.unstubAllGlobals());

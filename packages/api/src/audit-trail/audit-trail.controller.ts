@@ -1,11 +1,13 @@
 /** Browsing the audit trail (regional leads, and auditors as governance reviewers): read-only, newest first, filtered, paged. */
 import { Controller, Get, Inject, Query } from '@nestjs/common';
 import { ApiOkResponse, ApiOperation, ApiTags } from '@nestjs/swagger';
-import type { AuthUser } from '../auth/auth-user.js';
-import { CurrentUser, Roles } from '../auth/decorators.js';
+import { type Actor, CurrentActor } from '../auth/actor.js';
+import { Roles } from '../auth/decorators.js';
 import { AuditTrailService } from './audit-trail.service.js';
 import { AuditActionDto, AuditEventPageDto, ListAuditEventsQuery } from './dto/audit-event.dto.js';
+import { ApiProblems } from '../common/problem.dto.js';
 
+@ApiProblems()
 @ApiTags('audit trail')
 @Controller('audit-events')
 @Roles('regional_lead', 'auditor')
@@ -19,16 +21,16 @@ export class AuditTrailController {
   })
   @ApiOkResponse({ type: AuditEventPageDto })
   list(
-    @CurrentUser() user: AuthUser,
+    @CurrentActor() actor: Actor,
     @Query() query: ListAuditEventsQuery,
   ): Promise<AuditEventPageDto> {
-    return this.audit.browse(user.regionId, query);
+    return this.audit.browse(actor.regionId, query);
   }
 
   @Get('actions')
   @ApiOperation({ summary: 'The actions recorded so far, with counts (for the filter)' })
   @ApiOkResponse({ type: [AuditActionDto] })
-  actions(@CurrentUser() user: AuthUser): Promise<AuditActionDto[]> {
-    return this.audit.actions(user.regionId);
+  actions(@CurrentActor() actor: Actor): Promise<AuditActionDto[]> {
+    return this.audit.actions(actor.regionId);
   }
 }

@@ -1,12 +1,13 @@
 import { Global, Module } from '@nestjs/common';
 import { SequelizeModule } from '@nestjs/sequelize';
+import { OrganisationsModule } from '../organisations/organisations.module.js';
 import { AuditTrailController } from './audit-trail.controller.js';
 import { AuditTrailService } from './audit-trail.service.js';
 import { AuditEvent } from './models/audit-event.model.js';
 
 @Global()
 @Module({
-  imports: [SequelizeModule.forFeature([AuditEvent])],
+  imports: [SequelizeModule.forFeature([AuditEvent]), OrganisationsModule],
   controllers: [AuditTrailController],
   providers: [AuditTrailService],
   exports: [AuditTrailService],

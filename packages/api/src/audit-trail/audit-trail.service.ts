@@ -1,7 +1,8 @@
-import { HttpStatus, Injectable } from '@nestjs/common';
+import { HttpStatus, Inject, Injectable } from '@nestjs/common';
 import { InjectModel } from '@nestjs/sequelize';
 import { Op, QueryTypes, type Transaction, type WhereOptions } from 'sequelize';
 import { ProblemException } from '../common/problem.js';
+import { OrganisationsService } from '../organisations/organisations.service.js';
 import type {
   AuditActionDto,
   AuditEventPageDto,
@@ -26,7 +27,10 @@ export interface AuditEntry {
 /** The audit trail: append and read, nothing else (the table refuses UPDATE and DELETE). */
 @Injectable()
 export class AuditTrailService {
-  constructor(@InjectModel(AuditEvent) private readonly events: typeof AuditEvent) {}
+  constructor(
+    @InjectModel(AuditEvent) private readonly events: typeof AuditEvent,
+    @Inject(OrganisationsService) private readonly organisations: OrganisationsService,
+  ) {}
 
   /** Appends one event; pass the caller's transaction so the event commits with the change it records. */
   async append(entry: AuditEntry, transaction?: Transaction): Promise<AuditEvent> {
@@ -92,12 +96,7 @@ export class AuditTrailService {
     const practiceIds = [
       ...new Set(page.map((e) => e.practiceId).filter((id): id is number => id !== null)),
     ];
-    const practices = practiceIds.length
-      ? await this.events.sequelize!.query<{ id: number; code: string; name: string }>(
-          'SELECT id, code, name FROM practices WHERE id IN (?)',
-          { replacements: [practiceIds], type: QueryTypes.SELECT },
-        )
-      : [];
+    const practices = await this.organisations.practiceRefs(practiceIds);
     return {
       events: page.map((e) => ({
         id: Number(e.id),

@@ -5,6 +5,7 @@
  *   @PracticeScoped('practiceId')                    the numeric route param names a practice the caller may read
  *   @AuditorMayWrite()                               auditors are read-only unless a write route says so
  *   @CurrentUser() user: AuthUser                    the signed-in person
+ *   @CurrentActor() actor: Actor                     the same person as services take them (actor.ts)
  *   canReadPractice(user, practice) / PracticeAccess for list endpoints and services
  *
  * State-changing requests need X-CSRF-Token (from GET /api/session); missing
@@ -26,6 +27,7 @@ export {
   readablePracticeFilter,
 } from './auth-user.js';
 export { PracticeAccess } from './practice-access.js';
+export { type Actor, actorOf, CurrentActor, systemActor } from './actor.js';
 export { ACCESS_PROBLEMS, SAFE_METHODS } from './access.guard.js';
 export { SessionService } from './session.service.js';
 export type { Role } from '../users/roles.js';

@@ -3,19 +3,17 @@
  * this practice? Regional leads and auditors: any practice of their region;
  * practice leads: the practices they lead. Unknown practice: 404.
  */
-import { HttpStatus, Injectable } from '@nestjs/common';
-import { InjectModel } from '@nestjs/sequelize';
+import { HttpStatus, Inject, Injectable } from '@nestjs/common';
 import { ProblemException } from '../common/problem.js';
-import { Practice } from '../organisations/models/practice.model.js';
+import { OrganisationsService } from '../organisations/organisations.service.js';
 import { type AuthUser, canReadPractice, type PracticeRef } from './auth-user.js';
 
 @Injectable()
 export class PracticeAccess {
-  constructor(@InjectModel(Practice) private readonly practices: typeof Practice) {}
+  constructor(@Inject(OrganisationsService) private readonly organisations: OrganisationsService) {}
 
   async find(practiceId: number): Promise<PracticeRef | null> {
-    const practice = await this.practices.findByPk(practiceId, { attributes: ['id', 'regionId'] });
-    return practice ? { id: practice.id, regionId: practice.regionId } : null;
+    return this.organisations.practiceRegion(practiceId);
   }
 
   async canRead(user: AuthUser, practiceId: number): Promise<boolean> {

@@ -5,83 +5,17 @@
  */
 import { Controller, Get, Inject, Req } from '@nestjs/common';
 import { ConfigService } from '@nestjs/config';
-import {
-  ApiOkResponse,
-  ApiOperation,
-  ApiProperty,
-  ApiPropertyOptional,
-  ApiTags,
-} from '@nestjs/swagger';
+import { ApiOkResponse, ApiOperation, ApiTags } from '@nestjs/swagger';
 import type { Request } from 'express';
-import { ROLES, type Role } from '../users/roles.js';
 import type { AuthUser } from './auth-user.js';
 import { AnySignedIn, CurrentUser, Public } from './decorators.js';
+import { MeDto, SessionDto } from './dto/session.dto.js';
 import { MeService } from './me.service.js';
 import { SessionService } from './session.service.js';
 import { section } from './config-section.js';
+import { ApiProblems } from '../common/problem.dto.js';
 
-export class MePracticeDto {
-  @ApiProperty({ example: 12 })
-  id!: number;
-
-  @ApiProperty({ example: 'OV102' })
-  code!: string;
-
-  @ApiProperty({ example: 'Quarrybank Surgery' })
-  name!: string;
-}
-
-export class MeDto {
-  @ApiProperty()
-  id!: number;
-
-  @ApiProperty({ example: 'priya.calloway@quarrybank.example' })
-  email!: string;
-
-  @ApiProperty({ example: 'Priya Calloway' })
-  displayName!: string;
-
-  @ApiProperty({ enum: ROLES })
-  role!: Role;
-
-  @ApiProperty({ example: 'Ostrevale' })
-  regionName!: string;
-
-  @ApiProperty({
-    type: [MePracticeDto],
-    description: 'The practices this person leads (practice leads only)',
-  })
-  practices!: MePracticeDto[];
-
-  @ApiProperty({ description: 'When the session ends at the latest (absolute timeout), ISO 8601' })
-  sessionExpiresAt!: string;
-}
-
-export class SessionDto {
-  @ApiProperty({ nullable: true, type: MeDto, description: 'The signed-in person, or null' })
-  user!: MeDto | null;
-
-  @ApiProperty({
-    nullable: true,
-    type: String,
-    description:
-      'Send this as the X-CSRF-Token header on every state-changing request; null when signed out',
-  })
-  csrfToken!: string | null;
-
-  @ApiPropertyOptional({
-    nullable: true,
-    enum: ['idle', 'absolute', 'deactivated', 'removed'],
-    description: 'Set when a session ended on this request (why the person is signed out)',
-  })
-  sessionEnded!: string | null;
-
-  @ApiProperty({
-    description: 'True when sign-in goes through the local fake identity provider (development)',
-  })
-  localSignIn!: boolean;
-}
-
+@ApiProblems()
 @ApiTags('session')
 @Controller()
 export class SessionController {
@@ -104,7 +38,7 @@ export class SessionController {
     const { ended } = await this.sessions.resolve(req);
     const auth = section(this.config, 'auth');
     return {
-      user: user ? await this.me.describe(user, req) : null,
+      user: user ? await this.me.describe(user, this.sessions.signedInAt(req)) : null,
       csrfToken: user ? (this.sessions.csrfToken(req) ?? null) : null,
       sessionEnded: ended ?? null,
       localSignIn: auth.idp.source === 'dev-fake',
@@ -116,6 +50,6 @@ export class SessionController {
   @ApiOperation({ summary: 'The signed-in person: role, region and practices' })
   @ApiOkResponse({ type: MeDto })
   async getMe(@Req() req: Request, @CurrentUser() user: AuthUser): Promise<MeDto> {
-    return this.me.describe(user, req);
+    return this.me.describe(user, this.sessions.signedInAt(req));
   }
 }

@@ -14,15 +14,16 @@ import type { Session, SessionData } from 'express-session';
 import type { Transaction } from 'sequelize';
 import { AuditTrailService } from '../audit-trail/audit-trail.service.js';
 import type { CairnConfig } from '../config/config.schema.js';
-import { Membership } from '../users/models/membership.model.js';
-import { User } from '../users/models/user.model.js';
+import { type Account, UserAccounts } from '../users/user-accounts.js';
 import type { AuthUser } from './auth-user.js';
 import { SessionRecord } from './models/session-record.model.js';
 import type { SessionAuth } from './session-data.js';
 import './session-data.js';
 import { section } from './config-section.js';
 
-export type SessionEnd = 'idle' | 'absolute' | 'deactivated' | 'removed';
+import type { SessionEnd } from './dto/session.dto.js';
+
+export type { SessionEnd };
 
 export interface ResolvedSession {
   user?: AuthUser;
@@ -55,7 +56,7 @@ export function csrfTokenMatches(expected: string | undefined, given: unknown): 
 export class SessionService {
   constructor(
     @Inject(ConfigService) private readonly configService: ConfigService,
-    @InjectModel(User) private readonly users: typeof User,
+    @Inject(UserAccounts) private readonly accounts: UserAccounts,
     @InjectModel(SessionRecord) private readonly sessions: typeof SessionRecord,
     @Inject(AuditTrailService) private readonly audit: AuditTrailService,
   ) {}
@@ -81,11 +82,7 @@ export class SessionService {
     let ended: SessionEnd | undefined;
     if (now - auth.lastSeenAt > idleTimeoutMinutes * 60_000) ended = 'idle';
     else if (now - auth.signedInAt > absoluteTimeoutHours * 3600_000) ended = 'absolute';
-    const user = ended
-      ? null
-      : await this.users.findByPk(auth.userId, {
-          include: [{ model: Membership, attributes: ['practiceId'] }],
-        });
+    const user = ended ? null : await this.accounts.find(auth.userId);
     if (!ended && !user) ended = 'removed';
     if (!ended && user!.status !== 'active') ended = 'deactivated';
     if (ended) {
@@ -115,6 +112,11 @@ export class SessionService {
     return { user: toAuthUser(user!) };
   }
 
+  /** When this request's session signed in (epoch milliseconds; undefined when nobody is signed in). */
+  signedInAt(req: Request): number | undefined {
+    return (req as SessionRequest).session?.auth?.signedInAt;
+  }
+
   /** The CSRF token of this request's session (undefined when nobody is signed in). */
   csrfToken(req: Request): string | undefined {
     return (req as SessionRequest).session?.auth?.csrfToken;
@@ -123,7 +125,7 @@ export class SessionService {
   /** Starts a fresh session (new id: the old one, if any, is destroyed) for this person. */
   async begin(
     req: Request,
-    user: User,
+    user: Account,
     saml: Pick<SessionAuth, 'nameId' | 'nameIdFormat' | 'sessionIndex'>,
   ): Promise<SessionAuth> {
     const r = req as SessionRequest;
@@ -166,16 +168,13 @@ export class SessionService {
   }
 }
 
-export function toAuthUser(user: User): AuthUser {
+export function toAuthUser(user: Account): AuthUser {
   return {
     id: user.id,
     email: user.email,
     displayName: user.displayName,
     role: user.role,
     regionId: user.regionId,
-    practiceIds:
-      user.role === 'practice_lead'
-        ? (user.memberships ?? []).map((m) => m.practiceId).sort((a, b) => a - b)
-        : [],
+    practiceIds: user.role === 'practice_lead' ? user.practiceIds : [],
   };
 }

@@ -13,16 +13,12 @@
  */
 import { Inject, Injectable } from '@nestjs/common';
 import { ConfigService } from '@nestjs/config';
-import { InjectModel } from '@nestjs/sequelize';
-import { Op } from 'sequelize';
-import type { Sequelize } from 'sequelize-typescript';
+import type { Transaction } from 'sequelize';
 import { AuditTrailService } from '../audit-trail/audit-trail.service.js';
 import type { CairnConfig } from '../config/config.schema.js';
-import { Practice } from '../organisations/models/practice.model.js';
-import { Region } from '../organisations/models/region.model.js';
-import { Membership } from '../users/models/membership.model.js';
-import { User } from '../users/models/user.model.js';
+import { OrganisationsService } from '../organisations/organisations.service.js';
 import { ROLES, type Role } from '../users/roles.js';
+import { type Account, UserAccounts } from '../users/user-accounts.js';
 import type { SamlIdentity } from './saml/saml.strategy.js';
 import { REFUSAL_REASONS, SignInRefused } from './sign-in-refusal.js';
 import { section } from './config-section.js';
@@ -38,19 +34,13 @@ const IDP_ACTOR = 'identity provider';
 export class SignInService {
   constructor(
     @Inject(ConfigService) private readonly configService: ConfigService,
-    @InjectModel(User) private readonly users: typeof User,
-    @InjectModel(Membership) private readonly memberships: typeof Membership,
-    @InjectModel(Practice) private readonly practices: typeof Practice,
-    @InjectModel(Region) private readonly regions: typeof Region,
+    @Inject(UserAccounts) private readonly accounts: UserAccounts,
+    @Inject(OrganisationsService) private readonly organisations: OrganisationsService,
     @Inject(AuditTrailService) private readonly audit: AuditTrailService,
   ) {}
 
   private get auth(): CairnConfig['auth'] {
     return section(this.configService, 'auth');
-  }
-
-  private get sequelize(): Sequelize {
-    return this.users.sequelize as Sequelize;
   }
 
   /** Maps the IdP's role values to one Cairn role (the most privileged that matches). */
@@ -62,21 +52,16 @@ export class SignInService {
     return null;
   }
 
-  /** Lets the person in (returning their user row, memberships loaded) or throws SignInRefused. */
-  async complete(identity: SamlIdentity, context: RequestContext): Promise<User> {
+  /** Lets the person in (returning their account, practices included) or throws SignInRefused. */
+  async complete(identity: SamlIdentity, context: RequestContext): Promise<Account> {
     const email = (identity.email ?? (/@/.test(identity.nameId) ? identity.nameId : ''))
       .trim()
       .toLowerCase();
     if (!email) throw new SignInRefused('missing-email', { subject: identity.nameId });
     const trust = this.auth.trustIdpRoles;
 
-    return this.sequelize.transaction(async (transaction) => {
-      let user = await this.users.findOne({
-        where: { email },
-        include: [Membership],
-        transaction,
-        lock: transaction.LOCK.UPDATE,
-      });
+    return this.accounts.transaction(async (transaction) => {
+      let user = await this.accounts.findByEmailForUpdate(email, transaction);
       if (user && user.status !== 'active') {
         throw new SignInRefused('deactivated', { email, userId: user.id });
       }
@@ -86,16 +71,12 @@ export class SignInService {
         const role = this.roleFrom(identity.roleValues);
         if (!role) throw new SignInRefused('no-role', { email, roleValues: identity.roleValues });
         const regionId =
-          user?.regionId ??
-          (await this.regions.findOne({ order: [['id', 'ASC']], transaction }))?.id;
+          user?.regionId ?? (await this.organisations.primaryRegion(transaction))?.id;
         if (!regionId) throw new SignInRefused('no-region', { email });
         let practiceIds: number[] = [];
         if (role === 'practice_lead') {
           const codes = [...new Set(identity.practiceCodes)];
-          const found = await this.practices.findAll({
-            where: { regionId, code: { [Op.in]: codes } },
-            transaction,
-          });
+          const found = await this.organisations.practicesByCode(regionId, codes, transaction);
           const unknown = codes.filter((c) => !found.some((p) => p.code === c));
           if (unknown.length)
             throw new SignInRefused('unknown-practice', { email, unknownCodes: unknown });
@@ -104,9 +85,9 @@ export class SignInService {
         }
         const displayName = (identity.displayName ?? email).slice(0, 200);
         if (!user) {
-          user = await this.users.create(
-            { regionId, email, displayName, role, status: 'active', externalId: identity.nameId },
-            { transaction },
+          user = await this.accounts.provision(
+            { regionId, email, displayName, role, externalId: identity.nameId },
+            transaction,
           );
           await this.audit.append(
             {
@@ -123,7 +104,8 @@ export class SignInService {
           );
         } else if (user.role !== role) {
           const from = user.role;
-          await user.update({ role }, { transaction });
+          await this.accounts.setRole(user.id, role, transaction);
+          user = { ...user, role };
           await this.audit.append(
             {
               action: 'user.role_changed',
@@ -142,10 +124,7 @@ export class SignInService {
       }
       if (!user) throw new SignInRefused('unknown-user', { email });
 
-      await user.update(
-        { externalId: identity.nameId.slice(0, 255), lastSignInAt: new Date() },
-        { transaction },
-      );
+      await this.accounts.recordSignIn(user.id, identity.nameId, transaction);
       await this.audit.append(
         {
           action: 'auth.sign_in',
@@ -159,35 +138,28 @@ export class SignInService {
         },
         transaction,
       );
-      const fresh = await this.users.findByPk(user.id, { include: [Membership], transaction });
-      return fresh!;
+      return (await this.accounts.find(user.id, transaction))!;
     });
   }
 
   private async syncMemberships(
-    user: User,
+    user: Account,
     practiceIds: number[],
     context: RequestContext,
-    transaction: import('sequelize').Transaction,
+    transaction: Transaction,
   ): Promise<void> {
-    const current = await this.memberships.findAll({ where: { userId: user.id }, transaction });
-    const currentIds = current.map((m) => m.practiceId);
+    const currentIds = user.practiceIds;
     const added = practiceIds.filter((id) => !currentIds.includes(id));
-    const removed = current.filter((m) => !practiceIds.includes(m.practiceId));
+    const removed = currentIds.filter((id) => !practiceIds.includes(id));
     if (added.length === 0 && removed.length === 0) return;
     const names = new Map(
-      (
-        await this.practices.findAll({
-          where: { id: [...added, ...removed.map((m) => m.practiceId)] },
-          transaction,
-        })
-      ).map((p) => [p.id, `${p.name} (${p.code})`]),
+      (await this.organisations.practiceRefs([...added, ...removed], transaction)).map((p) => [
+        p.id,
+        `${p.name} (${p.code})`,
+      ]),
     );
     for (const practiceId of added) {
-      await this.memberships.create(
-        { userId: user.id, practiceId, role: 'practice_lead' },
-        { transaction },
-      );
+      await this.accounts.addMembership(user.id, practiceId, transaction);
       await this.audit.append(
         {
           action: 'membership.added',
@@ -202,15 +174,15 @@ export class SignInService {
         transaction,
       );
     }
-    for (const membership of removed) {
-      await membership.destroy({ transaction });
+    for (const practiceId of removed) {
+      await this.accounts.removeMembership(user.id, practiceId, transaction);
       await this.audit.append(
         {
           action: 'membership.removed',
-          summary: `${user.displayName} no longer leads ${names.get(membership.practiceId)}, as the identity provider says`,
+          summary: `${user.displayName} no longer leads ${names.get(practiceId)}, as the identity provider says`,
           actor: { id: null, label: IDP_ACTOR },
           regionId: user.regionId,
-          practiceId: membership.practiceId,
+          practiceId,
           subjectType: 'user',
           subjectId: user.id,
           ...context,

@@ -1,8 +1,8 @@
 import { Injectable } from '@nestjs/common';
 import { InjectConnection } from '@nestjs/sequelize';
 import { HealthIndicatorService } from '@nestjs/terminus';
-import { QueryTypes } from 'sequelize';
 import type { Sequelize } from 'sequelize-typescript';
+import { schemaStatus } from '../database/schema-status.js';
 
 /**
  * MariaDB reachability, with the server version and how far migrations got.
@@ -19,13 +19,7 @@ export class DatabaseHealthIndicator {
   check(key = 'database') {
     return this.health
       .check(key)
-      .attempt(async () => {
-        const [row] = await this.sequelize.query<{ version: string; migration: string | null }>(
-          'SELECT VERSION() AS version, (SELECT MAX(name) FROM schema_migrations) AS migration',
-          { type: QueryTypes.SELECT },
-        );
-        return { server: row?.version, schema: row?.migration };
-      })
+      .attempt(() => schemaStatus(this.sequelize))
       .withTimeout(3000);
   }
 }

@@ -1,26 +1,30 @@
-import { Controller, Get, HttpStatus } from '@nestjs/common';
-import { ApiOperation, ApiTags } from '@nestjs/swagger';
+import { Controller, Get, HttpStatus, Inject } from '@nestjs/common';
+import { ApiOkResponse, ApiOperation, ApiTags } from '@nestjs/swagger';
 import { HealthCheckService } from '@nestjs/terminus';
 import { ProblemException } from '../common/problem.js';
 import { DatabaseHealthIndicator } from './database.health.js';
+import { type HealthDatabaseDto, HealthDto } from './dto/health.dto.js';
 import { Public } from '../auth/decorators.js';
+import { ApiProblems } from '../common/problem.dto.js';
 
 const startedAt = new Date();
 
+@ApiProblems()
 @ApiTags('health')
 @Public()
 @Controller('health')
 export class HealthController {
   constructor(
-    private readonly health: HealthCheckService,
-    private readonly database: DatabaseHealthIndicator,
+    @Inject(HealthCheckService) private readonly health: HealthCheckService,
+    @Inject(DatabaseHealthIndicator) private readonly database: DatabaseHealthIndicator,
   ) {}
 
   @Get()
   @ApiOperation({
     summary: 'Process and database status (200 when healthy, 503 problem details when not)',
   })
-  async check() {
+  @ApiOkResponse({ type: HealthDto })
+  async check(): Promise<HealthDto> {
     const processInfo = {
       status: 'up' as const,
       pid: process.pid,
@@ -31,7 +35,11 @@ export class HealthController {
     };
     try {
       const result = await this.health.check([() => this.database.check('database')]);
-      return { status: result.status, process: processInfo, database: result.details.database };
+      return {
+        status: 'ok',
+        process: processInfo,
+        database: result.details.database as HealthDatabaseDto,
+      };
     } catch (error) {
       const response = (
         error as { getResponse?: () => { details?: Record<string, unknown> } }

@@ -10,6 +10,6 @@ import { OrganisationsService } from './organisations.service.js';
   imports: [SequelizeModule.forFeature([Region, Locality, Practice])],
   controllers: [AboutController],
   providers: [OrganisationsService],
-  exports: [OrganisationsService, SequelizeModule],
+  exports: [OrganisationsService],
 })
 export class OrganisationsModule {}

@@ -1,8 +1,39 @@
+/**
+ * The owner of regions, localities and practices: every other module reads
+ * them through this service (never through the models or raw SQL).
+ */
 import { Injectable } from '@nestjs/common';
 import { InjectModel } from '@nestjs/sequelize';
+import { Op, type Transaction } from 'sequelize';
+import { version } from '../version.js';
+import type { AboutDto } from './dto/about.dto.js';
+import type { PracticeDto, PracticeRefDto } from './dto/practice.dto.js';
 import { Locality } from './models/locality.model.js';
 import { Practice } from './models/practice.model.js';
 import { Region } from './models/region.model.js';
+
+export const CLINICAL_CAUTION =
+  'Cairn supports clinical audit and quality improvement. It is not clinical advice and not a decision tool for individual care: follow local guidelines and use clinical judgement.';
+
+export interface RegionInfo {
+  id: number;
+  code: string;
+  name: string;
+}
+
+/** What other modules need to know of a practice. */
+export interface PracticeInfo extends PracticeDto {
+  regionId: number;
+  active: boolean;
+}
+
+const ref = (p: Practice): PracticeRefDto => ({ id: p.id, code: p.code, name: p.name });
+const info = (p: Practice): PracticeInfo => ({
+  ...ref(p),
+  localityName: p.locality?.name ?? null,
+  regionId: p.regionId,
+  active: p.active,
+});
 
 @Injectable()
 export class OrganisationsService {
@@ -13,15 +44,85 @@ export class OrganisationsService {
   ) {}
 
   /** The region this deployment serves (the first one; a national deployment will choose by user). */
-  async primaryRegion(): Promise<Region | null> {
-    return this.regions.findOne({ order: [['id', 'ASC']] });
+  async primaryRegion(transaction?: Transaction): Promise<RegionInfo | null> {
+    const region = await this.regions.findOne({ order: [['id', 'ASC']], transaction });
+    return region ? { id: region.id, code: region.code, name: region.name } : null;
   }
 
-  async practiceCount(regionId: number): Promise<number> {
-    return this.practices.count({ where: { regionId, active: true } });
+  async region(id: number): Promise<RegionInfo | null> {
+    const region = await this.regions.findByPk(id);
+    return region ? { id: region.id, code: region.code, name: region.name } : null;
   }
 
-  async localityCount(regionId: number): Promise<number> {
-    return this.localities.count({ where: { regionId } });
+  /** Public facts for the landing page: no personal or practice-level data. */
+  async about(): Promise<AboutDto> {
+    const region = await this.primaryRegion();
+    return {
+      product: 'Cairn',
+      version,
+      regionName: region?.name ?? null,
+      practices: region
+        ? await this.practices.count({ where: { regionId: region.id, active: true } })
+        : 0,
+      localities: region ? await this.localities.count({ where: { regionId: region.id } }) : 0,
+      clinicalCaution: CLINICAL_CAUTION,
+    };
+  }
+
+  async practice(id: number, transaction?: Transaction): Promise<PracticeInfo | null> {
+    if (!Number.isSafeInteger(id)) return null;
+    const practice = await this.practices.findByPk(id, { include: [Locality], transaction });
+    return practice ? info(practice) : null;
+  }
+
+  /** The practice's id and region only (access checks on every request; null when unknown). */
+  async practiceRegion(id: number): Promise<{ id: number; regionId: number } | null> {
+    if (!Number.isSafeInteger(id)) return null;
+    const practice = await this.practices.findByPk(id, { attributes: ['id', 'regionId'] });
+    return practice ? { id: practice.id, regionId: practice.regionId } : null;
+  }
+
+  /** These practices (any region), by code; unknown ids are left out. */
+  async practiceRefs(ids: readonly number[], transaction?: Transaction): Promise<PracticeRefDto[]> {
+    if (ids.length === 0) return [];
+    const rows = await this.practices.findAll({
+      where: { id: [...new Set(ids)] },
+      order: [['code', 'ASC']],
+      transaction,
+    });
+    return rows.map(ref);
+  }
+
+  /** A region's practices by code (only the active ones unless asked), with their localities. */
+  async regionPractices(
+    regionId: number,
+    options: { activeOnly?: boolean; ids?: readonly number[]; transaction?: Transaction } = {},
+  ): Promise<PracticeInfo[]> {
+    const rows = await this.practices.findAll({
+      where: {
+        regionId,
+        ...(options.activeOnly ? { active: true } : {}),
+        ...(options.ids ? { id: [...new Set(options.ids)] } : {}),
+      },
+      include: [Locality],
+      order: [['code', 'ASC']],
+      transaction: options.transaction,
+    });
+    return rows.map(info);
+  }
+
+  /** The practices of a region with these codes; unknown codes are left out. */
+  async practicesByCode(
+    regionId: number,
+    codes: readonly string[],
+    transaction?: Transaction,
+  ): Promise<PracticeRefDto[]> {
+    if (codes.length === 0) return [];
+    const rows = await this.practices.findAll({
+      where: { regionId, code: { [Op.in]: [...new Set(codes)] } },
+      order: [['code', 'ASC']],
+      transaction,
+    });
+    return rows.map(ref);
   }
 }

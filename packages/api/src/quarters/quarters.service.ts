@@ -10,24 +10,10 @@ import { formatQuarter, reviewWindow } from '@cairn/metrics';
 import { QueryTypes, type Transaction } from 'sequelize';
 import { Sequelize } from 'sequelize-typescript';
 import { AuditTrailService } from '../audit-trail/audit-trail.service.js';
-import type { AuthUser } from '../auth/index.js';
+import type { Actor } from '../auth/actor.js';
 import { ProblemException } from '../common/problem.js';
 import type { CairnConfig } from '../config/config.schema.js';
-
-export interface QuarterRow {
-  id: number;
-  regionId: number;
-  year: number;
-  quarter: 1 | 2 | 3 | 4;
-  label: string;
-  windowStart: string;
-  windowEnd: string;
-  measureSetId: string;
-  submissionDeadline: string;
-  status: 'open' | 'closed';
-  openedAt: string;
-  closedAt: string | null;
-}
+import type { QuarterDto, QuarterStatus } from './dto/quarter.dto.js';
 
 interface DbQuarter {
   id: number;
@@ -38,7 +24,7 @@ interface DbQuarter {
   window_end: string;
   measure_set_id: string;
   submission_deadline: string | Date;
-  status: 'open' | 'closed';
+  status: QuarterStatus;
   opened_at: Date;
   closed_at: Date | null;
 }
@@ -46,7 +32,7 @@ interface DbQuarter {
 const dateOnly = (value: string | Date) =>
   typeof value === 'string' ? value.slice(0, 10) : value.toISOString().slice(0, 10);
 
-export function toQuarter(row: DbQuarter): QuarterRow {
+function toQuarter(row: DbQuarter): QuarterDto {
   const quarter = row.quarter as 1 | 2 | 3 | 4;
   return {
     id: row.id,
@@ -82,7 +68,7 @@ export class QuartersService {
     @Inject(AuditTrailService) private readonly audit: AuditTrailService,
   ) {}
 
-  async list(regionId: number): Promise<QuarterRow[]> {
+  async list(regionId: number): Promise<QuarterDto[]> {
     const rows = await this.sequelize.query<DbQuarter>(
       `${SELECT} WHERE region_id = ? ORDER BY year DESC, quarter DESC`,
       { replacements: [regionId], type: QueryTypes.SELECT },
@@ -90,7 +76,7 @@ export class QuartersService {
     return rows.map(toQuarter);
   }
 
-  async find(id: number, transaction?: Transaction): Promise<QuarterRow | null> {
+  async find(id: number, transaction?: Transaction): Promise<QuarterDto | null> {
     const [row] = await this.sequelize.query<DbQuarter>(`${SELECT} WHERE id = ?`, {
       replacements: [id],
       type: QueryTypes.SELECT,
@@ -100,9 +86,9 @@ export class QuartersService {
   }
 
   /** The quarter, if it is in the caller's region; 404 otherwise. */
-  async get(user: Pick<AuthUser, 'regionId'>, id: number): Promise<QuarterRow> {
+  async get(actor: Pick<Actor, 'regionId'>, id: number): Promise<QuarterDto> {
     const quarter = Number.isSafeInteger(id) ? await this.find(id) : null;
-    if (!quarter || quarter.regionId !== user.regionId) {
+    if (!quarter || quarter.regionId !== actor.regionId) {
       throw new ProblemException(
         HttpStatus.NOT_FOUND,
         'quarter-not-found',
@@ -116,15 +102,15 @@ export class QuartersService {
 
   /** Opens a quarter (regional lead, or the demo seeding as "system"). */
   async open(
-    actor: { id: number | null; label: string; regionId: number },
+    actor: Actor,
     input: {
       year: number;
       quarter: number;
       submissionDeadline?: string;
       measureSetId?: string;
-      status?: 'open' | 'closed';
+      status?: QuarterStatus;
     },
-  ): Promise<QuarterRow> {
+  ): Promise<QuarterDto> {
     const { year, quarter } = input;
     const window = reviewWindow({ year, quarter: quarter as 1 | 2 | 3 | 4 });
     const settings = this.config.get('quarters', { infer: true });
@@ -184,11 +170,7 @@ export class QuartersService {
     });
   }
 
-  async setStatus(
-    actor: { id: number | null; label: string; regionId: number },
-    id: number,
-    status: 'open' | 'closed',
-  ): Promise<QuarterRow> {
+  async setStatus(actor: Actor, id: number, status: QuarterStatus): Promise<QuarterDto> {
     const quarter = await this.get(actor, id);
     if (quarter.status === status) return quarter;
     await this.sequelize.transaction(async (transaction) => {

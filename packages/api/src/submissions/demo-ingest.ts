@@ -9,17 +9,17 @@ import { createReadStream, existsSync, readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { Module } from '@nestjs/common';
 import { NestFactory } from '@nestjs/core';
-import { QueryTypes } from 'sequelize';
-import { Sequelize } from 'sequelize-typescript';
 import { AuditTrailModule } from '../audit-trail/audit-trail.module.js';
+import { systemActor } from '../auth/actor.js';
 import type { CairnConfig, CairnSecrets } from '../config/config.schema.js';
 import { CairnConfigModule } from '../config/config.module.js';
 import { DatabaseModule } from '../database/database.module.js';
+import { OrganisationsService } from '../organisations/organisations.service.js';
 import { QuartersModule } from '../quarters/quarters.module.js';
 import { QuartersService } from '../quarters/quarters.service.js';
 import { IntakeService } from './intake.service.js';
 import { JobRunner } from './job-runner.service.js';
-import { findSubmission } from './submission-store.js';
+import { SubmissionRepository } from './submission.repository.js';
 import { SubmissionsModule } from './submissions.module.js';
 import { SubmissionsService } from './submissions.service.js';
 
@@ -68,33 +68,18 @@ export async function ingestDemoExtracts(
     logger: ['error', 'warn'],
   });
   try {
-    const sequelize = app.get(Sequelize);
+    const organisations = app.get(OrganisationsService);
+    const repository = app.get(SubmissionRepository);
     const quarters = app.get(QuartersService);
     const intake = app.get(IntakeService);
     const runner = app.get(JobRunner);
     const submissions = app.get(SubmissionsService);
-    const [region] = await sequelize.query<{ id: number }>(
-      'SELECT id FROM regions ORDER BY id LIMIT 1',
-      { type: QueryTypes.SELECT },
-    );
+    const region = await organisations.primaryRegion();
     if (!region) throw new Error('no region to load the demo extracts into');
     const practices = new Map(
-      (
-        await sequelize.query<{ id: number; code: string }>(
-          'SELECT id, code FROM practices WHERE region_id = ?',
-          {
-            replacements: [region.id],
-            type: QueryTypes.SELECT,
-          },
-        )
-      ).map((p) => [p.code, p.id]),
+      (await organisations.regionPractices(region.id)).map((p) => [p.code, p.id]),
     );
-    const system = {
-      id: null,
-      label: 'demo seeding',
-      role: 'system' as const,
-      regionId: region.id,
-    };
+    const system = systemActor('demo seeding', region.id);
     const quarterIds = new Map<string, number>();
     for (const label of manifest.quarters) {
       const [year, q] = label.split(' Q').map(Number) as [number, number];
@@ -127,7 +112,7 @@ export async function ingestDemoExtracts(
       }
       await runner.waitFor(ids.map((i) => i.id));
       for (const { id, practiceId } of ids) {
-        const row = await findSubmission(sequelize, id);
+        const row = await repository.find(id);
         if (row?.status !== 'awaiting_confirmation') {
           throw new Error(
             `demo extract ${row?.file_name} for ${label} ended ${row?.status}: ${row?.refusal_message ?? row?.failure_message ?? ''}`,

@@ -12,11 +12,11 @@ import { createHmac } from 'node:crypto';
 import { Inject, Injectable, Logger } from '@nestjs/common';
 import { ConfigService } from '@nestjs/config';
 import { monthIndex, pseudonymMessage, PSEUDONYM_LENGTH } from '@cairn/metrics';
-import { QueryTypes } from 'sequelize';
 import { Sequelize } from 'sequelize-typescript';
 import { AuditTrailService } from '../audit-trail/audit-trail.service.js';
 import type { CairnConfig, CairnSecrets } from '../config/config.schema.js';
 import { CAIRN_SECRETS } from '../config/config.module.js';
+import { OrganisationsService } from '../organisations/organisations.service.js';
 import {
   acquireRaw,
   releaseRaw,
@@ -30,13 +30,8 @@ import {
   processExtract,
   type RejectedRow,
 } from './pipeline/process-extract.js';
-import {
-  deleteFile,
-  execute,
-  findSubmission,
-  purgeSubmission,
-  readFile,
-} from './submission-store.js';
+import { type CheckedFields, SubmissionRepository } from './submission.repository.js';
+import { SubmissionLoader } from './submission-view.js';
 
 export class LeaseLostError extends Error {
   constructor() {
@@ -60,11 +55,6 @@ export function pseudonymiser(secret: string): (practiceCode: string, recordRef:
       .slice(0, PSEUDONYM_LENGTH);
 }
 
-const ISSUE_SQL =
-  'INSERT INTO submission_issues (submission_id, seq, severity, code, source_row, column_key, column_name, value_given, message, fix) VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?)';
-const REJECTED_SQL =
-  'INSERT INTO submission_rejected_rows (submission_id, source_row, cells) VALUES (?, ?, ?)';
-
 /** Test-only fault injection: pause inside a step so that a test can kill the process there. */
 export async function faultPause(step: 'processing' | 'confirm'): Promise<void> {
   if (process.env.CAIRN_PROFILE !== 'test') return;
@@ -78,6 +68,9 @@ export class ExtractProcessor {
 
   constructor(
     @Inject(Sequelize) private readonly sequelize: Sequelize,
+    @Inject(SubmissionRepository) private readonly submissions: SubmissionRepository,
+    @Inject(SubmissionLoader) private readonly loader: SubmissionLoader,
+    @Inject(OrganisationsService) private readonly organisations: OrganisationsService,
     @Inject(ConfigService) private readonly config: ConfigService<CairnConfig, true>,
     @Inject(CAIRN_SECRETS) secrets: CairnSecrets,
     @Inject(AuditTrailService) private readonly audit: AuditTrailService,
@@ -93,33 +86,23 @@ export class ExtractProcessor {
     leaseOwner: string,
     shouldStop: () => boolean = () => false,
   ): Promise<void> {
-    const submission = await findSubmission(this.sequelize, id);
-    if (!submission) return;
+    const loaded = await this.loader.load(id);
+    if (!loaded) return;
+    const { record: submission, practice, quarter } = loaded;
     const extracts = this.config.get('extracts', { infer: true });
     const leaseSeconds = extracts.leaseSeconds;
     // A retry starts clean: nothing of an earlier attempt may remain.
-    await this.sequelize.query('DELETE FROM submission_issues WHERE submission_id = ?', {
-      replacements: [id],
-      type: QueryTypes.DELETE,
-    });
-    await this.sequelize.query('DELETE FROM submission_rejected_rows WHERE submission_id = ?', {
-      replacements: [id],
-      type: QueryTypes.DELETE,
-    });
-    await this.sequelize.query('DELETE FROM care_records WHERE submission_id = ?', {
-      replacements: [id],
-      type: QueryTypes.DELETE,
-    });
+    await this.submissions.clearAttempt(id);
 
     // Usually this process received the upload a moment ago and still holds its bytes.
-    const bytes = this.handoff.take(id) ?? (await readFile(this.sequelize, id));
+    const bytes = this.handoff.take(id) ?? (await this.submissions.readFile(id));
     const now = new Date();
     const context = {
-      practiceCode: submission.practice_code,
-      windowStartIndex: monthIndex(submission.window_start),
-      windowEndIndex: monthIndex(submission.window_end),
-      windowEnd: submission.window_end,
-      endYear: Number(submission.window_end.slice(0, 4)),
+      practiceCode: practice.code,
+      windowStartIndex: monthIndex(quarter.windowStart),
+      windowEndIndex: monthIndex(quarter.windowEnd),
+      windowEnd: quarter.windowEnd,
+      endYear: Number(quarter.windowEnd.slice(0, 4)),
       currentMonthIndex: now.getUTCFullYear() * 12 + now.getUTCMonth(),
       dateConvention: submission.date_convention,
       date1904: false,
@@ -142,10 +125,11 @@ export class ExtractProcessor {
       const previous = lastUpdate;
       lastUpdate = null;
       if (previous && (await previous).affectedRows === 0) throw new LeaseLostError();
-      const update = aux.query<{ affectedRows: number }>(
-        `UPDATE submissions SET rows_done = ?, rows_total = ?, lease_expires_at = NOW(3) + INTERVAL ? SECOND
-          WHERE id = ? AND status = 'processing' AND lease_owner = ?`,
-        [rowsDone, rowsTotal, leaseSeconds, id, leaseOwner],
+      const update = this.submissions.renewLease(
+        aux,
+        { id, owner: leaseOwner, leaseSeconds },
+        rowsDone,
+        rowsTotal,
       );
       if (force) {
         if ((await update).affectedRows === 0) throw new LeaseLostError();
@@ -171,34 +155,17 @@ export class ExtractProcessor {
         {
           records: async (rows) => {
             loader ??= await RecordLoader.open(this.sequelize, {
-              practiceCode: submission.practice_code,
+              practiceCode: practice.code,
               secret: this.secret,
             });
             await loader.write(rows);
           },
           issues: async (issues: Issue[]) => {
-            await aux.batch(
-              ISSUE_SQL,
-              issues.map((i) => [
-                id,
-                ++seq,
-                i.severity,
-                i.code,
-                i.row,
-                i.key,
-                i.column,
-                i.value,
-                i.message,
-                i.fix,
-              ]),
-            );
+            const first = seq + 1;
+            seq += issues.length;
+            await this.submissions.writeIssues(aux, id, first, issues);
           },
-          rejectedRows: async (rows: RejectedRow[]) => {
-            await aux.batch(
-              REJECTED_SQL,
-              rows.map((r) => [id, r.row, JSON.stringify(r.cells)]),
-            );
-          },
+          rejectedRows: (rows: RejectedRow[]) => this.submissions.writeRejectedRows(aux, id, rows),
           progress: (done, total) => heartbeat(done, total),
           checkpoint: () => faultPause('processing'),
         },
@@ -211,7 +178,7 @@ export class ExtractProcessor {
       await (loader as RecordLoader | null)?.abort();
       await releaseRaw(this.sequelize, aux);
       if (error instanceof LeaseLostError) {
-        await purgeSubmission(this.sequelize, id);
+        await this.submissions.purge(id);
         return;
       }
       if (error instanceof ShuttingDownError) {
@@ -226,22 +193,9 @@ export class ExtractProcessor {
       loader = null;
       await releaseRaw(this.sequelize, aux);
       if (outcome.refusal)
-        await this.finishRejected(
-          id,
-          leaseOwner,
-          submission.practice_id,
-          submission.region_id,
-          outcome,
-        );
+        await this.finishRejected(id, leaseOwner, practice.id, practice.regionId, outcome);
       else
-        await this.finishValidated(
-          id,
-          leaseOwner,
-          submission.practice_id,
-          submission.region_id,
-          outcome,
-          staged,
-        );
+        await this.finishValidated(id, leaseOwner, practice.id, practice.regionId, outcome, staged);
     } catch (error) {
       await (loader as RecordLoader | null)?.abort();
       await this.fail(id, leaseOwner, error as Error);
@@ -262,9 +216,16 @@ export class ExtractProcessor {
     });
   }
 
-  private countParams(outcome: ExtractOutcome) {
+  private checked(outcome: ExtractOutcome, keepCounts: boolean): CheckedFields {
     const c = outcome.counts;
-    return [c.rowsRead, c.rowsAccepted, c.rowsRejected, c.rowsBlank, c.errors, c.warnings, c.flags];
+    return {
+      kind: outcome.kind,
+      sheetName: outcome.sheetName,
+      counts: keepCounts
+        ? [c.rowsRead, c.rowsAccepted, c.rowsRejected, c.rowsBlank, c.errors, c.warnings, c.flags]
+        : [c.rowsRead, 0, null, null, null, null, null],
+      summary: this.summaryOf(outcome),
+    };
   }
 
   private async finishValidated(
@@ -275,28 +236,14 @@ export class ExtractProcessor {
     outcome: ExtractOutcome,
     staged: number,
   ): Promise<void> {
-    const won = await this.sequelize.transaction(async (transaction) => {
-      const changed = await execute(
-        this.sequelize,
-        `UPDATE submissions SET status = 'awaiting_confirmation', processed_at = NOW(3),
-           file_kind = ?, sheet_name = ?, rows_read = ?, rows_accepted = ?, rows_rejected = ?, rows_blank = ?,
-           error_count = ?, warning_count = ?, flag_count = ?, rows_done = ?, rows_total = ?, summary = ?,
-           lease_owner = NULL, lease_expires_at = NULL
-         WHERE id = ? AND status = 'processing' AND lease_owner = ?`,
-        [
-          outcome.kind,
-          outcome.sheetName,
-          ...this.countParams(outcome),
-          outcome.counts.rowsRead,
-          outcome.counts.rowsRead,
-          this.summaryOf(outcome),
-          id,
-          leaseOwner,
-        ],
+    const won = await this.submissions.transaction(async (transaction) => {
+      const changed = await this.submissions.finishValidated(
+        id,
+        leaseOwner,
+        { ...this.checked(outcome, true), rowsRead: outcome.counts.rowsRead },
         transaction,
       );
-      if (changed === 0) return false;
-      await deleteFile(this.sequelize, id, transaction);
+      if (!changed) return false;
       const c = outcome.counts;
       await this.audit.append(
         {
@@ -313,7 +260,7 @@ export class ExtractProcessor {
       );
       return true;
     });
-    if (!won) await purgeSubmission(this.sequelize, id);
+    if (!won) await this.submissions.purge(id);
   }
 
   private async finishRejected(
@@ -325,42 +272,15 @@ export class ExtractProcessor {
   ): Promise<void> {
     const refusal = outcome.refusal!;
     const keepRows = refusal.code === 'no_valid_rows';
-    await this.sequelize.transaction(async (transaction) => {
-      const changed = await execute(
-        this.sequelize,
-        `UPDATE submissions SET status = 'rejected', processed_at = NOW(3), file_kind = ?, sheet_name = ?,
-           rows_read = ?, rows_accepted = ?, rows_rejected = ?, rows_blank = ?, error_count = ?, warning_count = ?, flag_count = ?,
-           refusal_code = ?, refusal_message = ?, refusal_fix = ?, summary = ?, lease_owner = NULL, lease_expires_at = NULL
-         WHERE id = ? AND status = 'processing' AND lease_owner = ?`,
-        [
-          outcome.kind,
-          outcome.sheetName,
-          ...(keepRows
-            ? this.countParams(outcome)
-            : [outcome.counts.rowsRead, 0, null, null, null, null, null]),
-          refusal.code,
-          refusal.message,
-          refusal.fix,
-          this.summaryOf(outcome),
-          id,
-          leaseOwner,
-        ],
+    await this.submissions.transaction(async (transaction) => {
+      const changed = await this.submissions.finishRejected(
+        id,
+        leaseOwner,
+        { ...this.checked(outcome, keepRows), refusal },
+        keepRows,
         transaction,
       );
-      if (changed === 0) return;
-      if (!keepRows) {
-        await this.sequelize.query('DELETE FROM submission_issues WHERE submission_id = ?', {
-          replacements: [id],
-          type: QueryTypes.DELETE,
-          transaction,
-        });
-        await this.sequelize.query('DELETE FROM submission_rejected_rows WHERE submission_id = ?', {
-          replacements: [id],
-          type: QueryTypes.DELETE,
-          transaction,
-        });
-      }
-      await deleteFile(this.sequelize, id, transaction);
+      if (!changed) return;
       await this.audit.append(
         {
           action: 'submission.rejected',
@@ -376,51 +296,34 @@ export class ExtractProcessor {
         transaction,
       );
     });
-    await purgeSubmission(this.sequelize, id);
+    await this.submissions.purge(id);
   }
 
   /** Hands a job back to the queue (this process is stopping). */
   private async requeue(id: number, leaseOwner: string): Promise<void> {
-    await this.sequelize.query('DELETE FROM submission_issues WHERE submission_id = ?', {
-      replacements: [id],
-      type: QueryTypes.DELETE,
-    });
-    await this.sequelize.query('DELETE FROM submission_rejected_rows WHERE submission_id = ?', {
-      replacements: [id],
-      type: QueryTypes.DELETE,
-    });
-    await execute(
-      this.sequelize,
-      `UPDATE submissions SET lease_owner = NULL, lease_expires_at = NULL, rows_done = 0, attempts = GREATEST(attempts - 1, 0)
-        WHERE id = ? AND status = 'processing' AND lease_owner = ?`,
-      [id, leaseOwner],
-    );
+    await this.submissions.requeue(id, leaseOwner);
   }
 
   /** An unexpected error: the job fails, the file is kept for a retry, staged rows go. */
   private async fail(id: number, leaseOwner: string, error: Error): Promise<void> {
     this.logger.error({ err: error, submissionId: id }, `extract ${id} failed: ${error.message}`);
-    const submission = await findSubmission(this.sequelize, id);
-    await this.sequelize.transaction(async (transaction) => {
-      const changed = await execute(
-        this.sequelize,
-        `UPDATE submissions SET status = 'failed', failed_at = NOW(3), failure_message = ?, lease_owner = NULL, lease_expires_at = NULL
-          WHERE id = ? AND status = 'processing' AND lease_owner = ?`,
-        [
-          'Cairn stopped while checking this file because of a problem on its side. Nothing from it was kept. Retry, and tell the Cairn team if it happens again.',
-          id,
-          leaseOwner,
-        ],
+    const submission = await this.submissions.find(id);
+    const practice = submission ? await this.organisations.practice(submission.practice_id) : null;
+    await this.submissions.transaction(async (transaction) => {
+      const changed = await this.submissions.markFailed(
+        id,
+        leaseOwner,
+        'Cairn stopped while checking this file because of a problem on its side. Nothing from it was kept. Retry, and tell the Cairn team if it happens again.',
         transaction,
       );
-      if (changed === 0 || !submission) return;
+      if (!changed || !submission) return;
       await this.audit.append(
         {
           action: 'submission.failed',
           outcome: 'failed',
           summary: 'Checking the extract stopped on an unexpected error; it can be retried',
           actor: { id: null, label: 'system' },
-          regionId: submission.region_id,
+          regionId: practice?.regionId ?? null,
           practiceId: submission.practice_id,
           subjectType: 'submission',
           subjectId: id,
@@ -429,6 +332,6 @@ export class ExtractProcessor {
         transaction,
       );
     });
-    await purgeSubmission(this.sequelize, id);
+    await this.submissions.purge(id);
   }
 }

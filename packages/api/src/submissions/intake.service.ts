@@ -16,27 +16,18 @@ import { HttpStatus, Inject, Injectable } from '@nestjs/common';
 import { ConfigService } from '@nestjs/config';
 import busboy from 'busboy';
 import type { Request } from 'express';
-import { QueryTypes } from 'sequelize';
-import { Sequelize } from 'sequelize-typescript';
 import { AuditTrailService } from '../audit-trail/audit-trail.service.js';
-import type { AuthUser } from '../auth/index.js';
+import type { Actor } from '../auth/actor.js';
 import { ProblemException } from '../common/problem.js';
 import type { CairnConfig } from '../config/config.schema.js';
-import type { QuarterRow } from '../quarters/quarters.service.js';
+import { OrganisationsService, type PracticeInfo } from '../organisations/organisations.service.js';
+import type { QuarterDto } from '../quarters/dto/quarter.dto.js';
 import { QuartersService } from '../quarters/quarters.service.js';
+import type { DateConvention } from './dto/submission.dto.js';
 import { JobRunner, UPLOAD_LEASE_PREFIX } from './job-runner.service.js';
-import { withRaw } from '../database/bulk-load/raw-connection.js';
-import { deleteFile, execute, findSubmission, type SubmissionStatus } from './submission-store.js';
+import { assertMay } from './submission-policy.js';
+import { FILE_CHUNK_BYTES, SubmissionRepository } from './submission.repository.js';
 import { type HandoffCollector, UploadHandoff } from './upload-handoff.js';
-
-const CHUNK_BYTES = 1 << 20;
-
-export interface UploadActor {
-  id: number | null;
-  label: string;
-  role: AuthUser['role'] | 'system';
-  regionId: number;
-}
 
 export interface ExtractUpload {
   fileName: string;
@@ -62,7 +53,8 @@ const fmtMb = (bytes: number) =>
 @Injectable()
 export class IntakeService {
   constructor(
-    @Inject(Sequelize) private readonly sequelize: Sequelize,
+    @Inject(SubmissionRepository) private readonly submissions: SubmissionRepository,
+    @Inject(OrganisationsService) private readonly organisations: OrganisationsService,
     @Inject(ConfigService) private readonly config: ConfigService<CairnConfig, true>,
     @Inject(AuditTrailService) private readonly audit: AuditTrailService,
     @Inject(QuartersService) private readonly quarters: QuartersService,
@@ -70,14 +62,15 @@ export class IntakeService {
     @Inject(UploadHandoff) private readonly handoff: UploadHandoff,
   ) {}
 
-  /** The quarter, checked: in the practice's region, and open (regional leads may also send to a closed one). */
-  async quarterFor(actor: UploadActor, practiceId: number, quarterId: number): Promise<QuarterRow> {
-    const [practice] = await this.sequelize.query<{ region_id: number }>(
-      'SELECT region_id FROM practices WHERE id = ?',
-      { replacements: [practiceId], type: QueryTypes.SELECT },
-    );
+  /** The practice and quarter, checked: the quarter is the practice's region's, and the actor may upload to it. */
+  async destination(
+    actor: Actor,
+    practiceId: number,
+    quarterId: number,
+  ): Promise<{ practice: PracticeInfo; quarter: QuarterDto }> {
+    const practice = await this.organisations.practice(practiceId);
     const quarter = await this.quarters.find(quarterId);
-    if (!practice || !quarter || quarter.regionId !== practice.region_id) {
+    if (!practice || !quarter || quarter.regionId !== practice.regionId) {
       throw new ProblemException(
         HttpStatus.NOT_FOUND,
         'quarter-not-found',
@@ -86,27 +79,24 @@ export class IntakeService {
         { quarterId },
       );
     }
-    if (quarter.status === 'closed' && actor.role !== 'regional_lead' && actor.role !== 'system') {
-      throw new ProblemException(
-        HttpStatus.CONFLICT,
-        'quarter-closed',
-        'This audit quarter is closed',
-        `${quarter.label} is closed to uploads (its deadline was ${quarter.submissionDeadline}). Ask your regional lead if a late extract should still be accepted.`,
-        { quarterId },
-      );
-    }
-    return quarter;
+    assertMay(
+      actor,
+      'upload',
+      { practiceId, practiceRegionId: practice.regionId, quarterStatus: quarter.status },
+      quarter,
+    );
+    return { practice, quarter };
   }
 
   /** Reads a multipart request with one file part into an ExtractUpload, then stores it. */
   async receiveRequest(
     req: Request,
-    actor: UploadActor,
+    actor: Actor,
     practiceId: number,
     quarterId: number,
-    dateConvention: 'day_first' | 'month_first' | null,
+    dateConvention: DateConvention | null,
   ): Promise<number> {
-    await this.quarterFor(actor, practiceId, quarterId);
+    await this.destination(actor, practiceId, quarterId);
     const type = req.headers['content-type'] ?? '';
     if (!/^multipart\/form-data/i.test(type)) {
       throw new ProblemException(
@@ -168,10 +158,10 @@ export class IntakeService {
    * the submission id. Used by the upload route and by the demo seeding.
    */
   async store(
-    actor: UploadActor,
+    actor: Actor,
     practiceId: number,
     quarterId: number,
-    dateConvention: 'day_first' | 'month_first' | null,
+    dateConvention: DateConvention | null,
     upload: ExtractUpload,
   ): Promise<number> {
     // What is written, in order, for this process's job runner to check without reading it back.
@@ -187,33 +177,24 @@ export class IntakeService {
   }
 
   private async storeParts(
-    actor: UploadActor,
+    actor: Actor,
     practiceId: number,
     quarterId: number,
-    dateConvention: 'day_first' | 'month_first' | null,
+    dateConvention: DateConvention | null,
     upload: ExtractUpload,
     kept: HandoffCollector,
   ): Promise<number> {
     const maxBytes = this.config.get('extracts', { infer: true }).maxBytes;
     const fileName = cleanFileName(upload.fileName);
-    const [insertId] = await this.sequelize.query(
-      `INSERT INTO submissions (practice_id, quarter_id, status, file_name, file_size_bytes, date_convention,
-         uploaded_by_user_id, uploaded_by_label, uploaded_at, lease_owner, lease_expires_at)
-       VALUES (?, ?, 'processing', ?, 0, ?, ?, ?, NOW(3), ?, NOW(3) + INTERVAL 10 MINUTE)`,
-      {
-        replacements: [
-          practiceId,
-          quarterId,
-          fileName,
-          dateConvention,
-          actor.id,
-          actor.label,
-          `${UPLOAD_LEASE_PREFIX}${this.runner.processId}`,
-        ],
-        type: QueryTypes.INSERT,
-      },
-    );
-    const id = Number(insertId);
+    const { practice, quarter } = await this.destination(actor, practiceId, quarterId);
+    const id = await this.submissions.createUpload({
+      practiceId,
+      quarterId,
+      fileName,
+      dateConvention,
+      uploadedBy: actor,
+      leaseOwner: `${UPLOAD_LEASE_PREFIX}${this.runner.processId}`,
+    });
     const hash = createHash('sha256');
     let size = 0;
     let seq = 0;
@@ -225,17 +206,7 @@ export class IntakeService {
       pending = [];
       pendingBytes = 0;
       kept.add(data);
-      // The connector's batch sends a Buffer as it is (binary protocol); a replacement would
-      // write it into the SQL text as X'hex', a string twice its size. One chunk per statement
-      // keeps every packet far below MariaDB's max_allowed_packet.
-      await withRaw(this.sequelize, async (connection) => {
-        for (let at = 0; at < data.length; at += CHUNK_BYTES) {
-          await connection.batch(
-            'INSERT INTO extract_file_chunks (submission_id, seq, data) VALUES (?, ?, ?)',
-            [[id, seq++, data.subarray(at, at + CHUNK_BYTES)]],
-          );
-        }
-      });
+      seq = await this.submissions.appendFile(id, seq, data);
     };
     try {
       for await (const chunk of upload.chunks) {
@@ -244,41 +215,22 @@ export class IntakeService {
         hash.update(chunk);
         pending.push(chunk);
         pendingBytes += chunk.length;
-        if (pendingBytes >= CHUNK_BYTES) await flush();
+        if (pendingBytes >= FILE_CHUNK_BYTES) await flush();
       }
       if (upload.truncated()) size = Math.max(size, maxBytes + 1);
       if (size <= maxBytes) await flush();
     } catch (error) {
-      await this.sequelize.query('DELETE FROM submissions WHERE id = ?', {
-        replacements: [id],
-        type: QueryTypes.DELETE,
-      });
+      await this.submissions.deleteUnfinishedUpload(id);
       throw error;
     }
-    const [practice] = await this.sequelize.query<{ region_id: number }>(
-      'SELECT region_id FROM practices WHERE id = ?',
-      {
-        replacements: [practiceId],
-        type: QueryTypes.SELECT,
-      },
-    );
-    const regionId = practice?.region_id ?? actor.regionId;
+    const regionId = practice.regionId;
 
     if (size > maxBytes) {
       const message = `The file is larger than ${fmtMb(maxBytes)}, the most Cairn accepts for one extract${upload.truncated() ? '' : ` (it is ${fmtMb(size)})`}.`;
       const fix =
         'Check that it holds only the extract (one sheet, no pictures); save it as CSV UTF-8, which is much smaller; or ask your regional lead about the limit.';
-      await this.sequelize.transaction(async (transaction) => {
-        await execute(
-          this.sequelize,
-          `UPDATE submissions SET status = 'rejected', processed_at = NOW(3), file_size_bytes = ?, refusal_code = 'file_too_large',
-             refusal_message = ?, refusal_fix = ?, lease_owner = NULL, lease_expires_at = NULL, records_purged_at = NOW(3),
-             summary = JSON_OBJECT('refusalDetail', JSON_OBJECT('maxBytes', ?))
-           WHERE id = ?`,
-          [size, message, fix, maxBytes, id],
-          transaction,
-        );
-        await deleteFile(this.sequelize, id, transaction);
+      await this.submissions.transaction(async (transaction) => {
+        await this.submissions.rejectTooLarge(id, { size, message, fix, maxBytes }, transaction);
         await this.audit.append(
           {
             action: 'submission.rejected',
@@ -310,34 +262,18 @@ export class IntakeService {
 
     const sha256 = hash.digest('hex');
     // The identical-file check and the recording of this file's hash are one transaction that
-    // holds the practice's row: two uploads of the same file at the same moment are decided one
-    // after the other, so the second sees the first (a check, then a separate write, let both in).
-    const identical = await this.sequelize.transaction(async (transaction) => {
-      await this.sequelize.query('SELECT id FROM practices WHERE id = ? FOR UPDATE', {
-        replacements: [practiceId],
-        type: QueryTypes.SELECT,
+    // holds the practice-quarter's row: two uploads of the same file at the same moment are
+    // decided one after the other, so the second sees the first (a check, then a separate write,
+    // let both in).
+    await this.submissions.ensurePracticeQuarter(practiceId, quarterId);
+    const identical = await this.submissions.transaction(async (transaction) => {
+      await this.submissions.lockPracticeQuarter(practiceId, quarterId, transaction);
+      const found = await this.submissions.findIdentical(
+        { id, practiceId, quarterId, sha256 },
         transaction,
-      });
-      const [found] = await this.sequelize.query<{
-        id: number;
-        status: SubmissionStatus;
-        uploaded_at: Date;
-        uploaded_by_label: string;
-        refusal_message: string | null;
-      }>(
-        `SELECT id, status, uploaded_at, uploaded_by_label, refusal_message FROM submissions
-          WHERE practice_id = ? AND quarter_id = ? AND file_sha256 = ? AND id <> ?
-            AND status IN ('processing', 'awaiting_confirmation', 'accepted', 'rejected')
-          ORDER BY id DESC LIMIT 1 LOCK IN SHARE MODE`,
-        { replacements: [practiceId, quarterId, sha256, id], type: QueryTypes.SELECT, transaction },
       );
       if (found) return found;
-      await execute(
-        this.sequelize,
-        `UPDATE submissions SET file_sha256 = ?, file_size_bytes = ?, lease_owner = NULL, lease_expires_at = NULL WHERE id = ?`,
-        [sha256, size, id],
-        transaction,
-      );
+      await this.submissions.queueStored(id, sha256, size, transaction);
       await this.audit.append(
         {
           action: 'submission.uploaded',
@@ -354,13 +290,9 @@ export class IntakeService {
       return null;
     });
     if (identical) {
-      await this.sequelize.query('DELETE FROM submissions WHERE id = ?', {
-        replacements: [id],
-        type: QueryTypes.DELETE,
-      });
-      const earlier = await findSubmission(this.sequelize, identical.id);
+      await this.submissions.deleteUnfinishedUpload(id);
       const when = new Date(identical.uploaded_at).toISOString().slice(0, 16).replace('T', ' ');
-      const quarterLabel = earlier ? `${earlier.year} Q${earlier.quarter}` : 'this quarter';
+      const quarterLabel = quarter.label;
       const state: Record<string, string> = {
         accepted: `which is already the current submission for ${quarterLabel}. Nothing was changed`,
         awaiting_confirmation: 'which is waiting for confirmation. Open it to confirm or cancel it',

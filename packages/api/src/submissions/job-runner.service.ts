@@ -19,12 +19,11 @@ import {
   type OnApplicationShutdown,
 } from '@nestjs/common';
 import { ConfigService } from '@nestjs/config';
-import { QueryTypes } from 'sequelize';
-import { Sequelize } from 'sequelize-typescript';
 import { AuditTrailService } from '../audit-trail/audit-trail.service.js';
 import type { CairnConfig } from '../config/config.schema.js';
+import { OrganisationsService } from '../organisations/organisations.service.js';
 import { ExtractProcessor } from './extract-processor.js';
-import { deleteFile, execute, purgeSubmission } from './submission-store.js';
+import { SubmissionRepository } from './submission.repository.js';
 
 export const UPLOAD_LEASE_PREFIX = 'upload:';
 
@@ -42,7 +41,8 @@ export class JobRunner implements OnApplicationBootstrap, OnApplicationShutdown 
   private lastSweep = 0;
 
   constructor(
-    @Inject(Sequelize) private readonly sequelize: Sequelize,
+    @Inject(SubmissionRepository) private readonly submissions: SubmissionRepository,
+    @Inject(OrganisationsService) private readonly organisations: OrganisationsService,
     @Inject(ConfigService) private readonly config: ConfigService<CairnConfig, true>,
     @Inject(ExtractProcessor) private readonly processor: ExtractProcessor,
     @Inject(AuditTrailService) private readonly audit: AuditTrailService,
@@ -124,53 +124,23 @@ export class JobRunner implements OnApplicationBootstrap, OnApplicationShutdown 
   }
 
   /** Claims the oldest queued extract, if any, for this process. */
-  async claim(): Promise<number | null> {
-    return this.sequelize.transaction(async (transaction) => {
-      const [row] = await this.sequelize.query<{ id: number }>(
-        `SELECT id FROM submissions WHERE status = 'processing' AND lease_owner IS NULL
-          ORDER BY id LIMIT 1 FOR UPDATE SKIP LOCKED`,
-        { type: QueryTypes.SELECT, transaction },
-      );
-      if (!row) return null;
-      await execute(
-        this.sequelize,
-        `UPDATE submissions SET lease_owner = ?, lease_expires_at = NOW(3) + INTERVAL ? SECOND,
-           attempts = attempts + 1, processing_started_at = NOW(3), rows_done = 0, rows_total = NULL
-         WHERE id = ?`,
-        [this.processId, this.settings.leaseSeconds, row.id],
-        transaction,
-      );
-      return row.id;
-    });
+  claim(): Promise<number | null> {
+    return this.submissions.claimNext(this.processId, this.settings.leaseSeconds);
   }
 
   /** Declares jobs whose lease ran out failed, removes what they staged, and tidies old files. */
   async sweep(): Promise<void> {
-    const expired = await this.sequelize.query<{
-      id: number;
-      lease_owner: string;
-      practice_id: number;
-      region_id: number;
-    }>(
-      `SELECT s.id, s.lease_owner, s.practice_id, p.region_id FROM submissions s JOIN practices p ON p.id = s.practice_id
-        WHERE s.status = 'processing' AND s.lease_owner IS NOT NULL AND s.lease_expires_at < NOW(3) LIMIT 20`,
-      { type: QueryTypes.SELECT },
-    );
+    const expired = await this.submissions.expiredLeases(20);
     for (const job of expired) {
+      const practice = await this.organisations.practice(job.practice_id);
       const interruptedUpload = job.lease_owner.startsWith(UPLOAD_LEASE_PREFIX);
       const message = interruptedUpload
         ? 'The upload was interrupted before the whole file arrived, so Cairn did not check it. Nothing from it was kept. Upload the file again.'
         : 'Cairn stopped while checking this file (the server processing it stopped). Nothing from it was kept. Retry to check it again.';
-      await this.sequelize.transaction(async (transaction) => {
-        const changed = await execute(
-          this.sequelize,
-          `UPDATE submissions SET status = 'failed', failed_at = NOW(3), failure_message = ?, lease_owner = NULL, lease_expires_at = NULL
-            WHERE id = ? AND status = 'processing' AND lease_owner = ? AND lease_expires_at < NOW(3)`,
-          [message, job.id, job.lease_owner],
-          transaction,
-        );
-        if (changed === 0) return;
-        if (interruptedUpload) await deleteFile(this.sequelize, job.id, transaction);
+      await this.submissions.transaction(async (transaction) => {
+        if (!(await this.submissions.failExpired(job.id, job.lease_owner, message, transaction)))
+          return;
+        if (interruptedUpload) await this.submissions.deleteFile(job.id, transaction);
         await this.audit.append(
           {
             action: 'submission.failed',
@@ -179,7 +149,7 @@ export class JobRunner implements OnApplicationBootstrap, OnApplicationShutdown 
               ? 'Upload interrupted before the file was complete'
               : 'Checking the extract stopped when its server stopped; it can be retried',
             actor: { id: null, label: 'system' },
-            regionId: job.region_id,
+            regionId: practice?.regionId ?? null,
             practiceId: job.practice_id,
             subjectType: 'submission',
             subjectId: job.id,
@@ -193,17 +163,10 @@ export class JobRunner implements OnApplicationBootstrap, OnApplicationShutdown 
         'extract lease expired: marked failed',
       );
     }
-    const leftovers = await this.sequelize.query<{ id: number }>(
-      `SELECT id FROM submissions WHERE status IN ('rejected', 'cancelled', 'failed') AND records_purged_at IS NULL LIMIT 10`,
-      { type: QueryTypes.SELECT },
-    );
-    for (const { id } of leftovers) await purgeSubmission(this.sequelize, id);
+    for (const id of await this.submissions.unpurged(10)) await this.submissions.purge(id);
     // Files of failed jobs are kept for a retry, but not for ever.
-    const stale = await this.sequelize.query<{ id: number }>(
-      `SELECT id FROM submissions WHERE status = 'failed' AND file_deleted_at IS NULL AND failed_at < NOW(3) - INTERVAL 7 DAY LIMIT 10`,
-      { type: QueryTypes.SELECT },
-    );
-    for (const { id } of stale) await deleteFile(this.sequelize, id);
+    for (const id of await this.submissions.staleFailedFiles(10))
+      await this.submissions.deleteFile(id);
   }
 
   /**
@@ -214,11 +177,7 @@ export class JobRunner implements OnApplicationBootstrap, OnApplicationShutdown 
   async waitFor(ids: number[], timeoutMs = 300_000): Promise<void> {
     const deadline = Date.now() + timeoutMs;
     for (;;) {
-      const [row] = await this.sequelize.query<{ n: number }>(
-        `SELECT COUNT(*) AS n FROM submissions WHERE id IN (?) AND status = 'processing'`,
-        { replacements: [ids], type: QueryTypes.SELECT },
-      );
-      if (Number(row?.n) === 0) return;
+      if ((await this.submissions.countProcessing(ids)) === 0) return;
       if (Date.now() > deadline) throw new Error('extracts still processing after the timeout');
       this.kick();
       await new Promise<void>((resolve) => {

@@ -1,8 +1,21 @@
-/** The API's view of a submission: what the report, history and coverage screens show. */
-import { formatQuarter } from '@cairn/metrics';
-import type { AuthUser } from '../auth/index.js';
+/**
+ * The one view of a submission (SubmissionDto), built from its record, its
+ * practice (organisations) and its audit quarter (quarters), for the person
+ * asking: its allowed actions come from submission-policy.ts.
+ */
+import { Inject, Injectable } from '@nestjs/common';
+import type { PracticeInfo } from '../organisations/organisations.service.js';
+import { OrganisationsService } from '../organisations/organisations.service.js';
+import type { QuarterDto } from '../quarters/dto/quarter.dto.js';
+import { QuartersService } from '../quarters/quarters.service.js';
+import type { SubmissionDto, SubmissionStatus } from './dto/submission.dto.js';
 import { ISSUE_CODES, type IssueCodeKey } from './format/issue-codes.js';
-import { type SubmissionRow, type SubmissionStatus, summaryJson } from './submission-store.js';
+import { type PolicyActor, submissionActions } from './submission-policy.js';
+import {
+  type SubmissionRecord,
+  SubmissionRepository,
+  summaryJson,
+} from './submission.repository.js';
 
 export const STATUS_LABELS: Record<SubmissionStatus, string> = {
   processing: 'Processing',
@@ -16,85 +29,22 @@ export const STATUS_LABELS: Record<SubmissionStatus, string> = {
 
 const iso = (d: Date | string | null) => (d ? new Date(d).toISOString() : null);
 
-/** Practice leads of the practice see record references; everyone else sees pseudonyms (methods.md §9). */
-export function seesRecordRefs(user: AuthUser, practiceId: number): boolean {
-  return user.role === 'practice_lead' && user.practiceIds.includes(practiceId);
+/** A submission with what it belongs to. */
+export interface LoadedSubmission {
+  record: SubmissionRecord;
+  practice: PracticeInfo;
+  quarter: QuarterDto;
 }
 
-export function canWrite(user: AuthUser, practiceId: number): boolean {
-  if (user.role === 'regional_lead') return true;
-  return user.role === 'practice_lead' && user.practiceIds.includes(practiceId);
-}
+/** Its file is still kept (a failed check can be retried). */
+export const fileKept = (record: SubmissionRecord) =>
+  record.file_deleted_at === null && record.file_sha256 !== null;
 
-export interface SubmissionView {
-  id: number;
-  status: SubmissionStatus;
-  statusLabel: string;
-  /** While processing: waiting for a reader, or being read */
-  phase: 'queued' | 'uploading' | 'reading' | null;
-  isCurrent: boolean;
-  practice: { id: number; code: string; name: string };
-  quarter: {
-    id: number;
-    year: number;
-    quarter: number;
-    label: string;
-    windowStart: string;
-    windowEnd: string;
-    status: string;
-  };
-  file: {
-    name: string;
-    sizeBytes: number;
-    sha256: string | null;
-    kind: string | null;
-    sheetName: string | null;
-    dateConvention: string | null;
-    delimiter: string | null;
-    encoding: string | null;
-    kept: boolean;
-  };
-  uploadedBy: string;
-  uploadedAt: string;
-  processingStartedAt: string | null;
-  processedAt: string | null;
-  confirmedAt: string | null;
-  confirmedBy: string | null;
-  cancelledAt: string | null;
-  cancelledBy: string | null;
-  supersededAt: string | null;
-  supersededBySubmissionId: number | null;
-  failedAt: string | null;
-  progress: { rowsDone: number; rowsTotal: number | null };
-  counts: {
-    rowsRead: number;
-    rowsAccepted: number;
-    rowsRejected: number;
-    rowsBlank: number;
-    errors: number;
-    warnings: number;
-    flags: number;
-  } | null;
-  issuesByCode: { code: string; severity: string; title: string; count: number }[];
-  refusal: {
-    code: string;
-    title: string;
-    message: string;
-    fix: string;
-    detail: Record<string, unknown> | null;
-  } | null;
-  failure: { message: string; attempts: number; canRetry: boolean } | null;
-  headerRow: number | null;
-  columnsFound: string[];
-  columnsIgnored: string[];
-  actions: { confirm: boolean; cancel: boolean; retry: boolean };
-}
-
-export function toView(row: SubmissionRow, user: AuthUser): SubmissionView {
+export function toView(
+  { record: row, practice, quarter }: LoadedSubmission,
+  actor: PolicyActor,
+): SubmissionDto {
   const summary = summaryJson(row);
-  const write =
-    canWrite(user, row.practice_id) &&
-    (row.quarter_status === 'open' || user.role === 'regional_lead');
   const counts =
     row.rows_read === null || row.rows_accepted === null || row.error_count === null
       ? null
@@ -113,7 +63,7 @@ export function toView(row: SubmissionRow, user: AuthUser): SubmissionView {
       return { code, severity: def?.severity ?? 'warning', title: def?.title ?? code, count };
     })
     .sort((a, b) => severityRank(a.severity) - severityRank(b.severity) || b.count - a.count);
-  const fileKept = row.file_deleted_at === null && row.file_sha256 !== null;
+  const kept = fileKept(row);
   return {
     id: row.id,
     status: row.status,
@@ -127,16 +77,8 @@ export function toView(row: SubmissionRow, user: AuthUser): SubmissionView {
             ? 'uploading'
             : 'reading',
     isCurrent: row.current_submission_id === row.id,
-    practice: { id: row.practice_id, code: row.practice_code, name: row.practice_name },
-    quarter: {
-      id: row.quarter_id,
-      year: row.year,
-      quarter: row.quarter,
-      label: formatQuarter({ year: row.year, quarter: row.quarter as 1 | 2 | 3 | 4 }),
-      windowStart: row.window_start,
-      windowEnd: row.window_end,
-      status: row.quarter_status,
-    },
+    practice: { id: practice.id, code: practice.code, name: practice.name },
+    quarter,
     file: {
       name: row.file_name,
       sizeBytes: Number(row.file_size_bytes),
@@ -146,7 +88,7 @@ export function toView(row: SubmissionRow, user: AuthUser): SubmissionView {
       dateConvention: row.date_convention,
       delimiter: summary.delimiter ?? null,
       encoding: summary.encoding ?? null,
-      kept: fileKept && (row.status === 'processing' || row.status === 'failed'),
+      kept: kept && (row.status === 'processing' || row.status === 'failed'),
     },
     uploadedBy: row.uploaded_by_label,
     uploadedAt: iso(row.uploaded_at)!,
@@ -173,19 +115,46 @@ export function toView(row: SubmissionRow, user: AuthUser): SubmissionView {
       : null,
     failure:
       row.status === 'failed'
-        ? { message: row.failure_message ?? '', attempts: row.attempts, canRetry: fileKept }
+        ? { message: row.failure_message ?? '', attempts: row.attempts, canRetry: kept }
         : null,
     headerRow: summary.headerRow ?? null,
     columnsFound: summary.columnsFound ?? [],
     columnsIgnored: summary.columnsIgnored ?? [],
-    actions: {
-      confirm: write && row.status === 'awaiting_confirmation',
-      cancel: write && ['processing', 'awaiting_confirmation', 'failed'].includes(row.status),
-      retry: write && row.status === 'failed' && fileKept,
-    },
+    actions: submissionActions(actor, {
+      practiceId: practice.id,
+      practiceRegionId: practice.regionId,
+      quarterStatus: quarter.status,
+      status: row.status,
+      fileKept: kept,
+    }),
   };
 }
 
 function severityRank(severity: string): number {
   return severity === 'error' ? 0 : severity === 'flag' ? 1 : 2;
+}
+
+/** Loads submissions with their practice and quarter (from their owners). */
+@Injectable()
+export class SubmissionLoader {
+  constructor(
+    @Inject(SubmissionRepository) private readonly submissions: SubmissionRepository,
+    @Inject(OrganisationsService) private readonly organisations: OrganisationsService,
+    @Inject(QuartersService) private readonly quarters: QuartersService,
+  ) {}
+
+  async load(id: number): Promise<LoadedSubmission | null> {
+    const record = await this.submissions.find(id);
+    return record ? this.complete(record) : null;
+  }
+
+  async complete(record: SubmissionRecord): Promise<LoadedSubmission> {
+    const [practice, quarter] = await Promise.all([
+      this.organisations.practice(record.practice_id),
+      this.quarters.find(record.quarter_id),
+    ]);
+    if (!practice || !quarter)
+      throw new Error(`submission ${record.id} names a practice or quarter that does not exist`);
+    return { record, practice, quarter };
+  }
 }

@@ -11,33 +11,47 @@ import {
   Req,
   Res,
 } from '@nestjs/common';
-import { ApiConsumes, ApiOkResponse, ApiOperation, ApiTags } from '@nestjs/swagger';
+import {
+  ApiAcceptedResponse,
+  ApiConflictResponse,
+  ApiConsumes,
+  ApiOkResponse,
+  ApiPayloadTooLargeResponse,
+  ApiOperation,
+  ApiTags,
+} from '@nestjs/swagger';
 import type { Request, Response } from 'express';
-import { AnySignedIn, type AuthUser, CurrentUser, PracticeScoped, Roles } from '../auth/index.js';
-import { IssueQueryDto, SubmissionDto, UploadQueryDto } from './dto/submission.dto.js';
+import { type Actor, CurrentActor } from '../auth/actor.js';
+import { AnySignedIn, PracticeScoped, Roles } from '../auth/index.js';
+import {
+  fileResponse,
+  IssuePageDto,
+  IssueQueryDto,
+  SubmissionDto,
+  SubmissionHistoryDto,
+  UploadProblemDto,
+  UploadQueryDto,
+  ValidationReportFileDto,
+  XLSX,
+} from './dto/submission.dto.js';
 import { IntakeService } from './intake.service.js';
-import { ValidationReportService } from './validation-report/validation-report.service.js';
-import { findSubmission } from './submission-store.js';
-import { toView } from './submission-view.js';
-import { SubmissionsService } from './submissions.service.js';
-import { Sequelize } from 'sequelize-typescript';
+import { type ReportDownload, SubmissionsService } from './submissions.service.js';
+import { ApiProblems } from '../common/problem.dto.js';
 
-const actorOf = (user: AuthUser) => ({
-  id: user.id,
-  label: user.email,
-  role: user.role,
-  regionId: user.regionId,
-  practiceIds: user.practiceIds,
-});
+function send(res: Response, download: ReportDownload): Promise<void> {
+  res.status(200);
+  res.setHeader('Content-Type', download.contentType);
+  res.setHeader('Content-Disposition', `attachment; filename="${download.fileName}"`);
+  return download.write(res);
+}
 
+@ApiProblems()
 @ApiTags('submissions')
 @Controller('practices/:practiceId')
 export class SubmissionsController {
   constructor(
     @Inject(IntakeService) private readonly intake: IntakeService,
     @Inject(SubmissionsService) private readonly submissions: SubmissionsService,
-    @Inject(ValidationReportService) private readonly reports: ValidationReportService,
-    @Inject(Sequelize) private readonly sequelize: Sequelize,
   ) {}
 
   @Post('quarters/:quarterId/extracts')
@@ -51,22 +65,24 @@ export class SubmissionsController {
     description:
       'Answers 202 with the new submission, in status processing; poll it for progress and the report.',
   })
-  @ApiOkResponse({ type: SubmissionDto })
+  @ApiAcceptedResponse({ type: SubmissionDto })
+  @ApiConflictResponse({ type: UploadProblemDto, description: 'Identical to an earlier file' })
+  @ApiPayloadTooLargeResponse({ type: UploadProblemDto, description: 'Over the size limit' })
   async upload(
-    @CurrentUser() user: AuthUser,
+    @CurrentActor() actor: Actor,
     @Param('practiceId', ParseIntPipe) practiceId: number,
     @Param('quarterId', ParseIntPipe) quarterId: number,
     @Query() query: UploadQueryDto,
     @Req() req: Request,
-  ) {
+  ): Promise<SubmissionDto> {
     const id = await this.intake.receiveRequest(
       req,
-      actorOf(user),
+      actor,
       practiceId,
       quarterId,
       query.dateConvention ?? null,
     );
-    return toView((await findSubmission(this.sequelize, id))!, user);
+    return this.submissions.get(actor, practiceId, id);
   }
 
   @Get('submissions')
@@ -75,8 +91,12 @@ export class SubmissionsController {
   @ApiOperation({
     summary: "A practice's submissions by audit quarter, with status, counts, who and when",
   })
-  history(@CurrentUser() user: AuthUser, @Param('practiceId', ParseIntPipe) practiceId: number) {
-    return this.submissions.history(user, practiceId);
+  @ApiOkResponse({ type: SubmissionHistoryDto })
+  history(
+    @CurrentActor() actor: Actor,
+    @Param('practiceId', ParseIntPipe) practiceId: number,
+  ): Promise<SubmissionHistoryDto> {
+    return this.submissions.history(actor, practiceId);
   }
 
   @Get('submissions/:submissionId')
@@ -85,67 +105,59 @@ export class SubmissionsController {
   @ApiOperation({ summary: 'One submission: status, progress, summary of its validation report' })
   @ApiOkResponse({ type: SubmissionDto })
   get(
-    @CurrentUser() user: AuthUser,
+    @CurrentActor() actor: Actor,
     @Param('practiceId', ParseIntPipe) practiceId: number,
     @Param('submissionId', ParseIntPipe) submissionId: number,
-  ) {
-    return this.submissions.get(user, practiceId, submissionId);
+  ): Promise<SubmissionDto> {
+    return this.submissions.get(actor, practiceId, submissionId);
   }
 
   @Get('submissions/:submissionId/issues')
   @AnySignedIn()
   @PracticeScoped('practiceId')
   @ApiOperation({ summary: 'The issues of a validation report, filtered, sorted and paged' })
+  @ApiOkResponse({ type: IssuePageDto })
   issues(
-    @CurrentUser() user: AuthUser,
+    @CurrentActor() actor: Actor,
     @Param('practiceId', ParseIntPipe) practiceId: number,
     @Param('submissionId', ParseIntPipe) submissionId: number,
     @Query() query: IssueQueryDto,
-  ) {
-    return this.submissions.issues(user, practiceId, submissionId, query);
+  ): Promise<IssuePageDto> {
+    return this.submissions.issues(actor, practiceId, submissionId, query);
   }
 
   @Get('submissions/:submissionId/report.json')
   @AnySignedIn()
   @PracticeScoped('practiceId')
   @ApiOperation({ summary: 'The whole validation report as JSON (summary and every issue)' })
+  @ApiOkResponse({ type: ValidationReportFileDto, description: 'Sent as an attachment' })
   async reportJson(
-    @CurrentUser() user: AuthUser,
+    @CurrentActor() actor: Actor,
     @Param('practiceId', ParseIntPipe) practiceId: number,
     @Param('submissionId', ParseIntPipe) submissionId: number,
     @Res() res: Response,
-  ) {
-    const row = await this.submissions.row(practiceId, submissionId);
-    res.status(200);
-    res.setHeader('Content-Type', 'application/json; charset=utf-8');
-    res.setHeader(
-      'Content-Disposition',
-      `attachment; filename="cairn-report-${row.practice_code}-${row.year}Q${row.quarter}-${row.id}.json"`,
+  ): Promise<void> {
+    await send(
+      res,
+      await this.submissions.download(actor, practiceId, submissionId, 'report.json'),
     );
-    await this.reports.writeJson(row, user, res);
   }
 
   @Get('submissions/:submissionId/rejected-rows.xlsx')
   @AnySignedIn()
   @PracticeScoped('practiceId')
   @ApiOperation({ summary: 'The refused rows as given, with a column of Cairn’s issues, as XLSX' })
+  @ApiOkResponse(fileResponse(XLSX, 'The refused rows, and an about sheet'))
   async rejectedRows(
-    @CurrentUser() user: AuthUser,
+    @CurrentActor() actor: Actor,
     @Param('practiceId', ParseIntPipe) practiceId: number,
     @Param('submissionId', ParseIntPipe) submissionId: number,
     @Res() res: Response,
-  ) {
-    const row = await this.submissions.row(practiceId, submissionId);
-    res.status(200);
-    res.setHeader(
-      'Content-Type',
-      'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet',
+  ): Promise<void> {
+    await send(
+      res,
+      await this.submissions.download(actor, practiceId, submissionId, 'rejected-rows.xlsx'),
     );
-    res.setHeader(
-      'Content-Disposition',
-      `attachment; filename="cairn-refused-rows-${row.practice_code}-${row.year}Q${row.quarter}-${row.id}.xlsx"`,
-    );
-    await this.reports.writeRejectedRowsXlsx(row, user, res);
   }
 
   @Post('submissions/:submissionId/confirm')
@@ -157,12 +169,12 @@ export class SubmissionsController {
       'Confirm: make this submission current for its practice and quarter (the previous one is superseded)',
   })
   @ApiOkResponse({ type: SubmissionDto })
-  async confirm(
-    @CurrentUser() user: AuthUser,
+  confirm(
+    @CurrentActor() actor: Actor,
     @Param('practiceId', ParseIntPipe) practiceId: number,
     @Param('submissionId', ParseIntPipe) submissionId: number,
-  ) {
-    return toView(await this.submissions.confirm(actorOf(user), practiceId, submissionId), user);
+  ): Promise<SubmissionDto> {
+    return this.submissions.confirm(actor, practiceId, submissionId);
   }
 
   @Post('submissions/:submissionId/cancel')
@@ -173,12 +185,12 @@ export class SubmissionsController {
     summary: 'Cancel a submission that is processing, awaiting confirmation or failed',
   })
   @ApiOkResponse({ type: SubmissionDto })
-  async cancel(
-    @CurrentUser() user: AuthUser,
+  cancel(
+    @CurrentActor() actor: Actor,
     @Param('practiceId', ParseIntPipe) practiceId: number,
     @Param('submissionId', ParseIntPipe) submissionId: number,
-  ) {
-    return toView(await this.submissions.cancel(actorOf(user), practiceId, submissionId), user);
+  ): Promise<SubmissionDto> {
+    return this.submissions.cancel(actor, practiceId, submissionId);
   }
 
   @Post('submissions/:submissionId/retry')
@@ -187,11 +199,11 @@ export class SubmissionsController {
   @PracticeScoped('practiceId')
   @ApiOperation({ summary: 'Check a failed submission again (its file is kept for this)' })
   @ApiOkResponse({ type: SubmissionDto })
-  async retry(
-    @CurrentUser() user: AuthUser,
+  retry(
+    @CurrentActor() actor: Actor,
     @Param('practiceId', ParseIntPipe) practiceId: number,
     @Param('submissionId', ParseIntPipe) submissionId: number,
-  ) {
-    return toView(await this.submissions.retry(actorOf(user), practiceId, submissionId), user);
+  ): Promise<SubmissionDto> {
+    return this.submissions.retry(actor, practiceId, submissionId);
   }
 }

@@ -1,4 +1,5 @@
 import { Module } from '@nestjs/common';
+import { OrganisationsModule } from '../organisations/organisations.module.js';
 import { QuartersModule } from '../quarters/quarters.module.js';
 import { CoverageController } from './coverage.controller.js';
 import { ExtractProcessor } from './extract-processor.js';
@@ -6,15 +7,19 @@ import { ExtractsController } from './extracts.controller.js';
 import { IntakeService } from './intake.service.js';
 import { JobRunner } from './job-runner.service.js';
 import { ValidationReportService } from './validation-report/validation-report.service.js';
+import { SubmissionRepository } from './submission.repository.js';
+import { SubmissionLoader } from './submission-view.js';
 import { SubmissionsController } from './submissions.controller.js';
 import { SubmissionsService } from './submissions.service.js';
 import { UploadHandoff } from './upload-handoff.js';
 
 /** Extracts: template, upload, checking as a job, validation report, confirm/cancel/retry, coverage. */
 @Module({
-  imports: [QuartersModule],
+  imports: [OrganisationsModule, QuartersModule],
   controllers: [ExtractsController, SubmissionsController, CoverageController],
   providers: [
+    SubmissionRepository,
+    SubmissionLoader,
     ExtractProcessor,
     JobRunner,
     IntakeService,
@@ -22,6 +27,6 @@ import { UploadHandoff } from './upload-handoff.js';
     ValidationReportService,
     { provide: UploadHandoff, useFactory: () => new UploadHandoff() },
   ],
-  exports: [IntakeService, SubmissionsService, JobRunner],
+  exports: [IntakeService, SubmissionsService, JobRunner, SubmissionRepository],
 })
 export class SubmissionsModule {}

@@ -1,6 +1,7 @@
 /**
- * Submissions after upload: reading them (report, history, coverage) and the
- * three decisions a practice lead takes — confirm, cancel, retry.
+ * Submissions after upload: reading them (report, history, coverage, where
+ * one may upload) and the three decisions on one — confirm, cancel, retry.
+ * Who may decide is submission-policy.ts; every write is SubmissionRepository's.
  *
  * Confirm is one short transaction: lock the practice-quarter pointer, check
  * the submission still awaits confirmation and that the pointer is still what
@@ -10,70 +11,30 @@
  * staged while the extract was read, so readers (who always go through the
  * pointer) see the old set or the new set, never a mix.
  */
+import type { Writable } from 'node:stream';
 import { HttpStatus, Inject, Injectable } from '@nestjs/common';
-import { QueryTypes } from 'sequelize';
-import { Sequelize } from 'sequelize-typescript';
 import { AuditTrailService } from '../audit-trail/audit-trail.service.js';
-import type { AuthUser } from '../auth/index.js';
+import type { Actor } from '../auth/actor.js';
 import { ProblemException } from '../common/problem.js';
-import { QuartersService } from '../quarters/quarters.service.js';
-import { faultPause } from './extract-processor.js';
-import { ISSUE_CODES, type IssueCodeKey } from './format/issue-codes.js';
-import { JobRunner } from './job-runner.service.js';
-import {
-  deleteFile,
-  execute,
-  findSubmission,
-  purgeSubmission,
-  SELECT_SUBMISSION,
-  type SubmissionRow,
-} from './submission-store.js';
-import { canWrite, seesRecordRefs, type SubmissionView, toView } from './submission-view.js';
-import { pseudonymiser } from './extract-processor.js';
 import { CAIRN_SECRETS } from '../config/config.module.js';
 import type { CairnSecrets } from '../config/config.schema.js';
-
-export interface Actor {
-  id: number | null;
-  label: string;
-  role: AuthUser['role'] | 'system';
-  /** Practices a practice lead leads */
-  practiceIds?: number[];
-}
-
-export interface IssueQuery {
-  offset?: number;
-  limit?: number;
-  severity?: string;
-  code?: string;
-  column?: string;
-  row?: number;
-  sort?: string;
-}
-
-export interface IssueItem {
-  seq: number;
-  severity: string;
-  code: string;
-  title: string;
-  row: number | null;
-  column: string | null;
-  columnKey: string | null;
-  value: string | null;
-  message: string;
-  fix: string;
-}
-
-const SORTS: Record<string, string> = {
-  row: 'source_row IS NULL DESC, source_row, seq',
-  '-row': 'source_row DESC, seq',
-  severity: "FIELD(severity, 'error', 'flag', 'warning'), source_row, seq",
-  '-severity': "FIELD(severity, 'warning', 'flag', 'error'), source_row, seq",
-  code: 'code, source_row, seq',
-  '-code': 'code DESC, source_row, seq',
-  column: 'column_name IS NULL, column_name, source_row, seq',
-  '-column': 'column_name DESC, source_row, seq',
-};
+import { OrganisationsService } from '../organisations/organisations.service.js';
+import { QuartersService } from '../quarters/quarters.service.js';
+import type {
+  CoverageDto,
+  IssuePageDto,
+  IssueQueryDto,
+  SubmissionDto,
+  SubmissionHistoryDto,
+  UploadOptionsDto,
+} from './dto/submission.dto.js';
+import { faultPause, pseudonymiser } from './extract-processor.js';
+import { ISSUE_CODES, type IssueCodeKey } from './format/issue-codes.js';
+import { JobRunner } from './job-runner.service.js';
+import { ValidationReportService } from './validation-report/validation-report.service.js';
+import { assertMay, mayWrite, seesRecordRefs, type SubmissionAction } from './submission-policy.js';
+import { SubmissionRepository } from './submission.repository.js';
+import { type LoadedSubmission, SubmissionLoader, toView } from './submission-view.js';
 
 const notFound = (id: number) =>
   new ProblemException(
@@ -88,122 +49,126 @@ const notFound = (id: number) =>
 
 const DEADLOCK = /deadlock|lock wait timeout/i;
 
+/** A download of a validation report: what to call it, and how to write it. */
+export interface ReportDownload {
+  fileName: string;
+  contentType: string;
+  write(out: Writable): Promise<void>;
+}
+
 @Injectable()
 export class SubmissionsService {
   private readonly pseudonym: (practiceCode: string, ref: string) => string;
 
   constructor(
-    @Inject(Sequelize) private readonly sequelize: Sequelize,
+    @Inject(SubmissionRepository) private readonly submissions: SubmissionRepository,
+    @Inject(SubmissionLoader) private readonly loader: SubmissionLoader,
     @Inject(AuditTrailService) private readonly audit: AuditTrailService,
     @Inject(QuartersService) private readonly quarters: QuartersService,
+    @Inject(OrganisationsService) private readonly organisations: OrganisationsService,
     @Inject(JobRunner) private readonly runner: JobRunner,
+    @Inject(ValidationReportService) private readonly reports: ValidationReportService,
     @Inject(CAIRN_SECRETS) secrets: CairnSecrets,
   ) {
     this.pseudonym = pseudonymiser(secrets.CAIRN_PSEUDONYM_SECRET);
   }
 
-  async row(practiceId: number, submissionId: number): Promise<SubmissionRow> {
-    const row = Number.isSafeInteger(submissionId)
-      ? await findSubmission(this.sequelize, submissionId)
-      : null;
-    if (!row || row.practice_id !== practiceId) throw notFound(submissionId);
-    return row;
+  /** The submission, if it is this practice's; 404 otherwise. */
+  private async find(practiceId: number, submissionId: number): Promise<LoadedSubmission> {
+    const record = await this.submissions.find(submissionId);
+    if (!record || record.practice_id !== practiceId) throw notFound(submissionId);
+    return this.loader.complete(record);
   }
 
-  async get(user: AuthUser, practiceId: number, submissionId: number): Promise<SubmissionView> {
-    return toView(await this.row(practiceId, submissionId), user);
+  async get(actor: Actor, practiceId: number, submissionId: number): Promise<SubmissionDto> {
+    return toView(await this.find(practiceId, submissionId), actor);
   }
 
   /** A practice's submissions, grouped by audit quarter (latest quarter first). */
-  async history(user: AuthUser, practiceId: number) {
-    const [practice] = await this.sequelize.query<{
-      id: number;
-      code: string;
-      name: string;
-      region_id: number;
-    }>('SELECT id, code, name, region_id FROM practices WHERE id = ?', {
-      replacements: [practiceId],
-      type: QueryTypes.SELECT,
-    });
-    const quarters = await this.quarters.list(practice!.region_id);
-    const rows = await this.sequelize.query<SubmissionRow>(
-      `${SELECT_SUBMISSION} WHERE s.practice_id = ? ORDER BY s.id DESC`,
-      {
-        replacements: [practiceId],
-        type: QueryTypes.SELECT,
-      },
+  async history(actor: Actor, practiceId: number): Promise<SubmissionHistoryDto> {
+    const practice = (await this.organisations.practice(practiceId))!;
+    const quarters = await this.quarters.list(practice.regionId);
+    const records = await this.submissions.listForPractice(practiceId);
+    const byId = new Map(quarters.map((q) => [q.id, q]));
+    const views = records.map((record) =>
+      toView({ record, practice, quarter: byId.get(record.quarter_id)! }, actor),
     );
-    const views = rows.map((r) => toView(r, user));
     return {
-      practice: { id: practice!.id, code: practice!.code, name: practice!.name },
-      canUpload: canWrite(user, practiceId),
-      quarters: quarters.map((q) => {
-        const submissions = views.filter((v) => v.quarter.id === q.id);
+      practice: { id: practice.id, code: practice.code, name: practice.name },
+      quarters: quarters.map((quarter) => {
+        const submissions = views.filter((v) => v.quarter.id === quarter.id);
         return {
-          quarter: q,
+          quarter,
           currentSubmissionId: submissions.find((s) => s.isCurrent)?.id ?? null,
           submissions,
+          actions: {
+            upload: mayWrite(actor, {
+              practiceId,
+              practiceRegionId: practice.regionId,
+              quarterStatus: quarter.status,
+            }),
+          },
         };
       }),
     };
   }
 
-  async issues(user: AuthUser, practiceId: number, submissionId: number, query: IssueQuery) {
-    const row = await this.row(practiceId, submissionId);
-    const where: string[] = ['submission_id = ?'];
-    const params: unknown[] = [submissionId];
-    if (query.severity) {
-      where.push('severity = ?');
-      params.push(query.severity);
-    }
-    if (query.code) {
-      where.push('code = ?');
-      params.push(query.code);
-    }
-    if (query.column) {
-      where.push('column_name = ?');
-      params.push(query.column);
-    }
-    if (query.row !== undefined) {
-      where.push('source_row = ?');
-      params.push(query.row);
-    }
-    const order = SORTS[query.sort ?? 'row'] ?? SORTS.row!;
+  /** Where the actor may send extracts: each practice with the quarters it may take one for. */
+  async uploadOptions(actor: Actor): Promise<UploadOptionsDto> {
+    const quarters = await this.quarters.list(actor.regionId);
+    const practices = await this.organisations.regionPractices(actor.regionId);
+    return {
+      quarters,
+      practices: practices
+        .map((p) => ({
+          practice: { id: p.id, code: p.code, name: p.name, localityName: p.localityName },
+          quarterIds: quarters
+            .filter((q) =>
+              mayWrite(actor, {
+                practiceId: p.id,
+                practiceRegionId: p.regionId,
+                quarterStatus: q.status,
+              }),
+            )
+            .map((q) => q.id),
+        }))
+        // Listed when an extract may be sent for it in an open quarter, even if none is open now.
+        .filter((p) =>
+          mayWrite(actor, {
+            practiceId: p.practice.id,
+            practiceRegionId: actor.regionId,
+            quarterStatus: 'open',
+          }),
+        ),
+    };
+  }
+
+  async issues(
+    actor: Actor,
+    practiceId: number,
+    submissionId: number,
+    query: IssueQueryDto,
+  ): Promise<IssuePageDto> {
+    const { practice } = await this.find(practiceId, submissionId);
     const limit = Math.min(Math.max(query.limit ?? 200, 1), 2000);
     const offset = Math.max(query.offset ?? 0, 0);
-    const [countRow] = await this.sequelize.query<{ n: number }>(
-      `SELECT COUNT(*) AS n FROM submission_issues WHERE ${where.join(' AND ')}`,
-      { replacements: params, type: QueryTypes.SELECT },
+    const page = await this.submissions.issuePage(
+      submissionId,
+      query,
+      query.sort ?? 'row',
+      limit,
+      offset,
     );
-    const items = await this.sequelize.query<{
-      seq: number;
-      severity: string;
-      code: string;
-      source_row: number | null;
-      column_name: string | null;
-      column_key: string | null;
-      value_given: string | null;
-      message: string;
-      fix: string;
-    }>(
-      `SELECT seq, severity, code, source_row, column_name, column_key, value_given, message, fix
-         FROM submission_issues WHERE ${where.join(' AND ')} ORDER BY ${order} LIMIT ? OFFSET ?`,
-      { replacements: [...params, limit, offset], type: QueryTypes.SELECT },
-    );
-    const refs = seesRecordRefs(user, practiceId);
-    const columns = await this.sequelize.query<{ column_name: string | null; n: number }>(
-      'SELECT column_name, COUNT(*) AS n FROM submission_issues WHERE submission_id = ? GROUP BY column_name ORDER BY column_name',
-      { replacements: [submissionId], type: QueryTypes.SELECT },
-    );
+    const refs = seesRecordRefs(actor, practiceId);
     return {
-      total: Number(countRow?.n ?? 0),
+      total: page.total,
       offset,
       limit,
       recordRefsShown: refs,
-      columns: columns
+      columns: page.columns
         .filter((c) => c.column_name !== null)
         .map((c) => ({ column: c.column_name!, count: Number(c.n) })),
-      items: items.map((i): IssueItem => ({
+      items: page.items.map((i) => ({
         seq: i.seq,
         severity: i.severity,
         code: i.code,
@@ -213,7 +178,7 @@ export class SubmissionsService {
         columnKey: i.column_key,
         value:
           !refs && i.column_key === 'record_ref' && i.value_given
-            ? this.pseudonym(row.practice_code, i.value_given)
+            ? this.pseudonym(practice.code, i.value_given)
             : i.value_given,
         message: i.message,
         fix: i.fix,
@@ -221,76 +186,70 @@ export class SubmissionsService {
     };
   }
 
-  private assertWriter(user: Actor, row: SubmissionRow): void {
-    if (user.role === 'system') return;
-    if (
-      user.role === 'auditor' ||
-      (user.role === 'practice_lead' && !(user.practiceIds ?? []).includes(row.practice_id))
-    ) {
-      throw new ProblemException(
-        HttpStatus.FORBIDDEN,
-        'practice-not-yours',
-        'Not one of your practices',
-        'Only the practice’s own leads and regional leads can change its submissions.',
-      );
-    }
-    if (row.quarter_status === 'closed' && user.role !== 'regional_lead') {
-      throw new ProblemException(
-        HttpStatus.CONFLICT,
-        'quarter-closed',
-        'This audit quarter is closed',
-        `${row.year} Q${row.quarter} is closed, so its submissions can no longer be changed. Ask your regional lead if this one should still be confirmed.`,
-      );
-    }
+  /** The whole validation report (JSON) or its refused rows (XLSX), streamed. */
+  async download(
+    actor: Actor,
+    practiceId: number,
+    submissionId: number,
+    kind: 'report.json' | 'rejected-rows.xlsx',
+  ): Promise<ReportDownload> {
+    const loaded = await this.find(practiceId, submissionId);
+    const name = `${loaded.practice.code}-${loaded.quarter.year}Q${loaded.quarter.quarter}-${submissionId}`;
+    return kind === 'report.json'
+      ? {
+          fileName: `cairn-report-${name}.json`,
+          contentType: 'application/json; charset=utf-8',
+          write: (out) => this.reports.writeJson(loaded, actor, out),
+        }
+      : {
+          fileName: `cairn-refused-rows-${name}.xlsx`,
+          contentType: 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet',
+          write: (out) => this.reports.writeRejectedRowsXlsx(loaded, actor, out),
+        };
+  }
+
+  private assertMay(actor: Actor, action: SubmissionAction, loaded: LoadedSubmission): void {
+    assertMay(
+      actor,
+      action,
+      {
+        practiceId: loaded.practice.id,
+        practiceRegionId: loaded.practice.regionId,
+        quarterStatus: loaded.quarter.status,
+      },
+      loaded.quarter,
+    );
   }
 
   /** Makes a submission current for its practice and quarter (atomically). */
-  async confirm(user: Actor, practiceId: number, submissionId: number): Promise<SubmissionRow> {
-    const row = await this.row(practiceId, submissionId);
-    this.assertWriter(user, row);
+  async confirm(actor: Actor, practiceId: number, submissionId: number): Promise<SubmissionDto> {
+    const loaded = await this.find(practiceId, submissionId);
+    this.assertMay(actor, 'confirm', loaded);
+    const { record: row, quarter } = loaded;
     /** What was current when this request read the practice-quarter */
     const expected = row.current_submission_id ?? null;
     // The pointer row exists before the transaction, so the lock below is a plain row lock.
-    await this.sequelize.query(
-      'INSERT IGNORE INTO practice_quarters (practice_id, quarter_id) VALUES (?, ?)',
-      {
-        replacements: [row.practice_id, row.quarter_id],
-        type: QueryTypes.INSERT,
-      },
-    );
+    await this.submissions.ensurePracticeQuarter(row.practice_id, row.quarter_id);
     for (let attempt = 0; ; attempt++) {
       try {
-        await this.sequelize.transaction(async (transaction) => {
-          const [pointer] = await this.sequelize.query<{ current_submission_id: number | null }>(
-            'SELECT current_submission_id FROM practice_quarters WHERE practice_id = ? AND quarter_id = ? FOR UPDATE',
-            {
-              replacements: [row.practice_id, row.quarter_id],
-              type: QueryTypes.SELECT,
-              transaction,
-            },
+        await this.submissions.transaction(async (transaction) => {
+          const previous = await this.submissions.lockPracticeQuarter(
+            row.practice_id,
+            row.quarter_id,
+            transaction,
           );
-          const [fresh] = await this.sequelize.query<{ status: string }>(
-            'SELECT status FROM submissions WHERE id = ? FOR UPDATE',
-            {
-              replacements: [submissionId],
-              type: QueryTypes.SELECT,
-              transaction,
-            },
-          );
-          if (fresh?.status !== 'awaiting_confirmation') {
+          const status = await this.submissions.lockStatus(submissionId, transaction);
+          if (status !== 'awaiting_confirmation') {
             throw new ProblemException(
               HttpStatus.CONFLICT,
               'submission-not-awaiting-confirmation',
-              fresh?.status === 'accepted'
-                ? 'Already confirmed'
-                : 'This submission cannot be confirmed',
-              fresh?.status === 'accepted'
+              status === 'accepted' ? 'Already confirmed' : 'This submission cannot be confirmed',
+              status === 'accepted'
                 ? `Submission ${submissionId} is already confirmed and current.`
-                : `Submission ${submissionId} is ${String(fresh?.status).replace(/_/g, ' ')}; only a submission awaiting confirmation can be confirmed.`,
-              { submissionStatus: fresh?.status },
+                : `Submission ${submissionId} is ${String(status).replace(/_/g, ' ')}; only a submission awaiting confirmation can be confirmed.`,
+              { submissionStatus: status ?? undefined },
             );
           }
-          const previous = pointer?.current_submission_id ?? null;
           // Someone else switched this practice-quarter after this request read it (two confirms
           // at once): refuse rather than silently replace what they just made current.
           if (previous !== expected) {
@@ -298,7 +257,7 @@ export class SubmissionsService {
               HttpStatus.CONFLICT,
               'current-submission-changed',
               'Another submission was just made current',
-              `While this confirm was being handled, ${previous === null ? 'the current submission was withdrawn' : `submission ${previous} was made current`} for ${row.year} Q${row.quarter}, so submission ${submissionId} was not confirmed. Look at the practice's submissions again, then confirm this one if it should replace it.`,
+              `While this confirm was being handled, ${previous === null ? 'the current submission was withdrawn' : `submission ${previous} was made current`} for ${quarter.label}, so submission ${submissionId} was not confirmed. Look at the practice's submissions again, then confirm this one if it should replace it.`,
               { currentSubmissionId: previous },
             );
           }
@@ -307,36 +266,22 @@ export class SubmissionsService {
               HttpStatus.CONFLICT,
               'newer-submission-current',
               'A newer submission is current',
-              `Submission ${previous}, uploaded after this one, is already current for ${row.year} Q${row.quarter}; confirming this older one would replace newer data. Upload the file again if it is the right one.`,
+              `Submission ${previous}, uploaded after this one, is already current for ${quarter.label}; confirming this older one would replace newer data. Upload the file again if it is the right one.`,
               { currentSubmissionId: previous },
             );
           }
-          if (previous !== null) {
-            await execute(
-              this.sequelize,
-              `UPDATE submissions SET status = 'superseded', superseded_at = NOW(3), superseded_by_submission_id = ? WHERE id = ?`,
-              [submissionId, previous],
-              transaction,
-            );
-          }
-          await execute(
-            this.sequelize,
-            `UPDATE submissions SET status = 'accepted', confirmed_at = NOW(3), confirmed_by_user_id = ?, confirmed_by_label = ? WHERE id = ?`,
-            [user.id, user.label, submissionId],
-            transaction,
-          );
-          await execute(
-            this.sequelize,
-            'UPDATE practice_quarters SET current_submission_id = ?, switched_at = NOW(3) WHERE practice_id = ? AND quarter_id = ?',
-            [submissionId, row.practice_id, row.quarter_id],
+          await this.submissions.switchCurrent(
+            { id: submissionId, practiceId: row.practice_id, quarterId: row.quarter_id },
+            previous,
+            actor,
             transaction,
           );
           await this.audit.append(
             {
               action: 'submission.confirmed',
-              summary: `Submission ${submissionId} confirmed: now current for ${row.year} Q${row.quarter} with ${row.rows_accepted ?? 0} records${previous !== null ? ` (replaces submission ${previous}, now superseded)` : ''}`,
-              actor: { id: user.id, label: user.label },
-              regionId: row.region_id,
+              summary: `Submission ${submissionId} confirmed: now current for ${quarter.label} with ${row.rows_accepted ?? 0} records${previous !== null ? ` (replaces submission ${previous}, now superseded)` : ''}`,
+              actor,
+              regionId: loaded.practice.regionId,
               practiceId: row.practice_id,
               subjectType: 'submission',
               subjectId: submissionId,
@@ -354,28 +299,21 @@ export class SubmissionsService {
         throw error;
       }
     }
-    return (await findSubmission(this.sequelize, submissionId))!;
+    return this.get(actor, practiceId, submissionId);
   }
 
-  async cancel(user: Actor, practiceId: number, submissionId: number): Promise<SubmissionRow> {
-    const row = await this.row(practiceId, submissionId);
-    this.assertWriter(user, row);
-    const cancelled = await this.sequelize.transaction(async (transaction) => {
-      const changed = await execute(
-        this.sequelize,
-        `UPDATE submissions SET status = 'cancelled', cancelled_at = NOW(3), cancelled_by_label = ?, lease_owner = NULL, lease_expires_at = NULL
-          WHERE id = ? AND status IN ('processing', 'awaiting_confirmation', 'failed')`,
-        [user.label, submissionId],
-        transaction,
-      );
-      if (changed === 0) return false;
-      await deleteFile(this.sequelize, submissionId, transaction);
+  async cancel(actor: Actor, practiceId: number, submissionId: number): Promise<SubmissionDto> {
+    const loaded = await this.find(practiceId, submissionId);
+    this.assertMay(actor, 'cancel', loaded);
+    const row = loaded.record;
+    const cancelled = await this.submissions.transaction(async (transaction) => {
+      if (!(await this.submissions.cancel(submissionId, actor.label, transaction))) return false;
       await this.audit.append(
         {
           action: 'submission.cancelled',
           summary: `Submission ${submissionId} cancelled (was ${row.status.replace(/_/g, ' ')}); nothing from it is used`,
-          actor: { id: user.id, label: user.label },
-          regionId: row.region_id,
+          actor,
+          regionId: loaded.practice.regionId,
           practiceId: row.practice_id,
           subjectType: 'submission',
           subjectId: submissionId,
@@ -385,7 +323,7 @@ export class SubmissionsService {
       return true;
     });
     if (!cancelled) {
-      const fresh = await this.row(practiceId, submissionId);
+      const fresh = (await this.submissions.find(submissionId))!;
       throw new ProblemException(
         HttpStatus.CONFLICT,
         'submission-not-cancellable',
@@ -396,29 +334,22 @@ export class SubmissionsService {
         { submissionStatus: fresh.status },
       );
     }
-    await purgeSubmission(this.sequelize, submissionId);
-    return (await findSubmission(this.sequelize, submissionId))!;
+    await this.submissions.purge(submissionId);
+    return this.get(actor, practiceId, submissionId);
   }
 
-  async retry(user: Actor, practiceId: number, submissionId: number): Promise<SubmissionRow> {
-    const row = await this.row(practiceId, submissionId);
-    this.assertWriter(user, row);
-    const retried = await this.sequelize.transaction(async (transaction) => {
-      const changed = await execute(
-        this.sequelize,
-        `UPDATE submissions SET status = 'processing', failed_at = NULL, failure_message = NULL, lease_owner = NULL,
-           lease_expires_at = NULL, rows_done = 0, rows_total = NULL, records_purged_at = NULL
-         WHERE id = ? AND status = 'failed' AND file_deleted_at IS NULL AND file_sha256 IS NOT NULL`,
-        [submissionId],
-        transaction,
-      );
-      if (changed === 0) return false;
+  async retry(actor: Actor, practiceId: number, submissionId: number): Promise<SubmissionDto> {
+    const loaded = await this.find(practiceId, submissionId);
+    this.assertMay(actor, 'retry', loaded);
+    const row = loaded.record;
+    const retried = await this.submissions.transaction(async (transaction) => {
+      if (!(await this.submissions.retry(submissionId, transaction))) return false;
       await this.audit.append(
         {
           action: 'submission.retried',
           summary: `Checking submission ${submissionId} again after it failed`,
-          actor: { id: user.id, label: user.label },
-          regionId: row.region_id,
+          actor,
+          regionId: loaded.practice.regionId,
           practiceId: row.practice_id,
           subjectType: 'submission',
           subjectId: submissionId,
@@ -439,66 +370,42 @@ export class SubmissionsService {
       );
     }
     this.runner.kick();
-    return (await findSubmission(this.sequelize, submissionId))!;
+    return this.get(actor, practiceId, submissionId);
   }
 
   /** The region's coverage for one quarter: which practices have a current submission, which are waiting, which have none. */
-  async coverage(user: AuthUser, quarterId: number) {
-    const quarter = await this.quarters.get(user, quarterId);
-    const practices = await this.sequelize.query<{
-      id: number;
-      code: string;
-      name: string;
-      locality: string | null;
-      current_id: number | null;
-      current_rows: number | null;
-      confirmed_at: Date | null;
-      confirmed_by: string | null;
-    }>(
-      `SELECT p.id, p.code, p.name, l.name AS locality, pq.current_submission_id AS current_id, cs.rows_accepted AS current_rows,
-              cs.confirmed_at, cs.confirmed_by_label AS confirmed_by
-         FROM practices p
-         LEFT JOIN localities l ON l.id = p.locality_id
-         LEFT JOIN practice_quarters pq ON pq.practice_id = p.id AND pq.quarter_id = ?
-         LEFT JOIN submissions cs ON cs.id = pq.current_submission_id
-        WHERE p.region_id = ? AND p.active = 1
-        ORDER BY p.code`,
-      { replacements: [quarterId, user.regionId], type: QueryTypes.SELECT },
+  async coverage(actor: Actor, quarterId: number): Promise<CoverageDto> {
+    const quarter = await this.quarters.get(actor, quarterId);
+    const practices = await this.organisations.regionPractices(actor.regionId, {
+      activeOnly: true,
+    });
+    const current = new Map(
+      (await this.submissions.currentOfQuarter(quarterId)).map((c) => [c.practice_id, c]),
     );
-    const others = await this.sequelize.query<{
-      practice_id: number;
-      id: number;
-      status: string;
-      uploaded_at: Date;
-      refusal_code: string | null;
-    }>(
-      `SELECT practice_id, id, status, uploaded_at, refusal_code FROM submissions
-        WHERE quarter_id = ? AND status IN ('processing', 'awaiting_confirmation', 'rejected', 'failed')
-        ORDER BY id DESC`,
-      { replacements: [quarterId], type: QueryTypes.SELECT },
-    );
+    const others = await this.submissions.outstandingOfQuarter(quarterId);
     const latestOther = new Map<number, (typeof others)[number][]>();
     for (const o of others)
       latestOther.set(o.practice_id, [...(latestOther.get(o.practice_id) ?? []), o]);
     const rows = practices.map((p) => {
+      const cur = current.get(p.id) ?? null;
       const pending = latestOther.get(p.id) ?? [];
       const awaiting = pending.find(
         (o) => o.status === 'awaiting_confirmation' || o.status === 'processing',
       );
-      const state = p.current_id !== null ? 'current' : awaiting ? 'awaiting_confirmation' : 'none';
+      const state = cur !== null ? 'current' : awaiting ? 'awaiting_confirmation' : 'none';
       const lastProblem =
         pending.find((o) => o.status === 'rejected' || o.status === 'failed') ?? null;
       return {
-        practice: { id: p.id, code: p.code, name: p.name, locality: p.locality },
-        state,
+        practice: { id: p.id, code: p.code, name: p.name, localityName: p.localityName },
+        state: state as 'current' | 'awaiting_confirmation' | 'none',
         current:
-          p.current_id === null
+          cur === null
             ? null
             : {
-                submissionId: p.current_id,
-                records: p.current_rows,
-                confirmedAt: p.confirmed_at ? new Date(p.confirmed_at).toISOString() : null,
-                confirmedBy: p.confirmed_by,
+                submissionId: cur.current_id,
+                records: cur.current_rows,
+                confirmedAt: cur.confirmed_at ? new Date(cur.confirmed_at).toISOString() : null,
+                confirmedBy: cur.confirmed_by,
               },
         waiting: pending
           .filter((o) => o.status === 'awaiting_confirmation' || o.status === 'processing')

@@ -2,51 +2,22 @@
  * Operator commands for a new deployment (cli.js add-region / add-user):
  * the first region and its first regional lead, before anyone can sign in.
  * Each runs in one transaction and writes an audit event (actor "operator").
+ * Regions and practices are the organisations module's (add-region lives there).
  */
-import { QueryTypes, type Sequelize } from 'sequelize';
+import type { Sequelize } from 'sequelize';
+import { appendCommandLineEvent } from '../audit-trail/command-line.js';
+import {
+  addRegion,
+  OperatorError,
+  practiceIdsByCode,
+  regionIdByCode,
+} from '../organisations/command-line.js';
+import { insertUser, userIdByEmail } from './command-line.js';
 import { ROLES, type Role } from './roles.js';
 
-export class OperatorError extends Error {}
+export { addRegion, OperatorError };
 
 const email = /^[^\s@]+@[^\s@]+\.[^\s@]+$/;
-
-export async function addRegion(sequelize: Sequelize, code: string, name: string): Promise<number> {
-  if (!/^[A-Z0-9][A-Z0-9-]{0,31}$/.test(code)) {
-    throw new OperatorError(
-      `--code must be 1–32 capital letters, digits or dashes, e.g. NORTH (got "${code}")`,
-    );
-  }
-  if (!name.trim()) throw new OperatorError('--name must not be empty');
-  return sequelize.transaction(async (transaction) => {
-    const [existing] = await sequelize.query<{ id: number }>(
-      'SELECT id FROM regions WHERE code = ?',
-      {
-        replacements: [code],
-        type: QueryTypes.SELECT,
-        transaction,
-      },
-    );
-    if (existing) throw new OperatorError(`a region with code ${code} already exists`);
-    const [id] = await sequelize.query('INSERT INTO regions (code, name) VALUES (?, ?)', {
-      replacements: [code, name.trim()],
-      type: QueryTypes.INSERT,
-      transaction,
-    });
-    await sequelize.query(
-      "INSERT INTO audit_events (occurred_at, action, outcome, actor_label, region_id, subject_type, subject_id, summary) VALUES (NOW(3), 'region.created', 'success', 'operator', ?, 'region', ?, ?)",
-      {
-        replacements: [
-          id,
-          String(id),
-          `Region ${name.trim()} (${code}) created from the command line`,
-        ],
-        type: QueryTypes.INSERT,
-        transaction,
-      },
-    );
-    return Number(id);
-  });
-}
 
 export interface AddUserInput {
   region: string;
@@ -72,67 +43,43 @@ export async function addUser(sequelize: Sequelize, input: AddUserInput): Promis
     throw new OperatorError('--practices applies to practice leads only');
   }
   return sequelize.transaction(async (transaction) => {
-    const [region] = await sequelize.query<{ id: number }>(
-      'SELECT id FROM regions WHERE code = ?',
-      {
-        replacements: [input.region],
-        type: QueryTypes.SELECT,
-        transaction,
-      },
-    );
-    if (!region)
+    const regionId = await regionIdByCode(sequelize, input.region, transaction);
+    if (regionId === null)
       throw new OperatorError(
         `no region with code ${input.region}: create it first with add-region`,
       );
-    const [taken] = await sequelize.query<{ id: number }>('SELECT id FROM users WHERE email = ?', {
-      replacements: [address],
-      type: QueryTypes.SELECT,
-      transaction,
-    });
-    if (taken)
+    if ((await userIdByEmail(sequelize, address, transaction)) !== null)
       throw new OperatorError(
         `${address} is already a Cairn user; change them on the Users screen`,
       );
-    const practiceIds: number[] = [];
-    for (const code of input.practices) {
-      const [practice] = await sequelize.query<{ id: number }>(
-        'SELECT id FROM practices WHERE region_id = ? AND code = ?',
-        { replacements: [region.id, code], type: QueryTypes.SELECT, transaction },
-      );
-      if (!practice) throw new OperatorError(`no practice ${code} in region ${input.region}`);
-      practiceIds.push(practice.id);
-    }
-    const [userId] = await sequelize.query(
-      'INSERT INTO users (region_id, email, display_name, role, status) VALUES (?, ?, ?, ?, ?)',
+    const found = await practiceIdsByCode(sequelize, regionId, input.practices, transaction);
+    const missing = input.practices.find((code) => !found.has(code));
+    if (missing !== undefined)
+      throw new OperatorError(`no practice ${missing} in region ${input.region}`);
+    const userId = await insertUser(
+      sequelize,
       {
-        replacements: [region.id, address, input.name.trim(), role, 'active'],
-        type: QueryTypes.INSERT,
-        transaction,
+        regionId,
+        email: address,
+        displayName: input.name.trim(),
+        role,
+        practiceIds: input.practices.map((code) => found.get(code)!),
       },
+      transaction,
     );
-    for (const practiceId of practiceIds) {
-      await sequelize.query(
-        'INSERT INTO memberships (user_id, practice_id, role) VALUES (?, ?, ?)',
-        {
-          replacements: [userId, practiceId, 'practice_lead'],
-          type: QueryTypes.INSERT,
-          transaction,
-        },
-      );
-    }
-    await sequelize.query(
-      "INSERT INTO audit_events (occurred_at, action, outcome, actor_label, region_id, subject_type, subject_id, summary) VALUES (NOW(3), 'user.created', 'success', 'operator', ?, 'user', ?, ?)",
+    await appendCommandLineEvent(
+      sequelize,
       {
-        replacements: [
-          region.id,
-          String(userId),
-          `${input.name.trim()} <${address}> added as ${role} from the command line`,
-        ],
-        type: QueryTypes.INSERT,
-        transaction,
+        action: 'user.created',
+        summary: `${input.name.trim()} <${address}> added as ${role} from the command line`,
+        actorLabel: 'operator',
+        regionId,
+        subjectType: 'user',
+        subjectId: userId,
       },
+      transaction,
     );
-    return Number(userId);
+    return userId;
   });
 }
 

@@ -12,12 +12,10 @@ import {
   Post,
   Put,
   Query,
-  Req,
 } from '@nestjs/common';
 import { ApiCreatedResponse, ApiOkResponse, ApiOperation, ApiTags } from '@nestjs/swagger';
-import type { Request } from 'express';
-import type { AuthUser } from '../auth/auth-user.js';
-import { CurrentUser, PracticeScoped, Roles } from '../auth/decorators.js';
+import { type Actor, CurrentActor } from '../auth/actor.js';
+import { PracticeScoped, Roles } from '../auth/decorators.js';
 import {
   CreateUserDto,
   ListUsersQuery,
@@ -26,14 +24,10 @@ import {
   UserListDto,
   UserOptionsDto,
 } from './dto/user.dto.js';
-import { type ChangeContext, UsersService } from './users.service.js';
+import { UsersService } from './users.service.js';
+import { ApiProblems } from '../common/problem.dto.js';
 
-const context = (actor: AuthUser, req: Request): ChangeContext => ({
-  actor,
-  requestId: (req as Request & { id?: string }).id ?? null,
-  ipAddress: req.ip ?? null,
-});
-
+@ApiProblems()
 @ApiTags('users')
 @Controller('users')
 @Roles('regional_lead')
@@ -45,38 +39,31 @@ export class UsersController {
     summary: "The region's people, filtered by search text, role, status or practice",
   })
   @ApiOkResponse({ type: UserListDto })
-  async list(@CurrentUser() user: AuthUser, @Query() query: ListUsersQuery): Promise<UserListDto> {
-    return {
-      users: await this.users.list(user.regionId, query),
-      trustIdpRoles: this.users.trustIdpRoles,
-    };
+  list(@CurrentActor() actor: Actor, @Query() query: ListUsersQuery): Promise<UserListDto> {
+    return this.users.list(actor.regionId, query);
   }
 
   @Get('options')
   @ApiOperation({ summary: 'What the users screen offers: the practices that can be assigned' })
   @ApiOkResponse({ type: UserOptionsDto })
-  options(@CurrentUser() user: AuthUser): Promise<UserOptionsDto> {
-    return this.users.options(user.regionId);
+  options(@CurrentActor() actor: Actor): Promise<UserOptionsDto> {
+    return this.users.options(actor.regionId);
   }
 
   @Get(':userId')
   @ApiOkResponse({ type: UserDto })
   get(
-    @CurrentUser() user: AuthUser,
+    @CurrentActor() actor: Actor,
     @Param('userId', ParseIntPipe) userId: number,
   ): Promise<UserDto> {
-    return this.users.get(user.regionId, userId);
+    return this.users.get(actor.regionId, userId);
   }
 
   @Post()
   @ApiOperation({ summary: 'Adds a person who may then sign in' })
   @ApiCreatedResponse({ type: UserDto })
-  create(
-    @CurrentUser() user: AuthUser,
-    @Req() req: Request,
-    @Body() dto: CreateUserDto,
-  ): Promise<UserDto> {
-    return this.users.create(dto, context(user, req));
+  create(@CurrentActor() actor: Actor, @Body() dto: CreateUserDto): Promise<UserDto> {
+    return this.users.create(dto, actor);
   }
 
   @Patch(':userId')
@@ -86,12 +73,11 @@ export class UsersController {
   })
   @ApiOkResponse({ type: UserDto })
   update(
-    @CurrentUser() user: AuthUser,
-    @Req() req: Request,
+    @CurrentActor() actor: Actor,
     @Param('userId', ParseIntPipe) userId: number,
     @Body() dto: UpdateUserDto,
   ): Promise<UserDto> {
-    return this.users.update(userId, dto, context(user, req));
+    return this.users.update(userId, dto, actor);
   }
 
   @Put(':userId/practices/:practiceId')
@@ -99,12 +85,11 @@ export class UsersController {
   @ApiOperation({ summary: 'Makes a practice lead a lead of one more practice' })
   @ApiOkResponse({ type: UserDto })
   assign(
-    @CurrentUser() user: AuthUser,
-    @Req() req: Request,
+    @CurrentActor() actor: Actor,
     @Param('userId', ParseIntPipe) userId: number,
     @Param('practiceId', ParseIntPipe) practiceId: number,
   ): Promise<UserDto> {
-    return this.users.assignPractice(userId, practiceId, context(user, req));
+    return this.users.assignPractice(userId, practiceId, actor);
   }
 
   @Delete(':userId/practices/:practiceId')
@@ -112,12 +97,11 @@ export class UsersController {
   @ApiOperation({ summary: 'Removes a practice from a practice lead' })
   @ApiOkResponse({ type: UserDto })
   remove(
-    @CurrentUser() user: AuthUser,
-    @Req() req: Request,
+    @CurrentActor() actor: Actor,
     @Param('userId', ParseIntPipe) userId: number,
     @Param('practiceId', ParseIntPipe) practiceId: number,
   ): Promise<UserDto> {
-    return this.users.removePractice(userId, practiceId, context(user, req));
+    return this.users.removePractice(userId, practiceId, actor);
   }
 
   @Post(':userId/deactivate')
@@ -125,11 +109,10 @@ export class UsersController {
   @ApiOperation({ summary: 'Deactivates a person: their sessions end and they cannot sign in' })
   @ApiOkResponse({ type: UserDto })
   deactivate(
-    @CurrentUser() user: AuthUser,
-    @Req() req: Request,
+    @CurrentActor() actor: Actor,
     @Param('userId', ParseIntPipe) userId: number,
   ): Promise<UserDto> {
-    return this.users.setStatus(userId, 'deactivated', context(user, req));
+    return this.users.setStatus(userId, 'deactivated', actor);
   }
 
   @Post(':userId/reactivate')
@@ -137,10 +120,9 @@ export class UsersController {
   @ApiOperation({ summary: 'Lets a deactivated person sign in again' })
   @ApiOkResponse({ type: UserDto })
   reactivate(
-    @CurrentUser() user: AuthUser,
-    @Req() req: Request,
+    @CurrentActor() actor: Actor,
     @Param('userId', ParseIntPipe) userId: number,
   ): Promise<UserDto> {
-    return this.users.setStatus(userId, 'active', context(user, req));
+    return this.users.setStatus(userId, 'active', actor);
   }
 }

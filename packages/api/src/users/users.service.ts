@@ -11,17 +11,18 @@ import { InjectModel } from '@nestjs/sequelize';
 import { Op, type Transaction, type WhereOptions } from 'sequelize';
 import type { Sequelize } from 'sequelize-typescript';
 import { AuditTrailService } from '../audit-trail/audit-trail.service.js';
-import type { AuthUser } from '../auth/auth-user.js';
+import type { Actor } from '../auth/actor.js';
 import { section } from '../auth/config-section.js';
 import { SessionService } from '../auth/session.service.js';
 import { ProblemException } from '../common/problem.js';
-import { Locality } from '../organisations/models/locality.model.js';
-import { Practice } from '../organisations/models/practice.model.js';
+import type { PracticeRefDto } from '../organisations/dto/practice.dto.js';
+import { OrganisationsService } from '../organisations/organisations.service.js';
 import type {
   CreateUserDto,
   ListUsersQuery,
   UpdateUserDto,
   UserDto,
+  UserListDto,
   UserOptionsDto,
 } from './dto/user.dto.js';
 import { Membership } from './models/membership.model.js';
@@ -31,18 +32,12 @@ import type { Role } from './roles.js';
 const roleLabel = (role: Role) =>
   ({ regional_lead: 'regional lead', practice_lead: 'practice lead', auditor: 'auditor' })[role];
 
-export interface ChangeContext {
-  actor: AuthUser;
-  requestId: string | null;
-  ipAddress: string | null;
-}
-
 @Injectable()
 export class UsersService {
   constructor(
     @InjectModel(User) private readonly users: typeof User,
     @InjectModel(Membership) private readonly memberships: typeof Membership,
-    @InjectModel(Practice) private readonly practices: typeof Practice,
+    @Inject(OrganisationsService) private readonly organisations: OrganisationsService,
     @Inject(AuditTrailService) private readonly audit: AuditTrailService,
     @Inject(SessionService) private readonly sessions: SessionService,
     @Inject(ConfigService) private readonly config: ConfigService,
@@ -56,7 +51,7 @@ export class UsersService {
     return section(this.config, 'auth').trustIdpRoles;
   }
 
-  async list(regionId: number, query: ListUsersQuery): Promise<UserDto[]> {
+  async list(regionId: number, query: ListUsersQuery): Promise<UserListDto> {
     const where: WhereOptions = { regionId };
     if (query.role) Object.assign(where, { role: query.role });
     if (query.status) Object.assign(where, { status: query.status });
@@ -77,40 +72,50 @@ export class UsersService {
     }
     const rows = await this.users.findAll({
       where,
-      include: [{ model: Membership, include: [Practice] }],
+      include: [Membership],
       order: [
         ['displayName', 'ASC'],
         ['id', 'ASC'],
       ],
     });
-    return rows.map(toDto);
+    return { users: await this.toDtos(rows), trustIdpRoles: this.trustIdpRoles };
+  }
+
+  /** The views of these people, their practices named by the organisations module. */
+  private async toDtos(rows: User[], transaction?: Transaction): Promise<UserDto[]> {
+    const practices = new Map(
+      (
+        await this.organisations.practiceRefs(
+          rows.flatMap((u) => (u.memberships ?? []).map((m) => m.practiceId)),
+          transaction,
+        )
+      ).map((p) => [p.id, p]),
+    );
+    return rows.map((user) => toDto(user, practices));
   }
 
   async options(regionId: number): Promise<UserOptionsDto> {
-    const practices = await this.practices.findAll({
-      where: { regionId },
-      include: [Locality],
-      order: [['code', 'ASC']],
-    });
+    const practices = await this.organisations.regionPractices(regionId);
     return {
       practices: practices.map((p) => ({
         id: p.id,
         code: p.code,
         name: p.name,
-        localityName: p.locality?.name ?? null,
+        localityName: p.localityName,
       })),
       trustIdpRoles: this.trustIdpRoles,
     };
   }
 
   async get(regionId: number, userId: number, transaction?: Transaction): Promise<UserDto> {
-    return toDto(await this.find(regionId, userId, transaction));
+    const [dto] = await this.toDtos([await this.find(regionId, userId, transaction)], transaction);
+    return dto!;
   }
 
   private async find(regionId: number, userId: number, transaction?: Transaction): Promise<User> {
     const user = await this.users.findOne({
       where: { id: userId, regionId },
-      include: [{ model: Membership, include: [Practice] }],
+      include: [Membership],
       transaction,
     });
     if (!user) {
@@ -124,9 +129,15 @@ export class UsersService {
     return user;
   }
 
-  private async regionPractices(regionId: number, ids: number[], transaction: Transaction) {
+  private async regionPractices(
+    regionId: number,
+    ids: number[],
+    transaction: Transaction,
+  ): Promise<PracticeRefDto[]> {
     const unique = [...new Set(ids)];
-    const found = await this.practices.findAll({ where: { id: unique, regionId }, transaction });
+    const found = unique.length
+      ? await this.organisations.regionPractices(regionId, { ids: unique, transaction })
+      : [];
     const missing = unique.filter((id) => !found.some((p) => p.id === id));
     if (missing.length) {
       throw new ProblemException(
@@ -140,18 +151,12 @@ export class UsersService {
     return found;
   }
 
-  private entry(
-    c: ChangeContext,
-    user: { id: number },
-    action: string,
-    summary: string,
-    extra = {},
-  ) {
+  private entry(c: Actor, user: { id: number }, action: string, summary: string, extra = {}) {
     return {
       action,
       summary,
-      actor: { id: c.actor.id, label: c.actor.email },
-      regionId: c.actor.regionId,
+      actor: { id: c.id, label: c.label },
+      regionId: c.regionId,
       subjectType: 'user',
       subjectId: user.id,
       requestId: c.requestId,
@@ -160,7 +165,7 @@ export class UsersService {
     };
   }
 
-  async create(dto: CreateUserDto, c: ChangeContext): Promise<UserDto> {
+  async create(dto: CreateUserDto, c: Actor): Promise<UserDto> {
     const practiceIds = dto.role === 'practice_lead' ? (dto.practiceIds ?? []) : [];
     if (dto.role !== 'practice_lead' && dto.practiceIds?.length) {
       throw new ProblemException(
@@ -185,10 +190,10 @@ export class UsersService {
           },
         );
       }
-      const practices = await this.regionPractices(c.actor.regionId, practiceIds, transaction);
+      const practices = await this.regionPractices(c.regionId, practiceIds, transaction);
       const user = await this.users.create(
         {
-          regionId: c.actor.regionId,
+          regionId: c.regionId,
           email: dto.email,
           displayName: dto.displayName,
           role: dto.role,
@@ -207,19 +212,19 @@ export class UsersService {
           c,
           user,
           'user.created',
-          `${c.actor.displayName} added ${dto.displayName} (${dto.email}) as ${roleLabel(dto.role)}${
+          `${c.displayName} added ${dto.displayName} (${dto.email}) as ${roleLabel(dto.role)}${
             practices.length ? ` of ${practices.map((p) => p.code).join(', ')}` : ''
           }`,
           { detail: { role: dto.role, practiceCodes: practices.map((p) => p.code) } },
         ),
         transaction,
       );
-      return this.get(c.actor.regionId, user.id, transaction);
+      return this.get(c.regionId, user.id, transaction);
     });
   }
 
-  private assertNotSelf(c: ChangeContext, userId: number, what: string) {
-    if (c.actor.id === userId) {
+  private assertNotSelf(c: Actor, userId: number, what: string) {
+    if (c.id === userId) {
       throw new ProblemException(
         HttpStatus.CONFLICT,
         'own-account',
@@ -229,9 +234,9 @@ export class UsersService {
     }
   }
 
-  async update(userId: number, dto: UpdateUserDto, c: ChangeContext): Promise<UserDto> {
+  async update(userId: number, dto: UpdateUserDto, c: Actor): Promise<UserDto> {
     return this.sequelize.transaction(async (transaction) => {
-      const user = await this.find(c.actor.regionId, userId, transaction);
+      const user = await this.find(c.regionId, userId, transaction);
       if (dto.displayName !== undefined && dto.displayName !== user.displayName) {
         const from = user.displayName;
         await user.update({ displayName: dto.displayName }, { transaction });
@@ -240,7 +245,7 @@ export class UsersService {
             c,
             user,
             'user.renamed',
-            `${c.actor.displayName} renamed ${from} to ${dto.displayName}`,
+            `${c.displayName} renamed ${from} to ${dto.displayName}`,
             {
               detail: { from, to: dto.displayName },
             },
@@ -252,6 +257,10 @@ export class UsersService {
         this.assertNotSelf(c, userId, 'change the role of');
         const from = user.role;
         const removed = from === 'practice_lead' ? (user.memberships ?? []) : [];
+        const removedRefs = await this.organisations.practiceRefs(
+          removed.map((m) => m.practiceId),
+          transaction,
+        );
         for (const membership of removed) await membership.destroy({ transaction });
         await user.update({ role: dto.role }, { transaction });
         await this.audit.append(
@@ -259,9 +268,9 @@ export class UsersService {
             c,
             user,
             'user.role_changed',
-            `${c.actor.displayName} changed ${user.displayName}'s role from ${roleLabel(from)} to ${roleLabel(dto.role)}${
+            `${c.displayName} changed ${user.displayName}'s role from ${roleLabel(from)} to ${roleLabel(dto.role)}${
               removed.length
-                ? `; their practices (${removed.map((m) => m.practice?.code).join(', ')}) were removed`
+                ? `; their practices (${removedRefs.map((p) => p.code).join(', ')}) were removed`
                 : ''
             }`,
             {
@@ -271,13 +280,13 @@ export class UsersService {
           transaction,
         );
       }
-      return this.get(c.actor.regionId, userId, transaction);
+      return this.get(c.regionId, userId, transaction);
     });
   }
 
-  async assignPractice(userId: number, practiceId: number, c: ChangeContext): Promise<UserDto> {
+  async assignPractice(userId: number, practiceId: number, c: Actor): Promise<UserDto> {
     return this.sequelize.transaction(async (transaction) => {
-      const user = await this.find(c.actor.regionId, userId, transaction);
+      const user = await this.find(c.regionId, userId, transaction);
       if (user.role !== 'practice_lead') {
         throw new ProblemException(
           HttpStatus.CONFLICT,
@@ -286,7 +295,7 @@ export class UsersService {
           `${user.displayName} is ${roleLabel(user.role) === 'auditor' ? 'an' : 'a'} ${roleLabel(user.role)} and already reads every practice. Make them a practice lead first.`,
         );
       }
-      const [practice] = await this.regionPractices(c.actor.regionId, [practiceId], transaction);
+      const [practice] = await this.regionPractices(c.regionId, [practiceId], transaction);
       if (!(user.memberships ?? []).some((m) => m.practiceId === practiceId)) {
         await this.memberships.create(
           { userId, practiceId, role: 'practice_lead' },
@@ -297,19 +306,19 @@ export class UsersService {
             c,
             user,
             'membership.added',
-            `${c.actor.displayName} made ${user.displayName} a lead of ${practice!.name} (${practice!.code})`,
+            `${c.displayName} made ${user.displayName} a lead of ${practice!.name} (${practice!.code})`,
             { practiceId },
           ),
           transaction,
         );
       }
-      return this.get(c.actor.regionId, userId, transaction);
+      return this.get(c.regionId, userId, transaction);
     });
   }
 
-  async removePractice(userId: number, practiceId: number, c: ChangeContext): Promise<UserDto> {
+  async removePractice(userId: number, practiceId: number, c: Actor): Promise<UserDto> {
     return this.sequelize.transaction(async (transaction) => {
-      const user = await this.find(c.actor.regionId, userId, transaction);
+      const user = await this.find(c.regionId, userId, transaction);
       const membership = (user.memberships ?? []).find((m) => m.practiceId === practiceId);
       if (!membership) {
         throw new ProblemException(
@@ -319,29 +328,26 @@ export class UsersService {
           `${user.displayName} does not lead practice ${practiceId}.`,
         );
       }
+      const [practice] = await this.organisations.practiceRefs([practiceId], transaction);
       await membership.destroy({ transaction });
       await this.audit.append(
         this.entry(
           c,
           user,
           'membership.removed',
-          `${c.actor.displayName} removed ${user.displayName} as a lead of ${membership.practice?.name} (${membership.practice?.code})`,
+          `${c.displayName} removed ${user.displayName} as a lead of ${practice?.name} (${practice?.code})`,
           { practiceId },
         ),
         transaction,
       );
-      return this.get(c.actor.regionId, userId, transaction);
+      return this.get(c.regionId, userId, transaction);
     });
   }
 
-  async setStatus(
-    userId: number,
-    status: 'active' | 'deactivated',
-    c: ChangeContext,
-  ): Promise<UserDto> {
+  async setStatus(userId: number, status: 'active' | 'deactivated', c: Actor): Promise<UserDto> {
     return this.sequelize.transaction(async (transaction) => {
-      const user = await this.find(c.actor.regionId, userId, transaction);
-      if (user.status === status) return toDto(user);
+      const user = await this.find(c.regionId, userId, transaction);
+      if (user.status === status) return this.get(c.regionId, userId, transaction);
       if (status === 'deactivated') {
         this.assertNotSelf(c, userId, 'deactivate');
       }
@@ -354,22 +360,21 @@ export class UsersService {
           user,
           status === 'deactivated' ? 'user.deactivated' : 'user.reactivated',
           status === 'deactivated'
-            ? `${c.actor.displayName} deactivated ${user.displayName}${ended ? ` and ended ${ended} open session${ended === 1 ? '' : 's'}` : ''}`
-            : `${c.actor.displayName} reactivated ${user.displayName}`,
+            ? `${c.displayName} deactivated ${user.displayName}${ended ? ` and ended ${ended} open session${ended === 1 ? '' : 's'}` : ''}`
+            : `${c.displayName} reactivated ${user.displayName}`,
           { detail: { endedSessions: ended } },
         ),
         transaction,
       );
-      return this.get(c.actor.regionId, userId, transaction);
+      return this.get(c.regionId, userId, transaction);
     });
   }
 }
 
-export function toDto(user: User): UserDto {
+function toDto(user: User, practiceRefs: Map<number, PracticeRefDto>): UserDto {
   const practices = (user.memberships ?? [])
-    .map((m) => m.practice)
-    .filter((p): p is Practice => Boolean(p))
-    .map((p) => ({ id: p.id, code: p.code, name: p.name }))
+    .map((m) => practiceRefs.get(m.practiceId))
+    .filter((p): p is PracticeRefDto => p !== undefined)
     .sort((a, b) => a.code.localeCompare(b.code));
   return {
     id: user.id,

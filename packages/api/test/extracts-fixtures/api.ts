@@ -1,6 +1,7 @@
 /** Test helpers for the extracts API: arrange practices and quarters, upload and wait. */
 import { QueryTypes } from 'sequelize';
 import type TestAgent from 'supertest/lib/agent.js';
+import { systemActor } from '../../src/auth/actor.js';
 import { QuartersService } from '../../src/quarters/quarters.service.js';
 import { demoIds, seedDemoOrganisation } from '../support/auth.js';
 import type { TestApp } from '../support/test-app.js';
@@ -22,10 +23,11 @@ export async function arrange(t: TestApp, labels = ['2026 Q2', '2026 Q3']): Prom
   labels.forEach((label, i) => void i);
   for (const [i, label] of labels.entries()) {
     const [year, q] = label.split(' Q').map(Number) as [number, number];
-    const row = await quarters.open(
-      { id: null, label: 'system', regionId: region!.id },
-      { year, quarter: q, status: i === labels.length - 1 ? 'open' : 'closed' },
-    );
+    const row = await quarters.open(systemActor('system', region!.id), {
+      year,
+      quarter: q,
+      status: i === labels.length - 1 ? 'open' : 'closed',
+    });
     byLabel.set(label, row.id);
   }
   return {

@@ -13,7 +13,8 @@ import { NavLink, Outlet, ScrollRestoration, useLocation } from 'react-router-do
 import { CairnMark } from '../components/CairnMark';
 import { CLINICAL_CAUTION } from '../components/ClinicalCaution';
 import { useAbout } from '../features/landing/api/about';
-import { roleLabels, useMe } from '../features/session/api/me';
+import { roleLabels } from '../lib/roles';
+import { useMe } from '../lib/session';
 import { alsoActive, navigationFor } from './navigation';
 import { useTheme } from './theme';
 import './AppLayout.css';

@@ -9,20 +9,21 @@ import {
   Spinner,
 } from '@blueprintjs/core';
 import { Link } from 'react-router-dom';
+import type { Me, Quarter, Submission } from '../lib/api/types';
 import { formatCount } from '../lib/format';
+import { roleLabels } from '../lib/roles';
+import { useMe } from '../lib/session';
 import {
-  type Quarter,
-  type Submission,
   useCoverage,
   useHistory,
   useQuarters,
+  useUploadOptions,
 } from '../features/extracts/api/extracts';
 import { Figure } from '../features/extracts/components/Figure';
 import { formatDate } from '../features/extracts/components/format';
 import { LinkButton } from '../features/extracts/components/LinkButton';
 import { CoverageTag, StatusTag } from '../features/extracts/components/StatusTag';
 import { Landing } from '../features/landing/routes/Landing';
-import { type Me, roleLabels, useMe } from '../features/session/api/me';
 import '../features/extracts/routes/Extracts.css';
 import './Home.css';
 
@@ -126,8 +127,9 @@ function PracticeRow({
   const open = entry?.submissions.find(
     (s: Submission) => s.status === 'processing' || s.status === 'awaiting_confirmation',
   );
+  // The API's upload action for this practice in this quarter.
   const upload =
-    quarter && quarter.status === 'open' && history.data?.canUpload
+    quarter && entry?.actions.upload
       ? `/extracts/upload?practice=${practice.id}&quarter=${quarter.id}`
       : null;
   return (
@@ -189,6 +191,9 @@ function RegionHome({ user }: { user: Me }) {
   const quarters = useQuarters();
   const quarter = quarterNow(quarters.data);
   const coverage = useCoverage(quarter?.id ?? null);
+  // The API's upload action: offered when there is a practice the person may send for.
+  const uploads = useUploadOptions();
+  const mayUpload = (uploads.data?.practices.length ?? 0) > 0;
   const totals = coverage.data?.totals;
   const coverageLink = (state?: string) =>
     `/coverage?quarter=${quarter?.id ?? ''}${state ? `&state=${state}` : ''}`;
@@ -249,11 +254,11 @@ function RegionHome({ user }: { user: Me }) {
               to={coverageLink()}
               text="Open coverage"
             />
+            {mayUpload ? (
+              <LinkButton icon="upload" to="/extracts/upload" text="Upload for a practice" />
+            ) : null}
             {user.role === 'regional_lead' ? (
-              <>
-                <LinkButton icon="upload" to="/extracts/upload" text="Upload for a practice" />
-                <LinkButton variant="minimal" icon="people" to="/users" text="Users" />
-              </>
+              <LinkButton variant="minimal" icon="people" to="/users" text="Users" />
             ) : null}
             <LinkButton variant="minimal" icon="history" to="/audit-trail" text="Audit trail" />
           </div>

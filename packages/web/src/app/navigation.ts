@@ -1,5 +1,5 @@
 import type { IconName } from '@blueprintjs/icons';
-import type { Me, Role } from '../features/session/api/me';
+import { type Me, type Role, roleValues } from '../lib/api/types';
 
 export interface NavItem {
   label: string;
@@ -11,7 +11,7 @@ export interface NavItem {
   activeFor?: RegExp;
 }
 
-const everyone: readonly Role[] = ['regional_lead', 'practice_lead', 'auditor'];
+const everyone: readonly Role[] = roleValues;
 
 /**
  * Navigation, by role. A feature adds its entry here when its screens exist;

@@ -3,19 +3,12 @@
  * RFC 9457 problem details turned into an ApiError that screens can show.
  */
 
-export interface FieldProblem {
-  field: string;
-  message: string;
-}
+import type { Problem } from './api/types';
 
-export interface ProblemDetails {
-  type: string;
-  title: string;
-  status: number;
-  detail?: string;
-  errors?: FieldProblem[];
-  [extension: string]: unknown;
-}
+export type { FieldProblem } from './api/types';
+
+/** A problem as received: its documented fields, and whatever extensions the route adds. */
+export type ProblemDetails = Problem & { [extension: string]: unknown };
 
 export class ApiError extends Error {
   constructor(readonly problem: ProblemDetails) {

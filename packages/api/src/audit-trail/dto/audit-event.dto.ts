@@ -11,33 +11,30 @@ import {
   MaxLength,
   Min,
 } from 'class-validator';
+import { PracticeRefDto } from '../../organisations/dto/practice.dto.js';
 import { AUDIT_OUTCOMES, type AuditOutcome } from '../models/audit-event.model.js';
 
 export class AuditEventDto {
-  @ApiProperty()
+  @ApiProperty({ type: Number })
   id!: number;
 
-  @ApiProperty({ description: 'ISO 8601' })
+  @ApiProperty({ type: String, description: 'ISO 8601' })
   occurredAt!: string;
 
-  @ApiProperty({ example: 'auth.sign_in' })
+  @ApiProperty({ type: String, example: 'auth.sign_in' })
   action!: string;
 
-  @ApiProperty({ enum: AUDIT_OUTCOMES })
+  @ApiProperty({ enum: AUDIT_OUTCOMES, enumName: 'AuditOutcome' })
   outcome!: AuditOutcome;
 
   @ApiProperty({ nullable: true, type: Number })
   actorUserId!: number | null;
 
-  @ApiProperty({ example: 'imogen.varley@ostrevale.example' })
+  @ApiProperty({ type: String, example: 'imogen.varley@ostrevale.example' })
   actorLabel!: string;
 
-  @ApiProperty({
-    nullable: true,
-    type: Object,
-    description: '{ id, code, name } of the practice concerned',
-  })
-  practice!: { id: number; code: string; name: string } | null;
+  @ApiProperty({ nullable: true, type: PracticeRefDto, description: 'The practice concerned' })
+  practice!: PracticeRefDto | null;
 
   @ApiProperty({ nullable: true, type: String })
   subjectType!: string | null;
@@ -45,10 +42,15 @@ export class AuditEventDto {
   @ApiProperty({ nullable: true, type: String })
   subjectId!: string | null;
 
-  @ApiProperty()
+  @ApiProperty({ type: String })
   summary!: string;
 
-  @ApiProperty({ nullable: true, type: Object })
+  @ApiProperty({
+    nullable: true,
+    type: 'object',
+    additionalProperties: true,
+    description: 'What the event recorded beyond its summary; its keys depend on the action',
+  })
   detail!: Record<string, unknown> | null;
 
   @ApiProperty({ nullable: true, type: String })
@@ -71,10 +73,10 @@ export class AuditEventPageDto {
 }
 
 export class AuditActionDto {
-  @ApiProperty({ example: 'auth.sign_in' })
+  @ApiProperty({ type: String, example: 'auth.sign_in' })
   action!: string;
 
-  @ApiProperty()
+  @ApiProperty({ type: Number })
   count!: number;
 }
 
@@ -92,7 +94,7 @@ export class ListAuditEventsQuery {
   })
   action?: string;
 
-  @ApiProperty({ required: false, enum: AUDIT_OUTCOMES })
+  @ApiProperty({ required: false, enum: AUDIT_OUTCOMES, enumName: 'AuditOutcome' })
   @IsOptional()
   @IsIn(AUDIT_OUTCOMES, { message: `outcome must be one of: ${AUDIT_OUTCOMES.join(', ')}` })
   outcome?: AuditOutcome;
@@ -107,7 +109,7 @@ export class ListAuditEventsQuery {
   @MaxLength(100)
   search?: string;
 
-  @ApiProperty({ required: false })
+  @ApiProperty({ required: false, type: Number })
   @IsOptional()
   @Type(() => Number)
   @IsInt({ message: 'practiceId must be a whole number' })

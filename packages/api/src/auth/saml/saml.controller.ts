@@ -42,9 +42,11 @@ import { runPassport } from './passport-run.js';
 import { type SamlIdentity, SamlStrategy } from './saml.strategy.js';
 import { SignInPageFilter } from './sign-in-page.filter.js';
 import { section } from '../config-section.js';
+import { ApiProblems } from '../../common/problem.dto.js';
 
 export class SignOutDto {
   @ApiProperty({
+    type: String,
     description:
       "Where to send the browser: the identity provider's single logout (which returns to Cairn), or Cairn's signed-out page",
     example: '/sign-in?signedOut=1',
@@ -66,6 +68,7 @@ export function requestContext(req: Request): RequestContext {
 
 export const SIGNED_OUT_URL = '/sign-in?signedOut=1';
 
+@ApiProblems()
 @ApiTags('sign-in')
 @Controller('auth')
 @UseGuards(SignInThrottlerGuard)

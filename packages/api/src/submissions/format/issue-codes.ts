@@ -8,7 +8,8 @@
  * docs/extract-format.md use them.
  */
 
-export type IssueSeverity = 'refusal' | 'error' | 'warning' | 'flag';
+export const ISSUE_SEVERITIES = ['refusal', 'error', 'warning', 'flag'] as const;
+export type IssueSeverity = (typeof ISSUE_SEVERITIES)[number];
 
 export interface IssueCode {
   severity: IssueSeverity;

@@ -11,13 +11,14 @@ import { Inject, Injectable } from '@nestjs/common';
 import ExcelJS from 'exceljs';
 import { QueryTypes } from 'sequelize';
 import { Sequelize } from 'sequelize-typescript';
-import type { AuthUser } from '../../auth/index.js';
+import type { Actor } from '../../auth/actor.js';
 import { CAIRN_SECRETS } from '../../config/config.module.js';
 import type { CairnSecrets } from '../../config/config.schema.js';
 import { pseudonymiser } from '../extract-processor.js';
 import { ISSUE_CODES, type IssueCodeKey } from '../format/issue-codes.js';
-import { type SubmissionRow, summaryJson } from '../submission-store.js';
-import { seesRecordRefs, toView } from '../submission-view.js';
+import { seesRecordRefs } from '../submission-policy.js';
+import { summaryJson } from '../submission.repository.js';
+import { type LoadedSubmission, toView } from '../submission-view.js';
 import { neutralise } from '../../common/neutralise.js';
 
 interface IssueRow {
@@ -69,24 +70,25 @@ export class ValidationReportService {
     }
   }
 
-  private value(row: SubmissionRow, user: AuthUser, issue: IssueRow): string | null {
+  private value(loaded: LoadedSubmission, user: Actor, issue: IssueRow): string | null {
     if (
       issue.column_key === 'record_ref' &&
       issue.value_given &&
-      !seesRecordRefs(user, row.practice_id)
+      !seesRecordRefs(user, loaded.practice.id)
     ) {
-      return this.pseudonym(row.practice_code, issue.value_given);
+      return this.pseudonym(loaded.practice.code, issue.value_given);
     }
     return issue.value_given;
   }
 
-  async writeJson(row: SubmissionRow, user: AuthUser, out: Writable): Promise<void> {
+  async writeJson(loaded: LoadedSubmission, user: Actor, out: Writable): Promise<void> {
+    const row = loaded.record;
     const write = (text: string) =>
       out.write(text)
         ? Promise.resolve()
         : new Promise<void>((resolve) => out.once('drain', () => resolve()));
     await write(
-      `{"submission":${JSON.stringify(toView(row, user))},"recordRefsShown":${seesRecordRefs(user, row.practice_id)},"issues":[`,
+      `{"submission":${JSON.stringify(toView(loaded, user))},"recordRefsShown":${seesRecordRefs(user, row.practice_id)},"issues":[`,
     );
     let first = true;
     for await (const page of this.issuePages(row.id)) {
@@ -98,7 +100,7 @@ export class ValidationReportService {
             row: issue.source_row,
             column: issue.column_name,
             columnKey: issue.column_key,
-            value: this.value(row, user, issue),
+            value: this.value(loaded, user, issue),
             severity: issue.severity,
             code: issue.code,
             title: ISSUE_CODES[issue.code as IssueCodeKey]?.title ?? issue.code,
@@ -113,7 +115,8 @@ export class ValidationReportService {
     out.end();
   }
 
-  async writeRejectedRowsXlsx(row: SubmissionRow, user: AuthUser, out: Writable): Promise<void> {
+  async writeRejectedRowsXlsx(loaded: LoadedSubmission, user: Actor, out: Writable): Promise<void> {
+    const row = loaded.record;
     const summary = summaryJson(row);
     const header = summary.header ?? [];
     const refIndex = summary.refColumnIndex ?? null;
@@ -154,7 +157,7 @@ export class ValidationReportService {
         const values = cells.map((cell, i) =>
           neutralise(
             i === refIndex && !showRefs && cell
-              ? this.pseudonym(row.practice_code, cell.trim())
+              ? this.pseudonym(loaded.practice.code, cell.trim())
               : cell,
           ),
         );
@@ -176,7 +179,7 @@ export class ValidationReportService {
     const about = workbook.addWorksheet('about');
     about.getColumn(1).width = 28;
     about.getColumn(2).width = 70;
-    const view = toView(row, user);
+    const view = toView(loaded, user);
     const lines: [string, string | number][] = [
       ['practice', `${view.practice.name} (${view.practice.code})`],
       ['audit quarter', view.quarter.label],

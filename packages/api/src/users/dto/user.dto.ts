@@ -13,42 +13,32 @@ import {
   MaxLength,
   Min,
 } from 'class-validator';
+import { PracticeDto, PracticeRefDto } from '../../organisations/dto/practice.dto.js';
 import { ROLES, type Role, USER_STATUSES, type UserStatus } from '../roles.js';
 
 const trim = ({ value }: { value: unknown }) => (typeof value === 'string' ? value.trim() : value);
 
-export class UserPracticeDto {
-  @ApiProperty({ example: 12 })
-  id!: number;
-
-  @ApiProperty({ example: 'OV102' })
-  code!: string;
-
-  @ApiProperty({ example: 'Quarrybank Surgery' })
-  name!: string;
-}
-
 export class UserDto {
-  @ApiProperty()
+  @ApiProperty({ type: Number })
   id!: number;
 
-  @ApiProperty({ example: 'priya.calloway@quarrybank.example' })
+  @ApiProperty({ type: String, example: 'priya.calloway@quarrybank.example' })
   email!: string;
 
-  @ApiProperty({ example: 'Priya Calloway' })
+  @ApiProperty({ type: String, example: 'Priya Calloway' })
   displayName!: string;
 
-  @ApiProperty({ enum: ROLES })
+  @ApiProperty({ enum: ROLES, enumName: 'Role' })
   role!: Role;
 
-  @ApiProperty({ enum: USER_STATUSES })
+  @ApiProperty({ enum: USER_STATUSES, enumName: 'UserStatus' })
   status!: UserStatus;
 
   @ApiProperty({
-    type: [UserPracticeDto],
-    description: 'Practices this person leads (practice leads)',
+    type: [PracticeRefDto],
+    description: 'Practices this person leads (practice leads), by code',
   })
-  practices!: UserPracticeDto[];
+  practices!: PracticeRefDto[];
 
   @ApiProperty({
     nullable: true,
@@ -57,7 +47,7 @@ export class UserDto {
   })
   lastSignInAt!: string | null;
 
-  @ApiProperty({ description: 'ISO 8601' })
+  @ApiProperty({ type: String, description: 'ISO 8601' })
   createdAt!: string;
 }
 
@@ -66,22 +56,18 @@ export class UserListDto {
   users!: UserDto[];
 
   @ApiProperty({
+    type: Boolean,
     description:
       "True when roles and practices come from the identity provider at each sign-in (changes made here last until the person's next sign-in)",
   })
   trustIdpRoles!: boolean;
 }
 
-export class PracticeOptionDto extends UserPracticeDto {
-  @ApiProperty({ nullable: true, type: String, example: 'Harnleigh Fold' })
-  localityName!: string | null;
-}
-
 export class UserOptionsDto {
-  @ApiProperty({ type: [PracticeOptionDto], description: "The region's practices, by code" })
-  practices!: PracticeOptionDto[];
+  @ApiProperty({ type: [PracticeDto], description: "The region's practices, by code" })
+  practices!: PracticeDto[];
 
-  @ApiProperty()
+  @ApiProperty({ type: Boolean })
   trustIdpRoles!: boolean;
 }
 
@@ -93,12 +79,12 @@ export class ListUsersQuery {
   @MaxLength(100)
   search?: string;
 
-  @ApiProperty({ required: false, enum: ROLES })
+  @ApiProperty({ required: false, enum: ROLES, enumName: 'Role' })
   @IsOptional()
   @IsIn(ROLES, { message: `role must be one of: ${ROLES.join(', ')}` })
   role?: Role;
 
-  @ApiProperty({ required: false, enum: USER_STATUSES })
+  @ApiProperty({ required: false, enum: USER_STATUSES, enumName: 'UserStatus' })
   @IsOptional()
   @IsIn(USER_STATUSES, { message: `status must be one of: ${USER_STATUSES.join(', ')}` })
   status?: UserStatus;
@@ -125,7 +111,7 @@ export class CreateUserDto {
   @Matches(/\S/, { message: 'displayName must not be blank' })
   displayName!: string;
 
-  @ApiProperty({ enum: ROLES })
+  @ApiProperty({ enum: ROLES, enumName: 'Role' })
   @IsIn(ROLES, { message: `role must be one of: ${ROLES.join(', ')}` })
   role!: Role;
 
@@ -142,7 +128,7 @@ export class CreateUserDto {
 }
 
 export class UpdateUserDto {
-  @ApiProperty({ required: false })
+  @ApiProperty({ required: false, type: String })
   @IsOptional()
   @Transform(trim)
   @IsString()
@@ -153,6 +139,7 @@ export class UpdateUserDto {
   @ApiProperty({
     required: false,
     enum: ROLES,
+    enumName: 'Role',
     description: "Changing a practice lead's role removes their practices",
   })
   @IsOptional()

@@ -1,13 +1,14 @@
 // Association attributes use type-only imports so that decorator metadata does not
 // reference a class before its module has run (ESM import cycles).
 import { BelongsTo, Column, DataType, ForeignKey, Model, Table } from 'sequelize-typescript';
-import { Practice } from '../../organisations/models/practice.model.js';
 import { type Role, ROLES } from '../roles.js';
 import { User } from './user.model.js';
 import type { User as UserRow } from './user.model.js';
-import type { Practice as PracticeRow } from '../../organisations/models/practice.model.js';
 
-/** A user's role at one practice (a practice lead may lead several practices). */
+/**
+ * A user's role at one practice (a practice lead may lead several practices).
+ * The practice itself belongs to the organisations module: ask OrganisationsService.
+ */
 @Table({ tableName: 'memberships' })
 export class Membership extends Model {
   declare id: number;
@@ -16,7 +17,6 @@ export class Membership extends Model {
   @Column({ type: DataType.INTEGER, allowNull: false })
   declare userId: number;
 
-  @ForeignKey(() => Practice)
   @Column({ type: DataType.INTEGER, allowNull: false })
   declare practiceId: number;
 
@@ -25,7 +25,4 @@ export class Membership extends Model {
 
   @BelongsTo(() => User)
   declare user?: UserRow;
-
-  @BelongsTo(() => Practice)
-  declare practice?: PracticeRow;
 }

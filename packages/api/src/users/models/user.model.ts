@@ -1,19 +1,9 @@
 // Association attributes use type-only imports so that decorator metadata does not
 // reference a class before its module has run (ESM import cycles).
-import {
-  BelongsTo,
-  Column,
-  DataType,
-  ForeignKey,
-  HasMany,
-  Model,
-  Table,
-} from 'sequelize-typescript';
-import { Region } from '../../organisations/models/region.model.js';
+import { Column, DataType, HasMany, Model, Table } from 'sequelize-typescript';
 import { Membership } from './membership.model.js';
 import { ROLES, type Role, USER_STATUSES, type UserStatus } from '../roles.js';
 import type { Membership as MembershipRow } from './membership.model.js';
-import type { Region as RegionRow } from '../../organisations/models/region.model.js';
 
 export { ROLES, type Role, USER_STATUSES, type UserStatus };
 
@@ -22,7 +12,7 @@ export { ROLES, type Role, USER_STATUSES, type UserStatus };
 export class User extends Model {
   declare id: number;
 
-  @ForeignKey(() => Region)
+  /** The region (organisations module) this person belongs to */
   @Column({ type: DataType.INTEGER, allowNull: false })
   declare regionId: number;
 
@@ -45,9 +35,6 @@ export class User extends Model {
 
   @Column({ type: DataType.DATE(3), allowNull: true })
   declare lastSignInAt: Date | null;
-
-  @BelongsTo(() => Region)
-  declare region?: RegionRow;
 
   @HasMany(() => Membership)
   declare memberships?: MembershipRow[];

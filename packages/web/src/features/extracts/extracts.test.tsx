@@ -2,8 +2,15 @@ import { screen, waitFor, within } from '@testing-library/react';
 import userEvent from '@testing-library/user-event';
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import { renderApp } from '../../../test/render';
-import type { Me } from '../session/api/me';
-import type { Coverage, IssuePage, Quarter, Submission, SubmissionHistory } from './api/extracts';
+import type {
+  Coverage,
+  IssuePage,
+  Me,
+  Quarter,
+  Submission,
+  SubmissionHistory,
+  UploadOptions,
+} from '../../lib/api/types';
 import { fillWidths, rowHeightsFor } from './components/IssuesTable';
 
 const about = {
@@ -21,6 +28,7 @@ const priya: Me = {
   role: 'practice_lead',
   regionName: 'Ostrevale',
   practices: [{ id: 12, code: 'OV102', name: 'Quarrybank Surgery' }],
+  sessionExpiresAt: '2026-12-01T18:00:00.000Z',
 };
 const auditor: Me = {
   ...priya,
@@ -39,6 +47,7 @@ const regional: Me = {
 
 const q3: Quarter = {
   id: 8,
+  regionId: 1,
   year: 2026,
   quarter: 3,
   label: '2026 Q3',
@@ -60,15 +69,7 @@ function submission(over: Partial<Submission> = {}): Submission {
     phase: null,
     isCurrent: false,
     practice: { id: 12, code: 'OV102', name: 'Quarrybank Surgery' },
-    quarter: {
-      id: 8,
-      year: 2026,
-      quarter: 3,
-      label: '2026 Q3',
-      windowStart: '2025-10',
-      windowEnd: '2026-09',
-      status: 'open',
-    },
+    quarter: q3,
     file: {
       name: 'q3.xlsx',
       sizeBytes: 48_213,
@@ -127,7 +128,7 @@ function submission(over: Partial<Submission> = {}): Submission {
     headerRow: 1,
     columnsFound: ['record_ref'],
     columnsIgnored: [],
-    actions: { confirm: true, cancel: true, retry: false },
+    actions: { confirm: true, cancel: true, retry: false, upload: true },
     ...over,
   };
 }
@@ -175,17 +176,36 @@ const current = submission({
   statusLabel: 'Accepted',
   isCurrent: true,
   uploadedAt: '2026-11-01T10:00:00.000Z',
-  actions: { confirm: false, cancel: false, retry: false },
+  actions: { confirm: false, cancel: false, retry: false, upload: true },
 });
 
-function history(subs: Submission[], currentId: number | null = 30): SubmissionHistory {
+/** A practice's history; `upload`: the API's upload action in the open quarter (a practice lead's). */
+function history(
+  subs: Submission[],
+  currentId: number | null = 30,
+  upload = true,
+): SubmissionHistory {
   return {
     practice: { id: 12, code: 'OV102', name: 'Quarrybank Surgery' },
-    canUpload: true,
     quarters: [
-      { quarter: q3, currentSubmissionId: currentId, submissions: subs },
-      { quarter: q2, currentSubmissionId: null, submissions: [] },
+      { quarter: q3, currentSubmissionId: currentId, submissions: subs, actions: { upload } },
+      { quarter: q2, currentSubmissionId: null, submissions: [], actions: { upload: false } },
     ],
+  };
+}
+
+/** Where the API lets a person upload: these practices, each to these quarters. */
+function uploadOptions(
+  practices: Me['practices'],
+  quarterIds: number[],
+  quarters: Quarter[] = [q3, q2],
+): UploadOptions {
+  return {
+    practices: practices.map((p) => ({
+      practice: { ...p, localityName: 'Harnleigh Fold' },
+      quarterIds,
+    })),
+    quarters,
   };
 }
 
@@ -228,7 +248,7 @@ describe('submission page', () => {
       progress: { rowsDone: 250, rowsTotal: 1000 },
       counts: null,
       issuesByCode: [],
-      actions: { confirm: false, cancel: true, retry: false },
+      actions: { confirm: false, cancel: true, retry: false, upload: true },
     });
     stubApi(priya, (path) => {
       if (path === '/api/practices/12/submissions/41') return { body: state };
@@ -333,7 +353,7 @@ describe('submission page', () => {
           body: submission({
             status: 'accepted',
             isCurrent: true,
-            actions: { confirm: false, cancel: false, retry: false },
+            actions: { confirm: false, cancel: false, retry: false, upload: true },
           }),
         };
       }
@@ -343,7 +363,7 @@ describe('submission page', () => {
             ? submission({
                 status: 'accepted',
                 isCurrent: true,
-                actions: { confirm: false, cancel: false, retry: false },
+                actions: { confirm: false, cancel: false, retry: false, upload: true },
               })
             : submission(),
         };
@@ -368,11 +388,13 @@ describe('submission page', () => {
   });
 
   it('never shows write buttons to an auditor, who can still read and download', async () => {
-    const readOnly = submission({ actions: { confirm: false, cancel: false, retry: false } });
+    const readOnly = submission({
+      actions: { confirm: false, cancel: false, retry: false, upload: false },
+    });
     stubApi(auditor, (path) => {
       if (path === '/api/practices/12/submissions/41') return { body: readOnly };
       if (path === '/api/practices/12/submissions')
-        return { body: { ...history([readOnly, current]), canUpload: false } };
+        return { body: history([readOnly, current], 30, false) };
       if (path.startsWith('/api/practices/12/submissions/41/issues'))
         return { body: { ...issuePage, recordRefsShown: false } };
       return undefined;
@@ -409,7 +431,7 @@ describe('submission page', () => {
         fix: 'Add the column birth_year, as in Cairn’s template.',
         detail: null,
       },
-      actions: { confirm: false, cancel: false, retry: false },
+      actions: { confirm: false, cancel: false, retry: false, upload: true },
     });
     stubApi(priya, (path) => {
       if (path === '/api/practices/12/submissions/41') return { body: rejected };
@@ -433,6 +455,36 @@ describe('submission page', () => {
     ).toBe('/extracts/upload?practice=12&quarter=8');
   });
 
+  it('offers no new upload where the API allows none (a closed quarter, for a practice lead)', async () => {
+    const closedQ2 = { ...q2 };
+    const rejected = submission({
+      status: 'rejected',
+      statusLabel: 'Rejected',
+      quarter: closedQ2,
+      counts: null,
+      issuesByCode: [],
+      refusal: {
+        code: 'missing_columns',
+        title: 'Required columns missing',
+        message: 'The file has no column birth_year.',
+        fix: 'Add the column birth_year, as in Cairn’s template.',
+        detail: null,
+      },
+      actions: { confirm: false, cancel: false, retry: false, upload: false },
+    });
+    stubApi(priya, (path) => {
+      if (path === '/api/practices/12/submissions/41') return { body: rejected };
+      if (path === '/api/practices/12/submissions') return { body: history([current]) };
+      if (path.startsWith('/api/practices/12/submissions/41/issues'))
+        return { body: { ...issuePage, total: 0, items: [], columns: [] } };
+      return undefined;
+    });
+    renderApp('/practices/12/submissions/41');
+    const alert = await screen.findByRole('alert');
+    expect(within(alert).getByText('The file has no column birth_year.')).toBeTruthy();
+    expect(within(alert).queryByRole('link', { name: /Upload a corrected extract/ })).toBeNull();
+  });
+
   it('offers Check again for a failed job whose file is kept', async () => {
     const failed = submission({
       status: 'failed',
@@ -440,7 +492,7 @@ describe('submission page', () => {
       counts: null,
       issuesByCode: [],
       failure: { message: 'The database went away.', attempts: 3, canRetry: true },
-      actions: { confirm: false, cancel: true, retry: true },
+      actions: { confirm: false, cancel: true, retry: true, upload: true },
     });
     stubApi(priya, (path) => {
       if (path === '/api/practices/12/submissions/41') return { body: failed };
@@ -494,7 +546,7 @@ describe('submissions history', () => {
       id: 20,
       status: 'superseded',
       statusLabel: 'Superseded',
-      actions: { confirm: false, cancel: false, retry: false },
+      actions: { confirm: false, cancel: false, retry: false, upload: true },
     });
     stubApi(priya, (path) => {
       if (path === '/api/practices/12/submissions')
@@ -553,7 +605,8 @@ describe('upload page', () => {
 
   it('offers the templates, shows the server’s limits and explains an identical file', async () => {
     const fetchMock = stubApi(priya, (path, init) => {
-      if (path === '/api/quarters') return { body: [q3, q2] };
+      if (path === '/api/extracts/upload-options')
+        return { body: uploadOptions(priya.practices, [q3.id]) };
       if (path === '/api/extracts/format') return { body: format };
       if (path === '/api/practices/12/submissions') return { body: history([current]) };
       if (path.startsWith('/api/practices/12/quarters/8/extracts') && init?.method === 'POST')
@@ -616,7 +669,8 @@ describe('upload page', () => {
       ],
     };
     stubApi(daniel, (path) => {
-      if (path === '/api/quarters') return { body: [q3] };
+      if (path === '/api/extracts/upload-options')
+        return { body: uploadOptions(daniel.practices, [q3.id], [q3]) };
       if (path === '/api/extracts/format') return { body: format };
       if (path === '/api/practices/11/submissions') return { body: history([]) };
       return undefined;
@@ -640,9 +694,34 @@ describe('upload page', () => {
     );
   });
 
+  it('offers a regional lead closed quarters too, as the API allows late corrections', async () => {
+    const practices = [
+      { id: 11, code: 'OV101', name: 'Wrenfield Health Centre' },
+      { id: 12, code: 'OV102', name: 'Quarrybank Surgery' },
+    ];
+    stubApi(regional, (path) => {
+      if (path === '/api/extracts/upload-options')
+        return { body: uploadOptions(practices, [q3.id, q2.id]) };
+      if (path === '/api/extracts/format') return { body: format };
+      if (path === '/api/practices/12/submissions') return { body: history([current]) };
+      return undefined;
+    });
+    renderApp('/extracts/upload?practice=12');
+    const quarter = (await screen.findByLabelText('Audit quarter')) as HTMLSelectElement;
+    expect([...quarter.options].map((o) => o.textContent)).toEqual([
+      '2026 Q3 (deadline 16 Dec 2026)',
+      '2026 Q2 (closed)',
+    ]);
+    const practice = screen.getByLabelText('Practice') as HTMLSelectElement;
+    expect([...practice.options].map((o) => o.textContent)).toContain(
+      'OV102 · Quarrybank Surgery (Harnleigh Fold)',
+    );
+  });
+
   it('refuses a file over the server’s size limit before sending it', async () => {
     const fetchMock = stubApi(priya, (path) => {
-      if (path === '/api/quarters') return { body: [q3] };
+      if (path === '/api/extracts/upload-options')
+        return { body: uploadOptions(priya.practices, [q3.id], [q3]) };
       if (path === '/api/extracts/format')
         return { body: { ...format, limits: { maxBytes: 10, maxRows: 5000 } } };
       if (path === '/api/practices/12/submissions') return { body: history([]) };
@@ -672,7 +751,12 @@ describe('coverage', () => {
     totals: { practices: 3, current: 1, awaitingConfirmation: 2, none: 1, records: 447 },
     practices: [
       {
-        practice: { id: 11, code: 'OV101', name: 'Wrenfield Health Centre', locality: 'Ostre' },
+        practice: {
+          id: 11,
+          code: 'OV101',
+          name: 'Wrenfield Health Centre',
+          localityName: 'Ostre',
+        },
         state: 'current',
         current: {
           submissionId: 30,
@@ -691,7 +775,12 @@ describe('coverage', () => {
         lastProblem: null,
       },
       {
-        practice: { id: 12, code: 'OV102', name: 'Quarrybank Surgery', locality: 'Harnleigh Fold' },
+        practice: {
+          id: 12,
+          code: 'OV102',
+          name: 'Quarrybank Surgery',
+          localityName: 'Harnleigh Fold',
+        },
         state: 'awaiting_confirmation',
         current: null,
         waiting: [
@@ -708,7 +797,7 @@ describe('coverage', () => {
           id: 13,
           code: 'OV103',
           name: 'Harnleigh Old Mill Practice',
-          locality: 'Harnleigh Fold',
+          localityName: 'Harnleigh Fold',
         },
         state: 'none',
         current: null,
@@ -830,6 +919,8 @@ describe('home page', () => {
     stubApi(regional, (path) => {
       if (path === '/api/quarters') return { body: [q3, q2] };
       if (path === '/api/quarters/8/coverage') return { body: regionCoverage };
+      if (path === '/api/extracts/upload-options')
+        return { body: uploadOptions([{ id: 11, code: 'OV101', name: 'x' }], [q3.id, q2.id]) };
       return undefined;
     });
     renderApp('/');
@@ -843,7 +934,7 @@ describe('home page', () => {
     expect(screen.getByRole('link', { name: /Open coverage/ }).getAttribute('href')).toBe(
       '/coverage?quarter=8',
     );
-    expect(screen.getByRole('link', { name: /Upload for a practice/ })).toBeTruthy();
+    expect(await screen.findByRole('link', { name: /Upload for a practice/ })).toBeTruthy();
   });
 
   it('shows an auditor the same coverage, read-only', async () => {

@@ -2,7 +2,7 @@ import { screen, waitFor } from '@testing-library/react';
 import userEvent from '@testing-library/user-event';
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import { renderApp, stubFetch } from '../../../test/render';
-import type { Me } from '../session/api/me';
+import type { Me } from '../../lib/api/types';
 
 /** The (url, init) pairs fetch was called with. */
 const callsOf = (mock: { mock: { calls: unknown[][] } }) =>
@@ -23,6 +23,7 @@ const lead: Me = {
   role: 'regional_lead',
   regionName: 'Ostrevale',
   practices: [],
+  sessionExpiresAt: '2026-12-01T18:00:00.000Z',
 };
 const priya = {
   id: 3,

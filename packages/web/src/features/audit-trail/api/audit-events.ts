@@ -5,29 +5,7 @@ import {
   useQuery,
 } from '@tanstack/react-query';
 import { apiFetch } from '../../../lib/api-client';
-
-export type AuditOutcome = 'success' | 'refused' | 'failed';
-
-export interface AuditEvent {
-  id: number;
-  occurredAt: string;
-  action: string;
-  outcome: AuditOutcome;
-  actorUserId: number | null;
-  actorLabel: string;
-  practice: { id: number; code: string; name: string } | null;
-  subjectType: string | null;
-  subjectId: string | null;
-  summary: string;
-  detail: Record<string, unknown> | null;
-  requestId: string | null;
-  ipAddress: string | null;
-}
-
-export interface AuditEventPage {
-  events: AuditEvent[];
-  nextBefore: number | null;
-}
+import type { AuditAction, AuditEventPage, AuditOutcome } from '../../../lib/api/types';
 
 export interface AuditFilters {
   action?: string;
@@ -66,7 +44,7 @@ export function useAuditEvents(filters: AuditFilters) {
 export const auditActionsQueryOptions = () =>
   queryOptions({
     queryKey: ['audit-events', 'actions'],
-    queryFn: () => apiFetch<{ action: string; count: number }[]>('/api/audit-events/actions'),
+    queryFn: () => apiFetch<AuditAction[]>('/api/audit-events/actions'),
   });
 
 export function useAuditActions() {

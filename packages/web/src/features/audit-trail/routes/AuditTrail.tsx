@@ -12,15 +12,10 @@ import {
 import { Fragment, useDeferredValue, useState } from 'react';
 import { useSearchParams } from 'react-router-dom';
 import { formatDateTime } from '../../../lib/format';
-import { RequireRole } from '../../session/components/RequireRole';
-import { ProblemCallout } from '../../users/components/problem';
-import {
-  type AuditEvent,
-  type AuditFilters,
-  type AuditOutcome,
-  useAuditActions,
-  useAuditEvents,
-} from '../api/audit-events';
+import { ProblemCallout } from '../../../components/ProblemCallout';
+import { RequireRole } from '../../../components/RequireRole';
+import type { AuditEvent, AuditOutcome } from '../../../lib/api/types';
+import { type AuditFilters, useAuditActions, useAuditEvents } from '../api/audit-events';
 import './AuditTrail.css';
 
 /** `/audit-trail`: the regional lead browses what happened, who did it, and refused sign-ins. */

@@ -1,151 +1,25 @@
 /**
- * Extracts and submissions: the shapes the API sends (packages/api/src/submissions,
- * packages/api/src/quarters) and one queryOptions factory per read.
+ * Extracts and submissions: one queryOptions factory per read (the shapes are
+ * the API's generated types, src/lib/api/types.ts).
  */
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { apiFetch } from '../../../lib/api-client';
-
-// ── audit quarters ──
-
-export type QuarterStatus = 'open' | 'closed';
-
-export interface Quarter {
-  id: number;
-  year: number;
-  quarter: 1 | 2 | 3 | 4;
-  label: string;
-  /** First and last month of the review window, YYYY-MM */
-  windowStart: string;
-  windowEnd: string;
-  measureSetId: string;
-  submissionDeadline: string;
-  status: QuarterStatus;
-  openedAt: string;
-  closedAt: string | null;
-}
-
-// ── the extract format ──
-
-export interface FormatColumn {
-  key: string;
-  group: string;
-  meaning: string;
-  allowed: string;
-  required: string;
-  columnRequired: boolean;
-  valueRequired: boolean;
-  units: string[];
-  codes: string[] | null;
-  example: string;
-}
-
-export type IssueSeverity = 'refusal' | 'error' | 'warning' | 'flag';
-
-export interface ExtractFormat {
-  limits: { maxBytes: number; maxRows: number };
-  columns: FormatColumn[];
-  issueCodes: { code: string; severity: IssueSeverity; title: string }[];
-}
-
-// ── submissions ──
-
-export type SubmissionStatus =
-  | 'processing'
-  | 'rejected'
-  | 'awaiting_confirmation'
-  | 'accepted'
-  | 'superseded'
-  | 'cancelled'
-  | 'failed';
-
-export type DateConvention = 'day_first' | 'month_first';
-
-export interface SubmissionCounts {
-  rowsRead: number;
-  rowsAccepted: number;
-  rowsRejected: number;
-  rowsBlank: number;
-  errors: number;
-  warnings: number;
-  flags: number;
-}
-
-export interface IssueCount {
-  code: string;
-  severity: IssueSeverity;
-  title: string;
-  count: number;
-}
-
-export interface Submission {
-  id: number;
-  status: SubmissionStatus;
-  statusLabel: string;
-  phase: 'queued' | 'uploading' | 'reading' | null;
-  isCurrent: boolean;
-  practice: { id: number; code: string; name: string };
-  quarter: {
-    id: number;
-    year: number;
-    quarter: number;
-    label: string;
-    windowStart: string;
-    windowEnd: string;
-    status: QuarterStatus;
-  };
-  file: {
-    name: string;
-    sizeBytes: number;
-    sha256: string | null;
-    kind: string | null;
-    sheetName: string | null;
-    dateConvention: DateConvention | null;
-    delimiter: string | null;
-    encoding: string | null;
-    kept: boolean;
-  };
-  uploadedBy: string;
-  uploadedAt: string;
-  processingStartedAt: string | null;
-  processedAt: string | null;
-  confirmedAt: string | null;
-  confirmedBy: string | null;
-  cancelledAt: string | null;
-  cancelledBy: string | null;
-  supersededAt: string | null;
-  supersededBySubmissionId: number | null;
-  failedAt: string | null;
-  progress: { rowsDone: number; rowsTotal: number | null };
-  counts: SubmissionCounts | null;
-  issuesByCode: IssueCount[];
-  refusal: {
-    code: string;
-    title: string;
-    message: string;
-    fix: string;
-    detail: Record<string, unknown> | null;
-  } | null;
-  failure: { message: string; attempts: number; canRetry: boolean } | null;
-  headerRow: number | null;
-  columnsFound: string[];
-  columnsIgnored: string[];
-  /** What the signed-in person may do now (the server decides) */
-  actions: { confirm: boolean; cancel: boolean; retry: boolean };
-}
-
-export interface SubmissionHistory {
-  practice: { id: number; code: string; name: string };
-  canUpload: boolean;
-  quarters: { quarter: Quarter; currentSubmissionId: number | null; submissions: Submission[] }[];
-}
+import type {
+  Coverage,
+  ExtractFormat,
+  IssuePage,
+  IssueSort,
+  Quarter,
+  RowIssueSeverity,
+  Submission,
+  SubmissionHistory,
+  UploadOptions,
+} from '../../../lib/api/types';
 
 // ── issues ──
 
-export type IssueSort =
-  'row' | '-row' | 'severity' | '-severity' | 'code' | '-code' | 'column' | '-column';
-
 export interface IssueFilters {
-  severity?: 'error' | 'warning' | 'flag' | '';
+  severity?: RowIssueSeverity | '';
   code?: string;
   column?: string;
   sort?: IssueSort;
@@ -153,69 +27,13 @@ export interface IssueFilters {
   limit?: number;
 }
 
-export interface Issue {
-  seq: number;
-  severity: IssueSeverity;
-  code: string;
-  title: string;
-  row: number | null;
-  column: string | null;
-  columnKey: string | null;
-  value: string | null;
-  message: string;
-  fix: string;
-}
-
-export interface IssuePage {
-  total: number;
-  offset: number;
-  limit: number;
-  /** False when record references are shown as pseudonyms (anyone outside the practice) */
-  recordRefsShown: boolean;
-  columns: { column: string; count: number }[];
-  items: Issue[];
-}
-
-// ── coverage ──
-
-export type CoverageState = 'current' | 'awaiting_confirmation' | 'none';
-
-export interface CoveragePractice {
-  practice: { id: number; code: string; name: string; locality: string | null };
-  state: CoverageState;
-  current: {
-    submissionId: number;
-    records: number | null;
-    confirmedAt: string | null;
-    confirmedBy: string | null;
-  } | null;
-  waiting: { submissionId: number; status: SubmissionStatus; uploadedAt: string }[];
-  lastProblem: {
-    submissionId: number;
-    status: SubmissionStatus;
-    code: string | null;
-    uploadedAt: string;
-  } | null;
-}
-
-export interface Coverage {
-  quarter: Quarter;
-  totals: {
-    practices: number;
-    current: number;
-    /** Practices with an extract waiting for confirmation (some also have a current one) */
-    awaitingConfirmation: number;
-    none: number;
-    records: number;
-  };
-  practices: CoveragePractice[];
-}
-
 // ── keys and queries ──
 
 export const extractsKeys = {
   quarters: () => ['quarters'] as const,
   format: () => ['extracts', 'format'] as const,
+  /** Where the signed-in person may send extracts (changes with quarters and memberships) */
+  uploadOptions: () => ['extracts', 'upload-options'] as const,
   /** Everything about one practice's submissions (history, each submission, its issues) */
   practice: (practiceId: number) => ['submissions', practiceId] as const,
   history: (practiceId: number) => ['submissions', practiceId, 'history'] as const,
@@ -258,6 +76,17 @@ export const extractFormatQueryOptions = () =>
 
 export function useExtractFormat() {
   return useQuery(extractFormatQueryOptions());
+}
+
+export const uploadOptionsQueryOptions = () =>
+  queryOptions({
+    queryKey: extractsKeys.uploadOptions(),
+    queryFn: () => apiFetch<UploadOptions>('/api/extracts/upload-options'),
+    staleTime: 60_000,
+  });
+
+export function useUploadOptions(enabled = true) {
+  return useQuery({ ...uploadOptionsQueryOptions(), enabled });
 }
 
 /** How often a submission being checked is asked for again (ms). */

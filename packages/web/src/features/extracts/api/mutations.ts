@@ -4,7 +4,8 @@
  */
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { ApiError, apiFetch } from '../../../lib/api-client';
-import { type DateConvention, extractsKeys, type Submission } from './extracts';
+import type { DateConvention, Submission, UploadProblem } from '../../../lib/api/types';
+import { extractsKeys } from './extracts';
 
 export interface ExtractUpload {
   practiceId: number;
@@ -75,27 +76,7 @@ export function useSubmissionDecision(practiceId: number, submissionId: number) 
   });
 }
 
-/** The problem extensions the upload route adds to a refusal (identical file, too large). */
-export interface UploadProblem {
-  title: string;
-  detail?: string;
-  code?: string;
-  submissionId?: number;
-  submissionStatus?: string;
-  fix?: string;
-  maxBytes?: number;
-}
-
+/** The upload route's refusals (identical file, too large) carry the UploadProblem extensions. */
 export function uploadProblemOf(error: unknown): UploadProblem | null {
-  if (!(error instanceof ApiError)) return null;
-  const p = error.problem;
-  return {
-    title: p.title,
-    detail: p.detail,
-    code: typeof p.code === 'string' ? p.code : undefined,
-    submissionId: typeof p.submissionId === 'number' ? p.submissionId : undefined,
-    submissionStatus: typeof p.submissionStatus === 'string' ? p.submissionStatus : undefined,
-    fix: typeof p.fix === 'string' ? p.fix : undefined,
-    maxBytes: typeof p.maxBytes === 'number' ? p.maxBytes : undefined,
-  };
+  return error instanceof ApiError ? (error.problem as UploadProblem) : null;
 }

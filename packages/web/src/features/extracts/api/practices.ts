@@ -1,37 +1,34 @@
 /**
- * The practices a person may send extracts for: a practice lead's own
- * practices (from the session), or for a regional lead every practice of the
- * region (the list the users screen offers).
+ * The practices a person may send extracts for, and for each the audit
+ * quarters it may take one for: the API decides (GET /api/extracts/upload-options,
+ * its upload action per practice and quarter); the web only shows it.
  */
-import { useQuery } from '@tanstack/react-query';
-import { useMe } from '../../session/api/me';
-import { userOptionsQueryOptions } from '../../users/api/users';
+import type { Practice, Quarter } from '../../../lib/api/types';
+import { useUploadOptions } from './extracts';
 
-export interface PracticeChoice {
-  id: number;
-  code: string;
-  name: string;
-  localityName?: string | null;
-}
-
-export function usePracticeChoices(): {
-  practices: PracticeChoice[];
+export interface PracticeChoices {
+  practices: Practice[];
+  /** Every audit quarter of the region, latest first */
+  quarters: Quarter[];
+  /** The quarters an extract may be sent to for this practice */
+  uploadQuarterIds: (practiceId: number) => readonly number[];
   isPending: boolean;
   error: unknown;
-} {
-  const me = useMe();
-  const regional = me.data?.role === 'regional_lead';
-  const options = useQuery({ ...userOptionsQueryOptions(), enabled: regional });
-  if (!me.data) return { practices: [], isPending: me.isPending, error: me.error };
-  if (regional) {
-    return {
-      practices: options.data?.practices ?? [],
-      isPending: options.isPending,
-      error: options.error,
-    };
-  }
-  return { practices: me.data.practices, isPending: false, error: null };
 }
 
-export const practiceLabel = (p: PracticeChoice) =>
-  `${p.code} · ${p.name}${p.localityName ? ` (${p.localityName})` : ''}`;
+export function usePracticeChoices(): PracticeChoices {
+  const options = useUploadOptions();
+  const practices = options.data?.practices ?? [];
+  return {
+    practices: practices.map((p) => p.practice),
+    quarters: options.data?.quarters ?? [],
+    uploadQuarterIds: (practiceId) =>
+      practices.find((p) => p.practice.id === practiceId)?.quarterIds ?? [],
+    isPending: options.isPending,
+    error: options.error,
+  };
+}
+
+/** A practice in a list; with its locality when choosing among the region's practices. */
+export const practiceLabel = (p: Practice, withLocality = false) =>
+  `${p.code} · ${p.name}${withLocality && p.localityName ? ` (${p.localityName})` : ''}`;

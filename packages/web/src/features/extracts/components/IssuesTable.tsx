@@ -9,15 +9,10 @@ import {
 } from '@blueprintjs/core';
 import { Cell, Column, Table2 } from '@blueprintjs/table';
 import { useEffect, useMemo, useState } from 'react';
+import { ProblemCallout } from '../../../components/ProblemCallout';
+import type { Issue, IssueSort, Submission } from '../../../lib/api/types';
 import { formatCount } from '../../../lib/format';
-import { ProblemCallout } from '../../users/components/problem';
-import {
-  type Issue,
-  type IssueFilters,
-  type IssueSort,
-  type Submission,
-  useIssues,
-} from '../api/extracts';
+import { type IssueFilters, useIssues } from '../api/extracts';
 import { SeverityTag, severityLook } from './StatusTag';
 
 export const ISSUE_PAGE = 500;

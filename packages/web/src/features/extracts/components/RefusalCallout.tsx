@@ -1,5 +1,5 @@
 import { AnchorButton, Callout, Intent } from '@blueprintjs/core';
-import type { Submission } from '../api/extracts';
+import type { Submission } from '../../../lib/api/types';
 import { TEMPLATE_CSV, TEMPLATE_XLSX } from '../api/extracts';
 import { LinkButton } from './LinkButton';
 

@@ -1,6 +1,6 @@
 import { Button, Classes, HTMLTable } from '@blueprintjs/core';
 import { formatCount } from '../../../lib/format';
-import type { IssueCount, Submission } from '../api/extracts';
+import type { IssueCount, Submission } from '../../../lib/api/types';
 import { Figure } from './Figure';
 import { SeverityTag } from './StatusTag';
 

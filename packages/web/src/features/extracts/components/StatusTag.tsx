@@ -1,5 +1,5 @@
 import { type IconName, Intent, Tag } from '@blueprintjs/core';
-import type { CoverageState, IssueSeverity, SubmissionStatus } from '../api/extracts';
+import type { CoverageState, IssueSeverity, SubmissionStatus } from '../../../lib/api/types';
 
 /** Each status in words and with an icon: never colour alone. */
 export const statusLook: Record<

@@ -1,8 +1,8 @@
 import { Alert, Button, Intent } from '@blueprintjs/core';
 import { useState } from 'react';
+import { ProblemCallout } from '../../../components/ProblemCallout';
+import type { Submission } from '../../../lib/api/types';
 import { formatCount, formatDateTime } from '../../../lib/format';
-import { ProblemCallout } from '../../users/components/problem';
-import type { Submission } from '../api/extracts';
 import { type SubmissionDecision, useSubmissionDecision } from '../api/mutations';
 
 interface Props {

@@ -1,6 +1,6 @@
 import { Intent, ProgressBar } from '@blueprintjs/core';
 import { formatCount } from '../../../lib/format';
-import type { Submission } from '../api/extracts';
+import type { Submission } from '../../../lib/api/types';
 
 const phaseText: Record<NonNullable<Submission['phase']>, string> = {
   queued: 'Waiting its turn to be checked…',

@@ -9,10 +9,11 @@ import {
 } from '@blueprintjs/core';
 import { useDeferredValue, useState } from 'react';
 import { Link, useSearchParams } from 'react-router-dom';
+import { ProblemCallout } from '../../../components/ProblemCallout';
+import { RequireRole } from '../../../components/RequireRole';
+import type { CoverageState } from '../../../lib/api/types';
 import { formatCount, formatDateTime } from '../../../lib/format';
-import { RequireRole } from '../../session/components/RequireRole';
-import { ProblemCallout } from '../../users/components/problem';
-import { type CoverageState, useCoverage, useQuarters } from '../api/extracts';
+import { useCoverage, useQuarters } from '../api/extracts';
 import { formatDate, formatMonth } from '../components/format';
 import { CoverageTag, coverageLook, StatusTag } from '../components/StatusTag';
 import { Figure } from '../components/Figure';
@@ -55,7 +56,7 @@ function CoverageScreen() {
         // Awaiting confirmation: any practice with an extract waiting, current or not.
         (state === 'awaiting_confirmation' ? p.waiting.length > 0 : p.state === state)) &&
       (!deferred ||
-        `${p.practice.code} ${p.practice.name} ${p.practice.locality ?? ''}`
+        `${p.practice.code} ${p.practice.name} ${p.practice.localityName ?? ''}`
           .toLowerCase()
           .includes(deferred)),
   );
@@ -179,7 +180,7 @@ function CoverageScreen() {
                     {p.practice.code} · {p.practice.name}
                   </Link>
                 </td>
-                <td>{p.practice.locality ?? '—'}</td>
+                <td>{p.practice.localityName ?? '—'}</td>
                 <td>
                   <CoverageTag state={p.state} />
                 </td>

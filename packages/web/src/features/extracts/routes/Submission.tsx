@@ -9,19 +9,12 @@ import {
 } from '@blueprintjs/core';
 import { Link, useParams, useSearchParams } from 'react-router-dom';
 import { ClinicalCaution } from '../../../components/ClinicalCaution';
+import { ProblemCallout } from '../../../components/ProblemCallout';
+import { RequireRole } from '../../../components/RequireRole';
+import type { IssueSort, Submission as SubmissionView } from '../../../lib/api/types';
 import { formatCount, formatDateTime } from '../../../lib/format';
-import { useMe } from '../../session/api/me';
-import { RequireRole } from '../../session/components/RequireRole';
-import { ProblemCallout } from '../../users/components/problem';
-import {
-  downloadLinks,
-  type IssueFilters,
-  type IssueSort,
-  type Submission as SubmissionView,
-  useHistory,
-  useSubmission,
-} from '../api/extracts';
-import { canSend, uploadLink } from '../components/can-send';
+import { downloadLinks, type IssueFilters, useHistory, useSubmission } from '../api/extracts';
+import { uploadLink } from '../components/upload-link';
 import { formatBytes, formatMonth } from '../components/format';
 import { ISSUE_PAGE, IssuesTable } from '../components/IssuesTable';
 import { LinkButton } from '../components/LinkButton';
@@ -50,7 +43,6 @@ function SubmissionScreen() {
   const params = useParams();
   const practiceId = Number(params.practiceId);
   const submissionId = Number(params.submissionId);
-  const me = useMe();
   const submission = useSubmission(practiceId, submissionId);
   const history = useHistory(Number.isSafeInteger(practiceId) ? practiceId : null);
   const [search, setSearch] = useSearchParams();
@@ -94,7 +86,8 @@ function SubmissionScreen() {
     currentId !== null && currentId !== s.id
       ? (quarterEntry?.submissions.find((x) => x.id === currentId) ?? null)
       : null;
-  const mayUpload = canSend(me.data, s.practice.id) && s.quarter.status === 'open';
+  // The API's upload action: a new extract for the same practice and audit quarter.
+  const mayUpload = s.actions.upload;
   const uploadTo = mayUpload ? uploadLink(s.practice.id, s.quarter.id) : null;
   const links = downloadLinks(s.practice.id, s.id);
   const reported = s.status !== 'processing' && s.status !== 'cancelled' && s.status !== 'failed';
@@ -217,9 +210,7 @@ function SubmissionScreen() {
         >
           Its {formatCount(s.counts?.rowsAccepted ?? 0)} accepted rows are the practice&apos;s care
           records for this audit quarter.
-          {canSend(me.data, s.practice.id)
-            ? ' To change them, upload a new extract and confirm it.'
-            : ''}
+          {mayUpload ? ' To change them, upload a new extract and confirm it.' : ''}
         </Callout>
       ) : null}
 
@@ -287,7 +278,7 @@ function SubmissionScreen() {
           {(s.counts?.rowsRejected ?? 0) > 0 ? (
             <p className="cairn-muted">
               The refused rows as they were sent, with a column saying what to fix
-              {canSend(me.data, s.practice.id)
+              {mayUpload
                 ? '; correct them in your extract, then upload the whole extract again.'
                 : '.'}
             </p>

@@ -11,13 +11,14 @@ import {
   Tag,
 } from '@blueprintjs/core';
 import { Link, Navigate, useNavigate, useParams } from 'react-router-dom';
+import { ProblemCallout } from '../../../components/ProblemCallout';
+import { RequireRole } from '../../../components/RequireRole';
+import type { SubmissionHistory } from '../../../lib/api/types';
 import { formatCount, formatDateTime } from '../../../lib/format';
-import { useMe } from '../../session/api/me';
-import { RequireRole } from '../../session/components/RequireRole';
-import { ProblemCallout } from '../../users/components/problem';
-import { type SubmissionHistory, useHistory } from '../api/extracts';
+import { useMe } from '../../../lib/session';
+import { useHistory } from '../api/extracts';
 import { practiceLabel, usePracticeChoices } from '../api/practices';
-import { canSend, uploadLink } from '../components/can-send';
+import { uploadLink } from '../components/upload-link';
 import { formatDate, formatMonth } from '../components/format';
 import { LinkButton } from '../components/LinkButton';
 import { CurrentTag, StatusTag } from '../components/StatusTag';
@@ -66,14 +67,15 @@ function SubmissionsScreen() {
         <option value="">Choose a practice…</option>
         {choices.practices.map((p) => (
           <option key={p.id} value={p.id}>
-            {practiceLabel(p)}
+            {practiceLabel(p, me.data?.role === 'regional_lead')}
           </option>
         ))}
       </HTMLSelect>
     ) : null;
 
   const data = history.data;
-  const mayUpload = canSend(me.data, practiceId ?? undefined) && (data?.canUpload ?? true);
+  // The API's upload action, for this practice in some audit quarter.
+  const mayUpload = data?.quarters.some((q) => q.actions.upload) ?? false;
 
   return (
     <div className="cairn-extracts cairn-history">
@@ -148,7 +150,7 @@ function HistoryList({ history }: { history: SubmissionHistory }) {
   }
   return (
     <div className="cairn-history-list">
-      {withSubmissions.map(({ quarter, currentSubmissionId, submissions }) => (
+      {withSubmissions.map(({ quarter, currentSubmissionId, submissions, actions }) => (
         <Section
           key={quarter.id}
           className="cairn-quarter-section"
@@ -171,7 +173,7 @@ function HistoryList({ history }: { history: SubmissionHistory }) {
             {submissions.length === 0 ? (
               <p className="cairn-muted cairn-none">
                 No extract sent yet for this quarter.
-                {history.canUpload ? (
+                {actions.upload ? (
                   <>
                     {' '}
                     <Link to={uploadLink(practiceId, quarter.id)}>Upload one</Link>.

@@ -16,20 +16,12 @@ import {
 } from '@blueprintjs/core';
 import { type FormEvent, useState } from 'react';
 import { Link, useNavigate, useSearchParams } from 'react-router-dom';
+import { ProblemCallout } from '../../../components/ProblemCallout';
+import { RequireRole } from '../../../components/RequireRole';
+import type { DateConvention, ExtractFormat, Quarter } from '../../../lib/api/types';
 import { formatCount, formatDateTime } from '../../../lib/format';
-import { useMe } from '../../session/api/me';
-import { RequireRole } from '../../session/components/RequireRole';
-import { ProblemCallout } from '../../users/components/problem';
-import {
-  type DateConvention,
-  type ExtractFormat,
-  type Quarter,
-  TEMPLATE_CSV,
-  TEMPLATE_XLSX,
-  useExtractFormat,
-  useHistory,
-  useQuarters,
-} from '../api/extracts';
+import { useMe } from '../../../lib/session';
+import { TEMPLATE_CSV, TEMPLATE_XLSX, useExtractFormat, useHistory } from '../api/extracts';
 import { uploadProblemOf, useUploadExtract } from '../api/mutations';
 import { practiceLabel, usePracticeChoices } from '../api/practices';
 import { DropZone } from '../components/DropZone';
@@ -56,7 +48,6 @@ function UploadScreen() {
   const navigate = useNavigate();
   const [params, setParams] = useSearchParams();
   const choices = usePracticeChoices();
-  const quarters = useQuarters();
   const format = useExtractFormat();
   const upload = useUploadExtract();
   const [file, setFile] = useState<File | null>(null);
@@ -70,10 +61,14 @@ function UploadScreen() {
     practices.find((p) => p.id === askedPractice) ??
     (practices.length === 1 ? practices[0] : null) ??
     null;
-  const open = (quarters.data ?? []).filter((q) => q.status === 'open');
-  const closed = (quarters.data ?? []).filter((q) => q.status === 'closed');
+  // The quarters the API allows an upload to: for the chosen practice, or for any of them.
+  const allowed = new Set(
+    (practice ? [practice] : practices).flatMap((p) => choices.uploadQuarterIds(p.id)),
+  );
+  const selectable = choices.quarters.filter((q) => allowed.has(q.id));
+  const open = selectable.filter((q) => q.status === 'open');
+  const closed = selectable.filter((q) => q.status === 'closed');
   const askedQuarter = Number(params.get('quarter'));
-  const selectable = regional ? [...open, ...closed] : open;
   const quarter: Quarter | null = selectable.find((q) => q.id === askedQuarter) ?? open[0] ?? null;
   const history = useHistory(practice?.id ?? null);
   const here = history.data?.quarters.find((q) => q.quarter.id === quarter?.id);
@@ -167,7 +162,7 @@ function UploadScreen() {
                   <option value="">Choose a practice…</option>
                   {practices.map((p) => (
                     <option key={p.id} value={p.id}>
-                      {practiceLabel(p)}
+                      {practiceLabel(p, true)}
                     </option>
                   ))}
                 </HTMLSelect>
@@ -195,7 +190,7 @@ function UploadScreen() {
                   : undefined
               }
             >
-              {quarters.isPending ? (
+              {choices.isPending ? (
                 <Spinner size={20} aria-label="Loading audit quarters" />
               ) : selectable.length === 0 ? (
                 <Callout intent={Intent.WARNING} icon="time" compact>
@@ -215,8 +210,8 @@ function UploadScreen() {
                       </option>
                     ))}
                   </optgroup>
-                  {regional && closed.length > 0 ? (
-                    <optgroup label="Closed (regional leads only)">
+                  {closed.length > 0 ? (
+                    <optgroup label="Closed to practices (late corrections)">
                       {closed.map((q) => (
                         <option key={q.id} value={q.id}>
                           {q.label} (closed)
@@ -227,7 +222,6 @@ function UploadScreen() {
                 </HTMLSelect>
               )}
             </FormGroup>
-            <ProblemCallout error={quarters.error} />
 
             {practice && quarter && here ? (
               <div className="cairn-upload-context" aria-live="polite">

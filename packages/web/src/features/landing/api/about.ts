@@ -1,14 +1,6 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { apiFetch } from '../../../lib/api-client';
-
-export interface About {
-  product: string;
-  version: string;
-  regionName: string | null;
-  practices: number;
-  localities: number;
-  clinicalCaution: string;
-}
+import type { About } from '../../../lib/api/types';
 
 export const fetchAbout = () => apiFetch<About>('/api/about');
 

@@ -1,7 +1,8 @@
 import { AnchorButton, Callout, Card, H2, Intent } from '@blueprintjs/core';
 import { useSearchParams } from 'react-router-dom';
 import { CairnMark } from '../../../components/CairnMark';
-import { roleLabels, useSession } from '../../session/api/me';
+import { roleLabels } from '../../../lib/roles';
+import { useSession } from '../../../lib/session';
 import { refusalText } from '../refusal-texts';
 import './SignIn.css';
 

@@ -2,7 +2,8 @@ import { NonIdealState, Spinner } from '@blueprintjs/core';
 import { useQueryClient } from '@tanstack/react-query';
 import { useEffect, useRef, useState } from 'react';
 import { apiFetch, ApiError } from '../../../lib/api-client';
-import { fetchSession } from '../../session/api/me';
+import type { SignOut } from '../../../lib/api/types';
+import { fetchSession } from '../../../lib/session';
 
 /**
  * `/sign-out`: ends the Cairn session (a CSRF-protected POST), then follows
@@ -24,7 +25,7 @@ export function SignOut() {
           window.location.assign('/sign-in?signedOut=1');
           return;
         }
-        const { redirectUrl } = await apiFetch<{ redirectUrl: string }>('/api/auth/sign-out', {
+        const { redirectUrl } = await apiFetch<SignOut>('/api/auth/sign-out', {
           method: 'POST',
         });
         client.clear();

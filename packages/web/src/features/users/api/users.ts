@@ -1,39 +1,14 @@
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { apiFetch, apiJson } from '../../../lib/api-client';
-import type { Role } from '../../session/api/me';
-
-export type UserStatus = 'active' | 'deactivated';
-
-export interface UserPractice {
-  id: number;
-  code: string;
-  name: string;
-}
-
-export interface User {
-  id: number;
-  email: string;
-  displayName: string;
-  role: Role;
-  status: UserStatus;
-  practices: UserPractice[];
-  lastSignInAt: string | null;
-  createdAt: string;
-}
-
-export interface UserList {
-  users: User[];
-  trustIdpRoles: boolean;
-}
-
-export interface PracticeOption extends UserPractice {
-  localityName: string | null;
-}
-
-export interface UserOptions {
-  practices: PracticeOption[];
-  trustIdpRoles: boolean;
-}
+import type {
+  NewUser,
+  Role,
+  User,
+  UserChanges,
+  UserList,
+  UserOptions,
+  UserStatus,
+} from '../../../lib/api/types';
 
 export interface UserFilters {
   search?: string;
@@ -83,15 +58,8 @@ export function useUserOptions() {
   return useQuery(userOptionsQueryOptions());
 }
 
-export interface NewUser {
-  email: string;
-  displayName: string;
-  role: Role;
-  practiceIds: number[];
-}
-
 export type UserChange =
-  | { kind: 'update'; userId: number; changes: { displayName?: string; role?: Role } }
+  | { kind: 'update'; userId: number; changes: UserChanges }
   | { kind: 'assign'; userId: number; practiceId: number }
   | { kind: 'remove'; userId: number; practiceId: number }
   | { kind: 'deactivate'; userId: number }

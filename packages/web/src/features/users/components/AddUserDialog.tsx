@@ -10,10 +10,12 @@ import {
   Intent,
 } from '@blueprintjs/core';
 import { type FormEvent, useState } from 'react';
-import { type Role, roleLabels } from '../../session/api/me';
-import { type PracticeOption, type User, useCreateUser } from '../api/users';
+import { type Role, roleValues } from '../../../lib/api/types';
+import { roleLabels } from '../../../lib/roles';
+import type { Practice, User } from '../../../lib/api/types';
+import { useCreateUser } from '../api/users';
 import { PracticePicker } from './PracticePicker';
-import { fieldError, ProblemCallout } from './problem';
+import { fieldError, ProblemCallout } from '../../../components/ProblemCallout';
 
 const EMAIL = /^[^\s@]+@[^\s@]+\.[^\s@]+$/;
 
@@ -21,7 +23,7 @@ interface Props {
   isOpen: boolean;
   onClose: () => void;
   onCreated: (user: User) => void;
-  practices: PracticeOption[];
+  practices: Practice[];
 }
 
 /** Adds a person Cairn will then let in at sign-in. */
@@ -126,7 +128,7 @@ export function AddUserDialog({ isOpen, onClose, onCreated, practices }: Props) 
               onChange={(e) => setRole(e.currentTarget.value as Role)}
               fill
             >
-              {(Object.keys(roleLabels) as Role[]).map((r) => (
+              {roleValues.map((r) => (
                 <option key={r} value={r}>
                   {roleLabels[r]}
                 </option>

@@ -1,11 +1,11 @@
 import { Button, ControlGroup, HTMLSelect, Tag } from '@blueprintjs/core';
 import { useState } from 'react';
-import type { PracticeOption, UserPractice } from '../api/users';
+import type { Practice, PracticeRef } from '../../../lib/api/types';
 
 interface Props {
   /** Practices already chosen */
-  value: UserPractice[];
-  options: PracticeOption[];
+  value: PracticeRef[];
+  options: Practice[];
   onAdd: (practiceId: number) => void;
   onRemove: (practiceId: number) => void;
   disabled?: boolean;

@@ -13,14 +13,16 @@ import {
 } from '@blueprintjs/core';
 import { useEffect, useState } from 'react';
 import { formatDateTime } from '../../../lib/format';
-import { type Role, roleLabels } from '../../session/api/me';
-import { type PracticeOption, type User, type UserChange, useChangeUser } from '../api/users';
+import { type Role, roleValues } from '../../../lib/api/types';
+import { roleLabels } from '../../../lib/roles';
+import type { Practice, User } from '../../../lib/api/types';
+import { type UserChange, useChangeUser } from '../api/users';
 import { PracticePicker } from './PracticePicker';
-import { ProblemCallout } from './problem';
+import { ProblemCallout } from '../../../components/ProblemCallout';
 
 interface Props {
   user: User | null;
-  practices: PracticeOption[];
+  practices: Practice[];
   /** The signed-in regional lead's own id: they cannot change their own role or access */
   selfId: number;
   trustIdpRoles: boolean;
@@ -117,7 +119,7 @@ export function UserDrawer({ user, practices, selfId, trustIdpRoles, onClose }: 
                 disabled={self}
                 onChange={(e) => setRole(e.currentTarget.value as Role)}
               >
-                {(Object.keys(roleLabels) as Role[]).map((r) => (
+                {roleValues.map((r) => (
                   <option key={r} value={r}>
                     {roleLabels[r]}
                   </option>

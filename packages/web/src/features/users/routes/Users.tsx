@@ -13,17 +13,14 @@ import { Cell, Column, Table2 } from '@blueprintjs/table';
 import { useDeferredValue, useState } from 'react';
 import { useSearchParams } from 'react-router-dom';
 import { formatDateTime } from '../../../lib/format';
-import { type Role, roleLabels, useMe } from '../../session/api/me';
-import { RequireRole } from '../../session/components/RequireRole';
-import {
-  type User,
-  type UserFilters,
-  type UserStatus,
-  useUserOptions,
-  useUsers,
-} from '../api/users';
+import { RequireRole } from '../../../components/RequireRole';
+import { type Role, roleValues, type UserStatus } from '../../../lib/api/types';
+import { roleLabels } from '../../../lib/roles';
+import { useMe } from '../../../lib/session';
+import type { User } from '../../../lib/api/types';
+import { type UserFilters, useUserOptions, useUsers } from '../api/users';
 import { AddUserDialog } from '../components/AddUserDialog';
-import { ProblemCallout } from '../components/problem';
+import { ProblemCallout } from '../../../components/ProblemCallout';
 import { UserDrawer } from '../components/UserDrawer';
 import './Users.css';
 
@@ -108,7 +105,7 @@ function UsersScreen() {
           onChange={(e) => setFilter('role', e.currentTarget.value)}
         >
           <option value="">All roles</option>
-          {(Object.keys(roleLabels) as Role[]).map((r) => (
+          {roleValues.map((r) => (
             <option key={r} value={r}>
               {roleLabels[r]}s
             </option>

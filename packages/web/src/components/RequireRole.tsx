@@ -1,7 +1,9 @@
 import { AnchorButton, NonIdealState, Spinner } from '@blueprintjs/core';
 import type { ReactNode } from 'react';
 import { Navigate, useLocation } from 'react-router-dom';
-import { type Role, roleLabels, useMe } from '../api/me';
+import type { Role } from '../lib/api/types';
+import { roleLabels } from '../lib/roles';
+import { useMe } from '../lib/session';
 
 /**
  * Shows its children only to signed-in people with one of these roles.

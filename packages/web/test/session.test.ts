@@ -1,8 +1,9 @@
 import { afterEach, describe, expect, it, vi } from 'vitest';
-import { stubFetch } from '../../../test/render';
-import { alsoActive, navigationFor } from '../../app/navigation';
-import { apiFetch } from '../../lib/api-client';
-import { fetchSession, type Me } from './api/me';
+import { stubFetch } from './render';
+import { alsoActive, navigationFor } from '../src/app/navigation';
+import { apiFetch } from '../src/lib/api-client';
+import type { Me } from '../src/lib/api/types';
+import { fetchSession } from '../src/lib/session';
 
 /** The (url, init) pairs fetch was called with. */
 const callsOf = (mock: { mock: { calls: unknown[][] } }) =>
@@ -15,6 +16,7 @@ const lead: Me = {
   role: 'regional_lead',
   regionName: 'Ostrevale',
   practices: [],
+  sessionExpiresAt: '2026-12-01T18:00:00.000Z',
 };
 
 afterEach(() => vi.unstubAllGlobals());

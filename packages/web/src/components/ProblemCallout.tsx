@@ -1,5 +1,5 @@
 import { Callout, Intent } from '@blueprintjs/core';
-import { ApiError } from '../../../lib/api-client';
+import { ApiError } from '../lib/api-client';
 
 /** A failed request explained in place: the API's own title and detail. */
 export function ProblemCallout({ error }: { error: unknown }) {

@@ -1,42 +1,10 @@
+/**
+ * Who is signed in, for every feature: GET /api/session (always 200) gives
+ * the person, or null, and the CSRF token every state-changing request sends.
+ */
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import { apiFetch, setWriteHeaders } from '../../../lib/api-client';
-
-export type Role = 'regional_lead' | 'practice_lead' | 'auditor';
-
-export const roleLabels: Record<Role, string> = {
-  regional_lead: 'Regional lead',
-  practice_lead: 'Practice lead',
-  auditor: 'Auditor',
-};
-
-export interface MePractice {
-  id: number;
-  code: string;
-  name: string;
-}
-
-export interface Me {
-  id: number;
-  email: string;
-  displayName: string;
-  role: Role;
-  regionName: string;
-  practices: MePractice[];
-  /** When the session ends at the latest (ISO 8601) */
-  sessionExpiresAt?: string;
-}
-
-export type SessionEnded = 'idle' | 'absolute' | 'deactivated' | 'removed';
-
-export interface Session {
-  user: Me | null;
-  /** Sent as X-CSRF-Token on every state-changing request */
-  csrfToken?: string | null;
-  /** Why a session ended on this request, if it did */
-  sessionEnded?: SessionEnded | null;
-  /** True when sign-in goes through the local fake identity provider */
-  localSignIn?: boolean;
-}
+import { apiFetch, setWriteHeaders } from './api-client';
+import type { Me, Session } from './api/types';
 
 let csrfToken: string | null = null;
 // Every state-changing request carries the session's CSRF token.

@@ -1,0 +1,66 @@
+/**
+ * The API's shapes, by name: aliases of the types generated from its OpenAPI
+ * document (schema.ts, `npm run api:contract`). Never write a response shape
+ * by hand; add an alias here when a screen needs a new one.
+ */
+import type { components } from './schema';
+
+type Schemas = components['schemas'];
+
+// ── names the API defines (roles, states, severities) ──
+export type Role = Schemas['Role'];
+export type UserStatus = Schemas['UserStatus'];
+export type SessionEnd = Schemas['SessionEnd'];
+export type QuarterStatus = Schemas['QuarterStatus'];
+export type SubmissionStatus = Schemas['SubmissionStatus'];
+export type SubmissionPhase = Schemas['SubmissionPhase'];
+export type DateConvention = Schemas['DateConvention'];
+export type IssueSeverity = Schemas['IssueSeverity'];
+export type RowIssueSeverity = Schemas['RowIssueSeverity'];
+export type IssueSort = Schemas['IssueSort'];
+export type CoverageState = Schemas['CoverageState'];
+export type AuditOutcome = Schemas['AuditOutcome'];
+export {
+  auditOutcomeValues,
+  coverageStateValues,
+  issueSeverityValues,
+  roleValues,
+  submissionStatusValues,
+  userStatusValues,
+} from './schema';
+
+// ── problem details (every error answer; RFC 9457) ──
+export type Problem = Schemas['ProblemDto'];
+export type FieldProblem = Schemas['FieldProblemDto'];
+export type UploadProblem = Schemas['UploadProblemDto'];
+
+// ── resources ──
+export type About = Schemas['AboutDto'];
+export type Session = Schemas['SessionDto'];
+export type Me = Schemas['MeDto'];
+export type SignOut = Schemas['SignOutDto'];
+export type PracticeRef = Schemas['PracticeRefDto'];
+export type Practice = Schemas['PracticeDto'];
+export type User = Schemas['UserDto'];
+export type UserList = Schemas['UserListDto'];
+export type UserOptions = Schemas['UserOptionsDto'];
+export type NewUser = Schemas['CreateUserDto'];
+export type UserChanges = Schemas['UpdateUserDto'];
+export type AuditEvent = Schemas['AuditEventDto'];
+export type AuditEventPage = Schemas['AuditEventPageDto'];
+export type AuditAction = Schemas['AuditActionDto'];
+export type Quarter = Schemas['QuarterDto'];
+export type Submission = Schemas['SubmissionDto'];
+export type SubmissionCounts = Schemas['SubmissionCountsDto'];
+export type SubmissionActions = Schemas['SubmissionActionsDto'];
+export type IssueCount = Schemas['IssueCountDto'];
+export type SubmissionHistory = Schemas['SubmissionHistoryDto'];
+export type QuarterSubmissions = Schemas['QuarterSubmissionsDto'];
+export type UploadOptions = Schemas['UploadOptionsDto'];
+export type UploadPractice = Schemas['UploadPracticeDto'];
+export type Issue = Schemas['IssueDto'];
+export type IssuePage = Schemas['IssuePageDto'];
+export type Coverage = Schemas['CoverageDto'];
+export type CoveragePractice = Schemas['CoveragePracticeDto'];
+export type ExtractFormat = Schemas['ExtractFormatDto'];
+export type FormatColumn = Schemas['FormatColumnDto'];
