@@ -13,6 +13,7 @@ import { AuditTrailService } from '../audit-trail/audit-trail.service.js';
 import type { AuthUser } from '../auth/index.js';
 import { ProblemException } from '../common/problem.js';
 import type { CairnConfig } from '../config/config.schema.js';
+import { MeasureSetsService } from '../measure-sets/measure-sets.service.js';
 
 export interface QuarterRow {
   id: number;
@@ -80,6 +81,7 @@ export class QuartersService {
     @Inject(Sequelize) private readonly sequelize: Sequelize,
     @Inject(ConfigService) private readonly config: ConfigService<CairnConfig, true>,
     @Inject(AuditTrailService) private readonly audit: AuditTrailService,
+    @Inject(MeasureSetsService) private readonly measureSets: MeasureSetsService,
   ) {}
 
   async list(regionId: number): Promise<QuarterRow[]> {
@@ -132,6 +134,12 @@ export class QuartersService {
       input.submissionDeadline ??
       defaultDeadline(year, quarter, settings.deadlineDaysAfterQuarterEnd);
     const measureSetId = input.measureSetId ?? settings.defaultMeasureSetId;
+    // An unknown version is refused before anything is written (422 naming the field).
+    await this.measureSets.assertKnown(
+      measureSetId,
+      'measureSetId',
+      input.measureSetId !== undefined,
+    );
     const label = formatQuarter({ year, quarter: quarter as 1 | 2 | 3 | 4 });
     return this.sequelize.transaction(async (transaction) => {
       const [existing] = await this.sequelize.query<{ id: number }>(
