@@ -27,11 +27,18 @@ import {
   purgeSubmission,
   SELECT_SUBMISSION,
   type SubmissionRow,
+  summaryJson,
 } from './submission-store.js';
 import { canWrite, seesRecordRefs, type SubmissionView, toView } from './submission-view.js';
 import { pseudonymiser } from './extract-processor.js';
 import { CAIRN_SECRETS } from '../config/config.module.js';
 import type { CairnSecrets } from '../config/config.schema.js';
+import {
+  CARE_RECORD_SELECT,
+  type CareRecordRow,
+  type StoredRecord,
+  toStoredRecord,
+} from '../records/care-record-row.js';
 
 export interface Actor {
   id: number | null;
@@ -87,6 +94,29 @@ const notFound = (id: number) =>
   );
 
 const DEADLOCK = /deadlock|lock wait timeout/i;
+
+/** The submission a practice-quarter's pointer names: what results are read from. */
+export interface CurrentSubmission {
+  id: number;
+  practiceId: number;
+  practiceCode: string;
+  practiceName: string;
+  quarterId: number;
+  /** Records accepted (and stored) */
+  records: number;
+  confirmedAt: string;
+  confirmedBy: string | null;
+}
+
+/** One clinical data-quality check and how many records of a submission it flagged. */
+export interface DataQualityFlagCount {
+  code: string;
+  title: string;
+  count: number;
+}
+
+/** Records read per query when a submission's records are read in batches. */
+const RECORD_BATCH = 5000;
 
 @Injectable()
 export class SubmissionsService {
@@ -219,6 +249,94 @@ export class SubmissionsService {
         fix: i.fix,
       })),
     };
+  }
+
+  /**
+   * The current (accepted) submission of a practice for a quarter, or null when
+   * it has none: readers go through the practice-quarter pointer, never by status.
+   */
+  async current(practiceId: number, quarterId: number): Promise<CurrentSubmission | null> {
+    const [row] = await this.sequelize.query<{
+      id: number;
+      practice_id: number;
+      practice_code: string;
+      practice_name: string;
+      quarter_id: number;
+      rows_accepted: number | null;
+      confirmed_at: Date;
+      confirmed_by_label: string | null;
+    }>(
+      `SELECT s.id, s.practice_id, p.code AS practice_code, p.name AS practice_name, s.quarter_id,
+              s.rows_accepted, s.confirmed_at, s.confirmed_by_label
+         FROM practice_quarters pq
+         JOIN submissions s ON s.id = pq.current_submission_id AND s.status = 'accepted'
+         JOIN practices p ON p.id = s.practice_id
+        WHERE pq.practice_id = ? AND pq.quarter_id = ?`,
+      { replacements: [practiceId, quarterId], type: QueryTypes.SELECT },
+    );
+    if (!row) return null;
+    return {
+      id: row.id,
+      practiceId: row.practice_id,
+      practiceCode: row.practice_code,
+      practiceName: row.practice_name,
+      quarterId: row.quarter_id,
+      records: Number(row.rows_accepted ?? 0),
+      confirmedAt: new Date(row.confirmed_at).toISOString(),
+      confirmedBy: row.confirmed_by_label,
+    };
+  }
+
+  /**
+   * A submission's stored records in extract order, in batches of up to
+   * `batchSize` (a practice may have 200,000: never all in memory at once).
+   */
+  async *records(
+    submission: Pick<CurrentSubmission, 'id' | 'practiceCode'>,
+    batchSize = RECORD_BATCH,
+  ): AsyncGenerator<StoredRecord[]> {
+    let after = 0;
+    for (;;) {
+      const rows = await this.sequelize.query<CareRecordRow>(
+        `SELECT ${CARE_RECORD_SELECT} FROM care_records
+          WHERE submission_id = ? AND source_row > ? ORDER BY source_row LIMIT ?`,
+        { replacements: [submission.id, after, batchSize], type: QueryTypes.SELECT },
+      );
+      if (rows.length === 0) return;
+      yield rows.map((r) => toStoredRecord(r, submission.practiceCode));
+      after = Number(rows[rows.length - 1]!.source_row);
+      if (rows.length < batchSize) return;
+    }
+  }
+
+  /** Some of a submission's stored records, by extract row, in row order. */
+  async recordsAt(
+    submission: Pick<CurrentSubmission, 'id' | 'practiceCode'>,
+    rows: readonly number[],
+  ): Promise<StoredRecord[]> {
+    if (rows.length === 0) return [];
+    const found = await this.sequelize.query<CareRecordRow>(
+      `SELECT ${CARE_RECORD_SELECT} FROM care_records
+        WHERE submission_id = ? AND source_row IN (?) ORDER BY source_row`,
+      { replacements: [submission.id, [...rows]], type: QueryTypes.SELECT },
+    );
+    return found.map((r) => toStoredRecord(r, submission.practiceCode));
+  }
+
+  /**
+   * The clinical data-quality flags of a submission (methods.md §7): every
+   * flag check Cairn has, with the number of records it flagged (0 included),
+   * from the issue counts stored when the extract was checked.
+   */
+  async dataQualityFlags(submissionId: number): Promise<DataQualityFlagCount[]> {
+    const row = Number.isSafeInteger(submissionId)
+      ? await findSubmission(this.sequelize, submissionId)
+      : null;
+    if (!row) throw notFound(submissionId);
+    const counts = summaryJson(row).issueCounts ?? {};
+    return (Object.keys(ISSUE_CODES) as IssueCodeKey[])
+      .filter((code) => ISSUE_CODES[code].severity === 'flag')
+      .map((code) => ({ code, title: ISSUE_CODES[code].title, count: counts[code] ?? 0 }));
   }
 
   private assertWriter(user: Actor, row: SubmissionRow): void {
