@@ -657,6 +657,41 @@ describe('recall lists', () => {
     ]);
   });
 
+  it('documents the recall list in the OpenAPI document, every DTO and named enum', async () => {
+    const doc = (await request(t.http).get('/api/docs/openapi.json').expect(200)).body;
+    const path = '/api/practices/{practiceId}/quarters/{quarterId}/recall-list';
+    expect(Object.keys(doc.paths)).toEqual(
+      expect.arrayContaining([path, `${path}.csv`, `${path}.xlsx`]),
+    );
+    expect(doc.paths[path].get.responses['200'].content['application/json'].schema).toEqual({
+      $ref: '#/components/schemas/RecallListDto',
+    });
+    const schemas = doc.components.schemas;
+    for (const name of [
+      'RecallListDto',
+      'RecallItemDto',
+      'RecallReadingDto',
+      'RecallCountsDto',
+      'RecallReason',
+      'TypeSplit',
+      'RecordReferenceKind',
+      'Sex',
+      'DiabetesType',
+    ])
+      expect(schemas[name]).toBeDefined();
+    expect(schemas.RecallReason.enum).toEqual([
+      'not_recorded',
+      'not_measured',
+      'not_met',
+      'adverse_result',
+    ]);
+    expect(schemas.RecallListDto.properties.items).toEqual({
+      type: 'array',
+      items: { $ref: '#/components/schemas/RecallItemDto' },
+      description: expect.any(String),
+    });
+  });
+
   it('counts the clinical data-quality flags of a submission by code, with titles', async () => {
     const submissions = t.app.get(SubmissionsService);
     expect(await submissions.dataQualityFlags(submissionId)).toEqual([
