@@ -3,7 +3,7 @@ import { ApiOkResponse, ApiOperation, ApiProduces, ApiTags } from '@nestjs/swagg
 import type { Response } from 'express';
 import { type AuthUser, CurrentUser, PracticeScoped, Roles } from '../auth/index.js';
 import { RecallExportQueryDto, RecallListDto, RecallListQueryDto } from './dto/recall-list.dto.js';
-import { RecallListService } from './recall-list.service.js';
+import { type RecallDownload, RecallListService } from './recall-list.service.js';
 
 const RECALL_READERS = ['practice_lead', 'regional_lead', 'auditor'] as const;
 
@@ -63,10 +63,7 @@ export class RecallListController {
     await this.send(res, await this.recall.download(user, practiceId, quarterId, query, 'xlsx'));
   }
 
-  private async send(
-    res: Response,
-    download: Awaited<ReturnType<RecallListService['download']>>,
-  ): Promise<void> {
+  private async send(res: Response, download: RecallDownload): Promise<void> {
     res.status(200);
     res.setHeader('Content-Type', download.contentType);
     res.setHeader('Content-Disposition', `attachment; filename="${download.fileName}"`);
