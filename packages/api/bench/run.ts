@@ -10,7 +10,11 @@
  *      read of that XLSX (same reader options, nothing done with the cells);
  *   3. a 5,000-row practice file from upload to report over HTTP (≤ 2 s);
  *   4. peak RSS of an API process ingesting a 200,000-row file (≤ 400 MB),
- *      in a child process of its own (bench/rss-child.ts).
+ *      in a child process of its own (bench/rss-child.ts);
+ *   5. (not with --quick, unless --national is given) national- and
+ *      region-size data in the test MariaDB, generated once and reused, and a
+ *      bare streamed SELECT of a quarter's current records
+ *      (bench/national-data.ts): figures, no target yet.
  *
  * Targets: CSV ≥ 0.5 × LOAD DATA rows/s; XLSX ≥ 0.8 × bare exceljs rows/s.
  * Each of 1 and 2, ours and the reference alike, is the median of RUNS runs
@@ -355,6 +359,17 @@ async function main(): Promise<void> {
     );
   } finally {
     await t.close();
+  }
+
+  // 5. National- and region-size data, and a bare streamed SELECT of it (bench/national-data.ts):
+  // skipped by --quick unless --national asks for it.
+  if (!quick || process.argv.includes('--national')) {
+    console.log('');
+    console.log(
+      "Reading a quarter's current records: the reference a recompute from records is judged against",
+    );
+    const { runNationalBench } = await import('./national-data.js');
+    await runNationalBench();
   }
   process.exitCode = failed ? 1 : 0;
 }

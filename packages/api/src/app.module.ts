@@ -1,10 +1,12 @@
 import { type DynamicModule, Module, type Type } from '@nestjs/common';
 import { AuditTrailModule } from './audit-trail/audit-trail.module.js';
 import { AuthModule } from './auth/auth.module.js';
+import { BenchmarksModule } from './benchmarks/benchmarks.module.js';
 import type { CairnConfig, CairnSecrets } from './config/config.schema.js';
 import { CairnConfigModule } from './config/config.module.js';
 import { DatabaseModule } from './database/database.module.js';
 import { HealthModule } from './health/health.module.js';
+import { MeasureSetsModule } from './measure-sets/measure-sets.module.js';
 import { OrganisationsModule } from './organisations/organisations.module.js';
 import { QuartersModule } from './quarters/quarters.module.js';
 import { SubmissionsModule } from './submissions/submissions.module.js';
@@ -25,8 +27,10 @@ export const featureModules = [
   AuditTrailModule,
   AuthModule,
   HealthModule,
+  MeasureSetsModule,
   QuartersModule,
   SubmissionsModule,
+  BenchmarksModule,
 ];
 
 @Module({})

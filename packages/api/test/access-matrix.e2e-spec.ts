@@ -82,7 +82,10 @@ function observed(res: {
   return 'allowed';
 }
 
-/** Hand-written expectations for the sign-in, users and audit-trail routes (a cross-check of the rule above). */
+/**
+ * Hand-written expectations for the sign-in, users, audit-trail, measure-set and recall-list
+ * routes (a cross-check of the rule above).
+ */
 const A = 'allowed';
 const U = '401 sign-in-required';
 const R = '403 role-not-allowed';
@@ -151,6 +154,35 @@ const handWritten: Record<string, Record<Caller, string>> = {
     auditor: A,
     deactivated: '403 csrf',
   },
+  'GET /api/measure-sets': {
+    anonymous: U,
+    'lead of practice': A,
+    'lead of another': A,
+    'regional lead': A,
+    auditor: A,
+    deactivated: U,
+  },
+  'GET /api/measure-sets/:measureSetId': {
+    anonymous: U,
+    'lead of practice': A,
+    'lead of another': A,
+    'regional lead': A,
+    auditor: A,
+    deactivated: U,
+  },
+  ...Object.fromEntries(
+    ['recall-list', 'recall-list.csv', 'recall-list.xlsx'].map((path) => [
+      `GET /api/practices/:practiceId/quarters/:quarterId/${path}`,
+      {
+        anonymous: U,
+        'lead of practice': A,
+        'lead of another': '403 practice-not-yours',
+        'regional lead': A,
+        auditor: A,
+        deactivated: U,
+      },
+    ]),
+  ),
   'GET /api/health': {
     anonymous: A,
     'lead of practice': A,

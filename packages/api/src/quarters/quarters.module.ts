@@ -1,8 +1,10 @@
 import { Module } from '@nestjs/common';
+import { MeasureSetsModule } from '../measure-sets/measure-sets.module.js';
 import { QuartersController } from './quarters.controller.js';
 import { QuartersService } from './quarters.service.js';
 
 @Module({
+  imports: [MeasureSetsModule],
   controllers: [QuartersController],
   providers: [QuartersService],
   exports: [QuartersService],

@@ -14,6 +14,7 @@ import type { Actor } from '../auth/actor.js';
 import { ProblemException } from '../common/problem.js';
 import type { CairnConfig } from '../config/config.schema.js';
 import type { QuarterDto, QuarterStatus } from './dto/quarter.dto.js';
+import { MeasureSetsService } from '../measure-sets/measure-sets.service.js';
 
 interface DbQuarter {
   id: number;
@@ -66,6 +67,7 @@ export class QuartersService {
     @Inject(Sequelize) private readonly sequelize: Sequelize,
     @Inject(ConfigService) private readonly config: ConfigService<CairnConfig, true>,
     @Inject(AuditTrailService) private readonly audit: AuditTrailService,
+    @Inject(MeasureSetsService) private readonly measureSets: MeasureSetsService,
   ) {}
 
   async list(regionId: number): Promise<QuarterDto[]> {
@@ -118,6 +120,12 @@ export class QuartersService {
       input.submissionDeadline ??
       defaultDeadline(year, quarter, settings.deadlineDaysAfterQuarterEnd);
     const measureSetId = input.measureSetId ?? settings.defaultMeasureSetId;
+    // An unknown version is refused before anything is written (422 naming the field).
+    await this.measureSets.assertKnown(
+      measureSetId,
+      'measureSetId',
+      input.measureSetId !== undefined,
+    );
     const label = formatQuarter({ year, quarter: quarter as 1 | 2 | 3 | 4 });
     return this.sequelize.transaction(async (transaction) => {
       const [existing] = await this.sequelize.query<{ id: number }>(

@@ -17,6 +17,7 @@ import { Sequelize } from 'sequelize-typescript';
 import { type RawConnection, withRaw } from '../database/bulk-load/raw-connection.js';
 import type { DateConvention, SubmissionStatus } from './dto/submission.dto.js';
 import type { Issue } from './format/issue-codes.js';
+import { CARE_RECORD_SELECT, type CareRecordRow } from '../database/bulk-load/care-record-row.js';
 import type { RejectedRow } from './pipeline/process-extract.js';
 import { CANCELLABLE, RETRYABLE } from './submission-policy.js';
 
@@ -247,6 +248,43 @@ export class SubmissionRepository {
          JOIN submissions cs ON cs.id = pq.current_submission_id
         WHERE pq.quarter_id = ?`,
       [quarterId],
+    );
+  }
+
+  /** The accepted submission a practice-quarter's pointer names, if any. */
+  async currentOf(practiceId: number, quarterId: number) {
+    const [row] = await this.select<{
+      id: number;
+      practice_id: number;
+      quarter_id: number;
+      rows_accepted: number | null;
+      confirmed_at: Date;
+      confirmed_by_label: string | null;
+    }>(
+      `SELECT s.id, s.practice_id, s.quarter_id, s.rows_accepted, s.confirmed_at, s.confirmed_by_label
+         FROM practice_quarters pq
+         JOIN submissions s ON s.id = pq.current_submission_id AND s.status = 'accepted'
+        WHERE pq.practice_id = ? AND pq.quarter_id = ?`,
+      [practiceId, quarterId],
+    );
+    return row ?? null;
+  }
+
+  /** Up to `limit` of a submission's stored records after extract row `after`, in row order. */
+  recordBatch(submissionId: number, after: number, limit: number): Promise<CareRecordRow[]> {
+    return this.select<CareRecordRow>(
+      `SELECT ${CARE_RECORD_SELECT} FROM care_records
+        WHERE submission_id = ? AND source_row > ? ORDER BY source_row LIMIT ?`,
+      [submissionId, after, limit],
+    );
+  }
+
+  /** A submission's stored records at these extract rows, in row order. */
+  recordsAt(submissionId: number, rows: readonly number[]): Promise<CareRecordRow[]> {
+    return this.select<CareRecordRow>(
+      `SELECT ${CARE_RECORD_SELECT} FROM care_records
+        WHERE submission_id = ? AND source_row IN (?) ORDER BY source_row`,
+      [submissionId, [...rows]],
     );
   }
 

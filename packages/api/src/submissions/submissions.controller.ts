@@ -24,7 +24,6 @@ import type { Request, Response } from 'express';
 import { type Actor, CurrentActor } from '../auth/actor.js';
 import { AnySignedIn, PracticeScoped, Roles } from '../auth/index.js';
 import {
-  fileResponse,
   IssuePageDto,
   IssueQueryDto,
   SubmissionDto,
@@ -32,8 +31,8 @@ import {
   UploadProblemDto,
   UploadQueryDto,
   ValidationReportFileDto,
-  XLSX,
 } from './dto/submission.dto.js';
+import { fileResponse, XLSX } from '../common/file-response.js';
 import { IntakeService } from './intake.service.js';
 import { type ReportDownload, SubmissionsService } from './submissions.service.js';
 import { ApiProblems } from '../common/problem.dto.js';

@@ -33,8 +33,9 @@ import { ISSUE_CODES, type IssueCodeKey } from './format/issue-codes.js';
 import { JobRunner } from './job-runner.service.js';
 import { ValidationReportService } from './validation-report/validation-report.service.js';
 import { assertMay, mayWrite, seesRecordRefs, type SubmissionAction } from './submission-policy.js';
-import { SubmissionRepository } from './submission.repository.js';
+import { SubmissionRepository, summaryJson } from './submission.repository.js';
 import { type LoadedSubmission, SubmissionLoader, toView } from './submission-view.js';
+import { type StoredRecord, toStoredRecord } from '../database/bulk-load/care-record-row.js';
 
 const notFound = (id: number) =>
   new ProblemException(
@@ -55,6 +56,29 @@ export interface ReportDownload {
   contentType: string;
   write(out: Writable): Promise<void>;
 }
+
+/** The submission a practice-quarter's pointer names: what results are read from. */
+export interface CurrentSubmission {
+  id: number;
+  practiceId: number;
+  practiceCode: string;
+  practiceName: string;
+  quarterId: number;
+  /** Records accepted (and stored) */
+  records: number;
+  confirmedAt: string;
+  confirmedBy: string | null;
+}
+
+/** One clinical data-quality check and how many records of a submission it flagged. */
+export interface DataQualityFlagCount {
+  code: string;
+  title: string;
+  count: number;
+}
+
+/** Records read per query when a submission's records are read in batches. */
+const RECORD_BATCH = 5000;
 
 @Injectable()
 export class SubmissionsService {
@@ -219,6 +243,71 @@ export class SubmissionsService {
       },
       loaded.quarter,
     );
+  }
+
+  /**
+   * The current (accepted) submission of a practice for a quarter, or null when
+   * it has none: readers go through the practice-quarter pointer, never by status.
+   */
+  async current(practiceId: number, quarterId: number): Promise<CurrentSubmission | null> {
+    const row = await this.submissions.currentOf(practiceId, quarterId);
+    if (!row) return null;
+    const practice = await this.organisations.practice(row.practice_id);
+    if (!practice) return null;
+    return {
+      id: row.id,
+      practiceId: row.practice_id,
+      practiceCode: practice.code,
+      practiceName: practice.name,
+      quarterId: row.quarter_id,
+      records: Number(row.rows_accepted ?? 0),
+      confirmedAt: new Date(row.confirmed_at).toISOString(),
+      confirmedBy: row.confirmed_by_label,
+    };
+  }
+
+  /**
+   * A submission's stored records in extract order, in batches of up to
+   * `batchSize` (a practice may have 200,000: never all in memory at once).
+   */
+  async *records(
+    submission: Pick<CurrentSubmission, 'id' | 'practiceCode'>,
+    batchSize = RECORD_BATCH,
+  ): AsyncGenerator<StoredRecord[]> {
+    let after = 0;
+    for (;;) {
+      const rows = await this.submissions.recordBatch(submission.id, after, batchSize);
+      if (rows.length === 0) return;
+      yield rows.map((r) => toStoredRecord(r, submission.practiceCode));
+      after = Number(rows[rows.length - 1]!.source_row);
+      if (rows.length < batchSize) return;
+    }
+  }
+
+  /** Some of a submission's stored records, by extract row, in row order. */
+  async recordsAt(
+    submission: Pick<CurrentSubmission, 'id' | 'practiceCode'>,
+    rows: readonly number[],
+  ): Promise<StoredRecord[]> {
+    if (rows.length === 0) return [];
+    const found = await this.submissions.recordsAt(submission.id, rows);
+    return found.map((r) => toStoredRecord(r, submission.practiceCode));
+  }
+
+  /**
+   * The clinical data-quality flags of a submission (methods.md §7): every
+   * flag check Cairn has, with the number of records it flagged (0 included),
+   * from the issue counts stored when the extract was checked.
+   */
+  async dataQualityFlags(submissionId: number): Promise<DataQualityFlagCount[]> {
+    const row = Number.isSafeInteger(submissionId)
+      ? await this.submissions.find(submissionId)
+      : null;
+    if (!row) throw notFound(submissionId);
+    const counts = summaryJson(row).issueCounts ?? {};
+    return (Object.keys(ISSUE_CODES) as IssueCodeKey[])
+      .filter((code) => ISSUE_CODES[code].severity === 'flag')
+      .map((code) => ({ code, title: ISSUE_CODES[code].title, count: counts[code] ?? 0 }));
   }
 
   /** Makes a submission current for its practice and quarter (atomically). */

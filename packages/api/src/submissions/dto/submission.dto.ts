@@ -543,14 +543,6 @@ export class ValidationReportFileDto {
   issues!: ReportIssueDto[];
 }
 
-/** The OpenAPI description of a file download. */
-export const fileResponse = (mediaType: string, description: string) => ({
-  description,
-  content: { [mediaType]: { schema: { type: 'string' as const, format: 'binary' } } },
-});
-
-export const XLSX = 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet';
-
 /** An upload refused before checking: an identical file (409) or one over the size limit (413). */
 export class UploadProblemDto extends ProblemDto {
   @ApiPropertyOptional({ type: String, enum: ['identical_extract', 'file_too_large'] })

@@ -296,6 +296,40 @@ export interface paths {
     patch?: never;
     trace?: never;
   };
+  '/api/measure-sets': {
+    parameters: {
+      query?: never;
+      header?: never;
+      path?: never;
+      cookie?: never;
+    };
+    /** Every measure-set version Cairn knows */
+    get: operations['MeasureSetsController_list'];
+    put?: never;
+    post?: never;
+    delete?: never;
+    options?: never;
+    head?: never;
+    patch?: never;
+    trace?: never;
+  };
+  '/api/measure-sets/{measureSetId}': {
+    parameters: {
+      query?: never;
+      header?: never;
+      path?: never;
+      cookie?: never;
+    };
+    /** One measure-set version: every care process and treatment target, its definition in words, population, denominator, direction and guideline */
+    get: operations['MeasureSetsController_get'];
+    put?: never;
+    post?: never;
+    delete?: never;
+    options?: never;
+    head?: never;
+    patch?: never;
+    trace?: never;
+  };
   '/api/quarters': {
     parameters: {
       query?: never;
@@ -606,6 +640,60 @@ export interface paths {
     patch?: never;
     trace?: never;
   };
+  '/api/practices/{practiceId}/quarters/{quarterId}/recall-list': {
+    parameters: {
+      query?: never;
+      header?: never;
+      path?: never;
+      cookie?: never;
+    };
+    /**
+     * A practice's records that count against it on one care process or treatment target in an audit quarter, paged
+     * @description Read from the practice's current submission for the quarter. The practice's own leads see its record references; regional leads and auditors see pseudonyms. 404 no-current-submission when the practice has no confirmed extract for the quarter.
+     */
+    get: operations['RecallListController_list'];
+    put?: never;
+    post?: never;
+    delete?: never;
+    options?: never;
+    head?: never;
+    patch?: never;
+    trace?: never;
+  };
+  '/api/practices/{practiceId}/quarters/{quarterId}/recall-list.csv': {
+    parameters: {
+      query?: never;
+      header?: never;
+      path?: never;
+      cookie?: never;
+    };
+    /** The whole recall list of a measure as CSV (UTF-8) */
+    get: operations['RecallListController_csv'];
+    put?: never;
+    post?: never;
+    delete?: never;
+    options?: never;
+    head?: never;
+    patch?: never;
+    trace?: never;
+  };
+  '/api/practices/{practiceId}/quarters/{quarterId}/recall-list.xlsx': {
+    parameters: {
+      query?: never;
+      header?: never;
+      path?: never;
+      cookie?: never;
+    };
+    /** The whole recall list of a measure as XLSX, with a sheet about the measure */
+    get: operations['RecallListController_xlsx'];
+    put?: never;
+    post?: never;
+    delete?: never;
+    options?: never;
+    head?: never;
+    patch?: never;
+    trace?: never;
+  };
 }
 export type webhooks = Record<string, never>;
 export interface components {
@@ -811,6 +899,127 @@ export interface components {
       status: 'ok';
       process: components['schemas']['HealthProcessDto'];
       database: components['schemas']['HealthDatabaseDto'];
+    };
+    MeasureSetSummaryDto: {
+      /** @example cairn-default-2026.1 */
+      id: string;
+      /** @example Cairn default measure set 2026.1 */
+      label: string;
+      description: string | null;
+      /** @example 10 */
+      careProcesses: number;
+      /** @example 10 */
+      treatmentTargets: number;
+      /** @description The version a new audit quarter gets by default */
+      isDefault: boolean;
+    };
+    /** @enum {string} */
+    BreakdownKey: 'age_band' | 'sex' | 'deprivation' | 'duration';
+    BreakdownCategoryDto: {
+      /** @example 40-64 */
+      key: string;
+      /** @example 40–64 */
+      label: string;
+    };
+    BreakdownDto: {
+      key: components['schemas']['BreakdownKey'];
+      /** @example Age band */
+      label: string;
+      categories: components['schemas']['BreakdownCategoryDto'][];
+    };
+    /** @enum {string} */
+    MeasureKind: 'care_process' | 'treatment_target';
+    /**
+     * @description eligible: everyone in the population counts (no result counts against); measured: only those with a result
+     * @enum {string}
+     */
+    DenominatorKind: 'eligible' | 'measured';
+    /**
+     * @description Whether a higher or a lower rate is better
+     * @enum {string}
+     */
+    MeasureDirection: 'higher' | 'lower';
+    /** @enum {string} */
+    DiabetesType: 'type1' | 'type2' | 'other';
+    MeasurePopulationDto: {
+      types: components['schemas']['DiabetesType'][];
+      /** @description Youngest age included, at the end of the review window; null for no bound */
+      minAge: number | null;
+      /** @description Oldest age included; null for no bound */
+      maxAge: number | null;
+      /** @example Eligible people with any type of diabetes, aged 40–75 */
+      text: string;
+    };
+    /**
+     * @description The record fields the measure reads
+     * @enum {string}
+     */
+    ReadingField:
+      | 'hba1c'
+      | 'bloodPressure'
+      | 'cholesterol'
+      | 'serumCreatinine'
+      | 'urineAlbumin'
+      | 'footSurveillance'
+      | 'bmi'
+      | 'smoking'
+      | 'retinalScreening'
+      | 'onStatin'
+      | 'onInsulin'
+      | 'cvdHistory';
+    MeasureDto: {
+      /** @example hba1c_le_53 */
+      key: string;
+      /** @example HbA1c 53 mmol/mol (7.0 %) or below */
+      label: string;
+      kind: components['schemas']['MeasureKind'];
+      /** @description True when the measure combines others */
+      composite: boolean;
+      /**
+       * @description What meets the measure, in words
+       * @example Latest HbA1c in the review window 53 mmol/mol or below
+       */
+      definition: string;
+      /** @description eligible: everyone in the population counts (no result counts against); measured: only those with a result */
+      denominator: components['schemas']['DenominatorKind'];
+      /** @description The denominator in words */
+      denominatorText: string;
+      /** @description Whether a higher or a lower rate is better */
+      direction: components['schemas']['MeasureDirection'];
+      population: components['schemas']['MeasurePopulationDto'];
+      /** @description The guideline or rule the measure comes from */
+      source: string;
+      note: string | null;
+      /** @description The record fields the measure reads */
+      reads: components['schemas']['ReadingField'][];
+      /** @description Keys of the measures a composite combines (empty otherwise) */
+      components: string[];
+    };
+    MeasureSetDto: {
+      /** @example cairn-default-2026.1 */
+      id: string;
+      /** @example Cairn default measure set 2026.1 */
+      label: string;
+      description: string | null;
+      /** @example 10 */
+      careProcesses: number;
+      /** @example 10 */
+      treatmentTargets: number;
+      /** @description The version a new audit quarter gets by default */
+      isDefault: boolean;
+      /**
+       * @description Youngest age counted at all, at the end of the review window
+       * @example 12
+       */
+      eligibilityMinAge: number;
+      /**
+       * @description Months a retinal screening counts for
+       * @example 12
+       */
+      retinalWindowMonths: number;
+      breakdowns: components['schemas']['BreakdownDto'][];
+      /** @description Care processes first, then treatment targets */
+      measures: components['schemas']['MeasureDto'][];
     };
     /**
      * @description Closed: closed to practice uploads (a regional lead can still correct it)
@@ -1172,6 +1381,123 @@ export interface components {
       quarter: components['schemas']['QuarterDto'];
       totals: components['schemas']['CoverageTotalsDto'];
       practices: components['schemas']['CoveragePracticeDto'][];
+    };
+    /** @enum {string} */
+    TypeSplit: 'all' | 'type1' | 'type2_other';
+    RecallPracticeDto: {
+      /** @example 12 */
+      id: number;
+      /** @example OV102 */
+      code: string;
+      /** @example Quarrybank Surgery */
+      name: string;
+    };
+    RecallQuarterDto: {
+      id: number;
+      /** @example 2026 Q3 */
+      label: string;
+      /**
+       * @description First month of the review window
+       * @example 2025-10
+       */
+      windowStart: string;
+      /**
+       * @description Last month of the review window
+       * @example 2026-09
+       */
+      windowEnd: string;
+    };
+    RecallSubmissionDto: {
+      /** @description The current submission the list is read from */
+      id: number;
+      /** @description Records it holds */
+      records: number;
+      /** @description ISO 8601 */
+      confirmedAt: string;
+    };
+    /**
+     * @description Which reference `reference` holds: the practice’s own, or the pseudonym
+     * @enum {string}
+     */
+    RecordReferenceKind: 'record_ref' | 'pseudonym';
+    RecallCountsDto: {
+      /** @description Eligible records of the split */
+      eligible: number;
+      /** @description Records in the measure’s denominator (n) */
+      denominator: number;
+      /** @description Records on the list: those that count against the practice on this measure (higher is better: n − met; lower is better: the records counted) */
+      listed: number;
+    };
+    /** @enum {string} */
+    Sex: 'F' | 'M' | 'X' | 'U';
+    /** @enum {string} */
+    RecallReason: 'not_recorded' | 'not_measured' | 'not_met' | 'adverse_result';
+    RecallMissingPartDto: {
+      /** @example bp_target */
+      key: string;
+      label: string;
+    };
+    RecallReadingDto: {
+      field: components['schemas']['ReadingField'];
+      /** @example HbA1c */
+      label: string;
+      /**
+       * @description Month last recorded; null when never recorded, or for a yes/no fact
+       * @example 2026-03
+       */
+      month: string | null;
+      /** @description Recorded in the measure’s window (a yes/no fact: recorded at all) */
+      counts: boolean;
+      /** @example 62 mmol/mol */
+      value: string | null;
+      /** @description The value’s numbers in canonical units (blood pressure: systolic, diastolic) */
+      numbers: number[];
+      /** @example 62 mmol/mol in 2026-03 */
+      text: string;
+    };
+    RecallItemDto: {
+      /** @description Row of the extract the record came from */
+      row: number;
+      /** @description The practice’s own record reference (its leads) or the record’s pseudonym (everyone else); see recordReferences */
+      reference: string;
+      /** @example 1961 */
+      birthYear: number;
+      /** @description Age at the end of the review window */
+      age: number;
+      /** @example 40–64 */
+      ageBand: string;
+      sex: components['schemas']['Sex'];
+      diabetesType: components['schemas']['DiabetesType'];
+      reason: components['schemas']['RecallReason'];
+      /** @example Latest result does not meet the target */
+      reasonText: string;
+      /** @description Month the measure’s field was last recorded (measures of one field) */
+      lastRecorded: string | null;
+      /** @description The value that fails the target, “not measured”, or the recorded value */
+      value: string | null;
+      /** @description Parts of a composite not met */
+      missing: components['schemas']['RecallMissingPartDto'][];
+      readings: components['schemas']['RecallReadingDto'][];
+      /** @description The line explained in one sentence */
+      detail: string;
+    };
+    RecallListDto: {
+      practice: components['schemas']['RecallPracticeDto'];
+      quarter: components['schemas']['RecallQuarterDto'];
+      /** @example cairn-default-2026.1 */
+      measureSetId: string;
+      measure: components['schemas']['MeasureDto'];
+      split: components['schemas']['TypeSplit'];
+      submission: components['schemas']['RecallSubmissionDto'];
+      /** @description Which reference `reference` holds: the practice’s own, or the pseudonym */
+      recordReferences: components['schemas']['RecordReferenceKind'];
+      counts: components['schemas']['RecallCountsDto'];
+      /** @description Lines on the whole list (counts.listed) */
+      total: number;
+      offset: number;
+      limit: number;
+      /** @description This page, in extract row order */
+      items: components['schemas']['RecallItemDto'][];
     };
   };
   responses: never;
@@ -1773,6 +2099,46 @@ export interface operations {
         };
         content: {
           'application/json': components['schemas']['ProblemDto'];
+        };
+      };
+    };
+  };
+  MeasureSetsController_list: {
+    parameters: {
+      query?: never;
+      header?: never;
+      path?: never;
+      cookie?: never;
+    };
+    requestBody?: never;
+    responses: {
+      200: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['MeasureSetSummaryDto'][];
+        };
+      };
+    };
+  };
+  MeasureSetsController_get: {
+    parameters: {
+      query?: never;
+      header?: never;
+      path: {
+        measureSetId: string;
+      };
+      cookie?: never;
+    };
+    requestBody?: never;
+    responses: {
+      200: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['MeasureSetDto'];
         };
       };
     };
@@ -2381,6 +2747,115 @@ export interface operations {
       };
     };
   };
+  RecallListController_list: {
+    parameters: {
+      query: {
+        /** @description Key of a measure of the quarter’s measure set */
+        measure: string;
+        split?: components['schemas']['TypeSplit'];
+        offset?: number;
+        limit?: number;
+      };
+      header?: never;
+      path: {
+        practiceId: number;
+        quarterId: number;
+      };
+      cookie?: never;
+    };
+    requestBody?: never;
+    responses: {
+      200: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['RecallListDto'];
+        };
+      };
+      /** @description RFC 9457 problem details */
+      default: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['ProblemDto'];
+        };
+      };
+    };
+  };
+  RecallListController_csv: {
+    parameters: {
+      query: {
+        /** @description Key of a measure of the quarter’s measure set */
+        measure: string;
+        split?: components['schemas']['TypeSplit'];
+      };
+      header?: never;
+      path: {
+        practiceId: number;
+        quarterId: number;
+      };
+      cookie?: never;
+    };
+    requestBody?: never;
+    responses: {
+      /** @description The recall list, one line per record, UTF-8 */
+      200: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'text/csv': string;
+        };
+      };
+      /** @description RFC 9457 problem details */
+      default: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['ProblemDto'];
+        };
+      };
+    };
+  };
+  RecallListController_xlsx: {
+    parameters: {
+      query: {
+        /** @description Key of a measure of the quarter’s measure set */
+        measure: string;
+        split?: components['schemas']['TypeSplit'];
+      };
+      header?: never;
+      path: {
+        practiceId: number;
+        quarterId: number;
+      };
+      cookie?: never;
+    };
+    requestBody?: never;
+    responses: {
+      /** @description The recall list, and a sheet about the measure */
+      200: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet': string;
+        };
+      };
+      /** @description RFC 9457 problem details */
+      default: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['ProblemDto'];
+        };
+      };
+    };
+  };
 }
 type FlattenedDeepRequired<T> = {
   [K in keyof T]-?: FlattenedDeepRequired<
@@ -2413,6 +2888,37 @@ export const healthDatabaseDtoStatusValues: ReadonlyArray<
 export const healthDtoStatusValues: ReadonlyArray<
   FlattenedDeepRequired<components>['schemas']['HealthDto']['status']
 > = ['ok'];
+export const breakdownKeyValues: ReadonlyArray<
+  FlattenedDeepRequired<components>['schemas']['BreakdownKey']
+> = ['age_band', 'sex', 'deprivation', 'duration'];
+export const measureKindValues: ReadonlyArray<
+  FlattenedDeepRequired<components>['schemas']['MeasureKind']
+> = ['care_process', 'treatment_target'];
+export const denominatorKindValues: ReadonlyArray<
+  FlattenedDeepRequired<components>['schemas']['DenominatorKind']
+> = ['eligible', 'measured'];
+export const measureDirectionValues: ReadonlyArray<
+  FlattenedDeepRequired<components>['schemas']['MeasureDirection']
+> = ['higher', 'lower'];
+export const diabetesTypeValues: ReadonlyArray<
+  FlattenedDeepRequired<components>['schemas']['DiabetesType']
+> = ['type1', 'type2', 'other'];
+export const readingFieldValues: ReadonlyArray<
+  FlattenedDeepRequired<components>['schemas']['ReadingField']
+> = [
+  'hba1c',
+  'bloodPressure',
+  'cholesterol',
+  'serumCreatinine',
+  'urineAlbumin',
+  'footSurveillance',
+  'bmi',
+  'smoking',
+  'retinalScreening',
+  'onStatin',
+  'onInsulin',
+  'cvdHistory',
+];
 export const quarterStatusValues: ReadonlyArray<
   FlattenedDeepRequired<components>['schemas']['QuarterStatus']
 > = ['open', 'closed'];
@@ -2454,3 +2960,18 @@ export const issueSortValues: ReadonlyArray<
 export const coverageStateValues: ReadonlyArray<
   FlattenedDeepRequired<components>['schemas']['CoverageState']
 > = ['current', 'awaiting_confirmation', 'none'];
+export const typeSplitValues: ReadonlyArray<
+  FlattenedDeepRequired<components>['schemas']['TypeSplit']
+> = ['all', 'type1', 'type2_other'];
+export const recordReferenceKindValues: ReadonlyArray<
+  FlattenedDeepRequired<components>['schemas']['RecordReferenceKind']
+> = ['record_ref', 'pseudonym'];
+export const sexValues: ReadonlyArray<FlattenedDeepRequired<components>['schemas']['Sex']> = [
+  'F',
+  'M',
+  'X',
+  'U',
+];
+export const recallReasonValues: ReadonlyArray<
+  FlattenedDeepRequired<components>['schemas']['RecallReason']
+> = ['not_recorded', 'not_measured', 'not_met', 'adverse_result'];
