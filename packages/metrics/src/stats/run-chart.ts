@@ -50,8 +50,12 @@ export interface RunChartOptions {
 }
 
 export function median(values: readonly number[]): number | null {
-  if (values.length === 0) return null;
-  const sorted = [...values].sort((a, b) => a - b);
+  return medianOfSorted([...values].sort((a, b) => a - b));
+}
+
+/** The median of values already sorted ascending (null when there are none). */
+export function medianOfSorted(sorted: ArrayLike<number>): number | null {
+  if (sorted.length === 0) return null;
   const mid = sorted.length >> 1;
   return sorted.length % 2 === 1
     ? (sorted[mid] as number)

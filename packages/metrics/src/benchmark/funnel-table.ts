@@ -1,0 +1,153 @@
+import { bandCode, FUNNEL_INNER, FUNNEL_OUTER } from '../stats/funnel-flag.js';
+import { funnelLimits } from '../stats/funnel-limits.js';
+import { overdispersedLimits, type OverdispersionMethod } from '../stats/overdispersed-limits.js';
+import type { FlagCode, FunnelCurves, OverdispersionSummary } from './benchmark.js';
+
+/**
+ * Funnel limits (Spiegelhalter, Stat Med 2005;24:1185–202) once per distinct n rather than once
+ * per unit: the exact binomial limits with interpolation at 95 % and 99.8 % (funnel-limits.ts)
+ * and the over-dispersion-adjusted limits (overdispersed-limits.ts; the exact ones where no
+ * over-dispersion is present, as that function gives). The build and the accessors use the same
+ * table, so a unit's stored flag and its recomputed limits always agree.
+ */
+export interface LimitsTable {
+  /** The distinct n > 0, ascending. */
+  n: Float64Array;
+  /** Per n at 4i: inner lower, inner upper, outer lower, outer upper. */
+  exact: Float64Array;
+  adjusted: Float64Array;
+}
+
+function widened(od: OverdispersionSummary | null): boolean {
+  return od !== null && od.present && od.phi !== null && od.tau2 !== null;
+}
+
+function fill(
+  out: Float64Array,
+  i: number,
+  inner: { lower: number | null; upper: number | null },
+  outer: { lower: number | null; upper: number | null },
+): void {
+  out[4 * i] = inner.lower as number;
+  out[4 * i + 1] = inner.upper as number;
+  out[4 * i + 2] = outer.lower as number;
+  out[4 * i + 3] = outer.upper as number;
+}
+
+/** Limits at each distinct n of `ns` (zeros are skipped) around θ₀. */
+export function limitsTable(
+  theta0: number,
+  ns: ArrayLike<number>,
+  od: OverdispersionSummary | null,
+  method: OverdispersionMethod,
+): LimitsTable {
+  const sorted = Float64Array.from(ns).sort();
+  let count = 0;
+  for (let i = 0; i < sorted.length; i++) {
+    const v = sorted[i] as number;
+    if (v > 0 && (count === 0 || v !== sorted[count - 1])) sorted[count++] = v;
+  }
+  const n = sorted.slice(0, count);
+  const exact = new Float64Array(4 * count);
+  const adjusted = new Float64Array(4 * count);
+  const wide = widened(od);
+  for (let i = 0; i < count; i++) {
+    const size = n[i] as number;
+    const inner = funnelLimits(theta0, size, FUNNEL_INNER);
+    const outer = funnelLimits(theta0, size, FUNNEL_OUTER);
+    fill(exact, i, inner, outer);
+    if (wide) {
+      const o = od as OverdispersionSummary;
+      fill(
+        adjusted,
+        i,
+        overdispersedLimits(theta0, size, FUNNEL_INNER, o, { method }),
+        overdispersedLimits(theta0, size, FUNNEL_OUTER, o, { method }),
+      );
+    } else fill(adjusted, i, inner, outer);
+  }
+  return { n, exact, adjusted };
+}
+
+/** Index of n in the table (binary search), −1 when absent. */
+export function limitsIndex(table: LimitsTable, n: number): number {
+  let lo = 0;
+  let hi = table.n.length - 1;
+  while (lo <= hi) {
+    const mid = (lo + hi) >> 1;
+    const v = table.n[mid] as number;
+    if (v === n) return mid;
+    if (v < n) lo = mid + 1;
+    else hi = mid - 1;
+  }
+  return -1;
+}
+
+/** The limits at table index i as intervals. */
+export function limitsAt(
+  limits: Float64Array,
+  i: number,
+): { inner: { lower: number; upper: number }; outer: { lower: number; upper: number } } {
+  return {
+    inner: { lower: limits[4 * i] as number, upper: limits[4 * i + 1] as number },
+    outer: { lower: limits[4 * i + 2] as number, upper: limits[4 * i + 3] as number },
+  };
+}
+
+/** The flag code of events/n against the limits at table index i (funnel-flag.ts's rule). */
+export function flagCode(events: number, n: number, limits: Float64Array, i: number): FlagCode {
+  if (n === 0 || i < 0) return 0;
+  return bandCode(
+    events / n,
+    limits[4 * i] as number,
+    limits[4 * i + 1] as number,
+    limits[4 * i + 2] as number,
+    limits[4 * i + 3] as number,
+  );
+}
+
+/** Integer n spaced evenly on a log scale from the smallest to the largest n > 0. */
+export function curveGrid(ns: ArrayLike<number>, points: number): number[] {
+  let lo = Infinity;
+  let hi = 0;
+  for (let i = 0; i < ns.length; i++) {
+    const v = ns[i] as number;
+    if (v > 0 && v < lo) lo = v;
+    if (v > hi) hi = v;
+  }
+  if (hi === 0) return [];
+  const grid: number[] = [];
+  for (let k = 0; k < points; k++) {
+    const v =
+      k === points - 1 ? hi : Math.round(lo * Math.pow(hi / lo, k / Math.max(1, points - 1)));
+    if (grid.length === 0 || v > (grid[grid.length - 1] as number)) grid.push(v);
+  }
+  return grid;
+}
+
+/** Funnel curves over a grid of n (see `curveGrid`). */
+export function funnelCurves(
+  theta0: number,
+  grid: readonly number[],
+  od: OverdispersionSummary | null,
+  method: OverdispersionMethod,
+): FunnelCurves {
+  const table = limitsTable(theta0, grid, od, method);
+  const column = (limits: Float64Array, k: number): number[] =>
+    Array.from({ length: table.n.length }, (_, i) => limits[4 * i + k] as number);
+  return {
+    n: Array.from(table.n),
+    exact: {
+      innerLower: column(table.exact, 0),
+      innerUpper: column(table.exact, 1),
+      outerLower: column(table.exact, 2),
+      outerUpper: column(table.exact, 3),
+    },
+    adjusted: {
+      innerLower: column(table.adjusted, 0),
+      innerUpper: column(table.adjusted, 1),
+      outerLower: column(table.adjusted, 2),
+      outerUpper: column(table.adjusted, 3),
+    },
+  };
+}
