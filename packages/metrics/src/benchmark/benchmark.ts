@@ -39,7 +39,7 @@ export interface BenchmarkOptions {
   confidence?: number;
   /** Widening of the over-dispersion-adjusted limits (default 'additive'). */
   overdispersion?: OverdispersionMethod;
-  /** Points of each funnel curve (default 40). */
+  /** Points of each funnel curve (default 30). */
   curvePoints?: number;
 }
 
@@ -59,13 +59,14 @@ export interface FunnelCurves {
   n: number[];
   /** Exact binomial limits with interpolation at 95 % and 99.8 %. */
   exact: { innerLower: number[]; innerUpper: number[]; outerLower: number[]; outerUpper: number[] };
-  /** Over-dispersion-adjusted limits (the exact ones where no over-dispersion is present). */
+  /** Over-dispersion-adjusted limits; null where no over-dispersion is present (the exact
+   * limits apply). */
   adjusted: {
     innerLower: number[];
     innerUpper: number[];
     outerLower: number[];
     outerUpper: number[];
-  };
+  } | null;
 }
 
 export interface OverdispersionSummary {

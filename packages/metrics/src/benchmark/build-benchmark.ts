@@ -59,7 +59,7 @@ function resolveOptions(options: BenchmarkOptions = {}): Required<BenchmarkOptio
       `options.overdispersion must be 'additive' or 'multiplicative' (got ${String(overdispersion)})`,
     );
   }
-  const curvePoints = options.curvePoints ?? 40;
+  const curvePoints = options.curvePoints ?? 30;
   if (!Number.isInteger(curvePoints) || curvePoints < 2 || curvePoints > 1000) {
     throw new RangeError(`options.curvePoints must be an integer 2…1000 (got ${curvePoints})`);
   }
@@ -111,7 +111,7 @@ function resolveUnits(
   };
 }
 
-// Garwood intervals depend only on the count and the level: computed once per process.
+// Garwood intervals depend only on the count and the level: each is computed once and kept.
 const intervals = new Map<number, [number, number][]>();
 
 function countInterval(observed: number, confidence: number): [number, number] {

@@ -125,7 +125,15 @@ export function curveGrid(ns: ArrayLike<number>, points: number): number[] {
   return grid;
 }
 
-/** Funnel curves over a grid of n (see `curveGrid`). */
+/** A curve value rounded to 6 decimals: plenty for drawing, and a third of the text. */
+export function forPlotting(value: number): number {
+  return Math.round(value * 1e6) / 1e6;
+}
+
+/**
+ * Funnel curves over a grid of n (see `curveGrid`), for drawing: values rounded to 6 decimals.
+ * The limits a unit is flagged against are the exact ones at its own n (benchmark-views.ts).
+ */
 export function funnelCurves(
   theta0: number,
   grid: readonly number[],
@@ -133,21 +141,19 @@ export function funnelCurves(
   method: OverdispersionMethod,
 ): FunnelCurves {
   const table = limitsTable(theta0, grid, od, method);
-  const column = (limits: Float64Array, k: number): number[] =>
-    Array.from({ length: table.n.length }, (_, i) => limits[4 * i + k] as number);
+  const columns = (limits: Float64Array): FunnelCurves['exact'] => {
+    const column = (k: number): number[] =>
+      Array.from({ length: table.n.length }, (_, i) => forPlotting(limits[4 * i + k] as number));
+    return {
+      innerLower: column(0),
+      innerUpper: column(1),
+      outerLower: column(2),
+      outerUpper: column(3),
+    };
+  };
   return {
     n: Array.from(table.n),
-    exact: {
-      innerLower: column(table.exact, 0),
-      innerUpper: column(table.exact, 1),
-      outerLower: column(table.exact, 2),
-      outerUpper: column(table.exact, 3),
-    },
-    adjusted: {
-      innerLower: column(table.adjusted, 0),
-      innerUpper: column(table.adjusted, 1),
-      outerLower: column(table.adjusted, 2),
-      outerUpper: column(table.adjusted, 3),
-    },
+    exact: columns(table.exact),
+    adjusted: widened(od) ? columns(table.adjusted) : null,
   };
 }

@@ -23,7 +23,10 @@ export function rateTrend(points: readonly TrendPoint[], options: RunChartOption
   if (!Array.isArray(points)) throw new RangeError('points must be an array');
   let previous = -Infinity;
   const out = points.map((p, i) => {
-    assertQuarter(p?.quarter);
+    if (p === null || typeof p !== 'object') {
+      throw new RangeError(`points[${i}] must be { quarter, events, n }`);
+    }
+    assertQuarter(p.quarter);
     assertEventsOfN(p.events, p.n, `points[${i}].events`, `points[${i}].n`);
     const index = p.quarter.year * 4 + p.quarter.quarter;
     if (index <= previous) {
