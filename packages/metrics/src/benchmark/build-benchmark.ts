@@ -5,7 +5,7 @@ import { assertConfidence } from '../stats/assert.js';
 import { kaplanMeierFromCounts, type SurvivalCount } from '../stats/kaplan-meier.js';
 import { overdispersionOfColumns } from '../stats/overdispersion.js';
 import { poissonInterval } from '../stats/poisson-interval.js';
-import { medianOfSorted } from '../stats/run-chart.js';
+import { medianOfUnsorted } from '../stats/run-chart.js';
 import { assertSumsOf, type PracticeSums } from '../sums/practice-sums.js';
 import { sumsLayout, type SumsLayout } from '../sums/sums-layout.js';
 import {
@@ -195,7 +195,7 @@ function compareLevel(
     const size = n[i] as number;
     if (size > 0) rates[units++] = (events[i] as number) / size;
   }
-  const middle = medianOfSorted(rates.subarray(0, units).sort());
+  const middle = medianOfUnsorted(rates.subarray(0, units));
   if (theta0 === null) return { units, median: middle, overdispersion: null, curves: null };
   const od = summary(overdispersionOfColumns(events, n, theta0));
   const table = limitsTable(theta0, n, od, options.overdispersion);

@@ -51,34 +51,43 @@ export function expectedFromSums(
   const U = P + localities;
   const expected = new Float64Array(U * M * 2);
   const perType = layout.strataPerType;
-  const plain = Int32Array.from(measureIndices(layout).filter((m) => nSlot[m] === 0));
+  // Every measure as if its n were the stratum's records (one contiguous loop), and the
+  // measures with an n of their own apart; each sum is Σ n·r in stratum order either way.
   const own = Int32Array.from(measureIndices(layout).filter((m) => nSlot[m] !== 0));
   const ownSlot = Int32Array.from(own, (m) => nSlot[m] as number);
-  const scratch = new Float64Array(2 * M);
+  const O = own.length;
+  const byRecords = new Float64Array(2 * M);
+  const byOwn = new Float64Array(2 * O);
   for (let p = 0; p < P; p++) {
     const { ids, values } = (sums[p] as PracticeSums).strata;
-    scratch.fill(0);
+    byRecords.fill(0);
+    byOwn.fill(0);
     for (let j = 0; j < ids.length; j++) {
       const s = ids[j] as number;
-      const e = s < perType ? 0 : M;
       const r = s * M;
       const v = j * V;
       const records = values[v] as number;
-      for (let k = 0; k < plain.length; k++) {
-        const m = plain[k] as number;
-        scratch[e + m] = (scratch[e + m] as number) + records * (rates[r + m] as number);
+      const e = s < perType ? 0 : M;
+      for (let m = 0; m < M; m++) {
+        byRecords[e + m] = (byRecords[e + m] as number) + records * (rates[r + m] as number);
       }
-      for (let k = 0; k < own.length; k++) {
-        const m = own[k] as number;
-        scratch[e + m] =
-          (scratch[e + m] as number) +
-          (values[v + (ownSlot[k] as number)] as number) * (rates[r + m] as number);
+      const f = s < perType ? 0 : O;
+      for (let k = 0; k < O; k++) {
+        byOwn[f + k] =
+          (byOwn[f + k] as number) +
+          (values[v + (ownSlot[k] as number)] as number) *
+            (rates[r + (own[k] as number)] as number);
       }
     }
     const base = p * M * 2;
     for (let m = 0; m < M; m++) {
-      expected[base + 2 * m] = scratch[m] as number;
-      expected[base + 2 * m + 1] = scratch[M + m] as number;
+      expected[base + 2 * m] = byRecords[m] as number;
+      expected[base + 2 * m + 1] = byRecords[M + m] as number;
+    }
+    for (let k = 0; k < O; k++) {
+      const m = own[k] as number;
+      expected[base + 2 * m] = byOwn[k] as number;
+      expected[base + 2 * m + 1] = byOwn[O + k] as number;
     }
   }
   for (let p = 0; p < P; p++) {

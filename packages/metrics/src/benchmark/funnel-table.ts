@@ -41,13 +41,24 @@ export function limitsTable(
   od: OverdispersionSummary | null,
   method: OverdispersionMethod,
 ): LimitsTable {
-  const sorted = Float64Array.from(ns).sort();
-  let count = 0;
-  for (let i = 0; i < sorted.length; i++) {
-    const v = sorted[i] as number;
-    if (v > 0 && (count === 0 || v !== sorted[count - 1])) sorted[count++] = v;
+  // The distinct n (whole numbers) in ascending order, by marking rather than sorting.
+  let largest = 0;
+  for (let i = 0; i < ns.length; i++) {
+    const v = ns[i] as number;
+    if (!Number.isInteger(v) || v < 0) throw new RangeError(`n must be counts (got ${v})`);
+    if (v > largest) largest = v;
   }
-  const n = sorted.slice(0, count);
+  const seen = new Uint8Array(largest + 1);
+  let count = 0;
+  for (let i = 0; i < ns.length; i++) {
+    const v = ns[i] as number;
+    if (v > 0 && seen[v] === 0) {
+      seen[v] = 1;
+      count++;
+    }
+  }
+  const n = new Float64Array(count);
+  for (let v = 1, k = 0; v <= largest; v++) if (seen[v] === 1) n[k++] = v;
   const exact = new Float64Array(4 * count);
   const adjusted = new Float64Array(4 * count);
   const wide = widened(od);

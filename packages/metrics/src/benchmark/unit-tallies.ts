@@ -1,6 +1,6 @@
 import type { PracticeSums } from '../sums/practice-sums.js';
 import type { SumsLayout } from '../sums/sums-layout.js';
-import { addTallies } from '../sums/sums-tallies.js';
+import { addEveryoneTallies } from '../sums/sums-tallies.js';
 
 /**
  * Each unit's events, measured and denominator per measure and type group, and its record
@@ -27,7 +27,6 @@ export function unitTallies(
   const measured = new Uint32Array(U * M * 2);
   const denominator = new Uint32Array(U * M * 2);
   const records = new Uint32Array(U * 4);
-  const block = new Float64Array(layout.cellsPerBlock);
   const out = new Float64Array(3 * M);
   const add = (array: Uint32Array, from: number, to: number): void => {
     array[to] = (array[to] as number) + (array[from] as number);
@@ -36,7 +35,7 @@ export function unitTallies(
     const s = sums[p] as PracticeSums;
     for (let g = 0; g < 2; g++) {
       out.fill(0);
-      addTallies(layout, s.cells, g, 0, block, out);
+      addEveryoneTallies(layout, s.cells, g, out);
       for (let m = 0; m < M; m++) {
         const x = (p * M + m) * 2 + g;
         events[x] = out[3 * m] as number;

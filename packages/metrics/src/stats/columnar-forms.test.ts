@@ -2,8 +2,14 @@ import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { egfrCkdEpi2021, egfrUnchecked } from '../kidney/egfr-ckd-epi-2021.js';
 import { bandCode, bandOfCode, classifyRate, funnelFlag } from './funnel-flag.js';
-import { overdispersion, overdispersionOfColumns } from './overdispersion.js';
-import { median, medianOfSorted } from './run-chart.js';
+import { nextOrderStatistic, orderStatistic } from './order-statistic.js';
+import {
+  overdispersion,
+  overdispersionOfColumns,
+  percentileOfUnsorted,
+  percentileType7,
+} from './overdispersion.js';
+import { median, medianOfSorted, medianOfUnsorted } from './run-chart.js';
 
 /**
  * The forms of existing functions that work on columns or numbers instead of objects give the
@@ -62,12 +68,34 @@ describe('columnar forms', () => {
     );
   });
 
-  it('medianOfSorted equals median', () => {
+  it('medianOfSorted and medianOfUnsorted equal median', () => {
     fc.assert(
       fc.property(fc.array(fc.double({ noNaN: true, noDefaultInfinity: true })), (values) => {
         expect(medianOfSorted([...values].sort((a, b) => a - b))).toBe(median(values));
+        expect(medianOfUnsorted(Float64Array.from(values))).toBe(median(values));
       }),
     );
+  });
+
+  it('orderStatistic is the element a sort puts at k; percentileOfUnsorted is percentileType7', () => {
+    fc.assert(
+      fc.property(
+        fc.array(fc.integer({ min: -20, max: 20 }), { minLength: 1, maxLength: 200 }),
+        fc.double({ min: 0, max: 1, noNaN: true }),
+        (values, q) => {
+          const sorted = Float64Array.from(values).sort();
+          for (let k = 0; k < values.length; k++) {
+            const work = Float64Array.from(values);
+            expect(orderStatistic(work, k)).toBe(sorted[k]);
+            if (k + 1 < values.length) expect(nextOrderStatistic(work, k)).toBe(sorted[k + 1]);
+          }
+          expect(percentileOfUnsorted(Float64Array.from(values), q)).toBe(
+            percentileType7(sorted, q),
+          );
+        },
+      ),
+    );
+    expect(() => orderStatistic(new Float64Array(3), 3)).toThrow(/k must be an index 0…2/);
   });
 
   // The unchecked form is what the checked one calls; here against every factor by Math.pow.

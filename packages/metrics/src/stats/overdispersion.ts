@@ -1,5 +1,6 @@
 import { assertEventsOfN, assertProbability } from './assert.js';
 import { chiSquareQuantile } from './chisquare-quantile.js';
+import { nextOrderStatistic, orderStatistic } from './order-statistic.js';
 
 /**
  * Over-dispersion of unit proportions around a target θ₀ (D. J. Spiegelhalter, Stat Med
@@ -59,6 +60,18 @@ function criticalValue(level: number, df: number): number {
     criticalCache.set(key, value);
   }
   return value;
+}
+
+/**
+ * `percentileType7` of values in any order, from the two order statistics it interpolates
+ * (order-statistic.ts) instead of a full sort; the same number. `work` is reordered.
+ */
+export function percentileOfUnsorted(work: Float64Array, q: number): number {
+  const h = (work.length - 1) * q;
+  const lo = Math.floor(h);
+  const a = orderStatistic(work, lo);
+  const b = lo + 1 < work.length ? nextOrderStatistic(work, lo) : a;
+  return a + (h - lo) * (b - a);
 }
 
 /** Percentile by linear interpolation between order statistics (Hyndman & Fan type 7). */
@@ -136,9 +149,9 @@ export function overdispersionOfColumns(
     }
   }
   if (I < 2) return empty;
-  const sorted = zs.slice().sort();
-  const lower = percentileType7(sorted, winsorise);
-  const upper = percentileType7(sorted, 1 - winsorise);
+  const work = zs.slice();
+  const lower = percentileOfUnsorted(work, winsorise);
+  const upper = percentileOfUnsorted(work, 1 - winsorise);
   let sumZ2 = 0;
   for (let i = 0; i < I; i++) {
     const v = zs[i] as number;
