@@ -15,8 +15,6 @@ import {
   evaluateRecord,
   kdigoAlbuminuriaCategory,
   kdigoGfrCategory,
-  KIDNEY_COLUMNS,
-  KIDNEY_ROWS,
   type MeasureSet,
   monthIndex,
   progressionTime,
@@ -147,6 +145,3 @@ export function referenceSums(
   }
   return out;
 }
-
-/** Checks that the reference's kidney rows and columns are the sums' own names. */
-export const KIDNEY_NAMES = { rows: KIDNEY_ROWS, columns: KIDNEY_COLUMNS };

@@ -65,12 +65,19 @@ export function fromBase64(text: string): Uint8Array {
   const out = new Uint8Array((text.length / 4) * 3 - padding);
   const body = text.length - (padding > 0 ? 4 : 0);
   let o = 0;
+  // Characters beyond 255 set bits above the low byte; unknown ones decode to −1.
+  let wide = 0;
   let bad = 0;
   for (let i = 0; i < body; i += 4) {
-    const a = DECODE[text.charCodeAt(i) & 255] as number;
-    const b = DECODE[text.charCodeAt(i + 1) & 255] as number;
-    const c = DECODE[text.charCodeAt(i + 2) & 255] as number;
-    const d = DECODE[text.charCodeAt(i + 3) & 255] as number;
+    const c0 = text.charCodeAt(i);
+    const c1 = text.charCodeAt(i + 1);
+    const c2 = text.charCodeAt(i + 2);
+    const c3 = text.charCodeAt(i + 3);
+    wide |= c0 | c1 | c2 | c3;
+    const a = DECODE[c0 & 255] as number;
+    const b = DECODE[c1 & 255] as number;
+    const c = DECODE[c2 & 255] as number;
+    const d = DECODE[c3 & 255] as number;
     bad |= a | b | c | d;
     const v = (a << 18) | (b << 12) | (c << 6) | d;
     out[o++] = v >> 16;
@@ -79,16 +86,20 @@ export function fromBase64(text: string): Uint8Array {
   }
   if (padding > 0) {
     const i = body;
-    const a = DECODE[text.charCodeAt(i) & 255] as number;
-    const b = DECODE[text.charCodeAt(i + 1) & 255] as number;
-    const c = padding === 1 ? (DECODE[text.charCodeAt(i + 2) & 255] as number) : 0;
+    const c0 = text.charCodeAt(i);
+    const c1 = text.charCodeAt(i + 1);
+    const c2 = padding === 1 ? text.charCodeAt(i + 2) : 65;
+    wide |= c0 | c1 | c2;
+    const a = DECODE[c0 & 255] as number;
+    const b = DECODE[c1 & 255] as number;
+    const c = DECODE[c2 & 255] as number;
     bad |= a | b | c;
     const v = (a << 18) | (b << 12) | (c << 6);
     out[o++] = v >> 16;
     if (padding === 1) out[o] = (v >> 8) & 255;
   }
-  let wide = false;
-  for (let i = 0; i < text.length && !wide; i++) if (text.charCodeAt(i) > 255) wide = true;
-  if (bad < 0 || wide) throw new RangeError('base64 text holds a character that is not base64');
+  if (bad < 0 || wide > 255) {
+    throw new RangeError('base64 text holds a character that is not base64');
+  }
   return out;
 }

@@ -80,31 +80,6 @@ export function limitsTable(
   return { n, exact, adjusted };
 }
 
-/** Index of n in the table (binary search), −1 when absent. */
-export function limitsIndex(table: LimitsTable, n: number): number {
-  let lo = 0;
-  let hi = table.n.length - 1;
-  while (lo <= hi) {
-    const mid = (lo + hi) >> 1;
-    const v = table.n[mid] as number;
-    if (v === n) return mid;
-    if (v < n) lo = mid + 1;
-    else hi = mid - 1;
-  }
-  return -1;
-}
-
-/** The limits at table index i as intervals. */
-export function limitsAt(
-  limits: Float64Array,
-  i: number,
-): { inner: { lower: number; upper: number }; outer: { lower: number; upper: number } } {
-  return {
-    inner: { lower: limits[4 * i] as number, upper: limits[4 * i + 1] as number },
-    outer: { lower: limits[4 * i + 2] as number, upper: limits[4 * i + 3] as number },
-  };
-}
-
 /** The flag code of events/n against the limits at table index i (funnel-flag.ts's rule). */
 export function flagCode(events: number, n: number, limits: Float64Array, i: number): FlagCode {
   if (n === 0 || i < 0) return 0;

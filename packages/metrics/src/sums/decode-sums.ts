@@ -120,6 +120,9 @@ function readBody(
   const practices = r.varint('the number of practices');
   const records: number[] = [];
   for (let k = 0; k < 4; k++) records.push(r.varint('the record counts'));
+  if (records[0] !== (records[1] as number) + (records[2] as number) + (records[3] as number)) {
+    throw new SumsDecodeError('invalid', 'the sums hold record counts that do not add up');
+  }
   const strataCount = r.varint('the case-mix strata');
   if (strataCount > layout.strataCount) {
     throw new SumsDecodeError('invalid', 'the sums hold more case-mix strata than there are');

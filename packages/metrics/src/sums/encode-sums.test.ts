@@ -117,6 +117,14 @@ describe('encodeSums / decodeSums', () => {
     expect(() => decodeSums(extra, set)).toThrow(SumsDecodeError);
   });
 
+  it('refuses to encode sums whose arrays do not have the widths of their counts', () => {
+    const sums = practiceOf(60, 13);
+    expect(() => encodeSums({ ...sums, cells: Uint32Array.from(sums.cells) })).toThrow(
+      /sums\.cells must be 8-bit counts/,
+    );
+    expect(() => encodeSums({ ...sums, fingerprint: 'x' })).toThrow(/fingerprint/);
+  });
+
   it('refuses sums made under another measure set or format version', () => {
     const bytes = encodeSums(practiceOf(100, 5));
     const json = defaultMeasureSetJson() as Record<string, unknown> & {

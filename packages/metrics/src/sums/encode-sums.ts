@@ -1,6 +1,12 @@
 import { ByteWriter } from './byte-codec.js';
 import { crc32 } from './crc32.js';
-import { type PracticeSums, SECTIONS, widthOf } from './practice-sums.js';
+import {
+  fullestStratum,
+  type PracticeSums,
+  SECTIONS,
+  sumsWidths,
+  widthOf,
+} from './practice-sums.js';
 import { SUMS_FORMAT_VERSION } from './sums-layout.js';
 
 /**
@@ -51,7 +57,19 @@ export function encodeSums(sums: PracticeSums): Uint8Array {
     values: sums.values,
     kidney: sums.kidney,
   };
-  for (const section of SECTIONS) w.byte(widthOf(sections[section]));
+  const widths = sumsWidths(
+    sums.records[1] as number,
+    ids.length > 0 ? fullestStratum(sums.strata.values, sums.strata.values.length / ids.length) : 0,
+  );
+  for (const section of SECTIONS) {
+    if (widthOf(sections[section]) !== widths[section]) {
+      throw new RangeError(
+        `sums.${section} must be ${8 * widths[section]}-bit counts for sums of this size ` +
+          '(practice-sums.ts): were the sums made by sumsOfColumns, mergeSums or decodeSums?',
+      );
+    }
+    w.byte(widths[section]);
+  }
   for (let j = 0; j < ids.length; j++) {
     w.varint(j === 0 ? (ids[0] as number) : (ids[j] as number) - (ids[j - 1] as number) - 1);
   }

@@ -49,14 +49,6 @@ export function widthFor(max: number): CountWidth {
   return max < 256 ? 1 : max < 65536 ? 2 : 4;
 }
 
-/** The largest element (0 for none). */
-export function maxOf(values: ArrayLike<number>): number {
-  let max = 0;
-  for (let i = 0; i < values.length; i++)
-    if ((values[i] as number) > max) max = values[i] as number;
-  return max;
-}
-
 /** The count widths of sums with `eligible` eligible records and `fullest` in one stratum. */
 export function sumsWidths(eligible: number, fullest: number): Record<Section, CountWidth> {
   const w = widthFor(eligible);

@@ -1,7 +1,6 @@
 import { sha256, toHex } from '../disclosure/sha256.js';
 import { utf8Bytes } from '../disclosure/utf8.js';
 import {
-  CODE_MET,
   CODE_NOT_MET,
   CODE_UNKNOWN,
   compileMeasureSet,
@@ -155,13 +154,4 @@ export function sumsLayout(measureSet: MeasureSet | CompiledMeasureSet | SumsLay
   cache.set(measureSet, layout);
   if (compiled !== measureSet) cache.set(compiled, layout);
   return layout;
-}
-
-/** Outcome code of measure m in each cell of its pack: 1 when an event, 2 in n, 3 both. */
-export function cellRoles(layout: SumsLayout, m: number): Uint8Array {
-  const codes = layout.histogram.cellCodes[m] as Uint8Array;
-  return Uint8Array.from(
-    codes,
-    (code) => (code === CODE_MET ? 1 : 0) | (layout.inN(code, m) ? 2 : 0),
-  );
 }

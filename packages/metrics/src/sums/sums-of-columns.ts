@@ -9,7 +9,7 @@ import { INSULIN_EXCLUDED, insulinTimeAt } from '../progression/insulin.js';
 import { acrColumn, egfrOrReason, kidneyCell, kidneyRow } from './kidney-grid.js';
 import { allocateSums, type PracticeSums, sectionLengths, sumsWidths } from './practice-sums.js';
 import { sumsLayout, type SumsLayout } from './sums-layout.js';
-import { VALUE_HISTOGRAMS, type ValueHistogramSpec } from './value-bins.js';
+import { VALUE_HISTOGRAMS, type ValueHistogramSpec, valueSlot } from './value-bins.js';
 
 /**
  * The sums of every practice present in a set of records (practice-sums.ts), in two passes:
@@ -240,10 +240,7 @@ function addInsulin(
   return excluded;
 }
 
-/**
- * Adds each eligible record's latest value in the window to a value histogram (the slots of
- * value-bins.ts's `valueSlot`, computed inline).
- */
+/** Adds each eligible record's latest value in the window to a value histogram. */
 function addValues(
   run: Run,
   months: Int16Array,
@@ -256,16 +253,11 @@ function addValues(
   out: Uint32Array,
 ): void {
   const { order, stratumOf, diabetesType } = run;
-  const { from, width, bins } = spec;
   for (let j = run.first; j < run.end; j++) {
     const i = order === null ? j : (order[j] as number);
     if ((stratumOf[i] as number) < 0) continue;
     const v = values[i] as number;
-    let slot = 0;
-    if (((months[i] as number) - lo) >>> 0 <= span && v === v) {
-      const k = Math.floor((v - from) / width + 1e-9);
-      slot = k < 0 ? 1 : k >= bins ? bins + 2 : k + 2;
-    }
+    const slot = ((months[i] as number) - lo) >>> 0 <= span && v === v ? valueSlot(spec, v) : 0;
     const x = (diabetesType[i] === TYPE_1 ? 0 : perGroup) + offset + slot;
     out[x] = (out[x] as number) + 1;
   }
@@ -290,7 +282,6 @@ function addKidney(
   const acrMonth = columns.months.urineAlbumin;
   const acr = columns.values.urineAlbumin;
   const { sex, birthYear } = columns;
-  const { from, width, bins } = egfr.spec;
   for (let j = run.first; j < run.end; j++) {
     const i = order === null ? j : (order[j] as number);
     if ((stratumOf[i] as number) < 0) continue;
@@ -298,12 +289,7 @@ function addKidney(
     const cv =
       ((creatinineMonth[i] as number) - lo) >>> 0 <= span ? (creatinine[i] as number) : NaN;
     const e = egfrOrReason(cv, sex[i] as number, endYear - (birthYear[i] as number));
-    let slot = 0;
-    if (e >= 0) {
-      const k = Math.floor((e - from) / width + 1e-9);
-      slot = k < 0 ? 1 : k >= bins ? bins + 2 : k + 2;
-    }
-    const vx = g * perGroup + egfr.offset + slot;
+    const vx = g * perGroup + egfr.offset + (e >= 0 ? valueSlot(egfr.spec, e) : 0);
     values[vx] = (values[vx] as number) + 1;
     const av = ((acrMonth[i] as number) - lo) >>> 0 <= span ? (acr[i] as number) : NaN;
     const kx = g * kidneyPerGroup + kidneyCell(kidneyRow(e), acrColumn(av));

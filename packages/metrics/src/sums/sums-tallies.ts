@@ -44,13 +44,6 @@ export function blockOffset(layout: SumsLayout, g: number, c: number): number {
   return (g * (layout.categories - 1) + c - 1) * layout.cellsPerBlock;
 }
 
-/** The categories a category stands for: everyone is its four sex categories. */
-export function storedCategories(layout: SumsLayout, c: number): number[] {
-  if (c !== 0) return [c];
-  const sex = layout.compiled.dimensions[1]?.offset ?? 1;
-  return [sex, sex + 1, sex + 2, sex + 3];
-}
-
 /**
  * Adds one type group and category of the cells to `out` per measure m: events at 3m,
  * measured at 3m + 1, denominator at 3m + 2. `block` is a scratch array of K cells.
