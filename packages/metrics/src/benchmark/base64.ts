@@ -1,7 +1,8 @@
 /**
  * Base64 (RFC 4648 §4, with padding) in plain TypeScript, for the packed columns of a stored
  * benchmark. The encoded characters are written as bytes and turned into a string by the
- * standard `TextDecoder` where there is one (browsers, Node.js), else in chunks.
+ * standard `TextDecoder` (as UTF-8, of which ASCII is a part) where there is one (browsers,
+ * Node.js), else in chunks.
  */
 const ALPHABET = 'ABCDEFGHIJKLMNOPQRSTUVWXYZabcdefghijklmnopqrstuvwxyz0123456789+/';
 const ENCODE = Uint8Array.from(ALPHABET, (c) => c.charCodeAt(0));
@@ -40,7 +41,7 @@ const decoder: { decode(bytes: Uint8Array): string } | null =
         globalThis as unknown as {
           TextDecoder: new (label: string) => { decode(bytes: Uint8Array): string };
         }
-      ).TextDecoder('latin1')
+      ).TextDecoder('utf-8')
     : null;
 
 /** A string of ASCII bytes. */

@@ -212,7 +212,7 @@ function compareLevel(
   }
   const curves =
     units > 0
-      ? funnelCurves(theta0, curveGrid(n, options.curvePoints), od, options.overdispersion)
+      ? funnelCurves(theta0, curveGrid(n, options.curvePoints), od, options.overdispersion, table)
       : null;
   return { units, median: middle, overdispersion: od, curves };
 }

@@ -40,6 +40,7 @@ export function limitsTable(
   ns: ArrayLike<number>,
   od: OverdispersionSummary | null,
   method: OverdispersionMethod,
+  known: LimitsTable | null = null,
 ): LimitsTable {
   // The distinct n (whole numbers) in ascending order, by marking rather than sorting.
   let largest = 0;
@@ -62,8 +63,18 @@ export function limitsTable(
   const exact = new Float64Array(4 * count);
   const adjusted = new Float64Array(4 * count);
   const wide = widened(od);
+  // Limits already computed for the same θ₀ and over-dispersion (`known`) are copied.
+  let j = 0;
   for (let i = 0; i < count; i++) {
     const size = n[i] as number;
+    if (known !== null) {
+      while (j < known.n.length && (known.n[j] as number) < size) j++;
+      if (j < known.n.length && known.n[j] === size) {
+        exact.set(known.exact.subarray(4 * j, 4 * j + 4), 4 * i);
+        adjusted.set(known.adjusted.subarray(4 * j, 4 * j + 4), 4 * i);
+        continue;
+      }
+    }
     const inner = funnelLimits(theta0, size, FUNNEL_INNER);
     const outer = funnelLimits(theta0, size, FUNNEL_OUTER);
     fill(exact, i, inner, outer);
@@ -125,8 +136,9 @@ export function funnelCurves(
   grid: readonly number[],
   od: OverdispersionSummary | null,
   method: OverdispersionMethod,
+  known: LimitsTable | null = null,
 ): FunnelCurves {
-  const table = limitsTable(theta0, grid, od, method);
+  const table = limitsTable(theta0, grid, od, method, known);
   const columns = (limits: Float64Array): FunnelCurves['exact'] => {
     const column = (k: number): number[] =>
       Array.from({ length: table.n.length }, (_, i) => forPlotting(limits[4 * i + k] as number));

@@ -1,11 +1,10 @@
 import type { PracticeSums } from '../sums/practice-sums.js';
 import type { SumsLayout } from '../sums/sums-layout.js';
-import { addEveryoneTallies } from '../sums/sums-tallies.js';
 
 /**
  * Each unit's events, measured and denominator per measure and type group, and its record
- * counts: practices from their sums' everyone category (sums-tallies.ts), localities as sums of
- * their practices. Columns as in benchmark.ts: (u·M + m)·2 + g; records u·4 + k.
+ * counts: practices from their sums' tallies (the everyone category, sums-tallies.ts),
+ * localities as sums of their practices. Columns as in benchmark.ts: (u·M + m)·2 + g; records u·4 + k.
  */
 export interface UnitTallies {
   events: Uint32Array;
@@ -27,20 +26,19 @@ export function unitTallies(
   const measured = new Uint32Array(U * M * 2);
   const denominator = new Uint32Array(U * M * 2);
   const records = new Uint32Array(U * 4);
-  const out = new Float64Array(3 * M);
   const add = (array: Uint32Array, from: number, to: number): void => {
     array[to] = (array[to] as number) + (array[from] as number);
   };
   for (let p = 0; p < P; p++) {
     const s = sums[p] as PracticeSums;
+    const t = s.tallies;
     for (let g = 0; g < 2; g++) {
-      out.fill(0);
-      addEveryoneTallies(layout, s.cells, g, out);
       for (let m = 0; m < M; m++) {
         const x = (p * M + m) * 2 + g;
-        events[x] = out[3 * m] as number;
-        measured[x] = out[3 * m + 1] as number;
-        denominator[x] = out[3 * m + 2] as number;
+        const from = (g * M + m) * 3;
+        events[x] = t[from] as number;
+        measured[x] = t[from + 1] as number;
+        denominator[x] = t[from + 2] as number;
       }
     }
     records.set(s.records, p * 4);

@@ -14,6 +14,7 @@ import {
   sumsWidths,
 } from './practice-sums.js';
 import { SUMS_FORMAT_VERSION, sumsLayout, type SumsLayout } from './sums-layout.js';
+import { everyoneTallies } from './sums-tallies.js';
 
 /**
  * Reads sums written by `encodeSums` (encode-sums.ts) under the given measure set. Refuses,
@@ -183,5 +184,6 @@ function readBody(
     insulin: { counts: a.insulin, excluded },
     values: a.values,
     kidney: a.kidney,
+    tallies: everyoneTallies(layout, a.cells),
   };
 }

@@ -114,6 +114,7 @@ export function mergeSums(list: readonly PracticeSums[]): PracticeSums {
     insulin: { counts: a.insulin, excluded },
     values: a.values,
     kidney: a.kidney,
+    tallies: Uint32Array.from(add((s) => s.tallies, first.tallies.length)),
   };
 }
 

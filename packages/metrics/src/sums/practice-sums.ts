@@ -42,6 +42,12 @@ export interface PracticeSums {
   readonly values: Counts;
   /** KDIGO grid per type group (kidney-grid.ts). */
   readonly kidney: Counts;
+  /**
+   * Derived, not stored: each measure's events, measured and denominator in each type group's
+   * everyone category, at (g·M + m)·3 + 0, 1, 2, read off the cells when the sums are made or
+   * read (sums-tallies.ts), and added up when they are merged. What the benchmark reads most.
+   */
+  readonly tallies: Uint32Array;
 }
 
 /** Bytes per count needed for counts up to `max`. */

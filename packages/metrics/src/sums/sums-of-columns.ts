@@ -9,6 +9,7 @@ import { INSULIN_EXCLUDED, insulinTimeAt } from '../progression/insulin.js';
 import { acrColumn, egfrOrReason, kidneyCell, kidneyRow } from './kidney-grid.js';
 import { allocateSums, type PracticeSums, sectionLengths, sumsWidths } from './practice-sums.js';
 import { sumsLayout, type SumsLayout } from './sums-layout.js';
+import { everyoneTallies } from './sums-tallies.js';
 import { VALUE_HISTOGRAMS, type ValueHistogramSpec, valueSlot } from './value-bins.js';
 
 /**
@@ -359,5 +360,6 @@ function emit(
     insulin: { counts: a.insulin, excluded: scratch.excluded },
     values: a.values,
     kidney: a.kidney,
+    tallies: everyoneTallies(layout, a.cells),
   };
 }

@@ -114,3 +114,16 @@ export function addEveryoneTallies(
     }
   }
 }
+
+/** The derived tallies of `PracticeSums` from its cells: (g·M + m)·3 + 0 events, 1 measured, 2 denominator. */
+export function everyoneTallies(layout: SumsLayout, cells: ArrayLike<number>): Uint32Array {
+  const M = layout.compiled.measures.length;
+  const out = new Float64Array(3 * M);
+  const tallies = new Uint32Array(2 * 3 * M);
+  for (let g = 0; g < 2; g++) {
+    out.fill(0);
+    addEveryoneTallies(layout, cells, g, out);
+    tallies.set(out, g * 3 * M);
+  }
+  return tallies;
+}
