@@ -25,8 +25,8 @@ import type { PackedColumn } from './packed-column.js';
  */
 export const BENCHMARK_FORMAT = 1;
 
-export const LEVELS = ['practice', 'locality'] as const;
-export type BenchmarkLevel = (typeof LEVELS)[number];
+export const BENCHMARK_LEVELS = ['practice', 'locality'] as const;
+export type BenchmarkLevel = (typeof BENCHMARK_LEVELS)[number];
 
 /**
  * A unit's funnel flag as one small number: 0 no n, else funnel-flag.ts's band code (1 within,
