@@ -1,5 +1,5 @@
 /**
- * Measure sets, versioned (methods.md §2–3): the one place the rest of the
+ * Measure sets, versioned (docs/methods.md §2–3): the one place the rest of the
  * API gets them from. Every version is validated (parseMeasureSet), compiled
  * (compileMeasureSet) and described once, then kept in memory by id: a
  * version's content never changes (a change is a new version), so the cache

@@ -2,7 +2,7 @@
  * Audit quarters (product.md flow 1): a region's regional lead opens a
  * quarter, choosing the measure set and the submission deadline; practices
  * upload extracts to it; after the deadline it is closed. The review window
- * is derived (methods.md §1, reviewWindow in @cairn/metrics).
+ * is derived (docs/methods.md §1, reviewWindow in @cairn/metrics).
  */
 import { HttpStatus, Inject, Injectable } from '@nestjs/common';
 import { ConfigService } from '@nestjs/config';
