@@ -635,11 +635,15 @@ export function findUnit(def: ColumnDef, text: string): UnitDef | null {
   return null;
 }
 
-/** WHO diagnostic thresholds (WHO 2006 for glucose, WHO 2011 for HbA1c), canonical units. */
+/**
+ * Diagnostic thresholds, canonical units: WHO 2006 for fasting and 2-hour glucose, WHO 2011 for
+ * HbA1c; the random glucose threshold (with symptoms) is the ADA Standards of Care's diagnostic
+ * criterion (recalled from memory; docs/methods.md §7).
+ */
 export const DIAGNOSTIC_THRESHOLDS: Record<string, { min: number; unit: string; source: string }> =
   {
     fasting_glucose: { min: 7.0, unit: 'mmol/L', source: 'WHO 2006' },
     two_hour_glucose: { min: 11.1, unit: 'mmol/L', source: 'WHO 2006' },
-    random_glucose: { min: 11.1, unit: 'mmol/L', source: 'WHO 2006' },
+    random_glucose: { min: 11.1, unit: 'mmol/L', source: 'ADA Standards of Care, with symptoms' },
     hba1c: { min: 48, unit: 'mmol/mol', source: 'WHO 2011' },
   };
