@@ -65,6 +65,8 @@ export const tableOwners = {
   extract_file_chunks: ['submissions'],
   submission_issues: ['submissions'],
   submission_rejected_rows: ['submissions'],
+  submission_sums: ['submissions'],
+  benchmark_results: ['benchmarks'],
   // Staged by the submissions module through the bulk-load plumbing (src/database/bulk-load).
   care_records: ['submissions', 'database'],
   schema_migrations: ['database'],
