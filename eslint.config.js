@@ -60,6 +60,7 @@ export const tableOwners = {
   auth_throttle: ['auth'],
   audit_events: ['audit-trail'],
   audit_quarters: ['quarters'],
+  measure_sets: ['measure-sets'],
   submissions: ['submissions'],
   practice_quarters: ['submissions'],
   extract_file_chunks: ['submissions'],

@@ -1,12 +1,13 @@
 import { Module } from '@nestjs/common';
 import { MeasureSetsModule } from '../measure-sets/measure-sets.module.js';
+import { QuarterReports } from './quarter-reports.js';
 import { QuartersController } from './quarters.controller.js';
 import { QuartersService } from './quarters.service.js';
 
 @Module({
   imports: [MeasureSetsModule],
   controllers: [QuartersController],
-  providers: [QuartersService],
-  exports: [QuartersService],
+  providers: [QuarterReports, QuartersService],
+  exports: [QuartersService, QuarterReports],
 })
 export class QuartersModule {}
