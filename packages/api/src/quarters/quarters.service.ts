@@ -15,6 +15,7 @@ import { ProblemException } from '../common/problem.js';
 import type { CairnConfig } from '../config/config.schema.js';
 import type { QuarterDto, QuarterStatus } from './dto/quarter.dto.js';
 import { MeasureSetsService } from '../measure-sets/measure-sets.service.js';
+import { QuarterEvents } from './quarter-events.js';
 
 interface DbQuarter {
   id: number;
@@ -68,6 +69,7 @@ export class QuartersService {
     @Inject(ConfigService) private readonly config: ConfigService<CairnConfig, true>,
     @Inject(AuditTrailService) private readonly audit: AuditTrailService,
     @Inject(MeasureSetsService) private readonly measureSets: MeasureSetsService,
+    @Inject(QuarterEvents) private readonly events: QuarterEvents,
   ) {}
 
   async list(regionId: number): Promise<QuarterDto[]> {
@@ -174,8 +176,19 @@ export class QuartersService {
         },
         transaction,
       );
-      return (await this.find(Number(id), transaction))!;
+      const opened = (await this.find(Number(id), transaction))!;
+      await this.events.opened(opened, actor, transaction);
+      return opened;
     });
+  }
+
+  /** Every open quarter of every region (scheduled work: reminders before deadlines). */
+  async openQuarters(): Promise<QuarterDto[]> {
+    const rows = await this.sequelize.query<DbQuarter>(
+      `${SELECT} WHERE status = 'open' ORDER BY region_id, submission_deadline`,
+      { type: QueryTypes.SELECT },
+    );
+    return rows.map(toQuarter);
   }
 
   async setStatus(actor: Actor, id: number, status: QuarterStatus): Promise<QuarterDto> {
