@@ -9,6 +9,7 @@
 import { QueryTypes } from 'sequelize';
 import { simpleParser } from 'mailparser';
 import { QuarterEvents } from '../src/quarters/quarter-events.js';
+import { messageIdFor, messageIdHost } from '../src/mail/outbox-policy.js';
 import { OutboxService } from '../src/mail/outbox.service.js';
 import { QuarterMailService } from '../src/mail/quarter-mail.service.js';
 import { csvOf, goodRow } from './extracts-fixtures/rows.js';
@@ -35,6 +36,7 @@ describe('mail: opening message, reminders, recipients, deliveries', () => {
   let auditor: SignedInAgent;
   let ids: Awaited<ReturnType<typeof demoIds>>;
   let quarterId: number;
+  let regionId: number;
   const deadline = daysFromToday(40);
 
   const audit = (action: string) =>
@@ -48,6 +50,10 @@ describe('mail: opening message, reminders, recipients, deliveries', () => {
     t = await mailTestApp(capture.port);
     await seedDemoOrganisation(t);
     ids = await demoIds(t);
+    const [region] = await t.db.query<{ id: number }>('SELECT id FROM regions', {
+      type: QueryTypes.SELECT,
+    });
+    regionId = region!.id;
     regional = await signInAs(t, 'regional_lead');
     priya = await signInAs(t, 'practice_lead_one');
     daniel = await signInAs(t, 'practice_lead_two');
@@ -278,9 +284,10 @@ describe('mail: opening message, reminders, recipients, deliveries', () => {
         const row = rows.find((r) => r.recipient_address === message.to[0]);
         expect(row).toBeDefined();
         expect(header(raw, 'Message-ID')).toBe(row!.message_id);
-        // Derived from the row alone: <outbox-{id}.region-{region}@{public host}>
-        expect(row!.message_id).toMatch(/^<outbox-\d+\.region-\d+@127\.0\.0\.1>$/);
-        expect(row!.message_id!.startsWith(`<outbox-${row!.id}.`)).toBe(true);
+        // Derived from the row alone (the SQL of the claim and messageIdFor agree).
+        expect(row!.message_id).toBe(
+          messageIdFor(row!.id, regionId, messageIdHost(t.config.server.publicUrl)),
+        );
         expect(Number.isNaN(Date.parse(header(raw, 'Date') ?? ''))).toBe(false);
         expect(header(raw, 'List-Unsubscribe')).toBe(`<${t.config.server.publicUrl}/profile>`);
         expect(header(raw, 'Auto-Submitted')).toBe('auto-generated');
@@ -326,7 +333,7 @@ describe('mail: opening message, reminders, recipients, deliveries', () => {
           {
             kind: 'quarter_opened',
             sourceId: quarterId,
-            regionId: 1,
+            regionId,
             practiceId: ids.practice('OV102'),
             recipients: [{ address: 'someone.new@quarrybank.example', name: null, userId: null }],
           },

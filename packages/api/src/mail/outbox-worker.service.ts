@@ -215,8 +215,9 @@ export class OutboxWorker implements OnApplicationBootstrap, OnApplicationShutdo
         );
     } catch (error) {
       const failure = classifyFailure(error);
-      if (failure.replyCode === null) {
+      if (failure.replyCode === null && Date.now() >= this.pausedUntil) {
         // No answer from the server: it is the server that is away, not this message's fault.
+        // The pause grows with each round of sends that found it away (not with each message).
         this.unreachableInARow++;
         this.pausedUntil = Date.now() + backoffMs(this.unreachableInARow, mail.outbox);
       }
