@@ -20,10 +20,14 @@ export type RowIssueSeverity = Schemas['RowIssueSeverity'];
 export type IssueSort = Schemas['IssueSort'];
 export type CoverageState = Schemas['CoverageState'];
 export type AuditOutcome = Schemas['AuditOutcome'];
+export type MailKind = Schemas['MailKind'];
+export type OutboxState = Schemas['OutboxState'];
 export {
   auditOutcomeValues,
   coverageStateValues,
   issueSeverityValues,
+  mailKindValues,
+  outboxStateValues,
   roleValues,
   submissionStatusValues,
   userStatusValues,
@@ -64,3 +68,18 @@ export type Coverage = Schemas['CoverageDto'];
 export type CoveragePractice = Schemas['CoveragePracticeDto'];
 export type ExtractFormat = Schemas['ExtractFormatDto'];
 export type FormatColumn = Schemas['FormatColumnDto'];
+
+// ── mail: deliveries, recipients, mail preferences ──
+export type OutboxCounts = Schemas['OutboxCountsDto'];
+export type DeliverySource = Schemas['DeliverySourceDto'];
+export type DeliverySourceList = Schemas['DeliverySourceListDto'];
+export type DeliveryDetail = Schemas['DeliveryDetailDto'];
+export type DeliveryMessage = Schemas['DeliveryMessageDto'];
+export type ResendResult = Schemas['ResendResultDto'];
+export type MailRecipients = Schemas['MailRecipientsDto'];
+export type PracticeRecipients = Schemas['PracticeRecipientsDto'];
+export type ExtraRecipient = Schemas['ExtraRecipientDto'];
+export type NewExtraRecipient = Schemas['AddExtraRecipientDto'];
+export type MailPreferences = Schemas['MailPreferencesDto'];
+export type MailPreference = Schemas['MailPreferenceDto'];
+export type MailPreferencesChange = Schemas['UpdateMailPreferencesDto'];
