@@ -105,10 +105,8 @@ describe('mail deliveries', () => {
     expect(screen.getByText(/1 practices had nobody to write to/)).toBeTruthy();
     await userEvent.click(screen.getByRole('button', { name: 'Send the 1 failed again' }));
     expect(await screen.findByText(/1 message queued again/)).toBeTruthy();
-    const post = fetchMock.mock.calls.find(
-      ([url, init]) =>
-        String(url).endsWith('/resend') && (init as RequestInit | undefined)?.method === 'POST',
-    );
+    const calls = fetchMock.mock.calls as unknown as [string, RequestInit | undefined][];
+    const post = calls.find(([url, init]) => url.endsWith('/resend') && init?.method === 'POST');
     expect(post).toBeTruthy();
   });
 });

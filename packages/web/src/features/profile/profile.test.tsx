@@ -52,11 +52,10 @@ describe('profile', () => {
     });
     expect((reminders as HTMLInputElement).checked).toBe(true);
     await userEvent.click(reminders);
-    const put = fetchMock.mock.calls.find(
-      ([, init]) => (init as RequestInit | undefined)?.method === 'PUT',
-    );
+    const calls = fetchMock.mock.calls as unknown as [string, RequestInit | undefined][];
+    const put = calls.find(([, init]) => init?.method === 'PUT');
     expect(put).toBeTruthy();
-    expect(JSON.parse(String((put![1] as RequestInit).body))).toEqual({
+    expect(JSON.parse(String(put![1]!.body))).toEqual({
       optedOut: ['deadline_reminder'],
     });
     expect(document.title).toBe('Your profile · Cairn');

@@ -1,4 +1,4 @@
-import { AnchorButton, H2, HTMLTable, NonIdealState, Spinner } from '@blueprintjs/core';
+import { Classes, H2, HTMLTable, Icon, NonIdealState, Spinner } from '@blueprintjs/core';
 import { Link } from 'react-router-dom';
 import { ProblemCallout } from '../../../components/ProblemCallout';
 import { RequireRole } from '../../../components/RequireRole';
@@ -32,9 +32,10 @@ function DeliveriesScreen() {
             waiting or failed, and why a failed one failed. Open a source to see each message.
           </p>
         </div>
-        <AnchorButton href="/mail-recipients" icon="people">
-          Mail recipients
-        </AnchorButton>
+        <Link to="/mail-recipients" className={Classes.BUTTON}>
+          <Icon icon="people" />
+          <span className={Classes.BUTTON_TEXT}>Mail recipients</span>
+        </Link>
       </div>
       <ProblemCallout error={deliveries.error} />
       {deliveries.isPending ? (
@@ -46,7 +47,7 @@ function DeliveriesScreen() {
           description="Opening an audit quarter tells each practice its deadline; reminders follow before the deadline."
         />
       ) : (
-        <HTMLTable compact striped className="cairn-mail-table">
+        <HTMLTable compact className="cairn-mail-table">
           <thead>
             <tr>
               <th scope="col">Source</th>

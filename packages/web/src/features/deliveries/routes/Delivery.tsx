@@ -1,4 +1,4 @@
-import { Breadcrumbs, Button, Callout, H2, HTMLTable, Intent, Spinner } from '@blueprintjs/core';
+import { Button, Callout, H2, HTMLTable, Intent, Spinner } from '@blueprintjs/core';
 import { useParams } from 'react-router-dom';
 import { ProblemCallout } from '../../../components/ProblemCallout';
 import { RequireRole } from '../../../components/RequireRole';
@@ -7,6 +7,7 @@ import { formatCount, formatDateTime } from '../../../lib/format';
 import { usePageTitle } from '../../../lib/page-title';
 import { useDelivery, useResend } from '../api/deliveries';
 import { StateTag } from './StateTag';
+import { Trail } from './Trail';
 import './mail.css';
 
 /** `/deliveries/:kind/:sourceId`: one source's messages, failures first, and sending them again. */
@@ -27,12 +28,7 @@ function DeliveryScreen() {
 
   return (
     <div className="cairn-mail">
-      <Breadcrumbs
-        items={[
-          { href: '/deliveries', text: 'Mail deliveries' },
-          { text: source?.label ?? '…', current: true },
-        ]}
-      />
+      <Trail here={source?.label ?? '…'} />
       <div className="cairn-page-head">
         <div>
           <H2>{source?.label ?? 'Mail delivery'}</H2>
@@ -85,7 +81,7 @@ function DeliveryScreen() {
               next messages.
             </Callout>
           ) : null}
-          <HTMLTable compact striped className="cairn-mail-table">
+          <HTMLTable compact className="cairn-mail-table">
             <thead>
               <tr>
                 <th scope="col">Practice</th>
@@ -145,7 +141,7 @@ function DeliveryScreen() {
                         icon="refresh"
                         disabled={resend.isPending}
                         onClick={() => resend.mutate({ messageId: m.id })}
-                        aria-label={`Send the message to ${m.recipient} again`}
+                        aria-label={`Send again: ${m.recipient}`}
                       >
                         Send again
                       </Button>

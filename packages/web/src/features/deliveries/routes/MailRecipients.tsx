@@ -1,5 +1,4 @@
 import {
-  Breadcrumbs,
   Button,
   FormGroup,
   H2,
@@ -15,6 +14,7 @@ import { fieldError, ProblemCallout } from '../../../components/ProblemCallout';
 import { RequireRole } from '../../../components/RequireRole';
 import { usePageTitle } from '../../../lib/page-title';
 import { useChangeRecipients, useRecipients } from '../api/deliveries';
+import { Trail } from './Trail';
 import './mail.css';
 
 /** `/mail-recipients`: who receives each practice's mail; the regional lead adds addresses. */
@@ -62,12 +62,7 @@ function MailRecipientsScreen() {
 
   return (
     <div className="cairn-mail">
-      <Breadcrumbs
-        items={[
-          { href: '/deliveries', text: 'Mail deliveries' },
-          { text: 'Mail recipients', current: true },
-        ]}
-      />
+      <Trail here={'Mail recipients'} />
       <div className="cairn-page-head">
         <div>
           <H2>Mail recipients</H2>
@@ -104,7 +99,8 @@ function MailRecipientsScreen() {
         >
           <InputGroup
             id="recipient-address"
-            type="email"
+            inputMode="email"
+            autoComplete="off"
             value={address}
             intent={addressError ? Intent.DANGER : Intent.NONE}
             onValueChange={setAddress}
@@ -139,7 +135,7 @@ function MailRecipientsScreen() {
       {recipients.isPending ? (
         <Spinner aria-label="Loading the recipients" />
       ) : (
-        <HTMLTable compact striped className="cairn-mail-table">
+        <HTMLTable compact className="cairn-mail-table">
           <thead>
             <tr>
               <th scope="col">Practice</th>
