@@ -6,6 +6,7 @@ import type { CairnConfig, CairnSecrets } from './config/config.schema.js';
 import { CairnConfigModule } from './config/config.module.js';
 import { DatabaseModule } from './database/database.module.js';
 import { HealthModule } from './health/health.module.js';
+import { MailModule } from './mail/mail.module.js';
 import { MeasureSetsModule } from './measure-sets/measure-sets.module.js';
 import { OrganisationsModule } from './organisations/organisations.module.js';
 import { QuarterOverviewModule } from './quarter-overview/quarter-overview.module.js';
@@ -33,6 +34,7 @@ export const featureModules = [
   SubmissionsModule,
   BenchmarksModule,
   QuarterOverviewModule,
+  MailModule,
 ];
 
 @Module({})

@@ -57,7 +57,9 @@ const insert = (db: import('sequelize').Sequelize, status: string, definition: s
 describe('seeding measure sets', () => {
   it('refuses to start when a file no longer matches the version stored under its id', async () => {
     const changed = canonicalJson({ ...parseMeasureSet(shipped()), label: 'Edited in place' });
-    const failure = await startFailure((db) => insert(db, 'published', changed));
+    const failure = await startFailure(async (db) => {
+      await insert(db, 'published', changed);
+    });
     expect(failure?.message).toMatch(
       new RegExp(
         `^measure set config/measure-sets/${DEFAULT.replace(/\./g, '\\.')}\\.json differs from the published version "${DEFAULT.replace(/\./g, '\\.')}" stored in the database \\(stored SHA-256 [0-9a-f]{64}, file [0-9a-f]{64}\\)\\. A published version never changes`,
@@ -67,7 +69,9 @@ describe('seeding measure sets', () => {
 
   it('refuses to start when a draft already holds the id of a shipped file', async () => {
     const same = canonicalJson(parseMeasureSet(shipped()));
-    const failure = await startFailure((db) => insert(db, 'draft', same));
+    const failure = await startFailure(async (db) => {
+      await insert(db, 'draft', same);
+    });
     expect(failure?.message).toBe(
       `measure set config/measure-sets/${DEFAULT}.json: the id "${DEFAULT}" is already used by a draft version in the database; give the file another version id`,
     );

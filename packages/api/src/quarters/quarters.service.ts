@@ -27,6 +27,7 @@ import { type QuarterFacts, quarterActions } from './quarter-policy.js';
 import { QuarterReports } from './quarter-reports.js';
 
 export { defaultDeadline } from './deadline.js';
+import { QuarterEvents } from './quarter-events.js';
 
 interface DbQuarter {
   id: number;
@@ -101,6 +102,7 @@ export class QuartersService {
     @Inject(AuditTrailService) private readonly audit: AuditTrailService,
     @Inject(MeasureSetsService) private readonly measureSets: MeasureSetsService,
     @Inject(QuarterReports) private readonly reports: QuarterReports,
+    @Inject(QuarterEvents) private readonly events: QuarterEvents,
     @Inject(MeasureSetUsage) usage: MeasureSetUsage,
   ) {
     usage.register({ usesOf: (regionId, ids) => this.measureSetUses(regionId, ids) });
@@ -257,8 +259,19 @@ export class QuartersService {
         },
         transaction,
       );
-      return (await this.find(Number(id), transaction))!;
+      const opened = (await this.find(Number(id), transaction))!;
+      await this.events.opened(opened, actor, transaction);
+      return opened;
     });
+  }
+
+  /** Every open quarter of every region (scheduled work: reminders before deadlines). */
+  async openQuarters(): Promise<QuarterDto[]> {
+    const rows = await this.sequelize.query<DbQuarter>(
+      `${SELECT} WHERE status = 'open' ORDER BY region_id, submission_deadline`,
+      { type: QueryTypes.SELECT },
+    );
+    return rows.map(toQuarter);
   }
 
   /**

@@ -43,6 +43,13 @@ export const navItems: NavItem[] = [
   },
   { label: 'Users', to: '/users', icon: 'people', roles: ['regional_lead'] },
   {
+    label: 'Mail',
+    to: '/deliveries',
+    icon: 'envelope',
+    roles: ['regional_lead'],
+    activeFor: /^\/(deliveries|mail-recipients)(\/|$)/,
+  },
+  {
     label: 'Audit trail',
     to: '/audit-trail',
     icon: 'history',

@@ -88,6 +88,32 @@ export const routes: RouteObject[] = [
             Component: m.MeasureSet,
           })),
       },
+      {
+        path: 'profile',
+        lazy: () =>
+          import('../features/profile/routes/Profile').then((m) => ({ Component: m.Profile })),
+      },
+      {
+        path: 'deliveries',
+        lazy: () =>
+          import('../features/deliveries/routes/Deliveries').then((m) => ({
+            Component: m.Deliveries,
+          })),
+      },
+      {
+        path: 'deliveries/:kind/:sourceId',
+        lazy: () =>
+          import('../features/deliveries/routes/Delivery').then((m) => ({
+            Component: m.Delivery,
+          })),
+      },
+      {
+        path: 'mail-recipients',
+        lazy: () =>
+          import('../features/deliveries/routes/MailRecipients').then((m) => ({
+            Component: m.MailRecipients,
+          })),
+      },
       { path: '*', element: <NotFound /> },
     ],
   },

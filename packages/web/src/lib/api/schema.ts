@@ -845,6 +845,143 @@ export interface paths {
     patch?: never;
     trace?: never;
   };
+  '/api/mail/deliveries': {
+    parameters: {
+      query?: never;
+      header?: never;
+      path?: never;
+      cookie?: never;
+    };
+    /** Every source of the region's e-mail (latest first) with its messages' counts by state */
+    get: operations['DeliveriesController_list'];
+    put?: never;
+    post?: never;
+    delete?: never;
+    options?: never;
+    head?: never;
+    patch?: never;
+    trace?: never;
+  };
+  '/api/mail/deliveries/{kind}/{sourceId}': {
+    parameters: {
+      query?: never;
+      header?: never;
+      path?: never;
+      cookie?: never;
+    };
+    /** One source's messages: each recipient, state, times, and the server's reply */
+    get: operations['DeliveriesController_detail'];
+    put?: never;
+    post?: never;
+    delete?: never;
+    options?: never;
+    head?: never;
+    patch?: never;
+    trace?: never;
+  };
+  '/api/mail/deliveries/{kind}/{sourceId}/resend': {
+    parameters: {
+      query?: never;
+      header?: never;
+      path?: never;
+      cookie?: never;
+    };
+    get?: never;
+    put?: never;
+    /** Sends a source's failed messages again */
+    post: operations['DeliveriesController_resendFailed'];
+    delete?: never;
+    options?: never;
+    head?: never;
+    patch?: never;
+    trace?: never;
+  };
+  '/api/mail/messages/{messageId}/resend': {
+    parameters: {
+      query?: never;
+      header?: never;
+      path?: never;
+      cookie?: never;
+    };
+    get?: never;
+    put?: never;
+    /** Sends one failed message again */
+    post: operations['DeliveriesController_resendMessage'];
+    delete?: never;
+    options?: never;
+    head?: never;
+    patch?: never;
+    trace?: never;
+  };
+  '/api/mail/recipients': {
+    parameters: {
+      query?: never;
+      header?: never;
+      path?: never;
+      cookie?: never;
+    };
+    /** Each active practice's mail recipients: its leads (and what they opted out of) and the extra addresses */
+    get: operations['MailRecipientsController_list'];
+    put?: never;
+    post?: never;
+    delete?: never;
+    options?: never;
+    head?: never;
+    patch?: never;
+    trace?: never;
+  };
+  '/api/practices/{practiceId}/mail-recipients': {
+    parameters: {
+      query?: never;
+      header?: never;
+      path?: never;
+      cookie?: never;
+    };
+    get?: never;
+    put?: never;
+    /** Adds an address to a practice's mail recipients */
+    post: operations['MailRecipientsController_add'];
+    delete?: never;
+    options?: never;
+    head?: never;
+    patch?: never;
+    trace?: never;
+  };
+  '/api/practices/{practiceId}/mail-recipients/{recipientId}': {
+    parameters: {
+      query?: never;
+      header?: never;
+      path?: never;
+      cookie?: never;
+    };
+    get?: never;
+    put?: never;
+    post?: never;
+    /** Removes an extra address from a practice's mail recipients */
+    delete: operations['MailRecipientsController_remove'];
+    options?: never;
+    head?: never;
+    patch?: never;
+    trace?: never;
+  };
+  '/api/me/mail-preferences': {
+    parameters: {
+      query?: never;
+      header?: never;
+      path?: never;
+      cookie?: never;
+    };
+    /** Every kind of e-mail Cairn sends, and whether you receive it */
+    get: operations['MailPreferencesController_get'];
+    /** Chooses the kinds of e-mail you do not want */
+    put: operations['MailPreferencesController_set'];
+    post?: never;
+    delete?: never;
+    options?: never;
+    head?: never;
+    patch?: never;
+    trace?: never;
+  };
 }
 export type webhooks = Record<string, never>;
 export interface components {
@@ -2631,6 +2768,153 @@ export interface components {
       measureSets: components['schemas']['MeasureSetRefDto'][];
       actions: components['schemas']['AuditQuartersActionsDto'];
     };
+    /** @enum {string} */
+    MailKind: 'quarter_opened' | 'deadline_reminder';
+    OutboxCountsDto: {
+      queued: number;
+      sending: number;
+      sent: number;
+      failed: number;
+      total: number;
+    };
+    DeliverySourceActionsDto: {
+      /** @description Whether failed messages can be sent again */
+      resendFailed: boolean;
+    };
+    DeliverySourceDto: {
+      kind: components['schemas']['MailKind'];
+      /** @description What the messages are about (an audit quarter id) */
+      sourceId: number;
+      /** @example 2026 Q4 opening message */
+      label: string;
+      /** @description When the first message was queued, ISO 8601 */
+      firstQueuedAt: string;
+      /** @description The latest queueing or attempt, ISO 8601 */
+      lastActivityAt: string;
+      /** @description Practices the source was sent for */
+      practices: number;
+      /** @description Practices that had nobody to write to (no active lead receiving this kind) */
+      practicesWithoutRecipients: number;
+      counts: components['schemas']['OutboxCountsDto'];
+      actions: components['schemas']['DeliverySourceActionsDto'];
+    };
+    DeliverySourceListDto: {
+      /** @description Latest first */
+      sources: components['schemas']['DeliverySourceDto'][];
+    };
+    /** @enum {string} */
+    OutboxState: 'queued' | 'sending' | 'sent' | 'failed';
+    DeliveryMessageActionsDto: {
+      /** @description Whether this (failed) message can be sent again */
+      resend: boolean;
+    };
+    DeliveryMessageDto: {
+      id: number;
+      practice: components['schemas']['PracticeRefDto'];
+      /** @example priya.calloway@quarrybank.example */
+      recipient: string;
+      /** @description The person's name, when a lead */
+      recipientName: string | null;
+      state: components['schemas']['OutboxState'];
+      /** @description Attempts so far (since the last resend) */
+      attempts: number;
+      /** @description Times the message was taken up again after its sender stopped mid-send (it may then have arrived twice, with the same Message-ID) */
+      resumed: number;
+      /** @description ISO 8601 */
+      queuedAt: string;
+      /** @description The next attempt (queued), ISO 8601 */
+      nextAttemptAt: string | null;
+      /** @description ISO 8601 */
+      lastAttemptAt: string | null;
+      /** @description When the server accepted it, ISO 8601 */
+      sentAt: string | null;
+      /** @description ISO 8601 */
+      failedAt: string | null;
+      /** @description The server's reply to the last failed attempt, or what went wrong */
+      lastError: string | null;
+      /** @description Its SMTP reply code, if any */
+      lastReplyCode: number | null;
+      /** @example <outbox-42.region-1@cairn.example.org> */
+      messageId: string | null;
+      actions: components['schemas']['DeliveryMessageActionsDto'];
+    };
+    DeliveryDetailDto: {
+      source: components['schemas']['DeliverySourceDto'];
+      /** @description Failed first, then by practice */
+      messages: components['schemas']['DeliveryMessageDto'][];
+      /** @description Practices that had nobody to write to */
+      practicesWithoutRecipients: components['schemas']['PracticeRefDto'][];
+    };
+    ResendResultDto: {
+      /** @description Messages queued again */
+      resent: number;
+      delivery: components['schemas']['DeliveryDetailDto'];
+    };
+    PracticeLeadRecipientDto: {
+      userId: number;
+      displayName: string;
+      email: string;
+      /** @description Kinds of e-mail this lead chose not to receive (on their profile) */
+      optedOut: components['schemas']['MailKind'][];
+    };
+    ExtraRecipientActionsDto: {
+      remove: boolean;
+    };
+    ExtraRecipientDto: {
+      id: number;
+      /** @example reception@quarrybank.example */
+      address: string;
+      /** @example Practice manager */
+      note: string | null;
+      /** @description Who added it (e-mail address) */
+      addedBy: string;
+      /** @description ISO 8601 */
+      addedAt: string;
+      actions: components['schemas']['ExtraRecipientActionsDto'];
+    };
+    PracticeRecipientsActionsDto: {
+      /** @description Whether another address can be added */
+      addRecipient: boolean;
+    };
+    PracticeRecipientsDto: {
+      practice: components['schemas']['PracticeDto'];
+      /** @description Active practice leads */
+      leads: components['schemas']['PracticeLeadRecipientDto'][];
+      /** @description Addresses the regional lead added */
+      extras: components['schemas']['ExtraRecipientDto'][];
+      actions: components['schemas']['PracticeRecipientsActionsDto'];
+    };
+    MailRecipientsDto: {
+      /** @description The region's active practices */
+      practices: components['schemas']['PracticeRecipientsDto'][];
+      /** @description Extra addresses a practice may have at most */
+      maxExtrasPerPractice: number;
+    };
+    AddExtraRecipientDto: {
+      /** @example reception@quarrybank.example */
+      address: string;
+      /** @description Who this is, for the regional lead (e.g. "Practice manager") */
+      note?: string;
+    };
+    MailPreferenceDto: {
+      kind: components['schemas']['MailKind'];
+      /** @example Submission deadline reminders */
+      label: string;
+      description: string;
+      /** @description Who is sent it */
+      sentTo: components['schemas']['Role'][];
+      /** @description Whether your role is sent this kind */
+      appliesToYou: boolean;
+      /** @description False when you chose not to receive it */
+      receive: boolean;
+    };
+    MailPreferencesDto: {
+      preferences: components['schemas']['MailPreferenceDto'][];
+    };
+    UpdateMailPreferencesDto: {
+      /** @description Every kind of e-mail you do not want (an empty list: receive them all) */
+      optedOut: components['schemas']['MailKind'][];
+    };
   };
   responses: never;
   parameters: never;
@@ -4369,6 +4653,279 @@ export interface operations {
       };
     };
   };
+  DeliveriesController_list: {
+    parameters: {
+      query?: never;
+      header?: never;
+      path?: never;
+      cookie?: never;
+    };
+    requestBody?: never;
+    responses: {
+      200: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['DeliverySourceListDto'];
+        };
+      };
+      /** @description RFC 9457 problem details */
+      default: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['ProblemDto'];
+        };
+      };
+    };
+  };
+  DeliveriesController_detail: {
+    parameters: {
+      query?: never;
+      header?: never;
+      path: {
+        kind: string;
+        sourceId: number;
+      };
+      cookie?: never;
+    };
+    requestBody?: never;
+    responses: {
+      200: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['DeliveryDetailDto'];
+        };
+      };
+      /** @description RFC 9457 problem details */
+      default: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['ProblemDto'];
+        };
+      };
+    };
+  };
+  DeliveriesController_resendFailed: {
+    parameters: {
+      query?: never;
+      header?: never;
+      path: {
+        kind: string;
+        sourceId: number;
+      };
+      cookie?: never;
+    };
+    requestBody?: never;
+    responses: {
+      200: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['ResendResultDto'];
+        };
+      };
+      /** @description RFC 9457 problem details */
+      default: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['ProblemDto'];
+        };
+      };
+    };
+  };
+  DeliveriesController_resendMessage: {
+    parameters: {
+      query?: never;
+      header?: never;
+      path: {
+        messageId: number;
+      };
+      cookie?: never;
+    };
+    requestBody?: never;
+    responses: {
+      200: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['ResendResultDto'];
+        };
+      };
+      /** @description RFC 9457 problem details */
+      default: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['ProblemDto'];
+        };
+      };
+    };
+  };
+  MailRecipientsController_list: {
+    parameters: {
+      query?: never;
+      header?: never;
+      path?: never;
+      cookie?: never;
+    };
+    requestBody?: never;
+    responses: {
+      200: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['MailRecipientsDto'];
+        };
+      };
+      /** @description RFC 9457 problem details */
+      default: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['ProblemDto'];
+        };
+      };
+    };
+  };
+  MailRecipientsController_add: {
+    parameters: {
+      query?: never;
+      header?: never;
+      path: {
+        practiceId: number;
+      };
+      cookie?: never;
+    };
+    requestBody: {
+      content: {
+        'application/json': components['schemas']['AddExtraRecipientDto'];
+      };
+    };
+    responses: {
+      201: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['PracticeRecipientsDto'];
+        };
+      };
+      /** @description RFC 9457 problem details */
+      default: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['ProblemDto'];
+        };
+      };
+    };
+  };
+  MailRecipientsController_remove: {
+    parameters: {
+      query?: never;
+      header?: never;
+      path: {
+        practiceId: number;
+        recipientId: number;
+      };
+      cookie?: never;
+    };
+    requestBody?: never;
+    responses: {
+      200: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['PracticeRecipientsDto'];
+        };
+      };
+      /** @description RFC 9457 problem details */
+      default: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['ProblemDto'];
+        };
+      };
+    };
+  };
+  MailPreferencesController_get: {
+    parameters: {
+      query?: never;
+      header?: never;
+      path?: never;
+      cookie?: never;
+    };
+    requestBody?: never;
+    responses: {
+      200: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['MailPreferencesDto'];
+        };
+      };
+      /** @description RFC 9457 problem details */
+      default: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['ProblemDto'];
+        };
+      };
+    };
+  };
+  MailPreferencesController_set: {
+    parameters: {
+      query?: never;
+      header?: never;
+      path?: never;
+      cookie?: never;
+    };
+    requestBody: {
+      content: {
+        'application/json': components['schemas']['UpdateMailPreferencesDto'];
+      };
+    };
+    responses: {
+      200: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['MailPreferencesDto'];
+        };
+      };
+      /** @description RFC 9457 problem details */
+      default: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['ProblemDto'];
+        };
+      };
+    };
+  };
 }
 type FlattenedDeepRequired<T> = {
   [K in keyof T]-?: FlattenedDeepRequired<
@@ -4582,3 +5139,9 @@ export const recallReasonValues: ReadonlyArray<
 export const nextQuarterDtoQuarterValues: ReadonlyArray<
   FlattenedDeepRequired<components>['schemas']['NextQuarterDto']['quarter']
 > = [1, 2, 3, 4];
+export const mailKindValues: ReadonlyArray<
+  FlattenedDeepRequired<components>['schemas']['MailKind']
+> = ['quarter_opened', 'deadline_reminder'];
+export const outboxStateValues: ReadonlyArray<
+  FlattenedDeepRequired<components>['schemas']['OutboxState']
+> = ['queued', 'sending', 'sent', 'failed'];

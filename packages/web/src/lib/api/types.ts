@@ -20,6 +20,8 @@ export type RowIssueSeverity = Schemas['RowIssueSeverity'];
 export type IssueSort = Schemas['IssueSort'];
 export type CoverageState = Schemas['CoverageState'];
 export type AuditOutcome = Schemas['AuditOutcome'];
+export type MailKind = Schemas['MailKind'];
+export type OutboxState = Schemas['OutboxState'];
 export {
   auditOutcomeValues,
   comparatorValues,
@@ -28,6 +30,8 @@ export {
   diabetesTypeValues,
   measureDirectionValues,
   issueSeverityValues,
+  mailKindValues,
+  outboxStateValues,
   roleValues,
   submissionStatusValues,
   userStatusValues,
@@ -103,3 +107,17 @@ export type DenominatorKind = Schemas['DenominatorKind'];
 export type MeasureDirection = Schemas['MeasureDirection'];
 export type Comparator = Schemas['Comparator'];
 export type Measurement = Schemas['Measurement'];
+// ── mail: deliveries, recipients, mail preferences ──
+export type OutboxCounts = Schemas['OutboxCountsDto'];
+export type DeliverySource = Schemas['DeliverySourceDto'];
+export type DeliverySourceList = Schemas['DeliverySourceListDto'];
+export type DeliveryDetail = Schemas['DeliveryDetailDto'];
+export type DeliveryMessage = Schemas['DeliveryMessageDto'];
+export type ResendResult = Schemas['ResendResultDto'];
+export type MailRecipients = Schemas['MailRecipientsDto'];
+export type PracticeRecipients = Schemas['PracticeRecipientsDto'];
+export type ExtraRecipient = Schemas['ExtraRecipientDto'];
+export type NewExtraRecipient = Schemas['AddExtraRecipientDto'];
+export type MailPreferences = Schemas['MailPreferencesDto'];
+export type MailPreference = Schemas['MailPreferenceDto'];
+export type MailPreferencesChange = Schemas['UpdateMailPreferencesDto'];
