@@ -13,7 +13,7 @@
  * blood pressure around 134/78 mmHg, total cholesterol around 4.5 mmol/L
  * (lower on a statin), creatinine by sex and age, a skewed urine ACR. Type 2
  * time from diagnosis to insulin is exponential with a median of 7 years, the
- * common rule of thumb (methods.md §5, common practice, no source).
+ * common rule of thumb (docs/methods.md §5, common practice, no source).
  *
  * Practice behaviours (demo-region.ts `profile`): 'improving' completes more
  * care processes quarter on quarter; 'persistently-low' stays well below its

@@ -386,7 +386,7 @@ export class SubmissionsService {
   }
 
   /**
-   * The clinical data-quality flags of a submission (methods.md §7): every
+   * The clinical data-quality flags of a submission (docs/methods.md §7): every
    * flag check Cairn has, with the number of records it flagged (0 included),
    * from the issue counts stored when the extract was checked.
    */

@@ -303,7 +303,7 @@ export interface paths {
       path?: never;
       cookie?: never;
     };
-    /** Every measure-set version Cairn knows */
+    /** The measure-set versions you read: published ones, and your region’s drafts (regional lead, auditor), each with where it is used */
     get: operations['MeasureSetsController_list'];
     put?: never;
     post?: never;
@@ -320,10 +320,63 @@ export interface paths {
       path?: never;
       cookie?: never;
     };
-    /** One measure-set version: every care process and treatment target, its definition in words, population, denominator, direction and guideline */
+    /** One measure-set version: every care process and treatment target, its definition in words, population, denominator, direction and guideline, and the definition as stored */
     get: operations['MeasureSetsController_get'];
+    /** Save a draft’s whole definition (regional lead); refused with every problem and its field when the measure set is not valid */
+    put: operations['MeasureSetsController_save'];
+    post?: never;
+    /** Discard a draft (regional lead); a published version is kept */
+    delete: operations['MeasureSetsController_discard'];
+    options?: never;
+    head?: never;
+    patch?: never;
+    trace?: never;
+  };
+  '/api/measure-sets/{measureSetId}/changes': {
+    parameters: {
+      query?: never;
+      header?: never;
+      path?: never;
+      cookie?: never;
+    };
+    /** The differences from the version it was started from, in words */
+    get: operations['MeasureSetsController_changes'];
     put?: never;
     post?: never;
+    delete?: never;
+    options?: never;
+    head?: never;
+    patch?: never;
+    trace?: never;
+  };
+  '/api/measure-sets/{measureSetId}/drafts': {
+    parameters: {
+      query?: never;
+      header?: never;
+      path?: never;
+      cookie?: never;
+    };
+    get?: never;
+    put?: never;
+    /** Start a draft from a published version (regional lead) */
+    post: operations['MeasureSetsController_clone'];
+    delete?: never;
+    options?: never;
+    head?: never;
+    patch?: never;
+    trace?: never;
+  };
+  '/api/measure-sets/{measureSetId}/publish': {
+    parameters: {
+      query?: never;
+      header?: never;
+      path?: never;
+      cookie?: never;
+    };
+    get?: never;
+    put?: never;
+    /** Publish a draft as a new version, fixed for good (regional lead) */
+    post: operations['MeasureSetsController_publish'];
     delete?: never;
     options?: never;
     head?: never;
@@ -362,7 +415,8 @@ export interface paths {
     delete?: never;
     options?: never;
     head?: never;
-    patch?: never;
+    /** Move the deadline of a quarter, or change its measure-set version while it is open and no report has been published from it (regional lead) */
+    patch: operations['QuartersController_update'];
     trace?: never;
   };
   '/api/quarters/{quarterId}/close': {
@@ -391,7 +445,7 @@ export interface paths {
     };
     get?: never;
     put?: never;
-    /** Reopen a closed quarter (regional lead) */
+    /** Reopen a closed quarter, optionally with a new deadline (regional lead) */
     post: operations['QuartersController_reopen'];
     delete?: never;
     options?: never;
@@ -774,6 +828,160 @@ export interface paths {
     patch?: never;
     trace?: never;
   };
+  '/api/quarter-overview': {
+    parameters: {
+      query?: never;
+      header?: never;
+      path?: never;
+      cookie?: never;
+    };
+    /** The audit quarters of your region with deadline, measure set, coverage (regional lead, auditor) and published reports, what you may do with each, and the quarter that would open next */
+    get: operations['QuarterOverviewController_get'];
+    put?: never;
+    post?: never;
+    delete?: never;
+    options?: never;
+    head?: never;
+    patch?: never;
+    trace?: never;
+  };
+  '/api/mail/deliveries': {
+    parameters: {
+      query?: never;
+      header?: never;
+      path?: never;
+      cookie?: never;
+    };
+    /** Every source of the region's e-mail (latest first) with its messages' counts by state */
+    get: operations['DeliveriesController_list'];
+    put?: never;
+    post?: never;
+    delete?: never;
+    options?: never;
+    head?: never;
+    patch?: never;
+    trace?: never;
+  };
+  '/api/mail/deliveries/{kind}/{sourceId}': {
+    parameters: {
+      query?: never;
+      header?: never;
+      path?: never;
+      cookie?: never;
+    };
+    /** One source's messages: each recipient, state, times, and the server's reply */
+    get: operations['DeliveriesController_detail'];
+    put?: never;
+    post?: never;
+    delete?: never;
+    options?: never;
+    head?: never;
+    patch?: never;
+    trace?: never;
+  };
+  '/api/mail/deliveries/{kind}/{sourceId}/resend': {
+    parameters: {
+      query?: never;
+      header?: never;
+      path?: never;
+      cookie?: never;
+    };
+    get?: never;
+    put?: never;
+    /** Sends a source's failed messages again */
+    post: operations['DeliveriesController_resendFailed'];
+    delete?: never;
+    options?: never;
+    head?: never;
+    patch?: never;
+    trace?: never;
+  };
+  '/api/mail/messages/{messageId}/resend': {
+    parameters: {
+      query?: never;
+      header?: never;
+      path?: never;
+      cookie?: never;
+    };
+    get?: never;
+    put?: never;
+    /** Sends one failed message again */
+    post: operations['DeliveriesController_resendMessage'];
+    delete?: never;
+    options?: never;
+    head?: never;
+    patch?: never;
+    trace?: never;
+  };
+  '/api/mail/recipients': {
+    parameters: {
+      query?: never;
+      header?: never;
+      path?: never;
+      cookie?: never;
+    };
+    /** Each active practice's mail recipients: its leads (and what they opted out of) and the extra addresses */
+    get: operations['MailRecipientsController_list'];
+    put?: never;
+    post?: never;
+    delete?: never;
+    options?: never;
+    head?: never;
+    patch?: never;
+    trace?: never;
+  };
+  '/api/practices/{practiceId}/mail-recipients': {
+    parameters: {
+      query?: never;
+      header?: never;
+      path?: never;
+      cookie?: never;
+    };
+    get?: never;
+    put?: never;
+    /** Adds an address to a practice's mail recipients */
+    post: operations['MailRecipientsController_add'];
+    delete?: never;
+    options?: never;
+    head?: never;
+    patch?: never;
+    trace?: never;
+  };
+  '/api/practices/{practiceId}/mail-recipients/{recipientId}': {
+    parameters: {
+      query?: never;
+      header?: never;
+      path?: never;
+      cookie?: never;
+    };
+    get?: never;
+    put?: never;
+    post?: never;
+    /** Removes an extra address from a practice's mail recipients */
+    delete: operations['MailRecipientsController_remove'];
+    options?: never;
+    head?: never;
+    patch?: never;
+    trace?: never;
+  };
+  '/api/me/mail-preferences': {
+    parameters: {
+      query?: never;
+      header?: never;
+      path?: never;
+      cookie?: never;
+    };
+    /** Every kind of e-mail Cairn sends, and whether you receive it */
+    get: operations['MailPreferencesController_get'];
+    /** Chooses the kinds of e-mail you do not want */
+    put: operations['MailPreferencesController_set'];
+    post?: never;
+    delete?: never;
+    options?: never;
+    head?: never;
+    patch?: never;
+    trace?: never;
+  };
 }
 export type webhooks = Record<string, never>;
 export interface components {
@@ -980,18 +1188,64 @@ export interface components {
       process: components['schemas']['HealthProcessDto'];
       database: components['schemas']['HealthDatabaseDto'];
     };
+    /**
+     * @description draft: being edited, used by nothing; published: fixed for good
+     * @enum {string}
+     */
+    MeasureSetStatus: 'draft' | 'published';
+    /** @enum {string} */
+    MeasureSetUseKind: 'quarter' | 'report';
+    MeasureSetUseDto: {
+      kind: components['schemas']['MeasureSetUseKind'];
+      id: number;
+      /** @example 2026 Q3 */
+      label: string;
+      /**
+       * @description The quarter’s or report’s status
+       * @example open
+       */
+      status: string;
+    };
+    MeasureSetActionsDto: {
+      /** @description Start a draft from this published version */
+      clone: boolean;
+      /** @description Change this draft */
+      edit: boolean;
+      /** @description Publish this draft as a new version */
+      publish: boolean;
+      /** @description Discard this draft */
+      discard: boolean;
+    };
     MeasureSetSummaryDto: {
       /** @example cairn-default-2026.1 */
       id: string;
       /** @example Cairn default measure set 2026.1 */
       label: string;
       description: string | null;
+      /** @description draft: being edited, used by nothing; published: fixed for good */
+      status: components['schemas']['MeasureSetStatus'];
+      /** @description The version this one was started from */
+      basedOn: string | null;
+      /** @description Shipped with Cairn (config/measure-sets/) and read by every region */
+      shippedWithCairn: boolean;
+      /** @description SHA-256 (hex) of the definition as stored */
+      contentHash: string;
       /** @example 10 */
       careProcesses: number;
       /** @example 10 */
       treatmentTargets: number;
       /** @description The version a new audit quarter gets by default */
       isDefault: boolean;
+      /** @description ISO 8601 */
+      createdAt: string;
+      /** @description Who started it (Cairn itself for a shipped version) */
+      createdBy: string;
+      /** @description ISO 8601 */
+      publishedAt: string | null;
+      publishedBy: string | null;
+      /** @description The quarters (and reports) that use it */
+      usedBy: components['schemas']['MeasureSetUseDto'][];
+      actions: components['schemas']['MeasureSetActionsDto'];
     };
     /** @enum {string} */
     BreakdownKey: 'age_band' | 'sex' | 'deprivation' | 'duration';
@@ -1075,18 +1329,246 @@ export interface components {
       /** @description Keys of the measures a composite combines (empty otherwise) */
       components: string[];
     };
+    PopulationDefinitionDto: {
+      types: components['schemas']['DiabetesType'][];
+      /** @description Youngest age included; null: none */
+      minAge: number | null;
+      /** @description Oldest age included; null: none */
+      maxAge: number | null;
+    };
+    /**
+     * @description The record field whose month must lie in the window
+     * @enum {string}
+     */
+    CareProcessField:
+      | 'hba1c'
+      | 'bloodPressure'
+      | 'cholesterol'
+      | 'serumCreatinine'
+      | 'urineAlbumin'
+      | 'footSurveillance'
+      | 'bmi'
+      | 'smoking'
+      | 'retinalScreening';
+    /** @enum {string} */
+    MeasureWindow: 'review' | 'retinal';
+    RecordedProcessDefinitionDto: {
+      /** @example hba1c_le_53 */
+      key: string;
+      label: string;
+      /** @description The guideline or rule the measure comes from */
+      source: string;
+      denominator: components['schemas']['DenominatorKind'];
+      direction: components['schemas']['MeasureDirection'];
+      population: components['schemas']['PopulationDefinitionDto'];
+      note?: string;
+      /** @enum {string} */
+      rule: 'recorded';
+      /** @description The record field whose month must lie in the window */
+      field: components['schemas']['CareProcessField'];
+      window: components['schemas']['MeasureWindow'];
+    };
+    CompositeProcessDefinitionDto: {
+      /** @example hba1c_le_53 */
+      key: string;
+      label: string;
+      /** @description The guideline or rule the measure comes from */
+      source: string;
+      denominator: components['schemas']['DenominatorKind'];
+      direction: components['schemas']['MeasureDirection'];
+      population: components['schemas']['PopulationDefinitionDto'];
+      note?: string;
+      /** @enum {string} */
+      rule: 'allOf';
+      /** @description Keys of the recorded care processes that must all be complete */
+      of: string[];
+    };
+    /** @enum {string} */
+    Measurement:
+      | 'hba1c'
+      | 'systolic'
+      | 'diastolic'
+      | 'cholesterol'
+      | 'serumCreatinine'
+      | 'urineAlbumin'
+      | 'bmi';
+    /** @enum {string} */
+    Comparator: 'lt' | 'le' | 'gt' | 'ge';
+    ValueTargetDefinitionDto: {
+      /** @example hba1c_le_53 */
+      key: string;
+      label: string;
+      /** @description The guideline or rule the measure comes from */
+      source: string;
+      denominator: components['schemas']['DenominatorKind'];
+      direction: components['schemas']['MeasureDirection'];
+      population: components['schemas']['PopulationDefinitionDto'];
+      note?: string;
+      /** @enum {string} */
+      rule: 'value';
+      measurement: components['schemas']['Measurement'];
+      comparator: components['schemas']['Comparator'];
+      threshold: number;
+    };
+    BloodPressureBandDto: {
+      /** @description The band applies from this age */
+      minAge: number;
+      /** @example 140 */
+      systolicBelow: number;
+      /** @example 90 */
+      diastolicBelow: number;
+    };
+    BloodPressureTargetDefinitionDto: {
+      /** @example hba1c_le_53 */
+      key: string;
+      label: string;
+      /** @description The guideline or rule the measure comes from */
+      source: string;
+      denominator: components['schemas']['DenominatorKind'];
+      direction: components['schemas']['MeasureDirection'];
+      population: components['schemas']['PopulationDefinitionDto'];
+      note?: string;
+      /** @enum {string} */
+      rule: 'bloodPressure';
+      bands: components['schemas']['BloodPressureBandDto'][];
+    };
+    /** @enum {string} */
+    FlagField: 'onStatin' | 'onInsulin' | 'cvdHistory';
+    FlagTargetDefinitionDto: {
+      /** @example hba1c_le_53 */
+      key: string;
+      label: string;
+      /** @description The guideline or rule the measure comes from */
+      source: string;
+      denominator: components['schemas']['DenominatorKind'];
+      direction: components['schemas']['MeasureDirection'];
+      population: components['schemas']['PopulationDefinitionDto'];
+      note?: string;
+      /** @enum {string} */
+      rule: 'flag';
+      flag: components['schemas']['FlagField'];
+      equals: boolean;
+    };
+    ValueConditionDto: {
+      /** @enum {string} */
+      rule: 'value';
+      measurement: components['schemas']['Measurement'];
+      comparator: components['schemas']['Comparator'];
+      /** @description In the measurement’s canonical unit */
+      threshold: number;
+    };
+    BloodPressureConditionDto: {
+      /** @enum {string} */
+      rule: 'bloodPressure';
+      bands: components['schemas']['BloodPressureBandDto'][];
+    };
+    FlagConditionDto: {
+      /** @enum {string} */
+      rule: 'flag';
+      flag: components['schemas']['FlagField'];
+      /** @description The recorded value that meets the target */
+      equals: boolean;
+    };
+    TargetRefConditionDto: {
+      /** @enum {string} */
+      rule: 'target';
+      /** @description Key of a target defined before this one */
+      key: string;
+    };
+    /** @enum {string} */
+    CompositeRule: 'anyOf' | 'allOf';
+    CompositeTargetDefinitionDto: {
+      /** @example hba1c_le_53 */
+      key: string;
+      label: string;
+      /** @description The guideline or rule the measure comes from */
+      source: string;
+      denominator: components['schemas']['DenominatorKind'];
+      direction: components['schemas']['MeasureDirection'];
+      population: components['schemas']['PopulationDefinitionDto'];
+      note?: string;
+      rule: components['schemas']['CompositeRule'];
+      of: (
+        | components['schemas']['ValueConditionDto']
+        | components['schemas']['BloodPressureConditionDto']
+        | components['schemas']['FlagConditionDto']
+        | components['schemas']['TargetRefConditionDto']
+      )[];
+    };
+    EligibilityDefinitionDto: {
+      /** @example 12 */
+      minAge: number;
+    };
+    BreakdownBandsDto: {
+      /**
+       * @example [
+       *       12,
+       *       40,
+       *       65,
+       *       80
+       *     ]
+       */
+      ageBands: number[];
+      /**
+       * @example [
+       *       0,
+       *       2,
+       *       7,
+       *       15
+       *     ]
+       */
+      durationBands: number[];
+    };
+    MeasureSetDefinitionDto: {
+      /** @example cairn-default-2026.1 */
+      id: string;
+      label: string;
+      description?: string;
+      eligibility: components['schemas']['EligibilityDefinitionDto'];
+      /** @example 12 */
+      retinalWindowMonths: number;
+      breakdowns: components['schemas']['BreakdownBandsDto'];
+      careProcesses: (
+        | components['schemas']['RecordedProcessDefinitionDto']
+        | components['schemas']['CompositeProcessDefinitionDto']
+      )[];
+      targets: (
+        | components['schemas']['ValueTargetDefinitionDto']
+        | components['schemas']['BloodPressureTargetDefinitionDto']
+        | components['schemas']['FlagTargetDefinitionDto']
+        | components['schemas']['CompositeTargetDefinitionDto']
+      )[];
+    };
     MeasureSetDto: {
       /** @example cairn-default-2026.1 */
       id: string;
       /** @example Cairn default measure set 2026.1 */
       label: string;
       description: string | null;
+      /** @description draft: being edited, used by nothing; published: fixed for good */
+      status: components['schemas']['MeasureSetStatus'];
+      /** @description The version this one was started from */
+      basedOn: string | null;
+      /** @description Shipped with Cairn (config/measure-sets/) and read by every region */
+      shippedWithCairn: boolean;
+      /** @description SHA-256 (hex) of the definition as stored */
+      contentHash: string;
       /** @example 10 */
       careProcesses: number;
       /** @example 10 */
       treatmentTargets: number;
       /** @description The version a new audit quarter gets by default */
       isDefault: boolean;
+      /** @description ISO 8601 */
+      createdAt: string;
+      /** @description Who started it (Cairn itself for a shipped version) */
+      createdBy: string;
+      /** @description ISO 8601 */
+      publishedAt: string | null;
+      publishedBy: string | null;
+      /** @description The quarters (and reports) that use it */
+      usedBy: components['schemas']['MeasureSetUseDto'][];
+      actions: components['schemas']['MeasureSetActionsDto'];
       /**
        * @description Youngest age counted at all, at the end of the review window
        * @example 12
@@ -1100,6 +1582,62 @@ export interface components {
       breakdowns: components['schemas']['BreakdownDto'][];
       /** @description Care processes first, then treatment targets */
       measures: components['schemas']['MeasureDto'][];
+      /** @description Saves of a draft so far; send it back when saving */
+      revision: number;
+      /** @description The definition, as stored */
+      definition: components['schemas']['MeasureSetDefinitionDto'];
+      /** @description An unused id for a draft started from this version (when the caller may start one) */
+      suggestedDraftId: string | null;
+      /** @description A label for that draft */
+      suggestedDraftLabel: string | null;
+    };
+    /** @enum {string} */
+    MeasureChangeKind: 'added' | 'removed' | 'changed';
+    MeasureSetChangeDto: {
+      kind: components['schemas']['MeasureChangeKind'];
+      /** @description The measure; null for the set itself */
+      measureKey: string | null;
+      measureLabel: string | null;
+      /**
+       * @description Path within the measure (or the set); null when the measure was added or removed
+       * @example threshold
+       */
+      field: string | null;
+      /** @example Threshold */
+      fieldLabel: string;
+      /** @example 53 */
+      before: string | null;
+      /** @example 50 */
+      after: string | null;
+    };
+    MeasureSetChangesDto: {
+      id: string;
+      /** @description The version compared with */
+      basedOn: string | null;
+      basedOnLabel: string | null;
+      /** @description Empty when nothing differs */
+      changes: components['schemas']['MeasureSetChangeDto'][];
+    };
+    CloneMeasureSetDto: {
+      /** @example cairn-default-2026.2 */
+      id: string;
+      /** @example Cairn default measure set 2026.2 */
+      label: string;
+    };
+    SaveMeasureSetDraftDto: {
+      /** @description The revision the change was made to */
+      revision: number;
+      definition: components['schemas']['MeasureSetDefinitionDto'];
+    };
+    PublishMeasureSetDto: {
+      /** @description The revision being published, as last read */
+      revision: number;
+    };
+    DiscardedMeasureSetDto: {
+      /** @description The draft discarded */
+      id: string;
+      /** @description The version it was started from */
+      basedOn: string | null;
     };
     /**
      * @description Closed: closed to practice uploads (a regional lead can still correct it)
@@ -1153,6 +1691,22 @@ export interface components {
        */
       submissionDeadline?: string;
       /** @example cairn-default-2026.1 */
+      measureSetId?: string;
+    };
+    ReopenQuarterDto: {
+      /**
+       * @description A new deadline (YYYY-MM-DD); the current one is kept when not given
+       * @example 2027-02-14
+       */
+      submissionDeadline?: string;
+    };
+    UpdateQuarterDto: {
+      /**
+       * @description YYYY-MM-DD
+       * @example 2027-02-14
+       */
+      submissionDeadline?: string;
+      /** @example cairn-default-2026.2 */
       measureSetId?: string;
     };
     ExtractLimitsDto: {
@@ -2142,6 +2696,225 @@ export interface components {
       /** @description This page, in extract row order */
       items: components['schemas']['RecallItemDto'][];
     };
+    MeasureSetRefDto: {
+      /** @example cairn-default-2026.1 */
+      id: string;
+      /** @example Cairn default measure set 2026.1 */
+      label: string;
+    };
+    QuarterReportDto: {
+      id: number;
+      label: string;
+      /** @example published */
+      status: string;
+      /** @description ISO 8601 */
+      publishedAt: string;
+    };
+    QuarterActionsDto: {
+      close: boolean;
+      reopen: boolean;
+      changeDeadline: boolean;
+      /** @description Only while the quarter is open and no report has been published from it */
+      changeMeasureSet: boolean;
+    };
+    AuditQuarterDto: {
+      quarter: components['schemas']['QuarterDto'];
+      measureSet: components['schemas']['MeasureSetRefDto'];
+      /** @description Practices with a current submission, awaiting confirmation, or none (regional lead and auditor; null for others) */
+      coverage: components['schemas']['CoverageTotalsDto'] | null;
+      /** @description Reports published from it, newest first */
+      reports: components['schemas']['QuarterReportDto'][];
+      actions: components['schemas']['QuarterActionsDto'];
+    };
+    NextQuarterDto: {
+      /** @example 2026 */
+      year: number;
+      /**
+       * @example 4
+       * @enum {number}
+       */
+      quarter: 1 | 2 | 3 | 4;
+      /** @example 2026 Q4 */
+      label: string;
+      /**
+       * @description First month of the review window
+       * @example 2026-01
+       */
+      windowStart: string;
+      /**
+       * @description Last month of the review window
+       * @example 2026-12
+       */
+      windowEnd: string;
+      /**
+       * @description Last day of the quarter
+       * @example 2026-12-31
+       */
+      quarterEnd: string;
+      /** @example 2027-02-14 */
+      defaultDeadline: string;
+      /** @example cairn-default-2026.1 */
+      defaultMeasureSetId: string | null;
+    };
+    AuditQuartersActionsDto: {
+      /** @description Open the next quarter */
+      open: boolean;
+    };
+    AuditQuartersDto: {
+      /** @description Latest first */
+      quarters: components['schemas']['AuditQuarterDto'][];
+      next: components['schemas']['NextQuarterDto'];
+      /** @description The published measure-set versions a quarter of the region may use */
+      measureSets: components['schemas']['MeasureSetRefDto'][];
+      actions: components['schemas']['AuditQuartersActionsDto'];
+    };
+    /** @enum {string} */
+    MailKind: 'quarter_opened' | 'deadline_reminder';
+    OutboxCountsDto: {
+      queued: number;
+      sending: number;
+      sent: number;
+      failed: number;
+      total: number;
+    };
+    DeliverySourceActionsDto: {
+      /** @description Whether failed messages can be sent again */
+      resendFailed: boolean;
+    };
+    DeliverySourceDto: {
+      kind: components['schemas']['MailKind'];
+      /** @description What the messages are about (an audit quarter id) */
+      sourceId: number;
+      /** @example 2026 Q4 opening message */
+      label: string;
+      /** @description When the first message was queued, ISO 8601 */
+      firstQueuedAt: string;
+      /** @description The latest queueing or attempt, ISO 8601 */
+      lastActivityAt: string;
+      /** @description Practices the source was sent for */
+      practices: number;
+      /** @description Practices that had nobody to write to (no active lead receiving this kind) */
+      practicesWithoutRecipients: number;
+      counts: components['schemas']['OutboxCountsDto'];
+      actions: components['schemas']['DeliverySourceActionsDto'];
+    };
+    DeliverySourceListDto: {
+      /** @description Latest first */
+      sources: components['schemas']['DeliverySourceDto'][];
+    };
+    /** @enum {string} */
+    OutboxState: 'queued' | 'sending' | 'sent' | 'failed';
+    DeliveryMessageActionsDto: {
+      /** @description Whether this (failed) message can be sent again */
+      resend: boolean;
+    };
+    DeliveryMessageDto: {
+      id: number;
+      practice: components['schemas']['PracticeRefDto'];
+      /** @example priya.calloway@quarrybank.example */
+      recipient: string;
+      /** @description The person's name, when a lead */
+      recipientName: string | null;
+      state: components['schemas']['OutboxState'];
+      /** @description Attempts so far (since the last resend) */
+      attempts: number;
+      /** @description Times the message was taken up again after its sender stopped mid-send (it may then have arrived twice, with the same Message-ID) */
+      resumed: number;
+      /** @description ISO 8601 */
+      queuedAt: string;
+      /** @description The next attempt (queued), ISO 8601 */
+      nextAttemptAt: string | null;
+      /** @description ISO 8601 */
+      lastAttemptAt: string | null;
+      /** @description When the server accepted it, ISO 8601 */
+      sentAt: string | null;
+      /** @description ISO 8601 */
+      failedAt: string | null;
+      /** @description The server's reply to the last failed attempt, or what went wrong */
+      lastError: string | null;
+      /** @description Its SMTP reply code, if any */
+      lastReplyCode: number | null;
+      /** @example <outbox-42.region-1@cairn.example.org> */
+      messageId: string | null;
+      actions: components['schemas']['DeliveryMessageActionsDto'];
+    };
+    DeliveryDetailDto: {
+      source: components['schemas']['DeliverySourceDto'];
+      /** @description Failed first, then by practice */
+      messages: components['schemas']['DeliveryMessageDto'][];
+      /** @description Practices that had nobody to write to */
+      practicesWithoutRecipients: components['schemas']['PracticeRefDto'][];
+    };
+    ResendResultDto: {
+      /** @description Messages queued again */
+      resent: number;
+      delivery: components['schemas']['DeliveryDetailDto'];
+    };
+    PracticeLeadRecipientDto: {
+      userId: number;
+      displayName: string;
+      email: string;
+      /** @description Kinds of e-mail this lead chose not to receive (on their profile) */
+      optedOut: components['schemas']['MailKind'][];
+    };
+    ExtraRecipientActionsDto: {
+      remove: boolean;
+    };
+    ExtraRecipientDto: {
+      id: number;
+      /** @example reception@quarrybank.example */
+      address: string;
+      /** @example Practice manager */
+      note: string | null;
+      /** @description Who added it (e-mail address) */
+      addedBy: string;
+      /** @description ISO 8601 */
+      addedAt: string;
+      actions: components['schemas']['ExtraRecipientActionsDto'];
+    };
+    PracticeRecipientsActionsDto: {
+      /** @description Whether another address can be added */
+      addRecipient: boolean;
+    };
+    PracticeRecipientsDto: {
+      practice: components['schemas']['PracticeDto'];
+      /** @description Active practice leads */
+      leads: components['schemas']['PracticeLeadRecipientDto'][];
+      /** @description Addresses the regional lead added */
+      extras: components['schemas']['ExtraRecipientDto'][];
+      actions: components['schemas']['PracticeRecipientsActionsDto'];
+    };
+    MailRecipientsDto: {
+      /** @description The region's active practices */
+      practices: components['schemas']['PracticeRecipientsDto'][];
+      /** @description Extra addresses a practice may have at most */
+      maxExtrasPerPractice: number;
+    };
+    AddExtraRecipientDto: {
+      /** @example reception@quarrybank.example */
+      address: string;
+      /** @description Who this is, for the regional lead (e.g. "Practice manager") */
+      note?: string;
+    };
+    MailPreferenceDto: {
+      kind: components['schemas']['MailKind'];
+      /** @example Submission deadline reminders */
+      label: string;
+      description: string;
+      /** @description Who is sent it */
+      sentTo: components['schemas']['Role'][];
+      /** @description Whether your role is sent this kind */
+      appliesToYou: boolean;
+      /** @description False when you chose not to receive it */
+      receive: boolean;
+    };
+    MailPreferencesDto: {
+      preferences: components['schemas']['MailPreferenceDto'][];
+    };
+    UpdateMailPreferencesDto: {
+      /** @description Every kind of e-mail you do not want (an empty list: receive them all) */
+      optedOut: components['schemas']['MailKind'][];
+    };
   };
   responses: never;
   parameters: never;
@@ -2763,6 +3536,15 @@ export interface operations {
           'application/json': components['schemas']['MeasureSetSummaryDto'][];
         };
       };
+      /** @description RFC 9457 problem details */
+      default: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['ProblemDto'];
+        };
+      };
     };
   };
   MeasureSetsController_get: {
@@ -2782,6 +3564,177 @@ export interface operations {
         };
         content: {
           'application/json': components['schemas']['MeasureSetDto'];
+        };
+      };
+      /** @description RFC 9457 problem details */
+      default: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['ProblemDto'];
+        };
+      };
+    };
+  };
+  MeasureSetsController_save: {
+    parameters: {
+      query?: never;
+      header?: never;
+      path: {
+        measureSetId: string;
+      };
+      cookie?: never;
+    };
+    requestBody: {
+      content: {
+        'application/json': components['schemas']['SaveMeasureSetDraftDto'];
+      };
+    };
+    responses: {
+      200: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['MeasureSetDto'];
+        };
+      };
+      /** @description RFC 9457 problem details */
+      default: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['ProblemDto'];
+        };
+      };
+    };
+  };
+  MeasureSetsController_discard: {
+    parameters: {
+      query?: never;
+      header?: never;
+      path: {
+        measureSetId: string;
+      };
+      cookie?: never;
+    };
+    requestBody?: never;
+    responses: {
+      200: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['DiscardedMeasureSetDto'];
+        };
+      };
+      /** @description RFC 9457 problem details */
+      default: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['ProblemDto'];
+        };
+      };
+    };
+  };
+  MeasureSetsController_changes: {
+    parameters: {
+      query?: never;
+      header?: never;
+      path: {
+        measureSetId: string;
+      };
+      cookie?: never;
+    };
+    requestBody?: never;
+    responses: {
+      200: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['MeasureSetChangesDto'];
+        };
+      };
+      /** @description RFC 9457 problem details */
+      default: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['ProblemDto'];
+        };
+      };
+    };
+  };
+  MeasureSetsController_clone: {
+    parameters: {
+      query?: never;
+      header?: never;
+      path: {
+        measureSetId: string;
+      };
+      cookie?: never;
+    };
+    requestBody: {
+      content: {
+        'application/json': components['schemas']['CloneMeasureSetDto'];
+      };
+    };
+    responses: {
+      201: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['MeasureSetDto'];
+        };
+      };
+      /** @description RFC 9457 problem details */
+      default: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['ProblemDto'];
+        };
+      };
+    };
+  };
+  MeasureSetsController_publish: {
+    parameters: {
+      query?: never;
+      header?: never;
+      path: {
+        measureSetId: string;
+      };
+      cookie?: never;
+    };
+    requestBody: {
+      content: {
+        'application/json': components['schemas']['PublishMeasureSetDto'];
+      };
+    };
+    responses: {
+      200: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['MeasureSetDto'];
+        };
+      };
+      /** @description RFC 9457 problem details */
+      default: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['ProblemDto'];
         };
       };
     };
@@ -2876,6 +3829,40 @@ export interface operations {
       };
     };
   };
+  QuartersController_update: {
+    parameters: {
+      query?: never;
+      header?: never;
+      path: {
+        quarterId: number;
+      };
+      cookie?: never;
+    };
+    requestBody: {
+      content: {
+        'application/json': components['schemas']['UpdateQuarterDto'];
+      };
+    };
+    responses: {
+      200: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['QuarterDto'];
+        };
+      };
+      /** @description RFC 9457 problem details */
+      default: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['ProblemDto'];
+        };
+      };
+    };
+  };
   QuartersController_close: {
     parameters: {
       query?: never;
@@ -2915,7 +3902,11 @@ export interface operations {
       };
       cookie?: never;
     };
-    requestBody?: never;
+    requestBody: {
+      content: {
+        'application/json': components['schemas']['ReopenQuarterDto'];
+      };
+    };
     responses: {
       200: {
         headers: {
@@ -3634,6 +4625,307 @@ export interface operations {
       };
     };
   };
+  QuarterOverviewController_get: {
+    parameters: {
+      query?: never;
+      header?: never;
+      path?: never;
+      cookie?: never;
+    };
+    requestBody?: never;
+    responses: {
+      200: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['AuditQuartersDto'];
+        };
+      };
+      /** @description RFC 9457 problem details */
+      default: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['ProblemDto'];
+        };
+      };
+    };
+  };
+  DeliveriesController_list: {
+    parameters: {
+      query?: never;
+      header?: never;
+      path?: never;
+      cookie?: never;
+    };
+    requestBody?: never;
+    responses: {
+      200: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['DeliverySourceListDto'];
+        };
+      };
+      /** @description RFC 9457 problem details */
+      default: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['ProblemDto'];
+        };
+      };
+    };
+  };
+  DeliveriesController_detail: {
+    parameters: {
+      query?: never;
+      header?: never;
+      path: {
+        kind: string;
+        sourceId: number;
+      };
+      cookie?: never;
+    };
+    requestBody?: never;
+    responses: {
+      200: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['DeliveryDetailDto'];
+        };
+      };
+      /** @description RFC 9457 problem details */
+      default: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['ProblemDto'];
+        };
+      };
+    };
+  };
+  DeliveriesController_resendFailed: {
+    parameters: {
+      query?: never;
+      header?: never;
+      path: {
+        kind: string;
+        sourceId: number;
+      };
+      cookie?: never;
+    };
+    requestBody?: never;
+    responses: {
+      200: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['ResendResultDto'];
+        };
+      };
+      /** @description RFC 9457 problem details */
+      default: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['ProblemDto'];
+        };
+      };
+    };
+  };
+  DeliveriesController_resendMessage: {
+    parameters: {
+      query?: never;
+      header?: never;
+      path: {
+        messageId: number;
+      };
+      cookie?: never;
+    };
+    requestBody?: never;
+    responses: {
+      200: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['ResendResultDto'];
+        };
+      };
+      /** @description RFC 9457 problem details */
+      default: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['ProblemDto'];
+        };
+      };
+    };
+  };
+  MailRecipientsController_list: {
+    parameters: {
+      query?: never;
+      header?: never;
+      path?: never;
+      cookie?: never;
+    };
+    requestBody?: never;
+    responses: {
+      200: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['MailRecipientsDto'];
+        };
+      };
+      /** @description RFC 9457 problem details */
+      default: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['ProblemDto'];
+        };
+      };
+    };
+  };
+  MailRecipientsController_add: {
+    parameters: {
+      query?: never;
+      header?: never;
+      path: {
+        practiceId: number;
+      };
+      cookie?: never;
+    };
+    requestBody: {
+      content: {
+        'application/json': components['schemas']['AddExtraRecipientDto'];
+      };
+    };
+    responses: {
+      201: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['PracticeRecipientsDto'];
+        };
+      };
+      /** @description RFC 9457 problem details */
+      default: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['ProblemDto'];
+        };
+      };
+    };
+  };
+  MailRecipientsController_remove: {
+    parameters: {
+      query?: never;
+      header?: never;
+      path: {
+        practiceId: number;
+        recipientId: number;
+      };
+      cookie?: never;
+    };
+    requestBody?: never;
+    responses: {
+      200: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['PracticeRecipientsDto'];
+        };
+      };
+      /** @description RFC 9457 problem details */
+      default: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['ProblemDto'];
+        };
+      };
+    };
+  };
+  MailPreferencesController_get: {
+    parameters: {
+      query?: never;
+      header?: never;
+      path?: never;
+      cookie?: never;
+    };
+    requestBody?: never;
+    responses: {
+      200: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['MailPreferencesDto'];
+        };
+      };
+      /** @description RFC 9457 problem details */
+      default: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['ProblemDto'];
+        };
+      };
+    };
+  };
+  MailPreferencesController_set: {
+    parameters: {
+      query?: never;
+      header?: never;
+      path?: never;
+      cookie?: never;
+    };
+    requestBody: {
+      content: {
+        'application/json': components['schemas']['UpdateMailPreferencesDto'];
+      };
+    };
+    responses: {
+      200: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['MailPreferencesDto'];
+        };
+      };
+      /** @description RFC 9457 problem details */
+      default: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['ProblemDto'];
+        };
+      };
+    };
+  };
 }
 type FlattenedDeepRequired<T> = {
   [K in keyof T]-?: FlattenedDeepRequired<
@@ -3666,6 +4958,12 @@ export const healthDatabaseDtoStatusValues: ReadonlyArray<
 export const healthDtoStatusValues: ReadonlyArray<
   FlattenedDeepRequired<components>['schemas']['HealthDto']['status']
 > = ['ok'];
+export const measureSetStatusValues: ReadonlyArray<
+  FlattenedDeepRequired<components>['schemas']['MeasureSetStatus']
+> = ['draft', 'published'];
+export const measureSetUseKindValues: ReadonlyArray<
+  FlattenedDeepRequired<components>['schemas']['MeasureSetUseKind']
+> = ['quarter', 'report'];
 export const breakdownKeyValues: ReadonlyArray<
   FlattenedDeepRequired<components>['schemas']['BreakdownKey']
 > = ['age_band', 'sex', 'deprivation', 'duration'];
@@ -3697,6 +4995,64 @@ export const readingFieldValues: ReadonlyArray<
   'onInsulin',
   'cvdHistory',
 ];
+export const careProcessFieldValues: ReadonlyArray<
+  FlattenedDeepRequired<components>['schemas']['CareProcessField']
+> = [
+  'hba1c',
+  'bloodPressure',
+  'cholesterol',
+  'serumCreatinine',
+  'urineAlbumin',
+  'footSurveillance',
+  'bmi',
+  'smoking',
+  'retinalScreening',
+];
+export const measureWindowValues: ReadonlyArray<
+  FlattenedDeepRequired<components>['schemas']['MeasureWindow']
+> = ['review', 'retinal'];
+export const recordedProcessDefinitionDtoRuleValues: ReadonlyArray<
+  FlattenedDeepRequired<components>['schemas']['RecordedProcessDefinitionDto']['rule']
+> = ['recorded'];
+export const compositeProcessDefinitionDtoRuleValues: ReadonlyArray<
+  FlattenedDeepRequired<components>['schemas']['CompositeProcessDefinitionDto']['rule']
+> = ['allOf'];
+export const measurementValues: ReadonlyArray<
+  FlattenedDeepRequired<components>['schemas']['Measurement']
+> = ['hba1c', 'systolic', 'diastolic', 'cholesterol', 'serumCreatinine', 'urineAlbumin', 'bmi'];
+export const comparatorValues: ReadonlyArray<
+  FlattenedDeepRequired<components>['schemas']['Comparator']
+> = ['lt', 'le', 'gt', 'ge'];
+export const valueTargetDefinitionDtoRuleValues: ReadonlyArray<
+  FlattenedDeepRequired<components>['schemas']['ValueTargetDefinitionDto']['rule']
+> = ['value'];
+export const bloodPressureTargetDefinitionDtoRuleValues: ReadonlyArray<
+  FlattenedDeepRequired<components>['schemas']['BloodPressureTargetDefinitionDto']['rule']
+> = ['bloodPressure'];
+export const flagFieldValues: ReadonlyArray<
+  FlattenedDeepRequired<components>['schemas']['FlagField']
+> = ['onStatin', 'onInsulin', 'cvdHistory'];
+export const flagTargetDefinitionDtoRuleValues: ReadonlyArray<
+  FlattenedDeepRequired<components>['schemas']['FlagTargetDefinitionDto']['rule']
+> = ['flag'];
+export const valueConditionDtoRuleValues: ReadonlyArray<
+  FlattenedDeepRequired<components>['schemas']['ValueConditionDto']['rule']
+> = ['value'];
+export const bloodPressureConditionDtoRuleValues: ReadonlyArray<
+  FlattenedDeepRequired<components>['schemas']['BloodPressureConditionDto']['rule']
+> = ['bloodPressure'];
+export const flagConditionDtoRuleValues: ReadonlyArray<
+  FlattenedDeepRequired<components>['schemas']['FlagConditionDto']['rule']
+> = ['flag'];
+export const targetRefConditionDtoRuleValues: ReadonlyArray<
+  FlattenedDeepRequired<components>['schemas']['TargetRefConditionDto']['rule']
+> = ['target'];
+export const compositeRuleValues: ReadonlyArray<
+  FlattenedDeepRequired<components>['schemas']['CompositeRule']
+> = ['anyOf', 'allOf'];
+export const measureChangeKindValues: ReadonlyArray<
+  FlattenedDeepRequired<components>['schemas']['MeasureChangeKind']
+> = ['added', 'removed', 'changed'];
 export const quarterStatusValues: ReadonlyArray<
   FlattenedDeepRequired<components>['schemas']['QuarterStatus']
 > = ['open', 'closed'];
@@ -3780,3 +5136,12 @@ export const sexValues: ReadonlyArray<FlattenedDeepRequired<components>['schemas
 export const recallReasonValues: ReadonlyArray<
   FlattenedDeepRequired<components>['schemas']['RecallReason']
 > = ['not_recorded', 'not_measured', 'not_met', 'adverse_result'];
+export const nextQuarterDtoQuarterValues: ReadonlyArray<
+  FlattenedDeepRequired<components>['schemas']['NextQuarterDto']['quarter']
+> = [1, 2, 3, 4];
+export const mailKindValues: ReadonlyArray<
+  FlattenedDeepRequired<components>['schemas']['MailKind']
+> = ['quarter_opened', 'deadline_reminder'];
+export const outboxStateValues: ReadonlyArray<
+  FlattenedDeepRequired<components>['schemas']['OutboxState']
+> = ['queued', 'sending', 'sent', 'failed'];
