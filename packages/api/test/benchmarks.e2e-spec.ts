@@ -25,6 +25,7 @@ import { QueryTypes } from 'sequelize';
 import request from 'supertest';
 import { createApp } from '../src/app.factory.js';
 import { BenchmarkStore } from '../src/benchmarks/benchmark-store.service.js';
+import { recomputeResults } from '../src/benchmarks/recompute-command.js';
 import { createRootLogger } from '../src/common/logger.js';
 import { MeasureSetsService } from '../src/measure-sets/measure-sets.service.js';
 import { QuartersService } from '../src/quarters/quarters.service.js';
@@ -490,6 +491,11 @@ describe('results and benchmarks', () => {
         replacements: [confirmed.get(`OV201/${q3}`)],
         type: QueryTypes.UPDATE,
       });
+      // Two of 2026 Q3's at once: read together in one streamed SELECT.
+      await t.db.query('DELETE FROM submission_sums WHERE submission_id IN (?)', {
+        replacements: [[confirmed.get(`OV103/${q3}`), confirmed.get(`OV104/${q3}`)]],
+        type: QueryTypes.DELETE,
+      });
       // Built results go too, so that the sums are needed again.
       await t.db.query('DELETE FROM benchmark_results', { type: QueryTypes.DELETE });
       const built = await otherProcess(async (app) => [
@@ -514,6 +520,24 @@ describe('results and benchmarks', () => {
       expect(recomputed.result!.id).toBe(Number(stored!.id));
       expect(recomputed.body!.equals(stored!.body)).toBe(true);
       expect(await sumsRows()).toEqual(sumsBefore);
+    });
+
+    it('recomputes a region’s quarters on the operator’s command, and says they agree', async () => {
+      const [region] = await select<{ code: string }>('SELECT code FROM regions');
+      const before = await counts();
+      const done = await recomputeResults(t.config, t.secrets, { region: region!.code });
+      expect(done.map((q) => [q.quarter, q.submissions, q.sameAsStored])).toEqual([
+        ['2026 Q3', 4, true],
+        ['2026 Q2', 1, true],
+        ['2026 Q1', 0, true],
+      ]);
+      expect(await counts()).toEqual(before);
+      await expect(
+        recomputeResults(t.config, t.secrets, { region: region!.code, quarter: '2019 Q1' }),
+      ).rejects.toThrow(/no audit quarter "2019 Q1" \(it has 2026 Q3, 2026 Q2, 2026 Q1\)/);
+      await expect(recomputeResults(t.config, t.secrets, { region: 'NOPE' })).rejects.toThrow(
+        /no region with the code "NOPE"/,
+      );
     });
   });
 });
