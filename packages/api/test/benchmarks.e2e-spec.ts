@@ -448,6 +448,48 @@ describe('results and benchmarks', () => {
       expect(signedIn.body.detail).toMatch(/numeric/);
     });
   });
+  describe('access', () => {
+    it('refuses a lead of another practice with 403 and none of the practice’s figures', async () => {
+      const leadTwo = await signInAs(t, 'practice_lead_two');
+      const practice = w.practice('OV102');
+      // The same reader may see its own practice's results.
+      await leadTwo.get(`/api/practices/${w.practice('OV103')}/quarters/${q3}/results`).expect(200);
+      for (const path of [
+        `/api/practices/${practice}/quarters/${q3}/results`,
+        `/api/practices/${practice}/quarters/${q3}/recall-list?measure=hba1c`,
+        `/api/practices/${practice}/quarters/${q3}/recall-list.csv?measure=hba1c`,
+        `/api/practices/${practice}/quarters/${q3}/recall-list.xlsx?measure=hba1c`,
+      ]) {
+        const res = await leadTwo.get(path).expect(403);
+        expect(res.headers['content-type']).toMatch(/^application\/problem\+json/);
+        expect(res.body.type).toBe('/api/problems/practice-not-yours');
+        // The problem and the practice asked for (the caller's own input), nothing else.
+        expect(Object.keys(res.body).sort()).toEqual([
+          'detail',
+          'instance',
+          'practiceId',
+          'status',
+          'title',
+          'type',
+        ]);
+        expect(res.body.practiceId).toBe(practice);
+        expect(JSON.stringify(res.body)).not.toMatch(/OV102|rate|events|record/i);
+      }
+    });
+
+    it('refuses the region’s benchmark to practice leads, naming no practice', async () => {
+      for (const path of [
+        `/api/quarters/${q3}/benchmark`,
+        `/api/quarters/${q3}/benchmark/measures/hba1c`,
+        `/api/quarters/${q3}/benchmark/trend?measure=hba1c`,
+      ]) {
+        const res = await leadOne.get(path).expect(403);
+        expect(res.body.type).toBe('/api/problems/role-not-allowed');
+        expect(JSON.stringify(res.body)).not.toMatch(/OV\d/);
+      }
+    });
+  });
+
   // Last: a second Nest app in this process binds the (static) Sequelize models to its own
   // connection, which it closes when it stops, so this file's own app is not used after these.
   describe('several API processes on one database', () => {
