@@ -45,7 +45,7 @@ describe('session', () => {
     expect(new Headers(callsOf(fetchMock)[1]![1]?.headers).get('X-CSRF-Token')).toBeNull();
   });
 
-  it('shows each role its own navigation: extracts for practice and regional leads, coverage for regional lead and auditor, quarters and measure sets to everyone, Users to the regional lead only', () => {
+  it('shows each role its own navigation: extracts for practice and regional leads, coverage for regional lead and auditor, quarters and measure sets to everyone, Users and Mail to the regional lead only', () => {
     expect(navigationFor(lead).map((i) => i.label)).toEqual([
       'Home',
       'Upload extract',
@@ -54,6 +54,7 @@ describe('session', () => {
       'Quarters',
       'Measure sets',
       'Users',
+      'Mail',
       'Audit trail',
     ]);
     expect(navigationFor({ ...lead, role: 'auditor' }).map((i) => i.label)).toEqual([
