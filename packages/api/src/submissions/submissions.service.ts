@@ -114,7 +114,7 @@ export interface ConfirmedFacts {
 /** Confirmed submissions' facts kept in memory at most. */
 const FACTS_CACHE = 50_000;
 
-/** Every clinical data-quality check (methods.md §7) with its count among `counts` (0 included). */
+/** Every clinical data-quality check (docs/methods.md §7) with its count among `counts` (0 included). */
 function dataQualityCounts(counts: Record<string, number>): DataQualityFlagCount[] {
   return (Object.keys(ISSUE_CODES) as IssueCodeKey[])
     .filter((code) => ISSUE_CODES[code].severity === 'flag')
