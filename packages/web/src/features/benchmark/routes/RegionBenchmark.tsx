@@ -244,7 +244,7 @@ function Funnel({
   return (
     <div>
       <p className="cairn-small">
-        {funnel.measure.definition} Guideline: {funnel.measure.source}.{' '}
+        {funnel.measure.definition}. Guideline: {funnel.measure.source}.{' '}
         {od
           ? od.present
             ? `Over-dispersion is present (φ = ${od.phi?.toFixed(2) ?? '—'}): the limits allowing for it are wider.`
@@ -408,9 +408,25 @@ function PracticesSection({
         onSort={onSort}
         onOpen={onOpen}
       />
-      <p className="cairn-muted cairn-small">
-        Guidelines: {benchmark.measures.map((m) => `${m.label}: ${m.source}`).join('; ')}.
-      </p>
+      <details className="cairn-bench-sources">
+        <summary>The guideline behind each measure</summary>
+        <HTMLTable compact className="cairn-small">
+          <thead>
+            <tr>
+              <th scope="col">Measure</th>
+              <th scope="col">Guideline</th>
+            </tr>
+          </thead>
+          <tbody>
+            {benchmark.measures.map((m) => (
+              <tr key={m.key}>
+                <th scope="row">{m.label}</th>
+                <td>{m.source}</td>
+              </tr>
+            ))}
+          </tbody>
+        </HTMLTable>
+      </details>
     </section>
   );
 }

@@ -25,6 +25,16 @@ const riskWords: Record<Risk, string> = {
   'very-high': 'Very high risk',
 };
 
+/** Rows and columns the grid has beyond the KDIGO categories. */
+const otherLabels: Record<string, string> = {
+  no_creatinine: 'No creatinine recorded',
+  sex_not_f_or_m: 'eGFR not computed (sex not F or M)',
+  under_18: 'Under 18 (eGFR not computed)',
+  no_acr: 'No ACR recorded',
+};
+
+export const kidneyLabel = (key: string): string => otherLabels[key] ?? key;
+
 export function kidneyRisk(row: string, column: string): Risk | null {
   return kdigoRisk[row]?.[column] ?? null;
 }
@@ -47,7 +57,7 @@ export function KidneyPanel({ results, split }: { results: PracticeResults; spli
             <th scope="col">GFR category</th>
             {grid.columns.map((c) => (
               <th scope="col" key={c}>
-                {c}
+                {kidneyLabel(c)}
               </th>
             ))}
           </tr>
@@ -55,7 +65,7 @@ export function KidneyPanel({ results, split }: { results: PracticeResults; spli
         <tbody>
           {rows.map((row) => (
             <tr key={row.row}>
-              <th scope="row">{row.row}</th>
+              <th scope="row">{kidneyLabel(row.row)}</th>
               {grid.columns.map((column, i) => {
                 const risk = kidneyRisk(row.row, column);
                 return (

@@ -2,6 +2,7 @@ import { H3, HTMLTable } from '@blueprintjs/core';
 import { FlagMark } from '../../../components/charts/FlagMark';
 import { IntervalBar, intervalText } from '../../../components/charts/IntervalBar';
 import { RunSparkline, sparklineText } from '../../../components/charts/RunSparkline';
+import { signalSentences } from '../../../components/charts/run-signals';
 import type { PracticeMeasureResult, PracticeResults, TypeSplit } from '../../../lib/api/types';
 import { formatCount, formatPercent } from '../../../lib/format';
 import { changeText, improvementText } from './words';
@@ -53,7 +54,14 @@ export function MeasuresTable({
               <tr key={measure.key} data-measure={measure.key}>
                 <th scope="row" className="cairn-results-measure">
                   <div className="cairn-results-label">{measure.label}</div>
-                  <div className="cairn-muted cairn-small">{measure.denominatorText}</div>
+                  <div className="cairn-muted cairn-small" title={measure.denominatorText}>
+                    {measure.denominator === 'eligible'
+                      ? 'Out of everyone eligible'
+                      : 'Out of those with a measurement'}
+                    {measure.population.minAge != null || measure.population.maxAge != null
+                      ? ` · ${measure.population.text}`
+                      : ''}
+                  </div>
                   <div className="cairn-muted cairn-small">Guideline: {measure.source}</div>
                   <div className="cairn-results-improvement">
                     {improvementText(result, measure)}
@@ -106,7 +114,14 @@ export function MeasuresTable({
                       </li>
                     </ul>
                   ) : (
-                    <RunSparkline points={trendPoints} signals={result.trend.signals} />
+                    <>
+                      <RunSparkline points={trendPoints} signals={result.trend.signals} />
+                      {signalSentences(result.trend.signals, labels).map((line) => (
+                        <div key={line} className="cairn-small cairn-results-signal">
+                          {line}
+                        </div>
+                      ))}
+                    </>
                   )}
                 </td>
               </tr>

@@ -42,6 +42,7 @@ export function RecallPanel({ results, split }: { results: PracticeResults; spli
         {measure ? (
           <>
             <AnchorButton
+              role="link"
               icon="download"
               href={recallPath(practiceId, quarterId, measure, split, '.csv')}
               download
@@ -49,6 +50,7 @@ export function RecallPanel({ results, split }: { results: PracticeResults; spli
               Download CSV
             </AnchorButton>
             <AnchorButton
+              role="link"
               icon="download"
               href={recallPath(practiceId, quarterId, measure, split, '.xlsx')}
               download
