@@ -44,6 +44,9 @@ function stub(role: Me['role'], extra: Record<string, { status?: number; body: u
   });
 }
 
+// Each page test loads lazy chunks and renders a large table: more than the default 5 s.
+vi.setConfig({ testTimeout: 20_000 });
+
 afterEach(() => {
   vi.unstubAllGlobals();
 });

@@ -1,4 +1,5 @@
 import { Menu, MenuItem } from '@blueprintjs/core';
+import { useEffect, useRef } from 'react';
 import { Cell, Column, ColumnHeaderCell, Table2 } from '@blueprintjs/table';
 import { FlagShape } from '../../../components/charts/FlagMark';
 import { flagShortText, flagText } from '../../../components/charts/flags';
@@ -39,10 +40,23 @@ export function PracticeTable({
       )}
     />
   );
+  // Table2's scrolling quadrants can be scrolled from the keyboard once they take focus.
+  const box = useRef<HTMLDivElement>(null);
+  useEffect(() => {
+    box.current
+      ?.querySelectorAll<HTMLElement>('.bp6-table-quadrant-scroll-container')
+      .forEach((el) => {
+        if (el.tabIndex !== 0) el.tabIndex = 0;
+        if (!el.hasAttribute('role')) el.setAttribute('role', 'group');
+        if (!el.hasAttribute('aria-label'))
+          el.setAttribute('aria-label', 'Practices by measure, scrollable');
+      });
+  });
   const widths = [230, 110, ...benchmark.measures.map(() => 168)];
   const height = Math.min(rows.length, 14) * ROW_HEIGHT + 34;
   return (
     <div
+      ref={box}
       className="cairn-bench-table"
       style={{ height }}
       role="region"

@@ -11,7 +11,8 @@ import {
   Spinner,
   Switch,
 } from '@blueprintjs/core';
-import { useId, useMemo } from 'react';
+import { useDeferredValue, useEffect, useId, useMemo } from 'react';
+import { useQueryClient } from '@tanstack/react-query';
 import { Link, useNavigate, useSearchParams } from 'react-router-dom';
 import { ChartOrTable } from '../../../components/charts/ChartOrTable';
 import { FlagLegend, FlagMark } from '../../../components/charts/FlagMark';
@@ -26,7 +27,13 @@ import type {
 } from '../../../lib/api/types';
 import { formatCount, formatDateTime, formatPercent } from '../../../lib/format';
 import { usePageTitle } from '../../../lib/page-title';
-import { useBenchmarkQuarters, useFunnel, useRegionBenchmark } from '../api/benchmark';
+import {
+  funnelQueryOptions,
+  regionBenchmarkQueryOptions,
+  useBenchmarkQuarters,
+  useFunnel,
+  useRegionBenchmark,
+} from '../api/benchmark';
 import { PracticeTable } from '../components/PracticeTable';
 import { type SortKey, sortRows, tableCsv, tableRows } from '../components/table-rows';
 import '../../../components/charts/charts.css';
@@ -40,11 +47,33 @@ const splits: { value: TypeSplit; label: string }[] = [
 
 /** `/benchmark?quarter=&measure=&split=&locality=&limits=&casemix=`: every practice against its peers. */
 export function RegionBenchmark() {
+  usePrefetchFromAddress();
   return (
     <RequireRole roles={['regional_lead', 'auditor']}>
       <RegionBenchmarkScreen />
     </RequireRole>
   );
+}
+
+/**
+ * When the address names the quarter (and the measure), ask for the benchmark and the funnel
+ * at once, while the sign-in is still being checked: the funnel then need not wait for the
+ * session, the quarter list and the whole table in turn. The API still decides who may read.
+ */
+function usePrefetchFromAddress() {
+  const client = useQueryClient();
+  const [params] = useSearchParams();
+  const quarter = Number(params.get('quarter'));
+  const measure = params.get('measure');
+  const split = (params.get('split') ?? 'all') as TypeSplit;
+  const locality = params.get('locality') ?? '';
+  useEffect(() => {
+    if (!Number.isInteger(quarter) || quarter <= 0) return;
+    void client.prefetchQuery(regionBenchmarkQueryOptions(quarter, split, locality));
+    if (measure) void client.prefetchQuery(funnelQueryOptions(quarter, measure, split));
+    // Only on arrival: later changes go through the screen's own queries.
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+  }, []);
 }
 
 function pickQuarter(list: Quarter[], asked: number): Quarter | null {
@@ -63,17 +92,23 @@ function RegionBenchmarkScreen() {
     splits.some((s) => s.value === params.get('split')) ? params.get('split') : 'all'
   ) as TypeSplit;
   const locality = params.get('locality') ?? '';
-  const benchmark = useRegionBenchmark(quarter?.id ?? null, split, locality);
+  // A quarter named in the address is read at once, without waiting for the quarter list.
+  const asked = Number(params.get('quarter'));
+  const quarterId = Number.isInteger(asked) && asked > 0 ? asked : (quarter?.id ?? null);
+  const benchmark = useRegionBenchmark(quarterId, split, locality);
   const data = benchmark.data;
   const measureKey =
     data?.measures.find((m) => m.key === params.get('measure'))?.key ??
     data?.measures[0]?.key ??
     null;
+  // The measure the address names is asked for at once; otherwise the benchmark's first.
   const funnel = useFunnel(
-    data?.state === 'results' ? (quarter?.id ?? null) : null,
-    measureKey,
+    data?.state === 'no-accepted-submissions' ? null : quarterId,
+    params.get('measure') ?? measureKey,
     split,
   );
+  // The table (every practice × every measure) renders after the funnel has been asked for.
+  const deferred = useDeferredValue(data);
   const ids = { quarter: useId(), locality: useId(), measure: useId(), sort: useId() };
 
   const update = (changes: Record<string, string | null>) => {
@@ -179,13 +214,15 @@ function RegionBenchmarkScreen() {
               <Spinner size={20} aria-label="Reading the funnel plot" />
             ) : null}
           </section>
-          <PracticesSection
-            benchmark={data}
-            params={params}
-            update={update}
-            onOpen={open}
-            sortId={ids.sort}
-          />
+          {deferred?.state === 'results' ? (
+            <PracticesSection
+              benchmark={deferred}
+              params={params}
+              update={update}
+              onOpen={open}
+              sortId={ids.sort}
+            />
+          ) : null}
         </>
       ) : null}
     </div>
