@@ -45,7 +45,7 @@ const margin = { top: 14, right: 18, bottom: 42, left: 54 };
  * focused with the keyboard and shows its card; Enter or a click selects it.
  */
 export function FunnelPlot(props: FunnelPlotProps) {
-  const { title, points, curveN, limits, target, width = 720, height = 420, onSelect } = props;
+  const { title, points, curveN, limits, target, width = 860, height = 420, onSelect } = props;
   const [active, setActive] = useState<number | null>(null);
   const plotted = points.filter((p) => p.rate != null && p.n > 0);
   const maxN = Math.max(10, ...plotted.map((p) => p.n), ...(curveN.length ? [curveN.at(-1)!] : []));

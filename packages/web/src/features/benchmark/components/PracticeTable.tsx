@@ -52,7 +52,7 @@ export function PracticeTable({
           el.setAttribute('aria-label', 'Practices by measure, scrollable');
       });
   });
-  const widths = [230, 110, ...benchmark.measures.map(() => 168)];
+  const widths = [230, 140, ...benchmark.measures.map(() => 168)];
   const height = Math.min(rows.length, 14) * ROW_HEIGHT + 34;
   return (
     <div
