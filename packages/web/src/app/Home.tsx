@@ -174,6 +174,15 @@ function PracticeRow({
         ) : upload && !open ? (
           <LinkButton small icon="upload" to={upload} text="Send a corrected extract" />
         ) : null}
+        {current && quarter ? (
+          <LinkButton
+            small
+            intent={open ? Intent.NONE : Intent.PRIMARY}
+            icon="timeline-bar-chart"
+            to={`/practices/${practice.id}/results?quarter=${quarter.id}`}
+            text="Results"
+          />
+        ) : null}
         <LinkButton
           small
           variant="minimal"
