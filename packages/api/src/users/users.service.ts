@@ -107,6 +107,23 @@ export class UsersService {
     };
   }
 
+  /**
+   * The names of the people of a region with these e-mail addresses (how other modules record who
+   * acted), so that screens show a name rather than an address. Unknown addresses are left out.
+   */
+  async displayNames(
+    regionId: number,
+    emails: readonly (string | null)[],
+  ): Promise<Map<string, string>> {
+    const wanted = [...new Set(emails.filter((e): e is string => !!e && e.includes('@')))];
+    if (wanted.length === 0) return new Map();
+    const rows = await this.users.findAll({
+      where: { regionId, email: { [Op.in]: wanted } },
+      attributes: ['email', 'displayName'],
+    });
+    return new Map(rows.map((u) => [u.email, u.displayName]));
+  }
+
   async get(regionId: number, userId: number, transaction?: Transaction): Promise<UserDto> {
     const [dto] = await this.toDtos([await this.find(regionId, userId, transaction)], transaction);
     return dto!;
@@ -144,7 +161,7 @@ export class UsersService {
         HttpStatus.UNPROCESSABLE_ENTITY,
         'unknown-practice',
         'Unknown practice',
-        `No practice ${missing.join(', ')} in your region.`,
+        `No practice of your region has the id ${missing.join(', ')}.`,
         { errors: [{ field: 'practiceIds', message: `unknown practice ${missing.join(', ')}` }] },
       );
     }
@@ -321,11 +338,17 @@ export class UsersService {
       const user = await this.find(c.regionId, userId, transaction);
       const membership = (user.memberships ?? []).find((m) => m.practiceId === practiceId);
       if (!membership) {
+        const [named] = await this.organisations.regionPractices(c.regionId, {
+          ids: [practiceId],
+          transaction,
+        });
         throw new ProblemException(
           HttpStatus.NOT_FOUND,
           'membership-not-found',
           'Not one of their practices',
-          `${user.displayName} does not lead practice ${practiceId}.`,
+          named
+            ? `${user.displayName} does not lead ${named.code} (${named.name}).`
+            : `${user.displayName} does not lead the practice this address names.`,
         );
       }
       const [practice] = await this.organisations.practiceRefs([practiceId], transaction);
