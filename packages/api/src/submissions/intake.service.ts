@@ -24,7 +24,7 @@ import type { CairnConfig } from '../config/config.schema.js';
 import { OrganisationsService, type PracticeInfo } from '../organisations/organisations.service.js';
 import type { QuarterDto } from '../quarters/dto/quarter.dto.js';
 import { QuartersService } from '../quarters/quarters.service.js';
-import { UsersService } from '../users/users.service.js';
+import { PeopleNames } from '../users/people-names.js';
 import type { DateConvention } from './dto/submission.dto.js';
 import { JobRunner, UPLOAD_LEASE_PREFIX } from './job-runner.service.js';
 import { assertMay } from './submission-policy.js';
@@ -76,7 +76,7 @@ export class IntakeService {
     @Inject(QuartersService) private readonly quarters: QuartersService,
     @Inject(JobRunner) private readonly runner: JobRunner,
     @Inject(UploadHandoff) private readonly handoff: UploadHandoff,
-    @Inject(UsersService) private readonly users: UsersService,
+    @Inject(PeopleNames) private readonly people: PeopleNames,
   ) {}
 
   /** The practice and quarter, checked: the quarter is the practice's region's, and the actor may upload to it. */
@@ -327,7 +327,7 @@ export class IntakeService {
         rejected: `which was refused${identical.refusal_message ? ` (${identical.refusal_message.replace(/\.$/, '')})` : ''}. Fix the problems in its report before uploading again`,
       };
       const uploader =
-        (await this.users.displayNames(regionId, [identical.uploaded_by_label])).get(
+        (await this.people.byEmail(regionId, [identical.uploaded_by_label])).get(
           identical.uploaded_by_label,
         ) ?? identical.uploaded_by_label;
       const message = `This file is identical to the extract uploaded on ${when} UTC by ${uploader} (submission ${identical.id}), ${state[identical.status] ?? 'already received'}.`;

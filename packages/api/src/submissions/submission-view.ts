@@ -8,7 +8,7 @@ import type { PracticeInfo } from '../organisations/organisations.service.js';
 import { OrganisationsService } from '../organisations/organisations.service.js';
 import type { QuarterDto } from '../quarters/dto/quarter.dto.js';
 import { QuartersService } from '../quarters/quarters.service.js';
-import { UsersService } from '../users/users.service.js';
+import { PeopleNames } from '../users/people-names.js';
 import type {
   SubmissionDto,
   SubmissionRefusalDto,
@@ -40,7 +40,7 @@ export interface LoadedSubmission {
   record: SubmissionRecord;
   practice: PracticeInfo;
   quarter: QuarterDto;
-  /** People's names by the e-mail address recorded for who acted (UsersService.displayNames) */
+  /** People's names by the e-mail address recorded for who acted (PeopleNames.byEmail) */
   names?: ReadonlyMap<string, string>;
 }
 
@@ -180,7 +180,7 @@ export class SubmissionLoader {
     @Inject(SubmissionRepository) private readonly submissions: SubmissionRepository,
     @Inject(OrganisationsService) private readonly organisations: OrganisationsService,
     @Inject(QuartersService) private readonly quarters: QuartersService,
-    @Inject(UsersService) private readonly users: UsersService,
+    @Inject(PeopleNames) private readonly people: PeopleNames,
   ) {}
 
   async load(id: number): Promise<LoadedSubmission | null> {
@@ -200,6 +200,6 @@ export class SubmissionLoader {
 
   /** The names of the people who uploaded, confirmed or cancelled these submissions. */
   names(regionId: number, records: readonly SubmissionRecord[]): Promise<Map<string, string>> {
-    return this.users.displayNames(regionId, records.flatMap(actorLabels));
+    return this.people.byEmail(regionId, records.flatMap(actorLabels));
   }
 }

@@ -20,7 +20,7 @@ import { CAIRN_SECRETS } from '../config/config.module.js';
 import type { CairnSecrets } from '../config/config.schema.js';
 import { OrganisationsService } from '../organisations/organisations.service.js';
 import { QuartersService } from '../quarters/quarters.service.js';
-import { UsersService } from '../users/users.service.js';
+import { PeopleNames } from '../users/people-names.js';
 import type {
   CoverageDto,
   IssuePageDto,
@@ -93,7 +93,7 @@ export class SubmissionsService {
     @Inject(OrganisationsService) private readonly organisations: OrganisationsService,
     @Inject(JobRunner) private readonly runner: JobRunner,
     @Inject(ValidationReportService) private readonly reports: ValidationReportService,
-    @Inject(UsersService) private readonly users: UsersService,
+    @Inject(PeopleNames) private readonly people: PeopleNames,
     @Inject(CAIRN_SECRETS) secrets: CairnSecrets,
   ) {
     this.pseudonym = pseudonymiser(secrets.CAIRN_PSEUDONYM_SECRET);
@@ -473,7 +473,7 @@ export class SubmissionsService {
     });
     const currents = await this.submissions.currentOfQuarter(quarterId);
     const current = new Map(currents.map((c) => [c.practice_id, c]));
-    const names = await this.users.displayNames(
+    const names = await this.people.byEmail(
       actor.regionId,
       currents.map((c) => c.confirmed_by),
     );

@@ -107,23 +107,6 @@ export class UsersService {
     };
   }
 
-  /**
-   * The names of the people of a region with these e-mail addresses (how other modules record who
-   * acted), so that screens show a name rather than an address. Unknown addresses are left out.
-   */
-  async displayNames(
-    regionId: number,
-    emails: readonly (string | null)[],
-  ): Promise<Map<string, string>> {
-    const wanted = [...new Set(emails.filter((e): e is string => !!e && e.includes('@')))];
-    if (wanted.length === 0) return new Map();
-    const rows = await this.users.findAll({
-      where: { regionId, email: { [Op.in]: wanted } },
-      attributes: ['email', 'displayName'],
-    });
-    return new Map(rows.map((u) => [u.email, u.displayName]));
-  }
-
   async get(regionId: number, userId: number, transaction?: Transaction): Promise<UserDto> {
     const [dto] = await this.toDtos([await this.find(regionId, userId, transaction)], transaction);
     return dto!;
