@@ -60,14 +60,21 @@ export const tableOwners = {
   auth_throttle: ['auth'],
   audit_events: ['audit-trail'],
   audit_quarters: ['quarters'],
+  measure_sets: ['measure-sets'],
   submissions: ['submissions'],
   practice_quarters: ['submissions'],
   extract_file_chunks: ['submissions'],
   submission_issues: ['submissions'],
   submission_rejected_rows: ['submissions'],
+  submission_sums: ['submissions'],
+  benchmark_results: ['benchmarks'],
   // Staged by the submissions module through the bulk-load plumbing (src/database/bulk-load).
   care_records: ['submissions', 'database'],
   schema_migrations: ['database'],
+  outbox_batches: ['mail'],
+  outbox_messages: ['mail'],
+  mail_extra_recipients: ['mail'],
+  mail_schedule: ['mail'],
 };
 
 const sqlTouching = (tables) =>

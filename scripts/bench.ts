@@ -3,6 +3,7 @@
  * ratios against a reference measured in the same run.
  *   - @cairn/metrics: evaluation vs DuckDB at 100k / 1M / 3.5M records, funnel limits
  *   - @cairn/api: extract ingest vs LOAD DATA LOCAL INFILE and a bare exceljs read
+ *   - @cairn/api: 500 mails with attachments through the outbox vs nodemailer's pool alone
  * The ingest benchmark uses the disposable test MariaDB (never the demo data).
  * Exit code 1 when any benchmark misses a target.
  */
@@ -44,6 +45,14 @@ async function main(): Promise<void> {
       outcomes.push([
         'api',
         await runInherit('npm', ['run', 'bench', '-w', '@cairn/api', '--', ...args], {
+          cwd: ctx.root,
+          env: ctx.childEnv,
+        }),
+      ]);
+      log.step('── @cairn/api mail outbox benchmark ──');
+      outcomes.push([
+        'mail',
+        await runInherit('npm', ['run', 'bench:mail', '-w', '@cairn/api'], {
           cwd: ctx.root,
           env: ctx.childEnv,
         }),

@@ -10,6 +10,7 @@ import { fileURLToPath } from 'node:url';
 import {
   type CairnConfig,
   type CairnSecrets,
+  requiredSecretNames,
   secretNames,
 } from '../../packages/api/src/config/config.schema.ts';
 import {
@@ -42,7 +43,7 @@ function localSecrets(profile: CairnConfig['profile']): CairnSecrets {
     ? JSON.parse(readFileSync(file, 'utf8'))
     : {};
   let changed = false;
-  for (const name of secretNames) {
+  for (const name of requiredSecretNames) {
     if (!stored[name]) {
       stored[name] = randomBytes(24).toString('base64url');
       changed = true;

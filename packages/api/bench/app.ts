@@ -2,6 +2,7 @@
 import { dirname, join } from 'node:path';
 import type { Sequelize } from 'sequelize';
 import { fileURLToPath } from 'node:url';
+import type { CairnConfig } from '../src/config/config.schema.js';
 
 const dist = join(dirname(fileURLToPath(import.meta.url)), '..', 'dist');
 
@@ -9,7 +10,10 @@ const dist = join(dirname(fileURLToPath(import.meta.url)), '..', 'dist');
 // eslint-disable-next-line @typescript-eslint/no-explicit-any
 export const fromDist = (path: string): Promise<any> => import(join(dist, path));
 
-export async function benchApp() {
+/** `configure` adjusts the test profile's configuration (the mail benchmark points mail at its sink). */
+export async function benchApp(
+  configure: (config: CairnConfig) => CairnConfig = (config) => config,
+) {
   const { loadConfig, loadSecrets } = await fromDist('config/load-config.js');
   const { connect, createDatabase, dropTestDatabase } = await fromDist('database/connect.js');
   const { migrateUp } = await fromDist('database/migrator.js');
@@ -22,10 +26,10 @@ export async function benchApp() {
   )) as {
     generateOrganisation: () => unknown;
   };
-  const base = loadConfig({ profile: 'test' });
+  const base: CairnConfig = loadConfig({ profile: 'test' });
   const secrets = loadSecrets();
   const databaseName = `cairn_test_bench_${Date.now().toString(36)}`;
-  const config = { ...base, database: { ...base.database, name: databaseName } };
+  const config = configure({ ...base, database: { ...base.database, name: databaseName } });
   await createDatabase(config, secrets);
   const db: Sequelize = connect(config, secrets);
   await migrateUp(db);

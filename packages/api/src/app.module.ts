@@ -6,8 +6,10 @@ import type { CairnConfig, CairnSecrets } from './config/config.schema.js';
 import { CairnConfigModule } from './config/config.module.js';
 import { DatabaseModule } from './database/database.module.js';
 import { HealthModule } from './health/health.module.js';
+import { MailModule } from './mail/mail.module.js';
 import { MeasureSetsModule } from './measure-sets/measure-sets.module.js';
 import { OrganisationsModule } from './organisations/organisations.module.js';
+import { QuarterOverviewModule } from './quarter-overview/quarter-overview.module.js';
 import { QuartersModule } from './quarters/quarters.module.js';
 import { SubmissionsModule } from './submissions/submissions.module.js';
 import { UsersModule } from './users/users.module.js';
@@ -31,6 +33,8 @@ export const featureModules = [
   QuartersModule,
   SubmissionsModule,
   BenchmarksModule,
+  QuarterOverviewModule,
+  MailModule,
 ];
 
 @Module({})

@@ -83,8 +83,10 @@ function observed(res: {
 }
 
 /**
- * Hand-written expectations for the sign-in, users, audit-trail, measure-set and recall-list
- * routes (a cross-check of the rule above).
+ * Hand-written expectations for the sign-in, users, audit-trail, measure-set, audit-quarter and
+ * recall-list routes (a cross-check of the rule above).
+ * Hand-written expectations for the sign-in, users, audit-trail, measure-set, recall-list and
+ * mail routes (a cross-check of the rule above).
  */
 const A = 'allowed';
 const U = '401 sign-in-required';
@@ -170,6 +172,47 @@ const handWritten: Record<string, Record<Caller, string>> = {
     auditor: A,
     deactivated: U,
   },
+  // Measure sets and audit quarters: everyone reads; regional leads change (auditors are read-only).
+  ...Object.fromEntries(
+    [
+      'GET /api/quarter-overview',
+      'GET /api/measure-sets/:measureSetId/changes',
+      'GET /api/quarters',
+      'GET /api/quarters/:quarterId',
+    ].map((key) => [
+      key,
+      {
+        anonymous: U,
+        'lead of practice': A,
+        'lead of another': A,
+        'regional lead': A,
+        auditor: A,
+        deactivated: U,
+      },
+    ]),
+  ),
+  ...Object.fromEntries(
+    [
+      'POST /api/measure-sets/:measureSetId/drafts',
+      'PUT /api/measure-sets/:measureSetId',
+      'POST /api/measure-sets/:measureSetId/publish',
+      'DELETE /api/measure-sets/:measureSetId',
+      'POST /api/quarters',
+      'PATCH /api/quarters/:quarterId',
+      'POST /api/quarters/:quarterId/close',
+      'POST /api/quarters/:quarterId/reopen',
+    ].map((key) => [
+      key,
+      {
+        anonymous: U,
+        'lead of practice': R,
+        'lead of another': R,
+        'regional lead': A,
+        auditor: R,
+        deactivated: U,
+      },
+    ]),
+  ),
   ...Object.fromEntries(
     ['recall-list', 'recall-list.csv', 'recall-list.xlsx'].map((path) => [
       `GET /api/practices/:practiceId/quarters/:quarterId/${path}`,
@@ -177,6 +220,40 @@ const handWritten: Record<string, Record<Caller, string>> = {
         anonymous: U,
         'lead of practice': A,
         'lead of another': '403 practice-not-yours',
+        'regional lead': A,
+        auditor: A,
+        deactivated: U,
+      },
+    ]),
+  ),
+  ...Object.fromEntries(
+    [
+      'GET /api/mail/deliveries',
+      'GET /api/mail/deliveries/:kind/:sourceId',
+      'POST /api/mail/deliveries/:kind/:sourceId/resend',
+      'POST /api/mail/messages/:messageId/resend',
+      'GET /api/mail/recipients',
+      'POST /api/practices/:practiceId/mail-recipients',
+      'DELETE /api/practices/:practiceId/mail-recipients/:recipientId',
+    ].map((route) => [
+      route,
+      {
+        anonymous: U,
+        'lead of practice': R,
+        'lead of another': R,
+        'regional lead': A,
+        auditor: R,
+        deactivated: U,
+      },
+    ]),
+  ),
+  ...Object.fromEntries(
+    ['GET /api/me/mail-preferences', 'PUT /api/me/mail-preferences'].map((route) => [
+      route,
+      {
+        anonymous: U,
+        'lead of practice': A,
+        'lead of another': A,
         'regional lead': A,
         auditor: A,
         deactivated: U,

@@ -12,6 +12,7 @@ export * from './records/columns.js';
 
 // Measure sets and evaluation
 export * from './measures/schema.js';
+export * from './measures/threshold-ranges.js';
 export * from './measures/quarter.js';
 export * from './measures/compile.js';
 export type { HistogramLayout, HistogramPack } from './measures/layout.js';
@@ -55,6 +56,13 @@ export * from './kidney/kdigo.js';
 // Disclosure control and pseudonyms
 export * from './disclosure/disclosure-control.js';
 export {
+  protectTable,
+  type ProtectedTable,
+  type PublishedTotals,
+  type TableProtectionOptions,
+} from './disclosure/protect-table.js';
+export { revealedCounts, type TablePosition } from './disclosure/audit-suppression.js';
+export {
   recordPseudonym,
   createPseudonymiser,
   pseudonymMessage,
@@ -62,3 +70,35 @@ export {
 } from './disclosure/pseudonym.js';
 export { sha256, hmacSha256, toHex } from './disclosure/sha256.js';
 export * from './progression/insulin.js';
+
+// Benchmark sums: per-practice counts that add up, their stored form and merging
+export type { PracticeSums, Counts } from './sums/practice-sums.js';
+export { SumsMismatchError } from './sums/practice-sums.js';
+export { sumsLayout, SUMS_FORMAT_VERSION, type SumsLayout } from './sums/sums-layout.js';
+export { sumsOfColumns, type SumsOptions } from './sums/sums-of-columns.js';
+export { encodeSums } from './sums/encode-sums.js';
+export { decodeSums, SumsDecodeError, type SumsDecodeProblem } from './sums/decode-sums.js';
+export { addSums, mergeSums } from './sums/merge-sums.js';
+export {
+  VALUE_HISTOGRAMS,
+  binEdges,
+  type ValueHistogramKey,
+  type ValueHistogramSpec,
+} from './sums/value-bins.js';
+export {
+  KIDNEY_COLUMNS,
+  KIDNEY_ROWS,
+  type KidneyColumn,
+  type KidneyRow,
+} from './sums/kidney-grid.js';
+
+// Benchmarks built from sums
+export * from './benchmark/benchmark.js';
+export {
+  buildBenchmark,
+  type BenchmarkPracticeInput,
+  type BuildBenchmarkInput,
+} from './benchmark/build-benchmark.js';
+export * from './benchmark/benchmark-views.js';
+export * from './benchmark/practice-detail.js';
+export * from './benchmark/rate-trend.js';

@@ -202,8 +202,76 @@ export const configSchema = z
       .object({
         host,
         port,
-        secure: bool,
+        secure: bool.describe(
+          'true or false: true speaks TLS from the first byte (port 465); false starts plain and upgrades with STARTTLS when the server offers it',
+        ),
+        requireTls: bool.describe(
+          'true or false: true refuses to send unless the server upgrades the connection with STARTTLS',
+        ),
+        user: z
+          .string()
+          .min(1)
+          .nullable()
+          .describe(
+            'the SMTP user name, or null to send without signing in (the password comes from CAIRN_MAIL_PASSWORD)',
+          ),
         from: z.string().min(3).describe('a sender such as "Cairn <no-reply@example.org>"'),
+        connections: z
+          .number()
+          .int()
+          .min(1)
+          .max(20)
+          .describe(
+            'a whole number from 1 to 20: pooled SMTP connections one API process keeps open',
+          ),
+        timeoutSeconds: positiveInt(
+          'seconds an SMTP connection may wait for the server (connecting, greeting, each reply)',
+        ),
+        outbox: z
+          .object({
+            concurrency: z
+              .number()
+              .int()
+              .min(0)
+              .max(50)
+              .describe(
+                'a whole number from 0 to 50: messages one API process hands to the server at once (0: this process sends none)',
+              ),
+            pollIntervalMs: positiveInt('milliseconds between looks for messages due'),
+            leaseSeconds: positiveInt(
+              'seconds a process holds a message it is sending without renewing; a message held by a crashed process is sent again after this',
+            ),
+            maxAttempts: positiveInt('attempts at a message before it is marked failed'),
+            backoffBaseSeconds: z
+              .number()
+              .positive()
+              .describe(
+                'a number of seconds greater than 0: the wait after the first failed attempt, doubled after each further one',
+              ),
+            backoffMaxSeconds: z
+              .number()
+              .positive()
+              .describe('a number of seconds greater than 0: the longest wait between attempts'),
+          })
+          .strict(),
+        reminders: z
+          .object({
+            daysBeforeDeadline: z
+              .number()
+              .int()
+              .min(1)
+              .max(60)
+              .describe(
+                'a whole number from 1 to 60: days before a submission deadline that practices without a current submission are reminded',
+              ),
+            checkCron: z
+              .string()
+              .regex(/^\S+( \S+){4,5}$/)
+              .describe(
+                "a cron expression (5 or 6 fields, seconds first when 6) saying when Cairn looks for reminders due, e.g. '0 */15 * * * *'",
+              ),
+          })
+          .strict(),
       })
       .strict(),
     extracts: z
@@ -269,7 +337,16 @@ export const secretsSchema = z.object({
     .string()
     .min(32)
     .describe('a random string of at least 32 characters, the region key for record pseudonyms'),
+  CAIRN_MAIL_PASSWORD: z
+    .string()
+    .min(1)
+    .optional()
+    .describe('the SMTP password of mail.user (only when mail.user is set)'),
 });
 
 export type CairnSecrets = z.infer<typeof secretsSchema>;
 export const secretNames = Object.keys(secretsSchema.shape) as (keyof CairnSecrets)[];
+/** The secrets every deployment must set (and `npm start` generates for local use). */
+export const requiredSecretNames = secretNames.filter(
+  (name) => !secretsSchema.shape[name].safeParse(undefined).success,
+);

@@ -10,6 +10,10 @@ export function mailboxRouter(mailbox: Mailbox): Router {
     res.json(mailbox.list());
   });
 
+  router.get('/api/stats', (_req, res) => {
+    res.json(mailbox.stats());
+  });
+
   router.delete('/api/messages', (_req, res) => {
     mailbox.clear();
     res.status(204).end();
@@ -21,14 +25,15 @@ export function mailboxRouter(mailbox: Mailbox): Router {
       .map(
         (m) =>
           `<tr><td>${escapeHtml(new Date(m.receivedAt).toLocaleString('en-GB'))}</td><td>${escapeHtml(m.to.join(', '))}</td>` +
-          `<td><a href="/mailbox/${m.id}">${escapeHtml(m.subject || '(no subject)')}</a></td><td>${m.attachments.length || ''}</td></tr>`,
+          `<td><a href="/mailbox/${m.id}">${escapeHtml(m.subject || '(no subject)')}</a></td><td>${m.attachments.length || ''}</td>` +
+          `<td>${m.repeats ? `${m.repeats + 1}× (same Message-ID)` : ''}</td></tr>`,
       )
       .join('');
     res.type('html').send(
       page(
         'Captured e-mail',
-        `<p>Every e-mail Cairn sends in development lands here; nothing leaves this machine.</p>
-         ${messages.length ? `<table><thead><tr><th>Received</th><th>To</th><th>Subject</th><th>Attachments</th></tr></thead><tbody>${rows}</tbody></table>` : '<p class="empty">No e-mail has been sent yet.</p>'}`,
+        `<p>Every e-mail Cairn sends in development lands here; nothing leaves this machine. A message that arrives again with the same Message-ID is counted as a repeat, not listed twice. Addresses at refused.example are refused, as a real server refuses an unknown mailbox.</p>
+         ${messages.length ? `<table><thead><tr><th>Received</th><th>To</th><th>Subject</th><th>Attachments</th><th>Arrived</th></tr></thead><tbody>${rows}</tbody></table>` : '<p class="empty">No e-mail has been sent yet.</p>'}`,
       ),
     );
   });
@@ -54,9 +59,11 @@ export function mailboxRouter(mailbox: Mailbox): Router {
       page(
         message.subject || '(no subject)',
         `<p><a href="/mailbox">← All messages</a> · <a href="/mailbox/${message.id}/raw">raw</a></p>
-         <dl><dt>From</dt><dd>${escapeHtml(message.from)}</dd><dt>To</dt><dd>${escapeHtml(message.to.join(', '))}</dd></dl>
+         <dl><dt>From</dt><dd>${escapeHtml(message.from)}</dd><dt>To</dt><dd>${escapeHtml(message.to.join(', '))}</dd>
+         <dt>Message-ID</dt><dd>${escapeHtml(message.messageId ?? '(none)')}</dd>
+         ${message.repeats ? `<dt>Repeats</dt><dd>arrived ${message.repeats} more time${message.repeats === 1 ? '' : 's'} with the same Message-ID</dd>` : ''}</dl>
          ${attachments ? `<h2>Attachments</h2><ul>${attachments}</ul>` : ''}
-         ${message.html ? `<iframe title="Message" sandbox="" srcdoc="${escapeHtml(message.html)}"></iframe>` : `<pre>${escapeHtml(message.text)}</pre>`}`,
+         ${message.html ? `<iframe title="Message" sandbox="" srcdoc="${escapeHtml(message.html)}"></iframe><h2>Plain-text part</h2><pre>${escapeHtml(message.text)}</pre>` : `<pre>${escapeHtml(message.text)}</pre>`}`,
       ),
     );
   });

@@ -29,6 +29,19 @@ import { Membership } from './models/membership.model.js';
 import { User } from './models/user.model.js';
 import type { Role } from './roles.js';
 
+/** A practice lead as mail reaches them (see practiceLeadsOf). */
+export interface PracticeLeadContact {
+  userId: number;
+  email: string;
+  displayName: string;
+  practiceId: number;
+  /** Kinds of e-mail they chose not to receive */
+  mailOptOuts: string[];
+}
+
+const optOutList = (stored: string | null | undefined): string[] =>
+  (stored ?? '').split(',').filter((kind) => kind.length > 0);
+
 const roleLabel = (role: Role) =>
   ({ regional_lead: 'regional lead', practice_lead: 'practice lead', auditor: 'auditor' })[role];
 
@@ -375,6 +388,79 @@ export class UsersService {
       return this.get(c.regionId, userId, transaction);
     });
   }
+
+  /** The active practice leads of these practices, one entry per practice they lead. */
+  async practiceLeadsOf(practiceIds: readonly number[]): Promise<PracticeLeadContact[]> {
+    if (practiceIds.length === 0) return [];
+    const rows = await this.memberships.findAll({
+      where: { practiceId: [...new Set(practiceIds)] },
+      include: [{ model: User, where: { status: 'active', role: 'practice_lead' } }],
+      order: [
+        ['practiceId', 'ASC'],
+        ['userId', 'ASC'],
+      ],
+    });
+    return rows.map((m) => ({
+      userId: m.userId,
+      email: m.user!.email,
+      displayName: m.user!.displayName,
+      practiceId: m.practiceId,
+      mailOptOuts: optOutList(m.user!.mailOptOuts),
+    }));
+  }
+
+  /** The kinds of e-mail this person chose not to receive. */
+  async mailOptOuts(userId: number): Promise<string[]> {
+    const user = await this.users.findByPk(userId, { attributes: ['id', 'mailOptOuts'] });
+    return optOutList(user?.mailOptOuts);
+  }
+
+  /**
+   * Records the kinds of e-mail the signed-in person does not want (their own profile), with
+   * an audit event when it changes; `describe` names the kinds for the event's summary.
+   */
+  async setMailOptOuts(
+    c: Actor,
+    kinds: readonly string[],
+    describe: (kinds: readonly string[]) => string,
+  ): Promise<string[]> {
+    return this.sequelize.transaction(async (transaction) => {
+      const user = await this.users.findByPk(c.id ?? -1, {
+        transaction,
+        lock: transaction.LOCK.UPDATE,
+      });
+      if (!user) {
+        throw new ProblemException(
+          HttpStatus.NOT_FOUND,
+          'user-not-found',
+          'No such person',
+          'Only a signed-in person can change their mail preferences.',
+        );
+      }
+      const before = optOutList(user.mailOptOuts);
+      const after = joinOptOuts(kinds);
+      if (after !== joinOptOuts(before)) {
+        await user.update({ mailOptOuts: after }, { transaction });
+        await this.audit.append(
+          this.entry(
+            c,
+            user,
+            'user.mail_preferences_changed',
+            after
+              ? `${c.displayName} chose not to receive ${describe(optOutList(after))}`
+              : `${c.displayName} chose to receive every e-mail Cairn sends them`,
+            { detail: { before, after: optOutList(after) } },
+          ),
+          transaction,
+        );
+      }
+      return optOutList(after);
+    });
+  }
+}
+
+export function joinOptOuts(kinds: readonly string[]): string {
+  return [...new Set(kinds)].sort().join(',');
 }
 
 function toDto(user: User, practiceRefs: Map<number, PracticeRefDto>): UserDto {

@@ -36,7 +36,9 @@ export interface InsulinProgression {
   excluded: number;
 }
 
-const MAX_YEARS = 150;
+/** Times are counted in whole years up to this cap (longer times count as the cap). */
+export const INSULIN_MAX_YEARS = 150;
+const MAX_YEARS = INSULIN_MAX_YEARS;
 
 /** The time of one record, or null when it is not included (see above). */
 export function progressionTime(
@@ -112,6 +114,34 @@ export function insulinProgression(
   return summarise(codes, histogram, excluded);
 }
 
+/** `insulinTimeAt`: the record is not in the progression population. */
+export const INSULIN_NOT_INCLUDED = -1;
+/** `insulinTimeAt`: the record is left out for incomplete or inconsistent insulin data. */
+export const INSULIN_EXCLUDED = -2;
+
+/**
+ * The time of record i of the columns (the rule of `progressionTime`, on the columnar form):
+ * `INSULIN_NOT_INCLUDED`, `INSULIN_EXCLUDED`, or years × 2 + (0 for an event, 1 when censored), years capped at
+ * `INSULIN_MAX_YEARS`.
+ */
+export function insulinTimeAt(
+  columns: CareColumns,
+  i: number,
+  endYear: number,
+  minAge: number,
+): number {
+  if (columns.diabetesType[i] !== TYPE_2) return INSULIN_NOT_INCLUDED;
+  if (endYear - (columns.birthYear[i] as number) < minAge) return INSULIN_NOT_INCLUDED;
+  const dy = columns.diagnosisYear[i] as number;
+  if (dy === MISSING_YEAR || dy > endYear) return INSULIN_NOT_INCLUDED;
+  const insulin = columns.onInsulin[i] as number;
+  if (insulin === FLAG_NO) return Math.min(endYear - dy, MAX_YEARS) * 2 + 1;
+  if (insulin !== FLAG_YES) return INSULIN_EXCLUDED;
+  const start = columns.insulinStartYear[i] as number;
+  if (start === MISSING_YEAR || start < dy || start > endYear) return INSULIN_EXCLUDED;
+  return Math.min(start - dy, MAX_YEARS) * 2;
+}
+
 /** Progression to insulin from the columnar form (one pass, no objects per record). */
 export function insulinProgressionColumns(
   columns: CareColumns,
@@ -124,30 +154,13 @@ export function insulinProgressionColumns(
   const histogram = new Int32Array(columns.practiceCodes.length * W * 2);
   let excluded = 0;
   for (let i = 0; i < columns.length; i++) {
-    if (columns.diabetesType[i] !== TYPE_2) continue;
-    if (endYear - (columns.birthYear[i] as number) < minAge) continue;
-    const dy = columns.diagnosisYear[i] as number;
-    if (dy === MISSING_YEAR || dy > endYear) continue;
-    const insulin = columns.onInsulin[i] as number;
-    let years: number;
-    let event: boolean;
-    if (insulin === FLAG_NO) {
-      years = endYear - dy;
-      event = false;
-    } else if (insulin === FLAG_YES) {
-      const start = columns.insulinStartYear[i] as number;
-      if (start === MISSING_YEAR || start < dy || start > endYear) {
-        excluded++;
-        continue;
-      }
-      years = start - dy;
-      event = true;
-    } else {
+    const time = insulinTimeAt(columns, i, endYear, minAge);
+    if (time === INSULIN_NOT_INCLUDED) continue;
+    if (time === INSULIN_EXCLUDED) {
       excluded++;
       continue;
     }
-    const k =
-      ((columns.practice[i] as number) * W + Math.min(years, MAX_YEARS)) * 2 + (event ? 0 : 1);
+    const k = (columns.practice[i] as number) * W * 2 + time;
     histogram[k] = (histogram[k] as number) + 1;
   }
   return summarise(columns.practiceCodes, histogram, excluded);

@@ -322,20 +322,64 @@ export function createColumnBuilder(options: ColumnBuilderOptions = {}): ColumnB
     a.cvdHistory[i] = encodeFlag(cvdHistory, 'cvdHistory', i);
   }
 
-  /** Writes one care process (month plus up to two values). */
-  function put(
-    i: number,
+  /** Writes one care process's month (its column passed directly: no lookup by name). */
+  function putMonth(
+    months: Int16Array,
     field: CareProcessField,
     month: Month | null | undefined,
-    valueFields: readonly MeasurementField[],
-    values: readonly (number | null | undefined)[],
-  ): void {
+    i: number,
+  ): number {
     const m = encodeMonth(month, field, i);
-    a.months[field][i] = m;
-    for (let k = 0; k < valueFields.length; k++) {
-      const vf = valueFields[k] as MeasurementField;
-      a.values[vf][i] = m === MISSING_MONTH ? NaN : encodeValue(values[k], vf, i);
-    }
+    months[i] = m;
+    return m;
+  }
+
+  /** Writes one measurement of a care process whose month is m (NaN when not recorded). */
+  function putValue(
+    values: Float64Array,
+    field: MeasurementField,
+    m: number,
+    value: number | null | undefined,
+    i: number,
+  ): void {
+    values[i] = m === MISSING_MONTH ? NaN : encodeValue(value, field, i);
+  }
+
+  /** Writes one row's care processes (the month strings and values of a flat row or a record). */
+  function putProcesses(
+    i: number,
+    hba1c: Month | null | undefined,
+    hba1cValue: number | null | undefined,
+    bloodPressure: Month | null | undefined,
+    systolic: number | null | undefined,
+    diastolic: number | null | undefined,
+    cholesterol: Month | null | undefined,
+    cholesterolValue: number | null | undefined,
+    creatinine: Month | null | undefined,
+    creatinineValue: number | null | undefined,
+    albumin: Month | null | undefined,
+    albuminValue: number | null | undefined,
+    foot: Month | null | undefined,
+    bmi: Month | null | undefined,
+    bmiValue: number | null | undefined,
+    smokingMonth: Month | null | undefined,
+  ): void {
+    const { months, values } = a;
+    let m = putMonth(months.hba1c, 'hba1c', hba1c, i);
+    putValue(values.hba1c, 'hba1c', m, hba1cValue, i);
+    m = putMonth(months.bloodPressure, 'bloodPressure', bloodPressure, i);
+    putValue(values.systolic, 'systolic', m, systolic, i);
+    putValue(values.diastolic, 'diastolic', m, diastolic, i);
+    m = putMonth(months.cholesterol, 'cholesterol', cholesterol, i);
+    putValue(values.cholesterol, 'cholesterol', m, cholesterolValue, i);
+    m = putMonth(months.serumCreatinine, 'serumCreatinine', creatinine, i);
+    putValue(values.serumCreatinine, 'serumCreatinine', m, creatinineValue, i);
+    m = putMonth(months.urineAlbumin, 'urineAlbumin', albumin, i);
+    putValue(values.urineAlbumin, 'urineAlbumin', m, albuminValue, i);
+    putMonth(months.footSurveillance, 'footSurveillance', foot, i);
+    m = putMonth(months.bmi, 'bmi', bmi, i);
+    putValue(values.bmi, 'bmi', m, bmiValue, i);
+    putMonth(months.smoking, 'smoking', smokingMonth, i);
   }
 
   return {
@@ -346,34 +390,26 @@ export function createColumnBuilder(options: ColumnBuilderOptions = {}): ColumnB
       const i = slot(r.practiceCode, r.recordKey);
       try {
         common(i, r.birthYear, r.sex, r.diabetesType, r.diagnosisYear, r.deprivationQuintile);
-        put(i, 'hba1c', r.hba1c?.month, ['hba1c'], [r.hba1c?.mmolMol]);
-        put(
+        putProcesses(
           i,
-          'bloodPressure',
+          r.hba1c?.month,
+          r.hba1c?.mmolMol,
           r.bloodPressure?.month,
-          ['systolic', 'diastolic'],
-          [r.bloodPressure?.systolic, r.bloodPressure?.diastolic],
-        );
-        put(i, 'cholesterol', r.cholesterol?.month, ['cholesterol'], [r.cholesterol?.totalMmolL]);
-        put(
-          i,
-          'serumCreatinine',
+          r.bloodPressure?.systolic,
+          r.bloodPressure?.diastolic,
+          r.cholesterol?.month,
+          r.cholesterol?.totalMmolL,
           r.serumCreatinine?.month,
-          ['serumCreatinine'],
-          [r.serumCreatinine?.umolL],
-        );
-        put(
-          i,
-          'urineAlbumin',
+          r.serumCreatinine?.umolL,
           r.urineAlbumin?.month,
-          ['urineAlbumin'],
-          [r.urineAlbumin?.acrMgMmol],
+          r.urineAlbumin?.acrMgMmol,
+          r.footSurveillance?.month,
+          r.bmi?.month,
+          r.bmi?.kgM2,
+          r.smoking?.month,
         );
-        put(i, 'footSurveillance', r.footSurveillance?.month, [], []);
-        put(i, 'bmi', r.bmi?.month, ['bmi'], [r.bmi?.kgM2]);
-        put(i, 'smoking', r.smoking?.month, [], []);
         smoking(i, r.smoking === null ? null : r.smoking.status);
-        put(i, 'retinalScreening', r.retinalScreening?.month, [], []);
+        putMonth(a.months.retinalScreening, 'retinalScreening', r.retinalScreening?.month, i);
         flags(i, r.onStatin, r.onInsulin, r.insulinStartYear, r.cvdHistory);
       } catch (error) {
         if (recordKeys !== null) recordKeys.pop();
@@ -385,31 +421,29 @@ export function createColumnBuilder(options: ColumnBuilderOptions = {}): ColumnB
       const i = slot(r.practiceCode, r.recordKey);
       try {
         common(i, r.birthYear, r.sex, r.diabetesType, r.diagnosisYear, r.deprivationQuintile);
-        put(i, 'hba1c', r.hba1cMonth, ['hba1c'], [r.hba1cMmolMol]);
-        put(
+        putProcesses(
           i,
-          'bloodPressure',
+          r.hba1cMonth,
+          r.hba1cMmolMol,
           r.bloodPressureMonth,
-          ['systolic', 'diastolic'],
-          [r.systolic, r.diastolic],
-        );
-        put(i, 'cholesterol', r.cholesterolMonth, ['cholesterol'], [r.totalCholesterolMmolL]);
-        put(
-          i,
-          'serumCreatinine',
+          r.systolic,
+          r.diastolic,
+          r.cholesterolMonth,
+          r.totalCholesterolMmolL,
           r.serumCreatinineMonth,
-          ['serumCreatinine'],
-          [r.serumCreatinineUmolL],
+          r.serumCreatinineUmolL,
+          r.urineAlbuminMonth,
+          r.acrMgMmol,
+          r.footSurveillanceMonth,
+          r.bmiMonth,
+          r.bmiKgM2,
+          r.smokingMonth,
         );
-        put(i, 'urineAlbumin', r.urineAlbuminMonth, ['urineAlbumin'], [r.acrMgMmol]);
-        put(i, 'footSurveillance', r.footSurveillanceMonth, [], []);
-        put(i, 'bmi', r.bmiMonth, ['bmi'], [r.bmiKgM2]);
-        put(i, 'smoking', r.smokingMonth, [], []);
         smoking(i, r.smokingMonth == null ? null : r.smokingStatus);
         if (r.smokingMonth != null && r.smokingStatus == null) {
           throw new RangeError(`record ${i}: smokingStatus is required with smokingMonth`);
         }
-        put(i, 'retinalScreening', r.retinalScreeningMonth, [], []);
+        putMonth(a.months.retinalScreening, 'retinalScreening', r.retinalScreeningMonth, i);
         flags(i, r.onStatin, r.onInsulin, r.insulinStartYear, r.cvdHistory);
       } catch (error) {
         if (recordKeys !== null) recordKeys.pop();

@@ -67,12 +67,64 @@ export function funnelFlag(
     return { rate: null, band: null, side: null, assessment: null, inner, outer };
   }
   const rate = unit.events / unit.n;
-  let band: FunnelBand = 'within';
-  let side: 'above' | 'below' | null = null;
-  if (rate > outer.upper || rate < outer.lower) band = 'outlier';
-  else if (rate > inner.upper || rate < inner.lower) band = 'notable';
-  if (band !== 'within') side = rate > inner.upper ? 'above' : 'below';
-  const assessment =
-    side === null ? null : (side === 'above') === (direction === 'higher') ? 'better' : 'worse';
-  return { rate, band, side, assessment, inner, outer };
+  return { rate, ...classifyRate(rate, inner, outer, direction), inner, outer };
+}
+
+/**
+ * The band and side of a rate against inner and outer limits as one number (the rule of
+ * `funnelFlag`, without objects, for callers that flag thousands of units): 1 within,
+ * 2 notable above, 3 notable below, 4 outlier above, 5 outlier below.
+ */
+export type BandCode = 1 | 2 | 3 | 4 | 5;
+
+export function bandCode(
+  rate: number,
+  innerLower: number,
+  innerUpper: number,
+  outerLower: number,
+  outerUpper: number,
+): BandCode {
+  if (rate > outerUpper || rate < outerLower) return rate > innerUpper ? 4 : 5;
+  if (rate > innerUpper || rate < innerLower) return rate > innerUpper ? 2 : 3;
+  return 1;
+}
+
+/** The band and side of a band code. */
+export function bandOfCode(code: BandCode): {
+  band: FunnelBand;
+  side: 'above' | 'below' | null;
+} {
+  if (code === 1) return { band: 'within', side: null };
+  return {
+    band: code <= 3 ? 'notable' : 'outlier',
+    side: code === 2 || code === 4 ? 'above' : 'below',
+  };
+}
+
+/** Whether a side is better or worse than expected given the measure's direction. */
+export function assessmentOf(
+  side: 'above' | 'below' | null,
+  direction: Direction,
+): 'better' | 'worse' | null {
+  return side === null
+    ? null
+    : (side === 'above') === (direction === 'higher')
+      ? 'better'
+      : 'worse';
+}
+
+/**
+ * The band, side and assessment of a rate against given inner and outer limits (the rule of
+ * `funnelFlag`, for callers that compute limits once per distinct n).
+ */
+export function classifyRate(
+  rate: number,
+  inner: { lower: number; upper: number },
+  outer: { lower: number; upper: number },
+  direction: Direction,
+): Pick<FunnelFlag, 'band' | 'side' | 'assessment'> & { band: FunnelBand } {
+  const { band, side } = bandOfCode(
+    bandCode(rate, inner.lower, inner.upper, outer.lower, outer.upper),
+  );
+  return { band, side, assessment: assessmentOf(side, direction) };
 }

@@ -63,14 +63,16 @@ export function normalQuantile(p: number): number {
   return p < 0.5 ? lowerHalf(p) : -lowerHalf(1 - p);
 }
 
-let lastConfidence = NaN;
-let lastZ = NaN;
+// The few levels in use (0.95, 0.998 …) are computed once each; callers alternate between them.
+const zCache = new Map<number, number>();
 
 /** The two-sided critical value z with Φ(z) = (1 + confidence) / 2 (1.959964… for 0.95). */
 export function zForConfidence(confidence: number): number {
-  if (confidence !== lastConfidence) {
-    lastZ = -normalQuantile((1 - confidence) / 2);
-    lastConfidence = confidence;
+  let z = zCache.get(confidence);
+  if (z === undefined) {
+    z = -normalQuantile((1 - confidence) / 2);
+    if (zCache.size >= 16) zCache.clear();
+    zCache.set(confidence, z);
   }
-  return lastZ;
+  return z;
 }

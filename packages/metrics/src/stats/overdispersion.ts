@@ -1,5 +1,6 @@
 import { assertEventsOfN, assertProbability } from './assert.js';
 import { chiSquareQuantile } from './chisquare-quantile.js';
+import { nextOrderStatistic, orderStatistic } from './order-statistic.js';
 
 /**
  * Over-dispersion of unit proportions around a target θ₀ (D. J. Spiegelhalter, Stat Med
@@ -46,8 +47,35 @@ export interface Overdispersion {
   bounds: { lower: number; upper: number } | null;
 }
 
+// χ² critical values by level and degrees of freedom: the same few are asked for again and again
+// when many measures are compared over the same units.
+const criticalCache = new Map<string, number>();
+
+function criticalValue(level: number, df: number): number {
+  const key = `${level}:${df}`;
+  let value = criticalCache.get(key);
+  if (value === undefined) {
+    value = chiSquareQuantile(level, df);
+    if (criticalCache.size >= 256) criticalCache.clear();
+    criticalCache.set(key, value);
+  }
+  return value;
+}
+
+/**
+ * `percentileType7` of values in any order, from the two order statistics it interpolates
+ * (order-statistic.ts) instead of a full sort; the same number. `work` is reordered.
+ */
+export function percentileOfUnsorted(work: Float64Array, q: number): number {
+  const h = (work.length - 1) * q;
+  const lo = Math.floor(h);
+  const a = orderStatistic(work, lo);
+  const b = lo + 1 < work.length ? nextOrderStatistic(work, lo) : a;
+  return a + (h - lo) * (b - a);
+}
+
 /** Percentile by linear interpolation between order statistics (Hyndman & Fan type 7). */
-export function percentileType7(sorted: readonly number[], q: number): number {
+export function percentileType7(sorted: ArrayLike<number>, q: number): number {
   const h = (sorted.length - 1) * q;
   const lo = Math.floor(h);
   const hi = Math.min(sorted.length - 1, lo + 1);
@@ -62,6 +90,29 @@ export function overdispersion(
   options: OverdispersionOptions = {},
 ): Overdispersion {
   assertProbability(theta0, 'theta0');
+  const events = new Float64Array(units.length);
+  const n = new Float64Array(units.length);
+  units.forEach((u, i) => {
+    assertEventsOfN(u.events, u.n, `units[${i}].events`, `units[${i}].n`);
+    events[i] = u.events;
+    n[i] = u.n;
+  });
+  const { z, ...rest } = overdispersionOfColumns(events, n, theta0, options);
+  return { ...rest, z: Array.from(z, (v) => (Number.isNaN(v) ? null : v)) };
+}
+
+/**
+ * `overdispersion` for units given as columns of events and n (checked by the caller to be
+ * counts with events ≤ n): the same computation in the same order, without an object per
+ * unit, for callers that compare thousands of units on many measures. z is NaN for n = 0.
+ */
+export function overdispersionOfColumns(
+  events: ArrayLike<number>,
+  n: ArrayLike<number>,
+  theta0: number,
+  options: OverdispersionOptions = {},
+): Omit<Overdispersion, 'z'> & { z: Float64Array } {
+  assertProbability(theta0, 'theta0');
   const winsorise = options.winsorise ?? 0.1;
   if (!(winsorise >= 0 && winsorise < 0.5)) {
     throw new RangeError(`winsorise must be in [0, 0.5) (got ${winsorise})`);
@@ -70,10 +121,11 @@ export function overdispersion(
   if (!(testLevel > 0 && testLevel < 1)) {
     throw new RangeError(`testLevel must be in (0, 1) (got ${testLevel})`);
   }
-  units.forEach((u, i) => assertEventsOfN(u.events, u.n, `units[${i}].events`, `units[${i}].n`));
-  const used = units.filter((u) => u.n > 0);
-  const I = used.length;
-  const empty: Overdispersion = {
+  const count = n.length;
+  let I = 0;
+  for (let i = 0; i < count; i++) if ((n[i] as number) > 0) I++;
+  const z = new Float64Array(count).fill(NaN);
+  const empty = {
     theta0,
     units: I,
     phi: null,
@@ -81,34 +133,43 @@ export function overdispersion(
     present: false,
     statistic: null,
     critical: null,
-    z: units.map(() => null),
+    z,
     bounds: null,
   };
   if (theta0 === 0 || theta0 === 1) return empty;
   const variance = theta0 * (1 - theta0);
-  const z = units.map((u) =>
-    u.n > 0 ? (u.events / u.n - theta0) / Math.sqrt(variance / u.n) : null,
-  );
-  if (I < 2) return { ...empty, z };
-  const zs = z.filter((v): v is number => v !== null);
-  const sorted = [...zs].sort((a, b) => a - b);
-  const lower = percentileType7(sorted, winsorise);
-  const upper = percentileType7(sorted, 1 - winsorise);
+  const zs = new Float64Array(I);
+  let k = 0;
+  for (let i = 0; i < count; i++) {
+    const ni = n[i] as number;
+    if (ni > 0) {
+      const v = ((events[i] as number) / ni - theta0) / Math.sqrt(variance / ni);
+      z[i] = v;
+      zs[k++] = v;
+    }
+  }
+  if (I < 2) return empty;
+  const work = zs.slice();
+  const lower = percentileOfUnsorted(work, winsorise);
+  const upper = percentileOfUnsorted(work, 1 - winsorise);
   let sumZ2 = 0;
-  for (const v of zs) {
+  for (let i = 0; i < I; i++) {
+    const v = zs[i] as number;
     const w = v < lower ? lower : v > upper ? upper : v;
     sumZ2 += w * w;
   }
   const phi = sumZ2 / I;
   let sumW = 0;
   let sumW2 = 0;
-  for (const u of used) {
-    const w = u.n / variance;
+  for (let i = 0; i < count; i++) {
+    const ni = n[i] as number;
+    if (!(ni > 0)) continue;
+    const w = ni / variance;
     sumW += w;
     sumW2 += w * w;
   }
   const statistic = I * phi;
-  const critical = chiSquareQuantile(testLevel, I - 1);
+  const critical = criticalValue(testLevel, I - 1);
   const denominator = sumW - sumW2 / sumW;
   const tau2 = statistic > I - 1 && denominator > 0 ? (statistic - (I - 1)) / denominator : 0;
   return {

@@ -1,3 +1,4 @@
+import { nextOrderStatistic, orderStatistic } from './order-statistic.js';
 import { runsLimits } from './runs-limits.js';
 
 /**
@@ -50,8 +51,25 @@ export interface RunChartOptions {
 }
 
 export function median(values: readonly number[]): number | null {
-  if (values.length === 0) return null;
-  const sorted = [...values].sort((a, b) => a - b);
+  return medianOfSorted([...values].sort((a, b) => a - b));
+}
+
+/**
+ * The median of values in any order from its middle order statistics (order-statistic.ts)
+ * instead of a full sort: the same number as `median`. `work` is reordered.
+ */
+export function medianOfUnsorted(work: Float64Array): number | null {
+  const n = work.length;
+  if (n === 0) return null;
+  const mid = n >> 1;
+  if (n % 2 === 1) return orderStatistic(work, mid);
+  const a = orderStatistic(work, mid - 1);
+  return (a + nextOrderStatistic(work, mid - 1)) / 2;
+}
+
+/** The median of values already sorted ascending (null when there are none). */
+export function medianOfSorted(sorted: ArrayLike<number>): number | null {
+  if (sorted.length === 0) return null;
   const mid = sorted.length >> 1;
   return sorted.length % 2 === 1
     ? (sorted[mid] as number)

@@ -12,6 +12,7 @@ declare module 'jstat' {
     };
     normal: { inv(p: number, mean: number, sd: number): number };
     gammaln(x: number): number;
+    percentile(values: number[], k: number, exclusive?: boolean): number;
     gammap(a: number, x: number): number;
   }
   const jStat: Jstat;

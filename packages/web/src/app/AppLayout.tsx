@@ -69,9 +69,9 @@ export function AppLayout() {
               <Spinner size={16} aria-label="Checking sign-in" />
             ) : me.data ? (
               <>
-                <span className="cairn-user">
+                <NavLink to="/profile" className="cairn-user" title="Your profile and mail">
                   {me.data.displayName} <Tag minimal>{roleLabels[me.data.role]}</Tag>
-                </span>
+                </NavLink>
                 <AnchorButton variant="minimal" icon="log-out" href="/sign-out">
                   Sign out
                 </AnchorButton>

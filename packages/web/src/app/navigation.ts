@@ -33,7 +33,22 @@ export const navItems: NavItem[] = [
     activeFor: /^\/practices\/[^/]+\/submissions(\/|$)/,
   },
   { label: 'Coverage', to: '/coverage', icon: 'grid-view', roles: ['regional_lead', 'auditor'] },
+  { label: 'Quarters', to: '/quarters', icon: 'calendar', roles: everyone },
+  {
+    label: 'Measure sets',
+    to: '/measure-sets',
+    icon: 'properties',
+    roles: everyone,
+    activeFor: /^\/measure-sets\//,
+  },
   { label: 'Users', to: '/users', icon: 'people', roles: ['regional_lead'] },
+  {
+    label: 'Mail',
+    to: '/deliveries',
+    icon: 'envelope',
+    roles: ['regional_lead'],
+    activeFor: /^\/(deliveries|mail-recipients)(\/|$)/,
+  },
   {
     label: 'Audit trail',
     to: '/audit-trail',

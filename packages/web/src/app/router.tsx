@@ -72,6 +72,51 @@ export const routes: RouteObject[] = [
         lazy: () =>
           import('../features/extracts/routes/Coverage').then((m) => ({ Component: m.Coverage })),
       },
+      {
+        path: 'quarters',
+        lazy: () =>
+          import('../features/quarters/routes/Quarters').then((m) => ({ Component: m.Quarters })),
+      },
+      {
+        path: 'measure-sets',
+        lazy: () =>
+          import('../features/measure-sets/routes/MeasureSets').then((m) => ({
+            Component: m.MeasureSets,
+          })),
+      },
+      {
+        path: 'measure-sets/:measureSetId',
+        lazy: () =>
+          import('../features/measure-sets/routes/MeasureSet').then((m) => ({
+            Component: m.MeasureSet,
+          })),
+      },
+      {
+        path: 'profile',
+        lazy: () =>
+          import('../features/profile/routes/Profile').then((m) => ({ Component: m.Profile })),
+      },
+      {
+        path: 'deliveries',
+        lazy: () =>
+          import('../features/deliveries/routes/Deliveries').then((m) => ({
+            Component: m.Deliveries,
+          })),
+      },
+      {
+        path: 'deliveries/:kind/:sourceId',
+        lazy: () =>
+          import('../features/deliveries/routes/Delivery').then((m) => ({
+            Component: m.Delivery,
+          })),
+      },
+      {
+        path: 'mail-recipients',
+        lazy: () =>
+          import('../features/deliveries/routes/MailRecipients').then((m) => ({
+            Component: m.MailRecipients,
+          })),
+      },
       { path: '*', element: <NotFound /> },
     ],
   },

@@ -1,68 +1,39 @@
 import { FormGroup, InputGroup, Intent } from '@blueprintjs/core';
-import { useId, useState } from 'react';
-import { formatDate, parseDate } from '../lib/format';
+import { REGION_DATE_FORMAT } from '../lib/region-dates';
 
-/**
- * A day, typed the region's way ("4/12/2026", "4 Dec 2026" or "2026-12-04") and shown as the
- * rest of Cairn shows dates ("4 Dec 2026"), whatever the browser's language (a native date input
- * follows the browser's). `value` and `onChange` use "YYYY-MM-DD" ('' for none).
- */
-export function DateField({
-  label,
-  value,
-  onChange,
-}: {
+interface Props {
+  id: string;
   label: string;
   value: string;
-  onChange: (iso: string) => void;
-}) {
-  const id = useId();
-  const [text, setText] = useState(value ? formatDate(value) : '');
-  const [shown, setShown] = useState(value);
-  const [invalid, setInvalid] = useState(false);
-  // The value changed from outside (a link, "clear filters"): show it.
-  if (value !== shown) {
-    setShown(value);
-    setText(value ? formatDate(value) : '');
-    setInvalid(false);
-  }
-  const commit = () => {
-    const trimmed = text.trim();
-    if (trimmed === '') {
-      setInvalid(false);
-      if (value !== '') onChange('');
-      return;
-    }
-    const iso = parseDate(trimmed);
-    if (!iso) {
-      setInvalid(true);
-      return;
-    }
-    setInvalid(false);
-    setText(formatDate(iso));
-    if (iso !== value) onChange(iso);
-  };
+  onChange: (value: string) => void;
+  /** What is wrong, shown under the field (the form's own check or the API's) */
+  error?: string;
+  /** Shown under the field when nothing is wrong */
+  hint?: string;
+}
+
+/** A calendar date typed in the region's format (DD/MM/YYYY); the form converts it. */
+export function DateField({ id, label, value, onChange, error, hint }: Props) {
+  const helpId = `${id}-help`;
   return (
     <FormGroup
-      inline
       label={label}
       labelFor={id}
-      className="cairn-date-field"
-      intent={invalid ? Intent.DANGER : Intent.NONE}
-      helperText={invalid ? 'Write a date such as 4 Dec 2026 or 4/12/2026' : undefined}
+      labelInfo={`(${REGION_DATE_FORMAT})`}
+      intent={error ? Intent.DANGER : Intent.NONE}
+      helperText={<span id={helpId}>{error ?? hint}</span>}
     >
       <InputGroup
         id={id}
-        value={text}
-        placeholder="e.g. 4 Dec 2026"
-        intent={invalid ? Intent.DANGER : Intent.NONE}
-        aria-invalid={invalid}
-        onValueChange={setText}
-        onBlur={commit}
-        onKeyDown={(event) => {
-          if (event.key === 'Enter') commit();
-        }}
-        size="small"
+        value={value}
+        onValueChange={onChange}
+        placeholder={REGION_DATE_FORMAT}
+        inputMode="numeric"
+        autoComplete="off"
+        intent={error ? Intent.DANGER : Intent.NONE}
+        aria-invalid={error ? true : undefined}
+        aria-describedby={helpId}
+        leftIcon="calendar"
       />
     </FormGroup>
   );

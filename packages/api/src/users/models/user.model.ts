@@ -36,6 +36,10 @@ export class User extends Model {
   @Column({ type: DataType.DATE(3), allowNull: true })
   declare lastSignInAt: Date | null;
 
+  /** Kinds of e-mail this person chose not to receive, comma-separated ('' for none) */
+  @Column({ type: DataType.STRING(255), allowNull: false, defaultValue: '' })
+  declare mailOptOuts: string;
+
   @HasMany(() => Membership)
   declare memberships?: MembershipRow[];
 }

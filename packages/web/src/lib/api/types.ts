@@ -20,10 +20,18 @@ export type RowIssueSeverity = Schemas['RowIssueSeverity'];
 export type IssueSort = Schemas['IssueSort'];
 export type CoverageState = Schemas['CoverageState'];
 export type AuditOutcome = Schemas['AuditOutcome'];
+export type MailKind = Schemas['MailKind'];
+export type OutboxState = Schemas['OutboxState'];
 export {
   auditOutcomeValues,
+  comparatorValues,
   coverageStateValues,
+  denominatorKindValues,
+  diabetesTypeValues,
+  measureDirectionValues,
   issueSeverityValues,
+  mailKindValues,
+  outboxStateValues,
   roleValues,
   submissionStatusValues,
   userStatusValues,
@@ -64,3 +72,52 @@ export type Coverage = Schemas['CoverageDto'];
 export type CoveragePractice = Schemas['CoveragePracticeDto'];
 export type ExtractFormat = Schemas['ExtractFormatDto'];
 export type FormatColumn = Schemas['FormatColumnDto'];
+
+// ── audit quarters ──
+export type AuditQuarters = Schemas['AuditQuartersDto'];
+export type AuditQuarter = Schemas['AuditQuarterDto'];
+export type NextQuarter = Schemas['NextQuarterDto'];
+export type QuarterActions = Schemas['QuarterActionsDto'];
+export type QuarterReport = Schemas['QuarterReportDto'];
+export type MeasureSetRef = Schemas['MeasureSetRefDto'];
+export type OpenQuarter = Schemas['OpenQuarterDto'];
+export type QuarterChanges = Schemas['UpdateQuarterDto'];
+export type ReopenQuarter = Schemas['ReopenQuarterDto'];
+
+// ── measure sets ──
+export type MeasureSetStatus = Schemas['MeasureSetStatus'];
+export type MeasureSetSummary = Schemas['MeasureSetSummaryDto'];
+export type MeasureSet = Schemas['MeasureSetDto'];
+export type Measure = Schemas['MeasureDto'];
+export type MeasureSetActions = Schemas['MeasureSetActionsDto'];
+export type MeasureSetUse = Schemas['MeasureSetUseDto'];
+export type MeasureSetChanges = Schemas['MeasureSetChangesDto'];
+export type MeasureSetChange = Schemas['MeasureSetChangeDto'];
+export type NewDraft = Schemas['CloneMeasureSetDto'];
+export type SaveDraft = Schemas['SaveMeasureSetDraftDto'];
+export type DiscardedMeasureSet = Schemas['DiscardedMeasureSetDto'];
+export type MeasureSetDefinition = Schemas['MeasureSetDefinitionDto'];
+export type CareProcessDefinition = MeasureSetDefinition['careProcesses'][number];
+export type TargetDefinition = MeasureSetDefinition['targets'][number];
+export type ConditionDefinition = Schemas['CompositeTargetDefinitionDto']['of'][number];
+export type PopulationDefinition = Schemas['PopulationDefinitionDto'];
+export type BloodPressureBand = Schemas['BloodPressureBandDto'];
+export type DiabetesType = Schemas['DiabetesType'];
+export type DenominatorKind = Schemas['DenominatorKind'];
+export type MeasureDirection = Schemas['MeasureDirection'];
+export type Comparator = Schemas['Comparator'];
+export type Measurement = Schemas['Measurement'];
+// ── mail: deliveries, recipients, mail preferences ──
+export type OutboxCounts = Schemas['OutboxCountsDto'];
+export type DeliverySource = Schemas['DeliverySourceDto'];
+export type DeliverySourceList = Schemas['DeliverySourceListDto'];
+export type DeliveryDetail = Schemas['DeliveryDetailDto'];
+export type DeliveryMessage = Schemas['DeliveryMessageDto'];
+export type ResendResult = Schemas['ResendResultDto'];
+export type MailRecipients = Schemas['MailRecipientsDto'];
+export type PracticeRecipients = Schemas['PracticeRecipientsDto'];
+export type ExtraRecipient = Schemas['ExtraRecipientDto'];
+export type NewExtraRecipient = Schemas['AddExtraRecipientDto'];
+export type MailPreferences = Schemas['MailPreferencesDto'];
+export type MailPreference = Schemas['MailPreferenceDto'];
+export type MailPreferencesChange = Schemas['UpdateMailPreferencesDto'];

@@ -10,7 +10,7 @@ import {
 } from '@blueprintjs/core';
 import { Fragment, useDeferredValue, useState } from 'react';
 import { useSearchParams } from 'react-router-dom';
-import { DateField } from '../../../components/DateField';
+import { DateFilter } from '../../../components/DateFilter';
 import { EmptyState } from '../../../components/Notice';
 import { ProblemCallout } from '../../../components/ProblemCallout';
 import { SupportCodes } from '../../../components/SupportCodes';
@@ -121,12 +121,12 @@ function AuditTrailScreen() {
             setFilter('search', value.trim());
           }}
         />
-        <DateField
+        <DateFilter
           label="From"
           value={filters.from ?? ''}
           onChange={(iso) => setFilter('from', iso)}
         />
-        <DateField label="To" value={filters.to ?? ''} onChange={(iso) => setFilter('to', iso)} />
+        <DateFilter label="To" value={filters.to ?? ''} onChange={(iso) => setFilter('to', iso)} />
       </div>
       <ProblemCallout error={events.error} />
       {events.isPending ? (
