@@ -456,5 +456,5 @@ describe('access matrix', () => {
     expect(mismatches).toEqual([]);
     for (const key of Object.keys(handWritten))
       expect(rows.some((r) => r.startsWith(`| ${key} |`))).toBe(true);
-  });
+  }, 300_000); // every route × caller, one request each: a few hundred requests in sequence
 });

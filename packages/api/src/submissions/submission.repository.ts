@@ -79,6 +79,9 @@ export interface SubmissionSummaryJson {
   delimiter?: string | null;
   encoding?: string | null;
   refusalDetail?: Record<string, unknown> | null;
+  /** Every reason the file was refused, when several were found at once (the primary first) */
+  refusalProblems?:
+    { code: string; message: string; fix: string; detail?: Record<string, unknown> }[] | null;
 }
 
 export function summaryJson(row: Pick<SubmissionRecord, 'summary'>): SubmissionSummaryJson {
