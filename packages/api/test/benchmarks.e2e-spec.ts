@@ -463,17 +463,18 @@ describe('results and benchmarks', () => {
         const res = await leadTwo.get(path).expect(403);
         expect(res.headers['content-type']).toMatch(/^application\/problem\+json/);
         expect(res.body.type).toBe('/api/problems/practice-not-yours');
-        // The problem and the practice asked for (the caller's own input), nothing else.
+        // The problem and the practice asked for, nothing of its results.
         expect(Object.keys(res.body).sort()).toEqual([
           'detail',
           'instance',
+          'practiceCode',
           'practiceId',
           'status',
           'title',
           'type',
         ]);
-        expect(res.body.practiceId).toBe(practice);
-        expect(JSON.stringify(res.body)).not.toMatch(/OV102|rate|events|record/i);
+        expect([res.body.practiceId, res.body.practiceCode]).toEqual([practice, 'OV102']);
+        expect(JSON.stringify(res.body)).not.toMatch(/rate|events|records|measure|\d+ of \d+/i);
       }
     });
 
