@@ -150,6 +150,11 @@ export class DrillDownDto {
     description: 'By diabetes type: all, type 1, type 2 and other (trend with run-chart signals)',
   })
   splits!: PracticeSplitResultDto[];
+  @ApiProperty({
+    type: [String],
+    description: 'The quarters of each trend’s points, oldest first',
+  })
+  trendQuarters!: string[];
   @ApiProperty({ type: DetailCellDto, nullable: true }) everyone!: DetailCellDto | null;
   @ApiProperty({
     type: [DrillBreakdownDto],

@@ -1,5 +1,5 @@
 /**
- * The outlier rule (docs/methods.md §11) on hand-made results: limits and θ₀ chosen so that the
+ * The outlier rule (docs/methods.md §12) on hand-made results: limits and θ₀ chosen so that the
  * band is plain; z worked by hand.
  */
 import type { UnitResult } from '@cairn/metrics';

@@ -1,6 +1,6 @@
 /**
  * Which practice × measure results are outliers, and why, in words
- * (docs/methods.md §8, Flags and Over-dispersion; §11 Outlier list).
+ * (docs/methods.md §8, Flags and Over-dispersion; §12 Outlier list).
  *
  * A result is judged against the over-dispersion-adjusted limits at its n
  * (the exact binomial limits when over-dispersion is not present: Spiegelhalter,

@@ -173,7 +173,7 @@ export class OutliersService {
   /**
    * Consecutive earlier quarters in which each listed result was flagged on the same side, read
    * from each quarter's stored flag against the over-dispersion-adjusted limits (docs/methods.md
-   * §11); a quarter without a benchmark, the practice or the measure ends the run.
+   * §12); a quarter without a benchmark, the practice or the measure ends the run.
    */
   private async countStreaks(
     quarter: QuarterDto,
@@ -268,6 +268,7 @@ export class OutliersService {
       basis: basisDto(basis),
       evidence,
       splits: own?.splits ?? [],
+      trendQuarters: results.quarters.map((q) => q.quarterLabel),
       everyone: detailSplit?.everyone ?? null,
       breakdowns: (detail?.breakdowns ?? []).flatMap((breakdown) => {
         const cells = detailSplit?.breakdowns.find((x) => x.breakdown === breakdown.key);

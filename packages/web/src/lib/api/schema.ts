@@ -3178,6 +3178,8 @@ export interface components {
       evidence: components['schemas']['CaseEvidenceDto'];
       /** @description By diabetes type: all, type 1, type 2 and other (trend with run-chart signals) */
       splits: components['schemas']['PracticeSplitResultDto'][];
+      /** @description The quarters of each trend’s points, oldest first */
+      trendQuarters: string[];
       everyone: components['schemas']['DetailCellDto'] | null;
       /** @description Age band, sex, deprivation, duration: practice against region per category */
       breakdowns: components['schemas']['DrillBreakdownDto'][];
