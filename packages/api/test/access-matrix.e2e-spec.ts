@@ -270,6 +270,14 @@ const handWritten: Record<string, Record<Caller, string>> = {
           'GET /api/quarters/:quarterId/outliers/practices/:practiceId/measures/:measureKey',
           [R, R, A, A],
         ],
+        [
+          'GET /api/quarters/:quarterId/outliers/practices/:practiceId/measures/:measureKey/records',
+          [R, R, A, A],
+        ],
+        [
+          'GET /api/quarters/:quarterId/outliers/practices/:practiceId/measures/:measureKey/evidence.xlsx',
+          [R, R, A, A],
+        ],
         ['GET /api/review-cases', [A, A, A, A]],
         ['GET /api/review-cases/:caseId', [A, A, A, A]],
         ['GET /api/review-cases/:caseId/files/:fileId', [A, A, A, A]],

@@ -7,6 +7,7 @@
  * nothing stored: a closed case's answer, wrong type, too large, misleading
  * name, empty text, two state changes at once.
  */
+import ExcelJS from 'exceljs';
 import { QueryTypes } from 'sequelize';
 import { arrange, type ExtractsWorld, uploadAndWait } from './extracts-fixtures/api.js';
 import { csvOf, goodRows } from './extracts-fixtures/rows.js';
@@ -100,6 +101,44 @@ describe('review cases', () => {
     ]);
     expect(drill.body.breakdowns.length).toBeGreaterThan(0);
     expect(drill.body.evidence.n).toBeGreaterThan(0);
+  });
+
+  it('pages the records behind a result under pseudonyms, and exports the evidence as XLSX', async () => {
+    const base = `/api/quarters/${quarterId}/outliers/practices/${practiceId}/measures/${measureKey}`;
+    const page = await auditor.get(`${base}/records?pageSize=5`).expect(200);
+    expect(page.body.total).toBeGreaterThan(0);
+    expect(page.body.records.length).toBe(Math.min(5, page.body.total));
+    const refs = await t.db.query<{ record_ref: string; pseudonym: string }>(
+      'SELECT r.record_ref, r.pseudonym FROM care_records r JOIN practice_quarters pq ON pq.current_submission_id = r.submission_id WHERE pq.practice_id = ?',
+      { replacements: [practiceId], type: QueryTypes.SELECT },
+    );
+    const text = JSON.stringify(page.body);
+    for (const r of refs) expect(text).not.toContain(`"${r.record_ref}"`);
+    expect(refs.map((r) => r.pseudonym)).toEqual(
+      expect.arrayContaining(page.body.records.map((r: { pseudonym: string }) => r.pseudonym)),
+    );
+    await auditor.get(`${base}/records?pageSize=500`).expect(400);
+    const xlsx = await auditor
+      .get(`${base}/evidence.xlsx`)
+      .buffer(true)
+      .parse((r, cb) => {
+        const chunks: Buffer[] = [];
+        r.on('data', (c: Buffer) => chunks.push(c));
+        r.on('end', () => cb(null, Buffer.concat(chunks)));
+      })
+      .expect(200);
+    const workbook = new ExcelJS.Workbook();
+    await workbook.xlsx.load(xlsx.body as unknown as ArrayBuffer);
+    expect(workbook.worksheets.map((w) => w.name)).toEqual([
+      'About',
+      'By diabetes type',
+      'Breakdowns',
+      'Trend',
+      'Data quality',
+      'Records',
+    ]);
+    expect(workbook.getWorksheet('Records')!.rowCount).toBe(page.body.total + 1);
+    await lead.get(`${base}/evidence.xlsx`).expect(403);
   });
 
   it('opens a case with its figures frozen; only auditors open', async () => {

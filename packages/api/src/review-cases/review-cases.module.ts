@@ -5,6 +5,7 @@ import { MailModule } from '../mail/mail.module.js';
 import { MeasureSetsModule } from '../measure-sets/measure-sets.module.js';
 import { OrganisationsModule } from '../organisations/organisations.module.js';
 import { QuartersModule } from '../quarters/quarters.module.js';
+import { SubmissionsModule } from '../submissions/submissions.module.js';
 import { DraftBenchmarkSource, OUTLIER_SOURCE } from './outliers/outlier-source.js';
 import { OutliersController } from './outliers/outliers.controller.js';
 import { OutliersService } from './outliers/outliers.service.js';
@@ -28,6 +29,7 @@ import { ReviewCasesService } from './review-cases.service.js';
     MeasureSetsModule,
     OrganisationsModule,
     QuartersModule,
+    SubmissionsModule,
   ],
   controllers: [OutliersController, ReviewCasesController],
   providers: [

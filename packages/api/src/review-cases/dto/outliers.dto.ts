@@ -1,8 +1,8 @@
 /** The outlier list and the drill-down of one practice × measure. */
 import { ApiProperty, ApiPropertyOptional } from '@nestjs/swagger';
 import { TYPE_SPLITS, type TypeSplit } from '@cairn/metrics';
-import { Transform } from 'class-transformer';
-import { IsBoolean, IsIn, IsOptional, IsString, MaxLength } from 'class-validator';
+import { Transform, Type } from 'class-transformer';
+import { IsBoolean, IsIn, IsInt, IsOptional, IsString, Max, MaxLength, Min } from 'class-validator';
 import { PracticeDto } from '../../organisations/dto/practice.dto.js';
 import { BreakdownDto, MeasureDto } from '../../measure-sets/dto/measure-set.dto.js';
 import { QuarterDto } from '../../quarters/dto/quarter.dto.js';
@@ -12,7 +12,11 @@ import {
   PracticeSplitResultDto,
   ValueHistogramDto,
 } from '../../benchmarks/dto/practice-results.dto.js';
-import { DataQualityCountDto, LocalityDto } from '../../benchmarks/dto/results-common.dto.js';
+import {
+  DataQualityCountDto,
+  LocalityDto,
+  SplitQueryDto,
+} from '../../benchmarks/dto/results-common.dto.js';
 import { CaseEvidenceDto, EVIDENCE_ORIGINS } from './review-case.dto.js';
 import { CASE_STATUSES, type CaseStatus } from '../review-case-policy.js';
 
@@ -175,4 +179,46 @@ export class DrillDownDto {
   openCases!: OpenCaseRefDto[];
   @ApiProperty({ type: Boolean }) mayOpenCase!: boolean;
   @ApiProperty({ type: String }) caution!: string;
+}
+
+export class DrillRecordDto {
+  @ApiProperty({
+    type: String,
+    description: 'The record’s pseudonym (never the practice’s reference)',
+  })
+  pseudonym!: string;
+  @ApiProperty({ type: Number }) birthYear!: number;
+  @ApiProperty({ type: Number, description: 'At the end of the review window' }) age!: number;
+  @ApiProperty({ type: String }) sex!: string;
+  @ApiProperty({ type: String }) diabetesType!: string;
+  @ApiProperty({ type: Number, nullable: true }) deprivationQuintile!: number | null;
+  @ApiProperty({ type: String, enum: ['met', 'not_met', 'unknown'] })
+  outcome!: 'met' | 'not_met' | 'unknown';
+  @ApiProperty({ type: String, description: 'What the measure reads, with months' })
+  readings!: string;
+}
+
+export class DrillRecordsQueryDto extends SplitQueryDto {
+  @ApiPropertyOptional({ type: Number, default: 1 })
+  @IsOptional()
+  @Type(() => Number)
+  @IsInt()
+  @Min(1)
+  page?: number;
+
+  @ApiPropertyOptional({ type: Number, default: 50, maximum: 200 })
+  @IsOptional()
+  @Type(() => Number)
+  @IsInt()
+  @Min(1)
+  @Max(200)
+  pageSize?: number;
+}
+
+export class DrillRecordPageDto {
+  @ApiProperty({ type: Number, description: 'Records in the measure’s denominator' })
+  total!: number;
+  @ApiProperty({ type: Number }) page!: number;
+  @ApiProperty({ type: Number }) pageSize!: number;
+  @ApiProperty({ type: [DrillRecordDto] }) records!: DrillRecordDto[];
 }

@@ -9,8 +9,12 @@
  * figures by diabetes type with trends and run-chart signals, the breakdowns
  * against the region, the value histogram and the data-quality flags.
  */
+import type { Writable } from 'node:stream';
 import { HttpStatus, Inject, Injectable } from '@nestjs/common';
 import { benchmarkMeasure, benchmarkTable, type TypeSplit } from '@cairn/metrics';
+import ExcelJS from 'exceljs';
+import { neutralise } from '../../common/neutralise.js';
+import { SubmissionsService } from '../../submissions/submissions.service.js';
 import type { Actor } from '../../auth/actor.js';
 import { PracticeResultsService } from '../../benchmarks/practice-results.service.js';
 import { ProblemException } from '../../common/problem.js';
@@ -25,6 +29,7 @@ import type { QuarterDto } from '../../quarters/dto/quarter.dto.js';
 import { QuartersService } from '../../quarters/quarters.service.js';
 import type {
   DrillDownDto,
+  DrillRecordPageDto,
   OutlierBasisDto,
   OutlierListDto,
   OutlierMeasureDto,
@@ -33,6 +38,7 @@ import type {
 } from '../dto/outliers.dto.js';
 import { mayOpen } from '../review-case-policy.js';
 import { caseSubjectKey, ReviewCaseRepository } from '../review-case.repository.js';
+import { DrillRecords, outcomeWords } from './drill-records.js';
 import { evidenceOf, measureContext } from './evidence.js';
 import { flaggedLike, judge, reasonInWords } from './outlier-rule.js';
 import { OUTLIER_SOURCE, type OutlierBasis, type OutlierSource } from './outlier-source.js';
@@ -72,7 +78,12 @@ export class OutliersService {
     @Inject(OrganisationsService) private readonly organisations: OrganisationsService,
     @Inject(ReviewCaseRepository) private readonly cases: ReviewCaseRepository,
     @Inject(PracticeResultsService) private readonly results: PracticeResultsService,
-  ) {}
+    @Inject(SubmissionsService) private readonly submissions: SubmissionsService,
+  ) {
+    this.drillRecords = new DrillRecords(submissions);
+  }
+
+  private readonly drillRecords: DrillRecords;
 
   async list(actor: Actor, quarterId: number, query: OutlierQueryDto): Promise<OutlierListDto> {
     const quarter = await this.quarters.get(actor, quarterId);
@@ -204,13 +215,8 @@ export class OutliersService {
     }
   }
 
-  async drillDown(
-    actor: Actor,
-    quarterId: number,
-    practiceId: number,
-    measureKey: string,
-    split: TypeSplit,
-  ): Promise<DrillDownDto> {
+  /** The subject of a drill-down: quarter, measure, practice, basis and its submission; 404s. */
+  private async subject(actor: Actor, quarterId: number, practiceId: number, measureKey: string) {
     const quarter = await this.quarters.get(actor, quarterId);
     const version = await this.measureSets.get(quarter.measureSetId);
     const measure = version.measures.find((m) => m.key === measureKey);
@@ -232,7 +238,8 @@ export class OutliersService {
       );
     }
     const basis = await this.source.basisOf(quarter);
-    if (!basis || !basis.submissionOf.has(practice.code)) {
+    const submissionId = basis?.submissionOf.get(practice.code);
+    if (!basis || submissionId === undefined) {
       throw new ProblemException(
         HttpStatus.NOT_FOUND,
         'no-current-submission',
@@ -240,6 +247,189 @@ export class OutliersService {
         `${practice.name} (${practice.code}) has no current submission for ${quarter.label}: there is nothing to drill into.`,
       );
     }
+    const submission = { id: submissionId, practiceCode: practice.code };
+    return { quarter, version, measure, practice, basis, submission };
+  }
+
+  /** One page of the de-identified records behind the result (pseudonyms only). */
+  async records(
+    actor: Actor,
+    quarterId: number,
+    practiceId: number,
+    measureKey: string,
+    query: { split?: TypeSplit; page?: number; pageSize?: number },
+  ): Promise<DrillRecordPageDto> {
+    const s = await this.subject(actor, quarterId, practiceId, measureKey);
+    const at = { year: s.quarter.year, quarter: s.quarter.quarter };
+    const rows = await this.drillRecords.rowsOf(
+      s.submission,
+      s.version,
+      s.measure,
+      query.split ?? 'all',
+      at,
+    );
+    const page = query.page ?? 1;
+    const pageSize = query.pageSize ?? 50;
+    const slice = Array.from(rows.subarray((page - 1) * pageSize, page * pageSize));
+    return {
+      total: rows.length,
+      page,
+      pageSize,
+      records: await this.drillRecords.describe(s.submission, s.version, s.measure, slice, at),
+    };
+  }
+
+  /**
+   * The evidence as a workbook: what it is about and why it stands out, the figures by diabetes
+   * type, the breakdowns against the region, the trend, the data-quality flags and the records
+   * behind it (pseudonyms only). Every text cell goes through neutralise().
+   */
+  async evidenceXlsx(
+    actor: Actor,
+    quarterId: number,
+    practiceId: number,
+    measureKey: string,
+    out: Writable,
+  ): Promise<void> {
+    const d = await this.drillDown(actor, quarterId, practiceId, measureKey, 'all');
+    const s = await this.subject(actor, quarterId, practiceId, measureKey);
+    const at = { year: s.quarter.year, quarter: s.quarter.quarter };
+    const text = (v: string) => neutralise(v);
+    const workbook = new ExcelJS.stream.xlsx.WorkbookWriter({
+      stream: out,
+      useSharedStrings: false,
+      useStyles: true,
+    });
+    const sheet = (name: string, heading: string[], widths: number[]) => {
+      const ws = workbook.addWorksheet(name, { views: [{ state: 'frozen', ySplit: 1 }] });
+      widths.forEach((w, i) => (ws.getColumn(i + 1).width = w));
+      const row = ws.addRow(heading.map(text));
+      row.font = { bold: true };
+      row.commit();
+      return ws;
+    };
+    const about = sheet('About', ['Item', 'Value'], [26, 110]);
+    const lines: [string, string | number][] = [
+      ['Practice', `${d.practice.name} (${d.practice.code})`],
+      ['Audit quarter', d.quarter.label],
+      ['Measure', `${d.measure.label} (${d.measure.key})`],
+      ['Guideline', d.measure.source],
+      ['Why it stands out', d.evidence.reason],
+      [
+        'Read from',
+        `${d.basis.origin === 'report' ? 'Published report' : 'Draft benchmark'} ${d.basis.resultId}, built ${d.basis.builtAt}`,
+      ],
+      ['Records', 'Pseudonyms only (never the practice’s own references)'],
+      ['Caution', d.caution],
+    ];
+    for (const [k, v] of lines)
+      about.addRow([text(k), typeof v === 'string' ? text(v) : v]).commit();
+    about.commit();
+    const byType = sheet(
+      'By diabetes type',
+      ['Diabetes type', 'Events', 'n', 'Rate', 'Region rate'],
+      [22, 10, 10, 10, 12],
+    );
+    for (const x of d.splits)
+      byType.addRow([text(x.split), x.own.events, x.own.n, x.own.rate, x.region.rate]).commit();
+    byType.commit();
+    const breakdowns = sheet(
+      'Breakdowns',
+      ['Breakdown', 'Category', 'Events', 'n', 'Rate', 'Region events', 'Region n', 'Region rate'],
+      [18, 22, 10, 10, 10, 14, 12, 12],
+    );
+    for (const b of d.breakdowns)
+      b.cells.cells.forEach((c, i) =>
+        breakdowns
+          .addRow([
+            text(b.breakdown.label),
+            text(b.breakdown.categories[i]?.label ?? c.category),
+            c.practice.events,
+            c.practice.n,
+            c.practice.rate,
+            text(c.region.events.display),
+            text(c.region.n.display),
+            c.region.rate,
+          ])
+          .commit(),
+      );
+    breakdowns.commit();
+    const trend = sheet(
+      'Trend',
+      ['Quarter', 'Events', 'n', 'Rate', 'Region rate'],
+      [12, 10, 10, 10, 12],
+    );
+    const all = d.splits.find((x) => x.split === 'all');
+    d.trendQuarters.forEach((q, i) => {
+      const p = all?.trend.points[i];
+      trend
+        .addRow([
+          text(q),
+          p?.events ?? null,
+          p?.n ?? null,
+          p?.rate ?? null,
+          all?.regionTrend.points[i]?.rate ?? null,
+        ])
+        .commit();
+    });
+    trend.commit();
+    const flags = sheet('Data quality', ['Flag', 'Records'], [60, 10]);
+    for (const f of d.dataQuality) flags.addRow([text(f.title), f.count]).commit();
+    flags.commit();
+    const records = sheet(
+      'Records',
+      [
+        'Pseudonym',
+        'Birth year',
+        'Age',
+        'Sex',
+        'Diabetes type',
+        'Deprivation quintile',
+        'Outcome',
+        'Readings',
+      ],
+      [14, 10, 6, 6, 14, 12, 14, 90],
+    );
+    const rows = await this.drillRecords.rowsOf(s.submission, s.version, s.measure, 'all', at);
+    for (let from = 0; from < rows.length; from += 2000) {
+      const described = await this.drillRecords.describe(
+        s.submission,
+        s.version,
+        s.measure,
+        Array.from(rows.subarray(from, from + 2000)),
+        at,
+      );
+      for (const r of described)
+        records
+          .addRow([
+            text(r.pseudonym),
+            r.birthYear,
+            r.age,
+            text(r.sex),
+            text(r.diabetesType),
+            r.deprivationQuintile,
+            text(outcomeWords(r.outcome)),
+            text(r.readings),
+          ])
+          .commit();
+    }
+    records.commit();
+    await workbook.commit();
+  }
+
+  async drillDown(
+    actor: Actor,
+    quarterId: number,
+    practiceId: number,
+    measureKey: string,
+    split: TypeSplit,
+  ): Promise<DrillDownDto> {
+    const { quarter, measure, practice, basis } = await this.subject(
+      actor,
+      quarterId,
+      practiceId,
+      measureKey,
+    );
     const results = await this.results.results(actor, practiceId, quarterId);
     const { evidence } = evidenceOf(basis, practice.code, measure.key, split, {
       level: 'inner',

@@ -1019,6 +1019,40 @@ export interface paths {
     patch?: never;
     trace?: never;
   };
+  '/api/quarters/{quarterId}/outliers/practices/{practiceId}/measures/{measureKey}/records': {
+    parameters: {
+      query?: never;
+      header?: never;
+      path?: never;
+      cookie?: never;
+    };
+    /** The de-identified records behind the result, paged (pseudonyms only) */
+    get: operations['OutliersController_records'];
+    put?: never;
+    post?: never;
+    delete?: never;
+    options?: never;
+    head?: never;
+    patch?: never;
+    trace?: never;
+  };
+  '/api/quarters/{quarterId}/outliers/practices/{practiceId}/measures/{measureKey}/evidence.xlsx': {
+    parameters: {
+      query?: never;
+      header?: never;
+      path?: never;
+      cookie?: never;
+    };
+    /** The evidence as XLSX: about, by type, breakdowns, trend, data quality, records */
+    get: operations['OutliersController_evidence'];
+    put?: never;
+    post?: never;
+    delete?: never;
+    options?: never;
+    head?: never;
+    patch?: never;
+    trace?: never;
+  };
   '/api/review-cases': {
     parameters: {
       query?: never;
@@ -3190,6 +3224,27 @@ export interface components {
       openCases: components['schemas']['OpenCaseRefDto'][];
       mayOpenCase: boolean;
       caution: string;
+    };
+    DrillRecordDto: {
+      /** @description The record’s pseudonym (never the practice’s reference) */
+      pseudonym: string;
+      birthYear: number;
+      /** @description At the end of the review window */
+      age: number;
+      sex: string;
+      diabetesType: string;
+      deprivationQuintile: number | null;
+      /** @enum {string} */
+      outcome: 'met' | 'not_met' | 'unknown';
+      /** @description What the measure reads, with months */
+      readings: string;
+    };
+    DrillRecordPageDto: {
+      /** @description Records in the measure’s denominator */
+      total: number;
+      page: number;
+      pageSize: number;
+      records: components['schemas']['DrillRecordDto'][];
     };
     CaseSubjectQuarterDto: {
       id: number;
@@ -5434,6 +5489,76 @@ export interface operations {
       };
     };
   };
+  OutliersController_records: {
+    parameters: {
+      query?: {
+        /** @description Diabetes types: all; type 1; type 2 and other */
+        split?: components['schemas']['TypeSplit'];
+        page?: number;
+        pageSize?: number;
+      };
+      header?: never;
+      path: {
+        quarterId: number;
+        practiceId: number;
+        measureKey: string;
+      };
+      cookie?: never;
+    };
+    requestBody?: never;
+    responses: {
+      200: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['DrillRecordPageDto'];
+        };
+      };
+      /** @description RFC 9457 problem details */
+      default: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['ProblemDto'];
+        };
+      };
+    };
+  };
+  OutliersController_evidence: {
+    parameters: {
+      query?: never;
+      header?: never;
+      path: {
+        quarterId: number;
+        practiceId: number;
+        measureKey: string;
+      };
+      cookie?: never;
+    };
+    requestBody?: never;
+    responses: {
+      /** @description The evidence workbook */
+      200: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet': string;
+        };
+      };
+      /** @description RFC 9457 problem details */
+      default: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['ProblemDto'];
+        };
+      };
+    };
+  };
   ReviewCasesController_list: {
     parameters: {
       query?: {
@@ -5905,6 +6030,9 @@ export const outlierRowDtoSideValues: ReadonlyArray<
 export const outlierListDtoStateValues: ReadonlyArray<
   FlattenedDeepRequired<components>['schemas']['OutlierListDto']['state']
 > = ['results', 'no-accepted-submissions'];
+export const drillRecordDtoOutcomeValues: ReadonlyArray<
+  FlattenedDeepRequired<components>['schemas']['DrillRecordDto']['outcome']
+> = ['met', 'not_met', 'unknown'];
 export const caseFindingValues: ReadonlyArray<
   FlattenedDeepRequired<components>['schemas']['CaseFinding']
 > = [

@@ -6,12 +6,12 @@
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { apiFetch, apiJson } from '../../../lib/api-client';
 import type {
-  AuditQuarters,
   CaseComment,
   CaseTransition,
   DrillDown,
   OpenCase,
   OutlierList,
+  Quarter,
   ReviewCase,
   ReviewCaseList,
 } from '../../../lib/api/types';
@@ -36,7 +36,10 @@ export const reviewKeys = {
 export const quartersQueryOptions = () =>
   queryOptions({
     queryKey: reviewKeys.quarters(),
-    queryFn: () => apiFetch<AuditQuarters>('/api/quarters'),
+    queryFn: async () =>
+      (await apiFetch<Quarter[]>('/api/quarters')).sort(
+        (a, b) => b.year * 4 + b.quarter - (a.year * 4 + a.quarter),
+      ),
   });
 
 export const outliersQueryOptions = (quarterId: number, f: OutlierFilters) =>

@@ -39,8 +39,8 @@ export function Outliers() {
 function OutliersScreen() {
   const [params, setParams] = useSearchParams();
   const quarters = useQuarters();
-  const list = quarters.data?.quarters ?? [];
-  const quarterId = Number(params.get('quarter')) || list[0]?.quarter.id || 0;
+  const list = quarters.data ?? [];
+  const quarterId = Number(params.get('quarter')) || list[0]?.id || 0;
   const filters: OutlierFilters = {
     level: params.get('level') === 'inner' ? 'inner' : 'outer',
     caseMix: params.get('caseMix') === 'true',
@@ -83,7 +83,7 @@ function OutliersScreen() {
           <HTMLSelect
             value={quarterId || ''}
             onChange={(e) => set('quarter', e.currentTarget.value)}
-            options={list.map((q) => ({ value: q.quarter.id, label: q.quarter.label }))}
+            options={list.map((q) => ({ value: q.id, label: q.label }))}
           />
         </label>
         <label>
