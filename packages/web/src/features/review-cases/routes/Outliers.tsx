@@ -212,7 +212,7 @@ function OutlierTable({
                   </th>
                   <td>
                     {r.measure.label}
-                    <div className="cairn-muted cairn-small">Guideline: {r.measure.source}</div>
+                    <div className="cairn-small">Guideline: {r.measure.source}</div>
                   </td>
                   <td className="cairn-nowrap">
                     {formatPercent(r.rate)}{' '}
