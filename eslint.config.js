@@ -75,6 +75,11 @@ export const tableOwners = {
   outbox_messages: ['mail'],
   mail_extra_recipients: ['mail'],
   mail_schedule: ['mail'],
+  // ── review cases ──
+  review_cases: ['review-cases'],
+  review_case_entries: ['review-cases'],
+  review_case_files: ['review-cases'],
+  review_case_file_chunks: ['review-cases'],
 };
 
 const sqlTouching = (tables) =>

@@ -287,6 +287,44 @@ const handWritten: Record<string, Record<Caller, string>> = {
       },
     ]),
   ),
+  // ── review cases and the outlier list ──
+  // (own/other practice for case routes, whose practice is the case's: review-cases.e2e-spec.ts)
+  ...Object.fromEntries(
+    (
+      [
+        ['GET /api/quarters/:quarterId/outliers', [R, R, A, A]],
+        [
+          'GET /api/quarters/:quarterId/outliers/practices/:practiceId/measures/:measureKey',
+          [R, R, A, A],
+        ],
+        [
+          'GET /api/quarters/:quarterId/outliers/practices/:practiceId/measures/:measureKey/records',
+          [R, R, A, A],
+        ],
+        [
+          'GET /api/quarters/:quarterId/outliers/practices/:practiceId/measures/:measureKey/evidence.xlsx',
+          [R, R, A, A],
+        ],
+        ['GET /api/review-cases', [A, A, A, A]],
+        ['GET /api/review-cases/:caseId', [A, A, A, A]],
+        ['GET /api/review-cases/:caseId/files/:fileId', [A, A, A, A]],
+        ['POST /api/review-cases', [R, R, R, A]],
+        ['POST /api/review-cases/:caseId/transitions', [R, R, R, A]],
+        ['POST /api/review-cases/:caseId/comments', [A, A, R, A]],
+        ['POST /api/review-cases/:caseId/answers', [A, A, R, R]],
+      ] as const
+    ).map(([route, [own, other, regional, auditor]]) => [
+      route,
+      {
+        anonymous: U,
+        'lead of practice': own,
+        'lead of another': other,
+        'regional lead': regional,
+        auditor,
+        deactivated: U,
+      },
+    ]),
+  ),
   'GET /api/health': {
     anonymous: A,
     'lead of practice': A,

@@ -72,6 +72,7 @@ describe('mail: opening message, reminders, recipients, deliveries', () => {
       expect(res.body.preferences.map((p: { kind: string }) => p.kind)).toEqual([
         'quarter_opened',
         'deadline_reminder',
+        'review_case_question',
       ]);
       for (const p of res.body.preferences) {
         expect(p).toMatchObject({ receive: true, appliesToYou: true, sentTo: ['practice_lead'] });
@@ -107,6 +108,7 @@ describe('mail: opening message, reminders, recipients, deliveries', () => {
       ).toEqual([
         ['quarter_opened', false],
         ['deadline_reminder', true],
+        ['review_case_question', true],
       ]);
       // The same choice again changes nothing and records nothing.
       await daniel

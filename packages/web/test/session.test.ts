@@ -56,6 +56,8 @@ describe('session', () => {
       'Measure sets',
       'Users',
       'Mail',
+      'Outliers',
+      'Review cases',
       'Audit trail',
     ]);
     expect(navigationFor({ ...lead, role: 'auditor' }).map((i) => i.label)).toEqual([
@@ -64,6 +66,8 @@ describe('session', () => {
       'Coverage',
       'Quarters',
       'Measure sets',
+      'Outliers',
+      'Review cases',
       'Audit trail',
     ]);
     expect(navigationFor({ ...lead, role: 'practice_lead' }).map((i) => i.label)).toEqual([
@@ -73,6 +77,7 @@ describe('session', () => {
       'Results',
       'Quarters',
       'Measure sets',
+      'Review cases',
     ]);
   });
 

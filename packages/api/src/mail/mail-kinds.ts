@@ -5,7 +5,7 @@
  */
 import type { Role } from '../users/roles.js';
 
-export const MAIL_KINDS = ['quarter_opened', 'deadline_reminder'] as const;
+export const MAIL_KINDS = ['quarter_opened', 'deadline_reminder', 'review_case_question'] as const;
 export type MailKind = (typeof MAIL_KINDS)[number];
 
 export interface MailKindInfo {
@@ -32,6 +32,14 @@ export const MAIL_KIND_INFO: Record<MailKind, MailKindInfo> = {
       'Before a submission deadline, when your practice has no current submission for that audit quarter. Once per practice and quarter.',
     sentTo: ['practice_lead'],
     sourceNoun: 'deadline reminders',
+  },
+  // ── review cases ──
+  review_case_question: {
+    label: 'Review case questions',
+    description:
+      'When an auditor asks your practice a question in a review case. The message says where to answer in Cairn.',
+    sentTo: ['practice_lead'],
+    sourceNoun: 'question',
   },
 };
 

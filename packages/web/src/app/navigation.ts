@@ -64,6 +64,19 @@ export const navItems: NavItem[] = [
     activeFor: /^\/(deliveries|mail-recipients)(\/|$)/,
   },
   {
+    label: 'Outliers',
+    to: '/outliers',
+    icon: 'scatter-plot',
+    roles: ['regional_lead', 'auditor'],
+  },
+  {
+    label: 'Review cases',
+    to: '/review-cases',
+    icon: 'search-template',
+    roles: everyone,
+    activeFor: /^\/review-cases\//,
+  },
+  {
     label: 'Audit trail',
     to: '/audit-trail',
     icon: 'history',

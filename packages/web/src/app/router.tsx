@@ -139,6 +139,35 @@ export const routes: RouteObject[] = [
             Component: m.RegionBenchmark,
           })),
       },
+      // ── outlier review ──
+      {
+        path: 'outliers',
+        lazy: () =>
+          import('../features/review-cases/routes/Outliers').then((m) => ({
+            Component: m.Outliers,
+          })),
+      },
+      {
+        path: 'outliers/:quarterId/practices/:practiceId/measures/:measureKey',
+        lazy: () =>
+          import('../features/review-cases/routes/DrillDown').then((m) => ({
+            Component: m.DrillDown,
+          })),
+      },
+      {
+        path: 'review-cases',
+        lazy: () =>
+          import('../features/review-cases/routes/ReviewCases').then((m) => ({
+            Component: m.ReviewCases,
+          })),
+      },
+      {
+        path: 'review-cases/:caseId',
+        lazy: () =>
+          import('../features/review-cases/routes/ReviewCase').then((m) => ({
+            Component: m.ReviewCase,
+          })),
+      },
       { path: '*', element: <NotFound /> },
     ],
   },

@@ -982,6 +982,189 @@ export interface paths {
     patch?: never;
     trace?: never;
   };
+  '/api/quarters/{quarterId}/outliers': {
+    parameters: {
+      query?: never;
+      header?: never;
+      path?: never;
+      cookie?: never;
+    };
+    /**
+     * Every practice × measure beyond the chosen limits, strongest evidence first, with why
+     * @description Read from the quarter’s stored benchmark (basis). 404 quarter-not-found, measure-not-found, locality-not-found; 400 for a bad level, split or assessment.
+     */
+    get: operations['OutliersController_list'];
+    put?: never;
+    post?: never;
+    delete?: never;
+    options?: never;
+    head?: never;
+    patch?: never;
+    trace?: never;
+  };
+  '/api/quarters/{quarterId}/outliers/practices/{practiceId}/measures/{measureKey}': {
+    parameters: {
+      query?: never;
+      header?: never;
+      path?: never;
+      cookie?: never;
+    };
+    /** One practice × measure: by diabetes type with trends, breakdowns against the region, histogram, data-quality flags */
+    get: operations['OutliersController_drillDown'];
+    put?: never;
+    post?: never;
+    delete?: never;
+    options?: never;
+    head?: never;
+    patch?: never;
+    trace?: never;
+  };
+  '/api/quarters/{quarterId}/outliers/practices/{practiceId}/measures/{measureKey}/records': {
+    parameters: {
+      query?: never;
+      header?: never;
+      path?: never;
+      cookie?: never;
+    };
+    /** The de-identified records behind the result, paged (pseudonyms only) */
+    get: operations['OutliersController_records'];
+    put?: never;
+    post?: never;
+    delete?: never;
+    options?: never;
+    head?: never;
+    patch?: never;
+    trace?: never;
+  };
+  '/api/quarters/{quarterId}/outliers/practices/{practiceId}/measures/{measureKey}/evidence.xlsx': {
+    parameters: {
+      query?: never;
+      header?: never;
+      path?: never;
+      cookie?: never;
+    };
+    /** The evidence as XLSX: about, by type, breakdowns, trend, data quality, records */
+    get: operations['OutliersController_evidence'];
+    put?: never;
+    post?: never;
+    delete?: never;
+    options?: never;
+    head?: never;
+    patch?: never;
+    trace?: never;
+  };
+  '/api/review-cases': {
+    parameters: {
+      query?: never;
+      header?: never;
+      path?: never;
+      cookie?: never;
+    };
+    /** Review cases the reader may see (practice leads: their practices’ only), newest first */
+    get: operations['ReviewCasesController_list'];
+    put?: never;
+    /**
+     * Open a review case on a practice × measure × quarter, freezing its current figures
+     * @description 409 case-already-open (with its caseId) when one is not closed yet; 409 no-figures-to-review without a current submission.
+     */
+    post: operations['ReviewCasesController_open'];
+    delete?: never;
+    options?: never;
+    head?: never;
+    patch?: never;
+    trace?: never;
+  };
+  '/api/review-cases/{caseId}': {
+    parameters: {
+      query?: never;
+      header?: never;
+      path?: never;
+      cookie?: never;
+    };
+    /** One review case: frozen figures, timeline (internal notes only for the region’s side), allowed actions */
+    get: operations['ReviewCasesController_get'];
+    put?: never;
+    post?: never;
+    delete?: never;
+    options?: never;
+    head?: never;
+    patch?: never;
+    trace?: never;
+  };
+  '/api/review-cases/{caseId}/transitions': {
+    parameters: {
+      query?: never;
+      header?: never;
+      path?: never;
+      cookie?: never;
+    };
+    get?: never;
+    put?: never;
+    /**
+     * Ask the practice, close with a finding, or reopen
+     * @description 409 case-changed (with the case as it is) when expectedVersion is not the current version; 409 case-closed or case-wrong-state when the action does not apply.
+     */
+    post: operations['ReviewCasesController_transition'];
+    delete?: never;
+    options?: never;
+    head?: never;
+    patch?: never;
+    trace?: never;
+  };
+  '/api/review-cases/{caseId}/comments': {
+    parameters: {
+      query?: never;
+      header?: never;
+      path?: never;
+      cookie?: never;
+    };
+    get?: never;
+    put?: never;
+    /** Add a comment the practice sees, or (auditors) an internal note; append-only */
+    post: operations['ReviewCasesController_comment'];
+    delete?: never;
+    options?: never;
+    head?: never;
+    patch?: never;
+    trace?: never;
+  };
+  '/api/review-cases/{caseId}/answers': {
+    parameters: {
+      query?: never;
+      header?: never;
+      path?: never;
+      cookie?: never;
+    };
+    get?: never;
+    put?: never;
+    /**
+     * The practice’s answer, with up to 5 attachments checked by content and size
+     * @description 413 attachment-too-large, 415 attachment-type-not-allowed or attachment-name-misleading, 422 empty-text, 409 case-closed or case-changed; nothing is stored on any of them.
+     */
+    post: operations['ReviewCasesController_answer'];
+    delete?: never;
+    options?: never;
+    head?: never;
+    patch?: never;
+    trace?: never;
+  };
+  '/api/review-cases/{caseId}/files/{fileId}': {
+    parameters: {
+      query?: never;
+      header?: never;
+      path?: never;
+      cookie?: never;
+    };
+    /** Download an attachment of a review case */
+    get: operations['ReviewCasesController_file'];
+    put?: never;
+    post?: never;
+    delete?: never;
+    options?: never;
+    head?: never;
+    patch?: never;
+    trace?: never;
+  };
 }
 export type webhooks = Record<string, never>;
 export interface components {
@@ -2822,7 +3005,7 @@ export interface components {
       actions: components['schemas']['AuditQuartersActionsDto'];
     };
     /** @enum {string} */
-    MailKind: 'quarter_opened' | 'deadline_reminder';
+    MailKind: 'quarter_opened' | 'deadline_reminder' | 'review_case_question';
     OutboxCountsDto: {
       queued: number;
       sending: number;
@@ -2967,6 +3150,309 @@ export interface components {
     UpdateMailPreferencesDto: {
       /** @description Every kind of e-mail you do not want (an empty list: receive them all) */
       optedOut: components['schemas']['MailKind'][];
+    };
+    /** @enum {string} */
+    OutlierLevel: 'outer' | 'inner';
+    /** @enum {string} */
+    OutlierAssessment: 'worse' | 'better';
+    /** @enum {string} */
+    EvidenceOrigin: 'draft' | 'report';
+    OutlierBasisDto: {
+      origin: components['schemas']['EvidenceOrigin'];
+      resultId: number;
+      key: string;
+      measureSetId: string;
+      builtAt: string;
+    };
+    OutlierMeasureDto: {
+      key: string;
+      label: string;
+      /** @enum {string} */
+      direction: 'higher' | 'lower';
+      /** @description The guideline behind it */
+      source: string;
+    };
+    CaseEvidenceDto: {
+      /** @description draft: the draft benchmark; report: a published report */
+      origin: components['schemas']['EvidenceOrigin'];
+      /** @description The stored result or snapshot it was read from */
+      resultId: number;
+      /** @description What identifies its inputs */
+      key: string;
+      measureSetId: string;
+      /** @description When the benchmark was built (ISO 8601) */
+      builtAt: string;
+      n: number;
+      events: number;
+      rate: number | null;
+      /** @description Lower end of the 95 % interval */
+      intervalLower: number | null;
+      intervalUpper: number | null;
+      /** @description θ₀: the region’s rate */
+      theta0: number | null;
+      innerLower: number | null;
+      innerUpper: number | null;
+      outerLower: number | null;
+      outerUpper: number | null;
+      /** @description within, notable or outlier */
+      band: string | null;
+      /** @description better or worse than expected */
+      assessment: string | null;
+      z: number | null;
+      phi: number | null;
+      tau2: number | null;
+      /** @description Case mix O/E */
+      observedExpected: number | null;
+      /** @description Why it was flagged, in words, when the case opened */
+      reason: string;
+    };
+    /** @enum {string} */
+    CaseStatus: 'open' | 'awaiting_practice' | 'responded' | 'closed';
+    OpenCaseRefDto: {
+      id: number;
+      status: components['schemas']['CaseStatus'];
+    };
+    OutlierRowDto: {
+      practice: components['schemas']['PracticeDto'];
+      localityCode: string | null;
+      measure: components['schemas']['OutlierMeasureDto'];
+      /** @enum {string} */
+      band: 'notable' | 'outlier';
+      /** @enum {string} */
+      side: 'above' | 'below';
+      assessment: components['schemas']['OutlierAssessment'];
+      /** @description The rate judged (crude or case-mix adjusted) */
+      rate: number;
+      /** @description The limit it lies beyond */
+      limit: number;
+      /** @description Strength of evidence: z under the limits used */
+      z: number;
+      evidence: components['schemas']['CaseEvidenceDto'];
+      /** @description Consecutive quarters flagged on this side, this one included */
+      flaggedQuarters: number;
+      /** @description A case not yet closed */
+      openCase: components['schemas']['OpenCaseRefDto'] | null;
+    };
+    OutlierListDto: {
+      /** @enum {string} */
+      state: 'results' | 'no-accepted-submissions';
+      quarter: components['schemas']['QuarterDto'];
+      basis: components['schemas']['OutlierBasisDto'] | null;
+      level: components['schemas']['OutlierLevel'];
+      caseMix: boolean;
+      split: components['schemas']['TypeSplit'];
+      measures: components['schemas']['OutlierMeasureDto'][];
+      localities: components['schemas']['LocalityDto'][];
+      /** @description Strongest evidence first */
+      rows: components['schemas']['OutlierRowDto'][];
+      /** @description Practices judged */
+      practices: number;
+      /** @description Whether the reader may open cases */
+      mayOpenCases: boolean;
+      caution: string;
+    };
+    DrillBreakdownDto: {
+      breakdown: components['schemas']['BreakdownDto'];
+      cells: components['schemas']['DetailBreakdownDto'];
+    };
+    DrillDownDto: {
+      practice: components['schemas']['PracticeDto'];
+      quarter: components['schemas']['QuarterDto'];
+      measure: components['schemas']['MeasureDto'];
+      split: components['schemas']['TypeSplit'];
+      basis: components['schemas']['OutlierBasisDto'];
+      /** @description Its figures and why, in words */
+      evidence: components['schemas']['CaseEvidenceDto'];
+      /** @description By diabetes type: all, type 1, type 2 and other (trend with run-chart signals) */
+      splits: components['schemas']['PracticeSplitResultDto'][];
+      /** @description The quarters of each trend’s points, oldest first */
+      trendQuarters: string[];
+      everyone: components['schemas']['DetailCellDto'] | null;
+      /** @description Age band, sex, deprivation, duration: practice against region per category */
+      breakdowns: components['schemas']['DrillBreakdownDto'][];
+      /** @description Values against the region */
+      histogram: components['schemas']['ValueHistogramDto'] | null;
+      dataQuality: components['schemas']['DataQualityCountDto'][];
+      /** @description Cases on this practice × measure not closed */
+      openCases: components['schemas']['OpenCaseRefDto'][];
+      mayOpenCase: boolean;
+      caution: string;
+    };
+    DrillRecordDto: {
+      /** @description The record’s pseudonym (never the practice’s reference) */
+      pseudonym: string;
+      birthYear: number;
+      /** @description At the end of the review window */
+      age: number;
+      sex: string;
+      diabetesType: string;
+      deprivationQuintile: number | null;
+      /** @enum {string} */
+      outcome: 'met' | 'not_met' | 'unknown';
+      /** @description What the measure reads, with months */
+      readings: string;
+    };
+    DrillRecordPageDto: {
+      /** @description Records in the measure’s denominator */
+      total: number;
+      page: number;
+      pageSize: number;
+      records: components['schemas']['DrillRecordDto'][];
+    };
+    CaseSubjectQuarterDto: {
+      id: number;
+      /** @example 2026 Q3 */
+      label: string;
+    };
+    CaseSubjectMeasureDto: {
+      key: string;
+      label: string;
+      /** @description The guideline behind it */
+      source: string;
+    };
+    /** @enum {string} */
+    CaseFinding:
+      | 'data_quality_issue'
+      | 'explained_by_case_mix'
+      | 'genuine_variation_improving'
+      | 'genuine_variation_action_agreed'
+      | 'no_concern';
+    ReviewCaseSummaryDto: {
+      id: number;
+      title: string;
+      practice: components['schemas']['PracticeDto'];
+      quarter: components['schemas']['CaseSubjectQuarterDto'];
+      measure: components['schemas']['CaseSubjectMeasureDto'];
+      split: components['schemas']['TypeSplit'];
+      status: components['schemas']['CaseStatus'];
+      /** @description The state in words */
+      statusLabel: string;
+      /** @description Changes with every state change; send it back as expectedVersion */
+      version: number;
+      finding: components['schemas']['CaseFinding'] | null;
+      findingLabel: string | null;
+      openedBy: string;
+      openedAt: string;
+      updatedAt: string;
+      closedAt: string | null;
+    };
+    FindingOptionDto: {
+      key: components['schemas']['CaseFinding'];
+      label: string;
+    };
+    ReviewCaseListDto: {
+      cases: components['schemas']['ReviewCaseSummaryDto'][];
+      /** @description The findings a case may be closed with */
+      findings: components['schemas']['FindingOptionDto'][];
+      /** @description Whether the reader may open cases */
+      mayOpen: boolean;
+    };
+    OpenCaseDto: {
+      quarterId: number;
+      practiceId: number;
+      measureKey: string;
+      /** @default all */
+      split: components['schemas']['TypeSplit'];
+      /** @description Judge the case-mix adjusted rate */
+      caseMix?: boolean;
+      /** @description Why it is opened: an internal note */
+      note?: string;
+    };
+    CaseActionsDto: {
+      /** @description Send a question to the practice (auditor) */
+      ask: boolean;
+      /** @description Answer, with attachments (the practice’s leads) */
+      answer: boolean;
+      /** @description Add a comment the practice sees */
+      comment: boolean;
+      /** @description Add an internal note the practice never sees */
+      note: boolean;
+      /** @description Close with a finding (auditor) */
+      close: boolean;
+      /** @description Reopen a closed case (auditor) */
+      reopen: boolean;
+    };
+    /** @enum {string} */
+    CaseEntryKind: 'opened' | 'question' | 'answer' | 'note' | 'state';
+    /**
+     * @description practice: the practice sees it; internal: only the region’s side
+     * @enum {string}
+     */
+    CaseEntryVisibility: 'practice' | 'internal';
+    CaseFileDto: {
+      id: number;
+      fileName: string;
+      /** @description Judged from the content */
+      mediaType: string;
+      sizeBytes: number;
+      /** @description Where to download it */
+      path: string;
+    };
+    CaseEntryDto: {
+      id: number;
+      kind: components['schemas']['CaseEntryKind'];
+      /** @description practice: the practice sees it; internal: only the region’s side */
+      visibility: components['schemas']['CaseEntryVisibility'];
+      body: string;
+      fromStatus: components['schemas']['CaseStatus'] | null;
+      toStatus: components['schemas']['CaseStatus'] | null;
+      finding: components['schemas']['CaseFinding'] | null;
+      /** @description Who wrote it */
+      authorName: string;
+      /** @description Their role then */
+      authorRole: string;
+      /** @description When (ISO 8601) */
+      at: string;
+      files: components['schemas']['CaseFileDto'][];
+    };
+    ReviewCaseDto: {
+      id: number;
+      title: string;
+      practice: components['schemas']['PracticeDto'];
+      quarter: components['schemas']['CaseSubjectQuarterDto'];
+      measure: components['schemas']['CaseSubjectMeasureDto'];
+      split: components['schemas']['TypeSplit'];
+      status: components['schemas']['CaseStatus'];
+      /** @description The state in words */
+      statusLabel: string;
+      /** @description Changes with every state change; send it back as expectedVersion */
+      version: number;
+      finding: components['schemas']['CaseFinding'] | null;
+      findingLabel: string | null;
+      openedBy: string;
+      openedAt: string;
+      updatedAt: string;
+      closedAt: string | null;
+      /** @description The figures that prompted it, frozen */
+      evidence: components['schemas']['CaseEvidenceDto'];
+      actions: components['schemas']['CaseActionsDto'];
+      /** @description Every step, oldest first */
+      timeline: components['schemas']['CaseEntryDto'][];
+      /** @description The clinical caution */
+      caution: string;
+    };
+    /** @enum {string} */
+    CaseTransition: 'ask' | 'close' | 'reopen';
+    TransitionDto: {
+      action: components['schemas']['CaseTransition'];
+      /** @description The version the change was made from */
+      expectedVersion: number;
+      /** @description ask: the question (required); close and reopen: a remark the practice sees */
+      message: string;
+      /** @description close: required */
+      finding?: components['schemas']['CaseFinding'];
+    };
+    CommentDto: {
+      body: string;
+      /** @description internal notes: auditors only */
+      visibility: components['schemas']['CaseEntryVisibility'];
+    };
+    AnswerFormDto: {
+      /** @description The answer */
+      text: string;
+      expectedVersion: number;
+      /** @description Up to 5 files (PDF, XLSX, CSV, PNG, JPEG), 10 MB each, in parts named "files" */
+      files?: string[];
     };
   };
   responses: never;
@@ -4979,6 +5465,381 @@ export interface operations {
       };
     };
   };
+  OutliersController_list: {
+    parameters: {
+      query?: {
+        /** @description outer: beyond the 99.8 % limits; inner: beyond the 95 % limits too */
+        level?: components['schemas']['OutlierLevel'];
+        /** @description Judge the case-mix adjusted rate */
+        caseMix?: boolean;
+        split?: components['schemas']['TypeSplit'];
+        /** @description Only this measure (its key) */
+        measure?: string;
+        /** @description worse or better than expected */
+        assessment?: components['schemas']['OutlierAssessment'];
+        /** @description Only this locality (its code) */
+        locality?: string;
+      };
+      header?: never;
+      path: {
+        quarterId: number;
+      };
+      cookie?: never;
+    };
+    requestBody?: never;
+    responses: {
+      200: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['OutlierListDto'];
+        };
+      };
+      /** @description RFC 9457 problem details */
+      default: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['ProblemDto'];
+        };
+      };
+    };
+  };
+  OutliersController_drillDown: {
+    parameters: {
+      query?: {
+        /** @description Diabetes types: all; type 1; type 2 and other */
+        split?: components['schemas']['TypeSplit'];
+      };
+      header?: never;
+      path: {
+        quarterId: number;
+        practiceId: number;
+        measureKey: string;
+      };
+      cookie?: never;
+    };
+    requestBody?: never;
+    responses: {
+      200: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['DrillDownDto'];
+        };
+      };
+      /** @description RFC 9457 problem details */
+      default: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['ProblemDto'];
+        };
+      };
+    };
+  };
+  OutliersController_records: {
+    parameters: {
+      query?: {
+        /** @description Diabetes types: all; type 1; type 2 and other */
+        split?: components['schemas']['TypeSplit'];
+        page?: number;
+        pageSize?: number;
+      };
+      header?: never;
+      path: {
+        quarterId: number;
+        practiceId: number;
+        measureKey: string;
+      };
+      cookie?: never;
+    };
+    requestBody?: never;
+    responses: {
+      200: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['DrillRecordPageDto'];
+        };
+      };
+      /** @description RFC 9457 problem details */
+      default: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['ProblemDto'];
+        };
+      };
+    };
+  };
+  OutliersController_evidence: {
+    parameters: {
+      query?: never;
+      header?: never;
+      path: {
+        quarterId: number;
+        practiceId: number;
+        measureKey: string;
+      };
+      cookie?: never;
+    };
+    requestBody?: never;
+    responses: {
+      /** @description The evidence workbook */
+      200: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet': string;
+        };
+      };
+      /** @description RFC 9457 problem details */
+      default: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['ProblemDto'];
+        };
+      };
+    };
+  };
+  ReviewCasesController_list: {
+    parameters: {
+      query?: {
+        status?: components['schemas']['CaseStatus'];
+        quarterId?: number;
+        practiceId?: number;
+      };
+      header?: never;
+      path?: never;
+      cookie?: never;
+    };
+    requestBody?: never;
+    responses: {
+      200: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['ReviewCaseListDto'];
+        };
+      };
+      /** @description RFC 9457 problem details */
+      default: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['ProblemDto'];
+        };
+      };
+    };
+  };
+  ReviewCasesController_open: {
+    parameters: {
+      query?: never;
+      header?: never;
+      path?: never;
+      cookie?: never;
+    };
+    requestBody: {
+      content: {
+        'application/json': components['schemas']['OpenCaseDto'];
+      };
+    };
+    responses: {
+      200: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['ReviewCaseDto'];
+        };
+      };
+      /** @description RFC 9457 problem details */
+      default: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['ProblemDto'];
+        };
+      };
+    };
+  };
+  ReviewCasesController_get: {
+    parameters: {
+      query?: never;
+      header?: never;
+      path: {
+        caseId: number;
+      };
+      cookie?: never;
+    };
+    requestBody?: never;
+    responses: {
+      200: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['ReviewCaseDto'];
+        };
+      };
+      /** @description RFC 9457 problem details */
+      default: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['ProblemDto'];
+        };
+      };
+    };
+  };
+  ReviewCasesController_transition: {
+    parameters: {
+      query?: never;
+      header?: never;
+      path: {
+        caseId: number;
+      };
+      cookie?: never;
+    };
+    requestBody: {
+      content: {
+        'application/json': components['schemas']['TransitionDto'];
+      };
+    };
+    responses: {
+      200: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['ReviewCaseDto'];
+        };
+      };
+      /** @description RFC 9457 problem details */
+      default: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['ProblemDto'];
+        };
+      };
+    };
+  };
+  ReviewCasesController_comment: {
+    parameters: {
+      query?: never;
+      header?: never;
+      path: {
+        caseId: number;
+      };
+      cookie?: never;
+    };
+    requestBody: {
+      content: {
+        'application/json': components['schemas']['CommentDto'];
+      };
+    };
+    responses: {
+      200: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['ReviewCaseDto'];
+        };
+      };
+      /** @description RFC 9457 problem details */
+      default: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['ProblemDto'];
+        };
+      };
+    };
+  };
+  ReviewCasesController_answer: {
+    parameters: {
+      query?: never;
+      header?: never;
+      path: {
+        caseId: number;
+      };
+      cookie?: never;
+    };
+    requestBody: {
+      content: {
+        'multipart/form-data': components['schemas']['AnswerFormDto'];
+      };
+    };
+    responses: {
+      200: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['ReviewCaseDto'];
+        };
+      };
+      /** @description RFC 9457 problem details */
+      default: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['ProblemDto'];
+        };
+      };
+    };
+  };
+  ReviewCasesController_file: {
+    parameters: {
+      query?: never;
+      header?: never;
+      path: {
+        caseId: number;
+        fileId: number;
+      };
+      cookie?: never;
+    };
+    requestBody?: never;
+    responses: {
+      /** @description The file as it was received */
+      200: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/octet-stream': string;
+        };
+      };
+      /** @description RFC 9457 problem details */
+      default: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['ProblemDto'];
+        };
+      };
+    };
+  };
 }
 type FlattenedDeepRequired<T> = {
   [K in keyof T]-?: FlattenedDeepRequired<
@@ -5194,7 +6055,52 @@ export const nextQuarterDtoQuarterValues: ReadonlyArray<
 > = [1, 2, 3, 4];
 export const mailKindValues: ReadonlyArray<
   FlattenedDeepRequired<components>['schemas']['MailKind']
-> = ['quarter_opened', 'deadline_reminder'];
+> = ['quarter_opened', 'deadline_reminder', 'review_case_question'];
 export const outboxStateValues: ReadonlyArray<
   FlattenedDeepRequired<components>['schemas']['OutboxState']
 > = ['queued', 'sending', 'sent', 'failed'];
+export const outlierLevelValues: ReadonlyArray<
+  FlattenedDeepRequired<components>['schemas']['OutlierLevel']
+> = ['outer', 'inner'];
+export const outlierAssessmentValues: ReadonlyArray<
+  FlattenedDeepRequired<components>['schemas']['OutlierAssessment']
+> = ['worse', 'better'];
+export const evidenceOriginValues: ReadonlyArray<
+  FlattenedDeepRequired<components>['schemas']['EvidenceOrigin']
+> = ['draft', 'report'];
+export const outlierMeasureDtoDirectionValues: ReadonlyArray<
+  FlattenedDeepRequired<components>['schemas']['OutlierMeasureDto']['direction']
+> = ['higher', 'lower'];
+export const caseStatusValues: ReadonlyArray<
+  FlattenedDeepRequired<components>['schemas']['CaseStatus']
+> = ['open', 'awaiting_practice', 'responded', 'closed'];
+export const outlierRowDtoBandValues: ReadonlyArray<
+  FlattenedDeepRequired<components>['schemas']['OutlierRowDto']['band']
+> = ['notable', 'outlier'];
+export const outlierRowDtoSideValues: ReadonlyArray<
+  FlattenedDeepRequired<components>['schemas']['OutlierRowDto']['side']
+> = ['above', 'below'];
+export const outlierListDtoStateValues: ReadonlyArray<
+  FlattenedDeepRequired<components>['schemas']['OutlierListDto']['state']
+> = ['results', 'no-accepted-submissions'];
+export const drillRecordDtoOutcomeValues: ReadonlyArray<
+  FlattenedDeepRequired<components>['schemas']['DrillRecordDto']['outcome']
+> = ['met', 'not_met', 'unknown'];
+export const caseFindingValues: ReadonlyArray<
+  FlattenedDeepRequired<components>['schemas']['CaseFinding']
+> = [
+  'data_quality_issue',
+  'explained_by_case_mix',
+  'genuine_variation_improving',
+  'genuine_variation_action_agreed',
+  'no_concern',
+];
+export const caseEntryKindValues: ReadonlyArray<
+  FlattenedDeepRequired<components>['schemas']['CaseEntryKind']
+> = ['opened', 'question', 'answer', 'note', 'state'];
+export const caseEntryVisibilityValues: ReadonlyArray<
+  FlattenedDeepRequired<components>['schemas']['CaseEntryVisibility']
+> = ['practice', 'internal'];
+export const caseTransitionValues: ReadonlyArray<
+  FlattenedDeepRequired<components>['schemas']['CaseTransition']
+> = ['ask', 'close', 'reopen'];

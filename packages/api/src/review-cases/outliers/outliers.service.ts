@@ -1,0 +1,474 @@
+/**
+ * The outlier list of an audit quarter and the drill-down of one practice ×
+ * measure, for auditors and regional leads. Both read the quarter's benchmark
+ * through an OutlierSource (today the draft benchmark's stored result); the
+ * list judges every practice × measure with outlier-rule.ts, says why in
+ * words, counts how many consecutive quarters each has been flagged on the
+ * same side, and marks those with a case not yet closed. The drill-down takes
+ * the practice's results (PracticeResultsService) for the measure: its
+ * figures by diabetes type with trends and run-chart signals, the breakdowns
+ * against the region, the value histogram and the data-quality flags.
+ */
+import type { Writable } from 'node:stream';
+import { HttpStatus, Inject, Injectable } from '@nestjs/common';
+import { benchmarkMeasure, benchmarkTable, type TypeSplit } from '@cairn/metrics';
+import ExcelJS from 'exceljs';
+import { neutralise } from '../../common/neutralise.js';
+import { SubmissionsService } from '../../submissions/submissions.service.js';
+import type { Actor } from '../../auth/actor.js';
+import { PracticeResultsService } from '../../benchmarks/practice-results.service.js';
+import { ProblemException } from '../../common/problem.js';
+import type { MeasureView } from '../../measure-sets/describe.js';
+import { toMeasureDto } from '../../measure-sets/measure-set-views.js';
+import { MeasureSetsService } from '../../measure-sets/measure-sets.service.js';
+import {
+  CLINICAL_CAUTION,
+  OrganisationsService,
+} from '../../organisations/organisations.service.js';
+import type { QuarterDto } from '../../quarters/dto/quarter.dto.js';
+import { QuartersService } from '../../quarters/quarters.service.js';
+import type {
+  DrillDownDto,
+  DrillRecordPageDto,
+  OutlierBasisDto,
+  OutlierListDto,
+  OutlierMeasureDto,
+  OutlierQueryDto,
+  OutlierRowDto,
+} from '../dto/outliers.dto.js';
+import { mayOpen } from '../review-case-policy.js';
+import { caseSubjectKey, ReviewCaseRepository } from '../review-case.repository.js';
+import { DrillRecords, outcomeWords } from './drill-records.js';
+import { evidenceOf, measureContext } from './evidence.js';
+import { flaggedLike, judge, reasonInWords } from './outlier-rule.js';
+import { OUTLIER_SOURCE, type OutlierBasis, type OutlierSource } from './outlier-source.js';
+
+/** The value histogram shown for a measure: by words in its key, HbA1c otherwise. */
+const HISTOGRAM_OF: [RegExp, string][] = [
+  [/hba1c/, 'hba1c'],
+  [/blood_pressure|bp_|systolic/, 'systolic'],
+  [/cholesterol/, 'cholesterol'],
+  [/bmi/, 'bmi'],
+  [/egfr|creatinine|kidney/, 'egfr'],
+];
+
+const basisDto = (b: OutlierBasis): OutlierBasisDto => ({
+  origin: b.origin,
+  resultId: b.resultId,
+  key: b.key,
+  measureSetId: b.measureSetId,
+  builtAt: b.builtAt,
+});
+
+const measureRef = (m: MeasureView): OutlierMeasureDto => ({
+  key: m.key,
+  label: m.label,
+  direction: m.direction,
+  source: m.source,
+});
+
+const index = (q: QuarterDto) => q.year * 4 + q.quarter;
+
+@Injectable()
+export class OutliersService {
+  constructor(
+    @Inject(OUTLIER_SOURCE) private readonly source: OutlierSource,
+    @Inject(QuartersService) private readonly quarters: QuartersService,
+    @Inject(MeasureSetsService) private readonly measureSets: MeasureSetsService,
+    @Inject(OrganisationsService) private readonly organisations: OrganisationsService,
+    @Inject(ReviewCaseRepository) private readonly cases: ReviewCaseRepository,
+    @Inject(PracticeResultsService) private readonly results: PracticeResultsService,
+    @Inject(SubmissionsService) private readonly submissions: SubmissionsService,
+  ) {
+    this.drillRecords = new DrillRecords(submissions);
+  }
+
+  private readonly drillRecords: DrillRecords;
+
+  async list(actor: Actor, quarterId: number, query: OutlierQueryDto): Promise<OutlierListDto> {
+    const quarter = await this.quarters.get(actor, quarterId);
+    const version = await this.measureSets.get(quarter.measureSetId);
+    const level = query.level ?? 'outer';
+    const caseMix = query.caseMix ?? false;
+    const split: TypeSplit = query.split ?? 'all';
+    const localities = await this.organisations.regionLocalities(quarter.regionId);
+    if (query.locality !== undefined && !localities.some((l) => l.code === query.locality)) {
+      throw new ProblemException(
+        HttpStatus.NOT_FOUND,
+        'locality-not-found',
+        'No such locality',
+        `Your region has no locality "${query.locality}". Its localities are: ${localities.map((l) => l.code).join(', ')}.`,
+        { errors: [{ field: 'locality', message: 'no such locality' }] },
+      );
+    }
+    if (query.measure !== undefined && !version.measures.some((m) => m.key === query.measure)) {
+      throw new ProblemException(
+        HttpStatus.NOT_FOUND,
+        'measure-not-found',
+        'No such measure',
+        `The measure set of ${quarter.label} (${version.id}) has no measure "${query.measure}". Its measures are: ${version.measures.map((m) => m.key).join(', ')}.`,
+        { errors: [{ field: 'measure', message: 'not in the quarter’s measure set' }] },
+      );
+    }
+    const base = {
+      quarter,
+      level,
+      caseMix,
+      split,
+      measures: version.measures.map(measureRef),
+      localities: localities.map((l) => ({ code: l.code, name: l.name })),
+      mayOpenCases: mayOpen(actor),
+      caution: CLINICAL_CAUTION,
+    };
+    const basis = await this.source.basisOf(quarter);
+    if (!basis) {
+      return { ...base, state: 'no-accepted-submissions', basis: null, rows: [], practices: 0 };
+    }
+    const b = basis.benchmark;
+    const practices = new Map(
+      (await this.organisations.regionPractices(quarter.regionId)).map((p) => [p.code, p]),
+    );
+    const choice = { level, caseMix };
+    const open = await this.cases.unclosedOf(quarter.id);
+    const rows: OutlierRowDto[] = [];
+    const measures = version.measures.filter(
+      (m) => query.measure === undefined || m.key === query.measure,
+    );
+    for (const m of measures) {
+      if (!b.measures.some((x) => x.key === m.key)) continue;
+      const context = measureContext(b, m.key, split);
+      const units = benchmarkMeasure(b, m.key, split).units;
+      for (const u of units) {
+        const j = judge(u, context, choice);
+        if (!j) continue;
+        if (query.assessment !== undefined && j.assessment !== query.assessment) continue;
+        const practice = practices.get(u.code);
+        if (!practice) continue;
+        if (query.locality !== undefined && practice.localityCode !== query.locality) continue;
+        const { evidence } = evidenceOf(basis, u.code, m.key, split, choice);
+        evidence.reason = reasonInWords(u, j, context, choice);
+        rows.push({
+          practice: {
+            id: practice.id,
+            code: practice.code,
+            name: practice.name,
+            localityName: practice.localityName,
+          },
+          localityCode: practice.localityCode,
+          measure: measureRef(m),
+          band: j.band,
+          side: j.side,
+          assessment: j.assessment,
+          rate: j.rate,
+          limit: j.limit,
+          z: j.z,
+          evidence,
+          flaggedQuarters: 1,
+          openCase: open.get(caseSubjectKey(practice.id, m.key, split)) ?? null,
+        });
+      }
+    }
+    rows.sort(
+      (x, y) => Math.abs(y.z) - Math.abs(x.z) || (x.practice.code < y.practice.code ? -1 : 1),
+    );
+    await this.countStreaks(quarter, rows, split, level);
+    return {
+      ...base,
+      state: 'results',
+      basis: basisDto(basis),
+      rows,
+      practices: b.practices.length,
+    };
+  }
+
+  /**
+   * Consecutive earlier quarters in which each listed result was flagged on the same side, read
+   * from each quarter's stored flag against the over-dispersion-adjusted limits (docs/methods.md
+   * §12); a quarter without a benchmark, the practice or the measure ends the run.
+   */
+  private async countStreaks(
+    quarter: QuarterDto,
+    rows: OutlierRowDto[],
+    split: TypeSplit,
+    level: 'outer' | 'inner',
+  ): Promise<void> {
+    if (rows.length === 0) return;
+    const earlier = (await this.quarters.list(quarter.regionId))
+      .filter((q) => index(q) < index(quarter))
+      .sort((a, b) => index(b) - index(a));
+    const bases = await this.source.basesOf(earlier);
+    const open = new Set(rows.map((_, i) => i));
+    for (const q of earlier) {
+      if (open.size === 0) return;
+      const basis = bases.get(q.id) ?? null;
+      if (!basis) return;
+      const table = benchmarkTable(basis.benchmark, split);
+      const units = new Map(table.units.map((u) => [u.code, u]));
+      for (const i of [...open]) {
+        const row = rows[i]!;
+        const m = table.measures.indexOf(row.measure.key);
+        const code = m < 0 ? undefined : units.get(row.practice.code)?.adjusted[m];
+        if (code !== undefined && flaggedLike(code, row.side, level)) row.flaggedQuarters++;
+        else open.delete(i);
+      }
+      // A quarter that is not the one just before ends every run.
+    }
+  }
+
+  /** The subject of a drill-down: quarter, measure, practice, basis and its submission; 404s. */
+  private async subject(actor: Actor, quarterId: number, practiceId: number, measureKey: string) {
+    const quarter = await this.quarters.get(actor, quarterId);
+    const version = await this.measureSets.get(quarter.measureSetId);
+    const measure = version.measures.find((m) => m.key === measureKey);
+    if (!measure) {
+      throw new ProblemException(
+        HttpStatus.NOT_FOUND,
+        'measure-not-found',
+        'No such measure',
+        `The measure set of ${quarter.label} (${version.id}) has no measure "${measureKey}". Its measures are: ${version.measures.map((m) => m.key).join(', ')}.`,
+      );
+    }
+    const practice = await this.organisations.practice(practiceId);
+    if (!practice || practice.regionId !== actor.regionId) {
+      throw new ProblemException(
+        HttpStatus.NOT_FOUND,
+        'practice-not-found',
+        'No such practice',
+        `There is no practice ${practiceId} in your region.`,
+      );
+    }
+    const basis = await this.source.basisOf(quarter);
+    const submissionId = basis?.submissionOf.get(practice.code);
+    if (!basis || submissionId === undefined) {
+      throw new ProblemException(
+        HttpStatus.NOT_FOUND,
+        'no-current-submission',
+        'No figures for this practice',
+        `${practice.name} (${practice.code}) has no current submission for ${quarter.label}: there is nothing to drill into.`,
+      );
+    }
+    const submission = { id: submissionId, practiceCode: practice.code };
+    return { quarter, version, measure, practice, basis, submission };
+  }
+
+  /** One page of the de-identified records behind the result (pseudonyms only). */
+  async records(
+    actor: Actor,
+    quarterId: number,
+    practiceId: number,
+    measureKey: string,
+    query: { split?: TypeSplit; page?: number; pageSize?: number },
+  ): Promise<DrillRecordPageDto> {
+    const s = await this.subject(actor, quarterId, practiceId, measureKey);
+    const at = { year: s.quarter.year, quarter: s.quarter.quarter };
+    const rows = await this.drillRecords.rowsOf(
+      s.submission,
+      s.version,
+      s.measure,
+      query.split ?? 'all',
+      at,
+    );
+    const page = query.page ?? 1;
+    const pageSize = query.pageSize ?? 50;
+    const slice = Array.from(rows.subarray((page - 1) * pageSize, page * pageSize));
+    return {
+      total: rows.length,
+      page,
+      pageSize,
+      records: await this.drillRecords.describe(s.submission, s.version, s.measure, slice, at),
+    };
+  }
+
+  /**
+   * The evidence as a workbook: what it is about and why it stands out, the figures by diabetes
+   * type, the breakdowns against the region, the trend, the data-quality flags and the records
+   * behind it (pseudonyms only). Every text cell goes through neutralise().
+   */
+  async evidenceXlsx(
+    actor: Actor,
+    quarterId: number,
+    practiceId: number,
+    measureKey: string,
+    out: Writable,
+  ): Promise<void> {
+    const d = await this.drillDown(actor, quarterId, practiceId, measureKey, 'all');
+    const s = await this.subject(actor, quarterId, practiceId, measureKey);
+    const at = { year: s.quarter.year, quarter: s.quarter.quarter };
+    const text = (v: string) => neutralise(v);
+    const workbook = new ExcelJS.stream.xlsx.WorkbookWriter({
+      stream: out,
+      useSharedStrings: false,
+      useStyles: true,
+    });
+    const sheet = (name: string, heading: string[], widths: number[]) => {
+      const ws = workbook.addWorksheet(name, { views: [{ state: 'frozen', ySplit: 1 }] });
+      widths.forEach((w, i) => (ws.getColumn(i + 1).width = w));
+      const row = ws.addRow(heading.map(text));
+      row.font = { bold: true };
+      row.commit();
+      return ws;
+    };
+    const about = sheet('About', ['Item', 'Value'], [26, 110]);
+    const lines: [string, string | number][] = [
+      ['Practice', `${d.practice.name} (${d.practice.code})`],
+      ['Audit quarter', d.quarter.label],
+      ['Measure', `${d.measure.label} (${d.measure.key})`],
+      ['Guideline', d.measure.source],
+      ['Why it stands out', d.evidence.reason],
+      [
+        'Read from',
+        `${d.basis.origin === 'report' ? 'Published report' : 'Draft benchmark'} ${d.basis.resultId}, built ${d.basis.builtAt}`,
+      ],
+      ['Records', 'Pseudonyms only (never the practice’s own references)'],
+      ['Caution', d.caution],
+    ];
+    for (const [k, v] of lines)
+      about.addRow([text(k), typeof v === 'string' ? text(v) : v]).commit();
+    about.commit();
+    const byType = sheet(
+      'By diabetes type',
+      ['Diabetes type', 'Events', 'n', 'Rate', 'Region rate'],
+      [22, 10, 10, 10, 12],
+    );
+    for (const x of d.splits)
+      byType.addRow([text(x.split), x.own.events, x.own.n, x.own.rate, x.region.rate]).commit();
+    byType.commit();
+    const breakdowns = sheet(
+      'Breakdowns',
+      ['Breakdown', 'Category', 'Events', 'n', 'Rate', 'Region events', 'Region n', 'Region rate'],
+      [18, 22, 10, 10, 10, 14, 12, 12],
+    );
+    for (const b of d.breakdowns)
+      b.cells.cells.forEach((c, i) =>
+        breakdowns
+          .addRow([
+            text(b.breakdown.label),
+            text(b.breakdown.categories[i]?.label ?? c.category),
+            c.practice.events,
+            c.practice.n,
+            c.practice.rate,
+            text(c.region.events.display),
+            text(c.region.n.display),
+            c.region.rate,
+          ])
+          .commit(),
+      );
+    breakdowns.commit();
+    const trend = sheet(
+      'Trend',
+      ['Quarter', 'Events', 'n', 'Rate', 'Region rate'],
+      [12, 10, 10, 10, 12],
+    );
+    const all = d.splits.find((x) => x.split === 'all');
+    d.trendQuarters.forEach((q, i) => {
+      const p = all?.trend.points[i];
+      trend
+        .addRow([
+          text(q),
+          p?.events ?? null,
+          p?.n ?? null,
+          p?.rate ?? null,
+          all?.regionTrend.points[i]?.rate ?? null,
+        ])
+        .commit();
+    });
+    trend.commit();
+    const flags = sheet('Data quality', ['Flag', 'Records'], [60, 10]);
+    for (const f of d.dataQuality) flags.addRow([text(f.title), f.count]).commit();
+    flags.commit();
+    const records = sheet(
+      'Records',
+      [
+        'Pseudonym',
+        'Birth year',
+        'Age',
+        'Sex',
+        'Diabetes type',
+        'Deprivation quintile',
+        'Outcome',
+        'Readings',
+      ],
+      [14, 10, 6, 6, 14, 12, 14, 90],
+    );
+    const rows = await this.drillRecords.rowsOf(s.submission, s.version, s.measure, 'all', at);
+    for (let from = 0; from < rows.length; from += 2000) {
+      const described = await this.drillRecords.describe(
+        s.submission,
+        s.version,
+        s.measure,
+        Array.from(rows.subarray(from, from + 2000)),
+        at,
+      );
+      for (const r of described)
+        records
+          .addRow([
+            text(r.pseudonym),
+            r.birthYear,
+            r.age,
+            text(r.sex),
+            text(r.diabetesType),
+            r.deprivationQuintile,
+            text(outcomeWords(r.outcome)),
+            text(r.readings),
+          ])
+          .commit();
+    }
+    records.commit();
+    await workbook.commit();
+  }
+
+  async drillDown(
+    actor: Actor,
+    quarterId: number,
+    practiceId: number,
+    measureKey: string,
+    split: TypeSplit,
+  ): Promise<DrillDownDto> {
+    const { quarter, measure, practice, basis } = await this.subject(
+      actor,
+      quarterId,
+      practiceId,
+      measureKey,
+    );
+    const results = await this.results.results(actor, practiceId, quarterId);
+    const { evidence } = evidenceOf(basis, practice.code, measure.key, split, {
+      level: 'inner',
+      caseMix: false,
+    });
+    const own = results.measures.find((m) => m.measure.key === measure.key);
+    const detail = results.detail;
+    const detailSplit = detail?.measures
+      .find((m) => m.measure === measure.key)
+      ?.splits.find((s) => s.split === split);
+    const histogramKey = HISTOGRAM_OF.find(([re]) => re.test(measure.key))?.[1] ?? 'hba1c';
+    const histogram = detail?.values.find((v) => v.key === histogramKey) ?? null;
+    const open = [...(await this.cases.unclosedOf(quarter.id))]
+      .filter(([key]) => key.startsWith(`${practice.id}/${measure.key}/`))
+      .map(([, c]) => c);
+    return {
+      practice: {
+        id: practice.id,
+        code: practice.code,
+        name: practice.name,
+        localityName: practice.localityName,
+      },
+      quarter,
+      measure: toMeasureDto(measure),
+      split,
+      basis: basisDto(basis),
+      evidence,
+      splits: own?.splits ?? [],
+      trendQuarters: results.quarters.map((q) => q.quarterLabel),
+      everyone: detailSplit?.everyone ?? null,
+      breakdowns: (detail?.breakdowns ?? []).flatMap((breakdown) => {
+        const cells = detailSplit?.breakdowns.find((x) => x.breakdown === breakdown.key);
+        return cells ? [{ breakdown, cells }] : [];
+      }),
+      histogram,
+      dataQuality: results.dataQuality,
+      openCases: open,
+      mayOpenCase: mayOpen(actor),
+      caution: CLINICAL_CAUTION,
+    };
+  }
+}

@@ -1,0 +1,147 @@
+/**
+ * Outlier review as its users meet it, in headless Chromium against the built
+ * app with the demo region: the auditor opens the outlier list, drills into a
+ * practice flagged low, opens a review case from the list and asks the
+ * practice; the practice's lead finds the e-mail in the local mailbox, follows
+ * it to the case and answers with an attachment (a CSV); the auditor reads the
+ * answer and closes the case with a finding. The timeline shows each step;
+ * axe-core finds nothing serious or critical on the list, drill-down and case
+ * pages; screenshots are saved for a person to look at.
+ */
+import { writeFileSync, mkdtempSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import type { Page } from 'playwright-core';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { auditA11y, describeViolations } from '../support/a11y.ts';
+import { type BrowserSession, openBrowser } from '../support/browser.ts';
+import { type CairnServer, startCairn } from '../support/cairn-server.ts';
+
+interface Captured {
+  id: string;
+  to: string[];
+  subject: string;
+  text: string;
+}
+
+describe('outlier review in the browser', () => {
+  let server: CairnServer;
+  let browser: BrowserSession;
+  let caseUrl = '';
+
+  beforeAll(async () => {
+    server = await startCairn();
+    browser = await openBrowser();
+  }, 600_000);
+  afterAll(async () => {
+    await browser?.close();
+    await server?.stop();
+  });
+
+  async function signIn(name: string) {
+    const { page } = browser;
+    await browser.context.clearCookies();
+    await page.goto(server.baseUrl + '/', { waitUntil: 'networkidle' });
+    await page.locator('.cairn-navbar').getByRole('button', { name: 'Sign in' }).click();
+    await page.getByRole('button', { name: "Continue to your organisation's sign-in" }).click();
+    await page.getByRole('button', { name: `Sign in as ${name}` }).click();
+    await page.getByRole('heading', { name: `Welcome, ${name}` }).waitFor();
+  }
+
+  async function expectAccessible(page: Page) {
+    const report = await auditA11y(page);
+    expect(report.blocking, describeViolations(report.blocking)).toEqual([]);
+  }
+
+  it('lets the auditor find a flagged practice, drill in and open a case from the list', async () => {
+    await signIn('Tobias Renwick');
+    const { page } = browser;
+    await page.locator('.cairn-navbar').getByRole('link', { name: 'Outliers' }).click();
+    await page.getByRole('heading', { name: 'Outlier list' }).waitFor();
+    await page.getByRole('heading', { name: /^Worse than expected/ }).waitFor();
+    const row = page.locator('tr', { hasText: 'OV201' }).first();
+    await row.waitFor();
+    await expect(row.textContent()).resolves.toMatch(/limit/);
+    await browser.screenshot('review-outliers');
+    await expectAccessible(page);
+
+    await row.getByRole('link', { name: /OV201/ }).click();
+    await page.getByRole('heading', { name: 'Why it stands out' }).waitFor();
+    await page.getByRole('heading', { name: 'By diabetes type' }).waitFor();
+    await page.getByRole('heading', { name: 'Over time' }).waitFor();
+    await page.getByRole('button', { name: 'Show as table' }).first().click();
+    await page.getByRole('columnheader', { name: 'Diabetes type' }).waitFor();
+    await browser.screenshot('review-drill-down');
+    await expectAccessible(page);
+
+    await page.goBack({ waitUntil: 'networkidle' });
+    const again = page.locator('tr', { hasText: 'OV201' }).first();
+    await again.getByRole('button', { name: 'Open case' }).click();
+    await page.getByRole('heading', { name: /^Review case \d+: OV201/ }).waitFor();
+    caseUrl = page.url();
+    await page
+      .getByLabel('Question to the practice')
+      .fill('Your rate is well below the region’s. Could you check how these are recorded?');
+    await page.getByRole('button', { name: 'Send the question' }).click();
+    await page.getByText('Awaiting the practice').first().waitFor();
+    await page.getByText('asked', { exact: false }).first().waitFor();
+    await browser.screenshot('review-case-asked');
+    await expectAccessible(page);
+  });
+
+  it('lets the practice lead find the e-mail, follow it and answer with an attachment', async () => {
+    const deadline = Date.now() + 60_000;
+    let mail: Captured | undefined;
+    while (!mail) {
+      const messages = (await (
+        await fetch(`${server.fakesUrl}/mailbox/api/messages`)
+      ).json()) as Captured[];
+      mail = messages.find(
+        (m) => /^Review case \d+:/.test(m.subject) && m.to.some((a) => /ruth\.penhallow/.test(a)),
+      );
+      if (!mail && Date.now() > deadline) throw new Error('no review case e-mail arrived');
+      if (!mail) await new Promise((r) => setTimeout(r, 500));
+    }
+    expect(mail.text).toMatch(/not clinical advice/);
+    const link = /(http\S+\/review-cases\/\d+)/.exec(mail.text)?.[1];
+    expect(link).toBe(caseUrl);
+
+    const { page } = browser;
+    await page.goto(`${server.fakesUrl}/mailbox/${mail.id}`, { waitUntil: 'networkidle' });
+    await browser.screenshot('review-mailbox-message');
+
+    await signIn('Ruth Penhallow');
+    await page.goto(link!, { waitUntil: 'networkidle' });
+    await page.getByRole('heading', { name: /^Review case \d+: OV201/ }).waitFor();
+    expect(await page.getByText('internal: the practice does not see this').count()).toBe(0);
+    const dir = mkdtempSync(join(tmpdir(), 'cairn-answer-'));
+    const file = join(dir, 'recording-check.csv');
+    writeFileSync(file, 'check,result\ncoded in the wrong field,42 records\n');
+    await page.getByLabel('Your answer').fill('We found 42 records coded in the wrong field.');
+    await page.locator('#answer-files').setInputFiles(file);
+    await page.getByRole('button', { name: 'Send the answer' }).click();
+    await page.getByText('Practice responded').first().waitFor();
+    await page.getByRole('link', { name: 'recording-check.csv' }).waitFor();
+    await browser.screenshot('review-case-answered');
+    await expectAccessible(page);
+  });
+
+  it('lets the auditor read the answer and close the case with a finding', async () => {
+    await signIn('Tobias Renwick');
+    const { page } = browser;
+    await page.goto(caseUrl, { waitUntil: 'networkidle' });
+    await page.getByRole('link', { name: 'recording-check.csv' }).waitFor();
+    await page.getByLabel('Finding').selectOption('data_quality_issue');
+    await page
+      .getByLabel('Closing remark (the practice sees it)')
+      .fill('Thank you: a recording issue.');
+    await page.getByRole('button', { name: 'Close the case' }).click();
+    await page.getByText('This case is closed.').waitFor();
+    const timeline = await page.locator('.cairn-timeline li').allTextContents();
+    expect(
+      timeline.map((t) => /opened the case|asked|answered|changed the state/.exec(t)?.[0]),
+    ).toEqual(['opened the case', 'asked', 'answered', 'changed the state']);
+    await browser.screenshot('review-case-closed');
+    await expectAccessible(page);
+  });
+});
