@@ -21,7 +21,7 @@ describe('results and benchmarks in the browser', () => {
   beforeAll(async () => {
     server = await startCairn();
     browser = await openBrowser();
-  }, 180_000);
+  });
   afterAll(async () => {
     await browser?.close();
     await server?.stop();

@@ -29,7 +29,7 @@ const person = (role: Me['role']): Me => ({
   practices: role === 'practice_lead' ? [{ id: 2, code: 'OV102', name: 'Quarrybank Surgery' }] : [],
   sessionExpiresAt: '2026-12-05T06:57:32.717Z',
 });
-const slow = { timeout: 8000 };
+const slow = { timeout: 15_000 };
 const data = benchmark as unknown as RegionBenchmark;
 
 function stub(role: Me['role'], extra: Record<string, { status?: number; body: unknown }> = {}) {
@@ -45,7 +45,7 @@ function stub(role: Me['role'], extra: Record<string, { status?: number; body: u
 }
 
 // Each page test loads lazy chunks and renders a large table: more than the default 5 s.
-vi.setConfig({ testTimeout: 20_000 });
+vi.setConfig({ testTimeout: 30_000 });
 
 afterEach(() => {
   vi.unstubAllGlobals();
