@@ -3,6 +3,7 @@ import { benchmarkLoader } from '../features/benchmark/api/early';
 import { AppLayout } from './AppLayout';
 import { Home } from './Home';
 import { NotFound } from './NotFound';
+import { PageLoading } from './PageLoading';
 import { RouteError } from './RouteError';
 
 /**
@@ -14,6 +15,8 @@ export const routes: RouteObject[] = [
     path: '/',
     element: <AppLayout />,
     errorElement: <RouteError />,
+    // Shown while the first page's lazy code loads (the data router asks for one).
+    hydrateFallbackElement: <PageLoading />,
     children: [
       { index: true, element: <Home /> },
       {
