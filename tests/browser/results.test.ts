@@ -21,7 +21,7 @@ describe('results and benchmarks in the browser', () => {
   beforeAll(async () => {
     server = await startCairn();
     browser = await openBrowser();
-  }, 180_000);
+  });
   afterAll(async () => {
     await browser?.close();
     await server?.stop();
@@ -114,7 +114,10 @@ describe('results and benchmarks in the browser', () => {
     await expectAccessible(page);
     await browser.screenshot('results-benchmark-auditor-table');
 
-    await page.getByRole('link', { name: /^OV205 / }).click();
+    await page
+      .getByRole('table', { name: /figures$/ })
+      .getByRole('link', { name: /^OV205 / })
+      .click();
     await page.getByRole('heading', { name: /\(OV205\)$/ }).waitFor();
     await page.getByRole('tab', { name: /Data quality \(\d+\)/ }).click();
     await page.getByRole('rowheader', { name: /Type 1 diabetes but not on insulin/ }).waitFor();

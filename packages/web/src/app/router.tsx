@@ -1,4 +1,5 @@
 import { createBrowserRouter, type RouteObject } from 'react-router-dom';
+import { benchmarkLoader } from '../features/benchmark/api/early';
 import { AppLayout } from './AppLayout';
 import { Home } from './Home';
 import { NotFound } from './NotFound';
@@ -134,6 +135,7 @@ export const routes: RouteObject[] = [
       },
       {
         path: 'benchmark',
+        loader: benchmarkLoader,
         lazy: () =>
           import('../features/benchmark/routes/RegionBenchmark').then((m) => ({
             Component: m.RegionBenchmark,

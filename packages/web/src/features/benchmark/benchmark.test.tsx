@@ -1,4 +1,4 @@
-import { fireEvent, screen, within } from '@testing-library/react';
+import { fireEvent, screen, waitFor, within } from '@testing-library/react';
 import userEvent from '@testing-library/user-event';
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import { renderApp } from '../../../test/render';
@@ -29,7 +29,7 @@ const person = (role: Me['role']): Me => ({
   practices: role === 'practice_lead' ? [{ id: 2, code: 'OV102', name: 'Quarrybank Surgery' }] : [],
   sessionExpiresAt: '2026-12-05T06:57:32.717Z',
 });
-const slow = { timeout: 8000 };
+const slow = { timeout: 15_000 };
 const data = benchmark as unknown as RegionBenchmark;
 
 function stub(role: Me['role'], extra: Record<string, { status?: number; body: unknown }> = {}) {
@@ -45,7 +45,7 @@ function stub(role: Me['role'], extra: Record<string, { status?: number; body: u
 }
 
 // Each page test loads lazy chunks and renders a large table: more than the default 5 s.
-vi.setConfig({ testTimeout: 20_000 });
+vi.setConfig({ testTimeout: 30_000 });
 
 afterEach(() => {
   vi.unstubAllGlobals();
@@ -87,15 +87,20 @@ describe('Region benchmark page', () => {
     await screen.findAllByRole('button', { name: /^OV102 / }, slow);
     const before = container.querySelector('path.cairn-limit-outer')!.getAttribute('d');
     await userEvent.click(screen.getByLabelText('Limits allowing for over-dispersion'));
-    expect(container.querySelector('path.cairn-limit-outer')!.getAttribute('d')).not.toBe(before);
+    // The address changes first (the route's loader runs), then the plot.
+    await waitFor(() =>
+      expect(container.querySelector('path.cairn-limit-outer')!.getAttribute('d')).not.toBe(before),
+    );
     // OV201 is still beyond the wider limits
     expect(screen.getByRole('button', { name: /^OV201 / }).getAttribute('aria-label')).toMatch(
       /Outlier: below the 99\.8 % limit/,
     );
     await userEvent.click(screen.getByLabelText('Case-mix-adjusted rates'));
     const adjusted = funnel.points.find((p) => p.practice.code === 'OV102')!.caseMix.adjustedRate!;
-    expect(screen.getByRole('button', { name: /^OV102 / }).getAttribute('aria-label')).toContain(
-      `${(adjusted * 100).toFixed(1)} %`,
+    await waitFor(() =>
+      expect(screen.getByRole('button', { name: /^OV102 / }).getAttribute('aria-label')).toContain(
+        `${(adjusted * 100).toFixed(1)} %`,
+      ),
     );
   });
 
@@ -108,6 +113,20 @@ describe('Region benchmark page', () => {
     const row = within(table).getByRole('row', { name: /OV201/ });
     expect(within(row).getByText('Outlier, worse')).toBeTruthy();
     expect(within(row).getByText('573')).toBeTruthy();
+  });
+
+  it('asks for the benchmark and the funnel once, as navigation begins, when the address names them', async () => {
+    const { calls } = stub('regional_lead');
+    renderApp('/benchmark?quarter=8&measure=hba1c');
+    await screen.findAllByRole('button', { name: /^OV102 / }, slow);
+    const paths = calls.map((c) => c.path);
+    const funnelAt = paths.indexOf('/api/quarters/8/benchmark/measures/hba1c?split=all');
+    expect(funnelAt).toBeGreaterThanOrEqual(0);
+    expect(funnelAt).toBeLessThan(paths.indexOf('/api/session'));
+    expect(
+      paths.filter((p) => p === '/api/quarters/8/benchmark/measures/hba1c?split=all'),
+    ).toHaveLength(1);
+    expect(paths.filter((p) => p === '/api/quarters/8/benchmark?split=all')).toHaveLength(1);
   });
 
   it('says so when no practice has an accepted submission', async () => {

@@ -49,10 +49,10 @@ function stub(me: Me, extra: Record<string, { status?: number; body: unknown }> 
 }
 
 // The first render loads the page's lazy chunk: allow it time.
-const slow = { timeout: 8000 };
+const slow = { timeout: 15_000 };
 
 // Each page test loads lazy chunks and renders a large table: more than the default 5 s.
-vi.setConfig({ testTimeout: 20_000 });
+vi.setConfig({ testTimeout: 30_000 });
 
 afterEach(() => {
   vi.unstubAllGlobals();

@@ -5,6 +5,9 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
 import { apiFetch } from '../../../lib/api-client';
 import type { MeasureFunnel, Quarter, RegionBenchmark, TypeSplit } from '../../../lib/api/types';
+import { funnelPath, regionBenchmarkPath, takeEarly } from './early';
+
+export { funnelPath, regionBenchmarkPath };
 
 export const benchmarkKeys = {
   quarters: () => ['benchmark', 'quarters'] as const,
@@ -25,12 +28,6 @@ export function useBenchmarkQuarters() {
   return useQuery(benchmarkQuartersQueryOptions());
 }
 
-export function regionBenchmarkPath(quarterId: number, split: TypeSplit, locality: string): string {
-  const query = new URLSearchParams({ split });
-  if (locality) query.set('locality', locality);
-  return `/api/quarters/${quarterId}/benchmark?${query.toString()}`;
-}
-
 export const regionBenchmarkQueryOptions = (
   quarterId: number,
   split: TypeSplit,
@@ -38,7 +35,10 @@ export const regionBenchmarkQueryOptions = (
 ) =>
   queryOptions({
     queryKey: benchmarkKeys.region(quarterId, split, locality),
-    queryFn: () => apiFetch<RegionBenchmark>(regionBenchmarkPath(quarterId, split, locality)),
+    queryFn: () => {
+      const path = regionBenchmarkPath(quarterId, split, locality);
+      return takeEarly<RegionBenchmark>(path) ?? apiFetch<RegionBenchmark>(path);
+    },
   });
 
 export function useRegionBenchmark(quarterId: number | null, split: TypeSplit, locality: string) {
@@ -49,14 +49,13 @@ export function useRegionBenchmark(quarterId: number | null, split: TypeSplit, l
   });
 }
 
-export function funnelPath(quarterId: number, measure: string, split: TypeSplit): string {
-  return `/api/quarters/${quarterId}/benchmark/measures/${encodeURIComponent(measure)}?split=${split}`;
-}
-
 export const funnelQueryOptions = (quarterId: number, measure: string, split: TypeSplit) =>
   queryOptions({
     queryKey: benchmarkKeys.funnel(quarterId, measure, split),
-    queryFn: () => apiFetch<MeasureFunnel>(funnelPath(quarterId, measure, split)),
+    queryFn: () => {
+      const path = funnelPath(quarterId, measure, split);
+      return takeEarly<MeasureFunnel>(path) ?? apiFetch<MeasureFunnel>(path);
+    },
   });
 
 export function useFunnel(quarterId: number | null, measure: string | null, split: TypeSplit) {

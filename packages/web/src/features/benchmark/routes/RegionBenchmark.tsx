@@ -11,8 +11,7 @@ import {
   Spinner,
   Switch,
 } from '@blueprintjs/core';
-import { useDeferredValue, useEffect, useId, useMemo } from 'react';
-import { useQueryClient } from '@tanstack/react-query';
+import { useDeferredValue, useId, useMemo } from 'react';
 import { Link, useNavigate, useSearchParams } from 'react-router-dom';
 import { ChartOrTable } from '../../../components/charts/ChartOrTable';
 import { FlagLegend, FlagMark } from '../../../components/charts/FlagMark';
@@ -27,13 +26,7 @@ import type {
 } from '../../../lib/api/types';
 import { formatCount, formatDateTime, formatPercent } from '../../../lib/format';
 import { usePageTitle } from '../../../lib/page-title';
-import {
-  funnelQueryOptions,
-  regionBenchmarkQueryOptions,
-  useBenchmarkQuarters,
-  useFunnel,
-  useRegionBenchmark,
-} from '../api/benchmark';
+import { useBenchmarkQuarters, useFunnel, useRegionBenchmark } from '../api/benchmark';
 import { PracticeTable } from '../components/PracticeTable';
 import { type SortKey, sortRows, tableCsv, tableRows } from '../components/table-rows';
 import '../../../components/charts/charts.css';
@@ -47,33 +40,11 @@ const splits: { value: TypeSplit; label: string }[] = [
 
 /** `/benchmark?quarter=&measure=&split=&locality=&limits=&casemix=`: every practice against its peers. */
 export function RegionBenchmark() {
-  usePrefetchFromAddress();
   return (
     <RequireRole roles={['regional_lead', 'auditor']}>
       <RegionBenchmarkScreen />
     </RequireRole>
   );
-}
-
-/**
- * When the address names the quarter (and the measure), ask for the benchmark and the funnel
- * at once, while the sign-in is still being checked: the funnel then need not wait for the
- * session, the quarter list and the whole table in turn. The API still decides who may read.
- */
-function usePrefetchFromAddress() {
-  const client = useQueryClient();
-  const [params] = useSearchParams();
-  const quarter = Number(params.get('quarter'));
-  const measure = params.get('measure');
-  const split = (params.get('split') ?? 'all') as TypeSplit;
-  const locality = params.get('locality') ?? '';
-  useEffect(() => {
-    if (!Number.isInteger(quarter) || quarter <= 0) return;
-    void client.prefetchQuery(regionBenchmarkQueryOptions(quarter, split, locality));
-    if (measure) void client.prefetchQuery(funnelQueryOptions(quarter, measure, split));
-    // Only on arrival: later changes go through the screen's own queries.
-    // eslint-disable-next-line react-hooks/exhaustive-deps
-  }, []);
 }
 
 function pickQuarter(list: Quarter[], asked: number): Quarter | null {
