@@ -275,7 +275,11 @@ const handWritten: Record<string, Record<Caller, string>> = {
     ]),
   ),
   ...Object.fromEntries(
-    ['GET /api/reports/:reportId/region'].map((route) => [
+    [
+      'GET /api/reports/:reportId/region',
+      'GET /api/reports/:reportId/data-pack.xlsx',
+      'GET /api/reports/:reportId/report.pdf',
+    ].map((route) => [
       route,
       {
         anonymous: U,
@@ -288,7 +292,11 @@ const handWritten: Record<string, Record<Caller, string>> = {
     ]),
   ),
   ...Object.fromEntries(
-    ['GET /api/reports/:reportId/practices/:practiceId'].map((route) => [
+    [
+      'GET /api/reports/:reportId/practices/:practiceId',
+      'GET /api/reports/:reportId/practices/:practiceId/data-pack.xlsx',
+      'GET /api/reports/:reportId/practices/:practiceId/report.pdf',
+    ].map((route) => [
       route,
       {
         anonymous: U,

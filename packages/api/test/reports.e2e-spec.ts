@@ -4,7 +4,13 @@
  * confirmed later), readers by role, republishing, withdrawal, the tombstone,
  * and every bad input refused with nothing stored lost.
  */
+import { spawnSync } from 'node:child_process';
 import { createHash } from 'node:crypto';
+import { mkdtempSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import ExcelJS from 'exceljs';
+import request from 'supertest';
 import { gunzipSync } from 'node:zlib';
 import { QueryTypes } from 'sequelize';
 import { arrange, type ExtractsWorld, uploadAndWait } from './extracts-fixtures/api.js';
@@ -17,6 +23,46 @@ const Q3 = '2026 Q3';
 /** A practice's extract: n clean rows, `off` of them with an HbA1c above every target. */
 const rowsOf = (n: number, off: number, from: number): Row[] =>
   goodRows(n, from).map((r, i) => (i < off ? { ...r, hba1c_value: 95 } : r));
+
+/** Reads a binary response body as a Buffer. */
+const binary = (req: request.Test) =>
+  req.buffer(true).parse((res, cb) => {
+    const chunks: Buffer[] = [];
+    res.on('data', (c: Buffer) => chunks.push(c));
+    res.on('end', () => cb(null, Buffer.concat(chunks)));
+  });
+
+async function workbookOf(body: Buffer) {
+  const workbook = new ExcelJS.Workbook();
+  await workbook.xlsx.load(body as unknown as ArrayBuffer);
+  return workbook;
+}
+
+function rowsOfSheet(workbook: ExcelJS.Workbook, name: string): unknown[][] {
+  const sheet = workbook.getWorksheet(name);
+  if (!sheet) throw new Error(`no sheet ${name}`);
+  const rows: unknown[][] = [];
+  sheet.eachRow((row) => rows.push((row.values as unknown[]).slice(1)));
+  return rows;
+}
+
+/** The text of a PDF as poppler's pdftotext reads it. */
+function pdfText(body: Buffer): string {
+  const file = join(mkdtempSync(join(tmpdir(), 'cairn-pdf-')), 'report.pdf');
+  writeFileSync(file, body);
+  const out = spawnSync('pdftotext', ['-layout', file, '-'], { encoding: 'utf8' });
+  if (out.status !== 0) throw new Error(`pdftotext failed: ${out.stderr}`);
+  return out.stdout;
+}
+
+const pct = (x: number | null) => (x === null ? '–' : `${(x * 100).toFixed(1)} %`);
+
+interface Downloads {
+  regionPack: Buffer;
+  practicePack: Buffer;
+  regionPdf: string;
+  practicePdf: string;
+}
 
 describe('reports', () => {
   let t: TestApp;
@@ -71,7 +117,10 @@ describe('reports', () => {
       .send({ releaseNote: 'x' })
       .expect(404);
     expect(unknown.body.type).toBe('/api/problems/quarter-not-found');
-    expect((await regional.get('/api/reports').expect(200)).body.reports).toEqual([]);
+    expect((await regional.get('/api/reports').expect(200)).body).toEqual({
+      reports: [],
+      actions: { publish: false },
+    });
   });
 
   describe('a published report', () => {
@@ -79,6 +128,29 @@ describe('reports', () => {
     let region: Record<string, unknown>;
     let ownPart: Record<string, unknown>;
     let storedBefore: Buffer;
+    let before: Downloads;
+
+    async function downloads(id: number): Promise<Downloads> {
+      const ov102 = w.practice('OV102');
+      const get = async (agent: SignedInAgent, path: string, type: string) => {
+        const res = await binary(agent.get(path)).expect(200);
+        expect(res.headers['content-type']).toBe(type);
+        return res.body as Buffer;
+      };
+      const XLSX_TYPE = 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet';
+      return {
+        regionPack: await get(regional, `/api/reports/${id}/data-pack.xlsx`, XLSX_TYPE),
+        practicePack: await get(
+          lead,
+          `/api/reports/${id}/practices/${ov102}/data-pack.xlsx`,
+          XLSX_TYPE,
+        ),
+        regionPdf: pdfText(await get(auditor, `/api/reports/${id}/report.pdf`, 'application/pdf')),
+        practicePdf: pdfText(
+          await get(lead, `/api/reports/${id}/practices/${ov102}/report.pdf`, 'application/pdf'),
+        ),
+      };
+    }
 
     beforeAll(async () => {
       await confirmExtract('OV101', rowsOf(40, 3, 1), 'ov101.csv');
@@ -159,8 +231,9 @@ describe('reports', () => {
           if (r.met.value !== null) expect(r.met.value === 0 || r.met.value >= 5).toBe(true);
         }
       }
-      const full = await regional.get(`/api/reports/${reportId}/practices/${ov102}`).expect(200);
-      expect(full.body.results.disclosure).toBe('none');
+      // Everyone reads a practice's part as its leads do; the region's figures are in the region part.
+      const same = await regional.get(`/api/reports/${reportId}/practices/${ov102}`).expect(200);
+      expect(same.body.results).toEqual(part.body.results);
       expect((await lead.get(`/api/reports/${reportId}/region`).expect(403)).body.type).toBe(
         '/api/problems/role-not-allowed',
       );
@@ -174,18 +247,123 @@ describe('reports', () => {
       await auditor.get(`/api/reports/${reportId}/region`).expect(200);
     });
 
+    it('hands out a data pack that reads back as the report’s figures', async () => {
+      before = await downloads(reportId);
+      const region = await workbookOf(before.regionPack);
+      expect(region.worksheets.map((ws) => ws.name)).toEqual([
+        'About',
+        'Region',
+        'Measures by practice',
+        'Funnel data',
+        'Breakdowns',
+        'Trends',
+      ]);
+      const about = new Map(rowsOfSheet(region, 'About').map((r) => [r[0], r[1]]));
+      expect(about.get('Content hash (SHA-256)')).toMatch(/^[0-9a-f]{64}$/);
+      expect(about.get('Release note')).toBe('First published report of the quarter.');
+      expect(String(about.get('Caution'))).toMatch(/not clinical advice/);
+      const regionDto = (await regional.get(`/api/reports/${reportId}/region`).expect(200)).body;
+      const measures = regionDto.splits[0].measures as { key: string; source: string }[];
+      const aboutRows = rowsOfSheet(region, 'About');
+      for (const m of measures) {
+        expect(aboutRows.some((r) => r[0] === m.key && r[6] === m.source)).toBe(true);
+      }
+      // Measures by practice: exactly the protected tables, numbers as numbers.
+      const byPractice = rowsOfSheet(region, 'Measures by practice').slice(1);
+      const expected = (
+        regionDto.peerTables as {
+          measure: string;
+          rows: {
+            practice: { code: string };
+            met: { value: number | null; display: string };
+            n: { value: number | null; display: string };
+            rate: number | null;
+          }[];
+          met: { value: number | null; display: string };
+          n: { value: number | null; display: string };
+          rate: number | null;
+        }[]
+      ).flatMap((t) => [
+        ...t.rows.map((r) => [
+          r.practice.code,
+          t.measure,
+          r.met.value ?? r.met.display,
+          r.n.value ?? r.n.display,
+          r.rate ?? undefined,
+        ]),
+        [
+          'Region',
+          t.measure,
+          t.met.value ?? t.met.display,
+          t.n.value ?? t.n.display,
+          t.rate ?? undefined,
+        ],
+      ]);
+      expect(byPractice.map((r) => [r[0], r[3], r[5], r[7], r[8] ?? undefined])).toEqual(expected);
+      expect(byPractice.some((r) => typeof r[5] === 'number' && typeof r[8] === 'number')).toBe(
+        true,
+      );
+      const sheet = region.getWorksheet('Measures by practice')!;
+      expect(sheet.views[0]).toMatchObject({ state: 'frozen', ySplit: 1 });
+      expect(sheet.autoFilter).toBe('A1:I1');
+      expect(sheet.getCell('I2').numFmt).toBe('0.0%');
+
+      // The practice's pack: its own results in full, as its part of the report says.
+      const practice = await workbookOf(before.practicePack);
+      const results = rowsOfSheet(practice, 'Your results').slice(1);
+      const own = (
+        ownPart.results as {
+          measures: {
+            measure: { key: string };
+            splits: { split: string; own: { events: number; n: number; rate: number | null } }[];
+          }[];
+        }
+      ).measures.flatMap((m) =>
+        m.splits.map((x) => [m.measure.key, x.own.events, x.own.n, x.own.rate ?? undefined]),
+      );
+      expect(results.map((r) => [r[0], r[3], r[4], r[5] ?? undefined])).toEqual(own);
+    });
+
+    it('makes PDFs whose text holds the figures', async () => {
+      const results = (
+        ownPart.results as {
+          measures: {
+            measure: { label: string };
+            splits: { split: string; own: { events: number; n: number; rate: number | null } }[];
+          }[];
+        }
+      ).measures;
+      const text = before.practicePdf.replace(/\s+/g, ' ');
+      expect(text).toContain('OV102');
+      expect(text).toContain((ownPart.report as { contentHash: string }).contentHash);
+      expect(text).toMatch(/not clinical advice/);
+      expect(text).toMatch(/Page 1 of \d+/);
+      for (const m of results) {
+        const all = m.splits.find((x) => x.split === 'all')!;
+        expect(text).toMatch(new RegExp(`\\b${all.own.events} ?/ ?${all.own.n}\\b`));
+        expect(text).toContain(pct(all.own.rate));
+      }
+      expect(before.regionPdf.replace(/\s+/g, ' ')).toMatch(/Funnel plots/);
+    });
+
     it('says which practices had no results when it was published', async () => {
       const ov303 = w.practice('OV303');
       const res = await regional.get(`/api/reports/${reportId}/practices/${ov303}`).expect(200);
       expect(res.body).toMatchObject({ state: 'not-in-report', results: null, peers: [] });
       expect(res.body.message).toMatch(/OV303 had no confirmed extract for 2026 Q3/);
+      const pack = await regional
+        .get(`/api/reports/${reportId}/practices/${ov303}/data-pack.xlsx`)
+        .expect(404);
+      expect(pack.body.type).toBe('/api/problems/practice-not-in-report');
     });
 
     it('does not change when a new extract is confirmed for one of its practices', async () => {
-      const before = await regional.get(`/api/quarters/${w.quarter(Q3)}/benchmark`).expect(200);
+      const draftBefore = await regional
+        .get(`/api/quarters/${w.quarter(Q3)}/benchmark`)
+        .expect(200);
       await confirmExtract('OV102', rowsOf(30, 0, 100), 'ov102-again.csv');
       const after = await regional.get(`/api/quarters/${w.quarter(Q3)}/benchmark`).expect(200);
-      expect(after.body.builtFrom.resultId).not.toBe(before.body.builtFrom.resultId);
+      expect(after.body.builtFrom.resultId).not.toBe(draftBefore.body.builtFrom.resultId);
       expect((await regional.get(`/api/reports/${reportId}/region`).expect(200)).body).toEqual(
         region,
       );
@@ -198,6 +376,17 @@ describe('reports', () => {
         [reportId],
       );
       expect(row!.snapshot.equals(storedBefore)).toBe(true);
+      const again = await downloads(reportId);
+      expect(again.regionPdf).toBe(before.regionPdf);
+      expect(again.practicePdf).toBe(before.practicePdf);
+      for (const [a, b] of [
+        [again.regionPack, before.regionPack],
+        [again.practicePack, before.practicePack],
+      ] as const) {
+        const [x, y] = [await workbookOf(a), await workbookOf(b)];
+        for (const ws of y.worksheets)
+          expect(rowsOfSheet(x, ws.name)).toEqual(rowsOfSheet(y, ws.name));
+      }
     });
 
     it('refuses any change to what was published, and deletion', async () => {
@@ -218,8 +407,14 @@ describe('reports', () => {
     it('is replaced by a republished report and stays readable', async () => {
       const res = await regional
         .post(`/api/quarters/${w.quarter(Q3)}/reports`)
-        .send({ releaseNote: 'OV102 sent a corrected extract.' })
+        .send({ releaseNote: '=HYPERLINK("x") OV102 sent a corrected extract.' })
         .expect(201);
+      const pack = await workbookOf(
+        (await binary(regional.get(`/api/reports/${res.body.id}/data-pack.xlsx`)).expect(200))
+          .body as Buffer,
+      );
+      const note = rowsOfSheet(pack, 'About').find((r) => r[0] === 'Release note');
+      expect(note?.[1]).toBe(`'=HYPERLINK("x") OV102 sent a corrected extract.`);
       expect(res.body).toMatchObject({ label: '2026 Q3 · report 2', status: 'published' });
       expect(res.body.contentHash).not.toBe(
         region.report && (region.report as { contentHash: string }).contentHash,
@@ -233,6 +428,10 @@ describe('reports', () => {
       expect(oldRegion.splits).toEqual(region.splits);
       const list = await lead.get(`/api/reports?quarterId=${w.quarter(Q3)}`).expect(200);
       expect(list.body.reports.map((r: { id: number }) => r.id)).toEqual([res.body.id, reportId]);
+      expect(list.body.actions).toEqual({ publish: false });
+      expect(
+        (await regional.get(`/api/reports?quarterId=${w.quarter(Q3)}`).expect(200)).body.actions,
+      ).toEqual({ publish: true });
       const overview = await regional.get('/api/quarter-overview').expect(200);
       expect(JSON.stringify(overview.body)).toContain('2026 Q3 · report 2');
       const events = await select<{ action: string }>(
@@ -267,6 +466,10 @@ describe('reports', () => {
       expect(gone.body).toMatchObject({ type: '/api/problems/report-withdrawn' });
       expect(gone.body.detail).toMatch(/An extract held the wrong quarter\./);
       await lead.get(`/api/reports/${reportId}/practices/${w.practice('OV102')}`).expect(410);
+      await regional.get(`/api/reports/${reportId}/data-pack.xlsx`).expect(410);
+      await lead
+        .get(`/api/reports/${reportId}/practices/${w.practice('OV102')}/report.pdf`)
+        .expect(410);
       const again = await regional
         .post(`/api/reports/${reportId}/withdraw`)
         .send({ reason: 'twice' })

@@ -8,10 +8,13 @@ import {
   ParseIntPipe,
   Post,
   Query,
+  Res,
 } from '@nestjs/common';
+import type { Response } from 'express';
 import { ApiCreatedResponse, ApiOkResponse, ApiOperation, ApiTags } from '@nestjs/swagger';
 import { type Actor, CurrentActor } from '../auth/actor.js';
 import { PracticeScoped, Roles } from '../auth/index.js';
+import { fileResponse, PDF, XLSX } from '../common/file-response.js';
 import { ApiProblems } from '../common/problem.dto.js';
 import {
   PublishReportDto,
@@ -22,7 +25,15 @@ import {
   ReportRegionDto,
   WithdrawReportDto,
 } from './dto/report.dto.js';
-import { ReportsService } from './reports.service.js';
+import { type ReportDownload, ReportsService } from './reports.service.js';
+
+async function send(res: Response, download: ReportDownload): Promise<void> {
+  res.status(200);
+  res.setHeader('Content-Type', download.contentType);
+  res.setHeader('Content-Disposition', `attachment; filename="${download.fileName}"`);
+  res.setHeader('Cache-Control', 'no-store');
+  await download.write(res);
+}
 
 /** Publishing a quarter's benchmark as a report (regional lead). */
 @ApiProblems()
@@ -105,6 +116,69 @@ export class ReportsController {
     @Param('practiceId', ParseIntPipe) practiceId: number,
   ): Promise<ReportPracticeDto> {
     return this.reports.practice(actor, reportId, practiceId);
+  }
+
+  @Get(':reportId/data-pack.xlsx')
+  @Roles('regional_lead', 'auditor')
+  @ApiOperation({
+    summary: 'The region’s data pack of a report (XLSX): other practices under disclosure control',
+  })
+  @ApiOkResponse(
+    fileResponse(XLSX, 'About, region, measures by practice, funnel data, breakdowns, trends'),
+  )
+  async regionPack(
+    @CurrentActor() actor: Actor,
+    @Param('reportId', ParseIntPipe) reportId: number,
+    @Res() res: Response,
+  ): Promise<void> {
+    await send(res, await this.reports.pack(actor, reportId, { kind: 'region' }));
+  }
+
+  @Get(':reportId/practices/:practiceId/data-pack.xlsx')
+  @Roles('practice_lead', 'regional_lead', 'auditor')
+  @PracticeScoped('practiceId')
+  @ApiOperation({
+    summary: 'One practice’s data pack of a report (XLSX): its figures in full, others protected',
+  })
+  @ApiOkResponse(
+    fileResponse(
+      XLSX,
+      'About, your results, measures by practice, funnel data, breakdowns, trends',
+    ),
+  )
+  async practicePack(
+    @CurrentActor() actor: Actor,
+    @Param('reportId', ParseIntPipe) reportId: number,
+    @Param('practiceId', ParseIntPipe) practiceId: number,
+    @Res() res: Response,
+  ): Promise<void> {
+    await send(res, await this.reports.pack(actor, reportId, { kind: 'practice', practiceId }));
+  }
+
+  @Get(':reportId/report.pdf')
+  @Roles('regional_lead', 'auditor')
+  @ApiOperation({ summary: 'The region’s report as PDF: every measure and its funnel plot' })
+  @ApiOkResponse(fileResponse(PDF, 'The region’s report'))
+  async regionPdf(
+    @CurrentActor() actor: Actor,
+    @Param('reportId', ParseIntPipe) reportId: number,
+    @Res() res: Response,
+  ): Promise<void> {
+    await send(res, await this.reports.pdf(actor, reportId, { kind: 'region' }));
+  }
+
+  @Get(':reportId/practices/:practiceId/report.pdf')
+  @Roles('practice_lead', 'regional_lead', 'auditor')
+  @PracticeScoped('practiceId')
+  @ApiOperation({ summary: 'One practice’s report as PDF, as its leads see it' })
+  @ApiOkResponse(fileResponse(PDF, 'The practice’s report'))
+  async practicePdf(
+    @CurrentActor() actor: Actor,
+    @Param('reportId', ParseIntPipe) reportId: number,
+    @Param('practiceId', ParseIntPipe) practiceId: number,
+    @Res() res: Response,
+  ): Promise<void> {
+    await send(res, await this.reports.pdf(actor, reportId, { kind: 'practice', practiceId }));
   }
 
   @Post(':reportId/withdraw')

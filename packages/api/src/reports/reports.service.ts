@@ -4,12 +4,14 @@
  * bytes (never from the quarter's current submissions), listed per region,
  * withdrawn with a tombstone, replaced by a later report of the same quarter.
  *
- * Who reads what: regional leads and auditors read the region's part and every
- * practice's part in full; a practice lead reads the report's identity and
- * their own practices' parts, with the region's figures and other practices
- * under disclosure control (docs/methods.md §9). Other modules (digests) read
+ * Who reads what: regional leads and auditors read the region's part (every
+ * practice's figures) and every practice's part; a practice lead reads the
+ * report's identity and their own practices' parts. A practice's part is its
+ * report as its leads read it: its own figures in full, the region's figures
+ * and other practices under disclosure control (docs/methods.md §9). Other modules (digests) read
  * one practice's part through `practicePart`.
  */
+import type { Writable } from 'node:stream';
 import { HttpStatus, Inject, Injectable } from '@nestjs/common';
 import type { Actor } from '../auth/actor.js';
 import { AuditTrailService } from '../audit-trail/audit-trail.service.js';
@@ -17,6 +19,7 @@ import { BenchmarksService } from '../benchmarks/benchmarks.service.js';
 import type { RegionBenchmarkDto } from '../benchmarks/dto/benchmark.dto.js';
 import type { PracticeResultsDto } from '../benchmarks/dto/practice-results.dto.js';
 import { PracticeResultsService } from '../benchmarks/practice-results.service.js';
+import { PDF, XLSX } from '../common/file-response.js';
 import { ProblemException } from '../common/problem.js';
 import type { MeasureSetUseDto } from '../measure-sets/dto/measure-set.dto.js';
 import { MeasureSetUsage } from '../measure-sets/measure-set-usage.js';
@@ -32,7 +35,11 @@ import type {
   ReportPracticeDto,
   ReportRegionDto,
 } from './dto/report.dto.js';
+import { type PackScope, packSheets } from './pack.js';
+import { writePack } from './pack-writer.js';
+import { writeReportPdf } from './pdf.js';
 import { type PeerCounts, practicePeerTable, protectedPeerTable } from './peer-table.js';
+import { regionBreakdowns } from './region-breakdowns.js';
 import { ReportRepository, type ReportRow } from './report.repository.js';
 import {
   canonicalBytes,
@@ -48,8 +55,15 @@ const SPLITS = ['all', 'type1', 'type2_other'] as const;
 /** Decoded snapshots kept in memory (keyed by report id: the bytes never change). */
 const CACHE_ENTRIES = 8;
 
-/** Whose view of a practice's part: its own leads' (disclosure control) or the region's. */
-export type PracticePartView = 'practice-lead' | 'region';
+/** Practices whose results are read at once while publishing. */
+const PARALLEL = 4;
+
+/** A file made from a report, written to a stream. */
+export interface ReportDownload {
+  fileName: string;
+  contentType: string;
+  write: (stream: Writable) => Promise<void>;
+}
 
 export const reportLabel = (quarterLabel: string, sequence: number) =>
   `${quarterLabel} · report ${sequence}`;
@@ -87,7 +101,7 @@ export class ReportsService {
     }
     const quarter = await this.quarters.get(actor, quarterId);
     const { meta, body } = await this.figures(actor, quarter.id);
-    const id = await this.repository.transaction(async (transaction) => {
+    const { id, canonical } = await this.repository.transaction(async (transaction) => {
       const earlier = await this.repository.ofQuarterForUpdate(quarter.id, transaction);
       const sequence = earlier.reduce((max, r) => Math.max(max, r.sequence), 0) + 1;
       const publishedAt = new Date();
@@ -150,8 +164,9 @@ export class ReportsService {
         },
         transaction,
       );
-      return id;
+      return { id, canonical: encoded.canonical };
     });
+    this.remember(id, canonical);
     return this.get(actor, id);
   }
 
@@ -183,10 +198,8 @@ export class ReportsService {
         events: p.cells[measureIndex]!.events,
         n: p.cells[measureIndex]!.n,
       }));
-    const practices: SnapshotPractice[] = [];
-    for (const p of all.practices) {
-      const full = frozen(await this.practiceResults.results(actor, p.practice.id, quarterId));
-      const disclosed = frozen(
+    const part = async (p: (typeof all.practices)[number]): Promise<SnapshotPractice> => {
+      const results = frozen(
         await this.practiceResults.results(
           practiceReader(actor, p.practice.id),
           p.practice.id,
@@ -203,18 +216,21 @@ export class ReportsService {
           counts.filter((c) => c !== own),
         );
       });
-      practices.push({
-        practice: p.practice,
-        submissionId: p.submissionId,
-        full,
-        disclosed,
-        peers,
-      });
+      return { practice: p.practice, submissionId: p.submissionId, results, peers };
+    };
+    const practices: SnapshotPractice[] = [];
+    // A few at a time: their reads of the database overlap.
+    for (let i = 0; i < all.practices.length; i += PARALLEL) {
+      practices.push(...(await Promise.all(all.practices.slice(i, i + PARALLEL).map(part))));
     }
+    const first = all.practices[0];
+    const regionDetail = first
+      ? (await this.practiceResults.results(actor, first.practice.id, quarterId)).detail
+      : null;
     const built = [
       ...splits.map((s) => s.builtFrom?.resultId),
       ...funnels.map((f) => f.builtFrom?.resultId),
-      ...practices.flatMap((p) => [p.full.builtFrom?.resultId, p.disclosed.builtFrom?.resultId]),
+      ...practices.map((p) => p.results.builtFrom?.resultId),
     ];
     if (built.some((id) => id !== resultId)) {
       throw new ProblemException(
@@ -239,7 +255,13 @@ export class ReportsService {
         code: p.practice.code,
         submissionId: p.submissionId,
       })),
-      region: { splits, funnels, trends, peerTables },
+      region: {
+        splits,
+        funnels,
+        trends: trends.map((t) => ({ ...t, practices: [] })),
+        peerTables,
+        breakdowns: regionDetail ? regionBreakdowns(regionDetail) : [],
+      },
       practices,
       caution: CLINICAL_CAUTION,
     };
@@ -256,7 +278,10 @@ export class ReportsService {
     );
     const reports: ReportDto[] = [];
     for (const row of rows) reports.push(await this.dto(actor, row));
-    return { reports };
+    return {
+      reports,
+      actions: { publish: quarterId !== undefined && actor.role === 'regional_lead' },
+    };
   }
 
   async get(actor: Actor, id: number): Promise<ReportDto> {
@@ -280,24 +305,18 @@ export class ReportsService {
   /** One practice's part of a report as this reader may see it (the route scopes the practice). */
   async practice(actor: Actor, id: number, practiceId: number): Promise<ReportPracticeDto> {
     const row = await this.readable(actor, id);
-    const view: PracticePartView = actor.role === 'practice_lead' ? 'practice-lead' : 'region';
-    return this.part(actor, row, practiceId, view);
+    return this.part(actor, row, practiceId);
   }
 
   /**
    * One practice's part of a report, for another module acting for Cairn (a digest): the
-   * practice's leads' view (`practice-lead`: region and peers under disclosure control) or the
-   * region's. 404 report-not-found, 410 report-withdrawn; a practice without results in the
-   * report gets state `not-in-report`.
+   * practice's report as its leads read it (region and peers under disclosure control), without
+   * a role check (the caller decides who receives it). 404 report-not-found, 410
+   * report-withdrawn; a practice without results in the report gets state `not-in-report`.
    */
-  async practicePart(
-    actor: Actor,
-    id: number,
-    practiceId: number,
-    view: PracticePartView,
-  ): Promise<ReportPracticeDto> {
+  async practicePart(actor: Actor, id: number, practiceId: number): Promise<ReportPracticeDto> {
     const row = await this.readable(actor, id);
-    return this.part(actor, row, practiceId, view);
+    return this.part(actor, row, practiceId);
   }
 
   /** The canonical bytes of a report's snapshot (checked against its hash). */
@@ -315,12 +334,7 @@ export class ReportsService {
     return { row, snapshot: (await this.snapshot(row)).snapshot };
   }
 
-  private async part(
-    actor: Actor,
-    row: ReportRow,
-    practiceId: number,
-    view: PracticePartView,
-  ): Promise<ReportPracticeDto> {
+  private async part(actor: Actor, row: ReportRow, practiceId: number): Promise<ReportPracticeDto> {
     const { snapshot } = await this.snapshot(row);
     const report = await this.dto(actor, row);
     const found = snapshot.practices.find((p) => p.practice.id === practiceId);
@@ -349,10 +363,63 @@ export class ReportsService {
       practice: found.practice,
       state: 'results',
       message: null,
-      results: view === 'practice-lead' ? found.disclosed : found.full,
+      results: found.results,
       peers: found.peers,
       caution: snapshot.caution,
     };
+  }
+
+  // ── downloads ──
+
+  /** A report's data pack (the region's, or one practice's as its leads see it). */
+  async pack(actor: Actor, id: number, scope: PackScope): Promise<ReportDownload> {
+    const { row, snapshot } = await this.snapshotOf(actor, id);
+    const name = this.fileStem(row, snapshot, scope);
+    if (scope.kind === 'practice') this.assertInReport(snapshot, scope.practiceId, row);
+    return {
+      fileName: `${name}.xlsx`,
+      contentType: XLSX,
+      write: (stream) =>
+        writePack(
+          packSheets(row, snapshot, scope),
+          {
+            title: `${snapshot.identity.label} data pack`,
+            subject: `Content hash ${row.contentHash}`,
+            created: new Date(snapshot.identity.publishedAt),
+          },
+          stream,
+        ),
+    };
+  }
+
+  /** A report's PDF (the region's, or one practice's as its leads see it). */
+  async pdf(actor: Actor, id: number, scope: PackScope): Promise<ReportDownload> {
+    const { row, snapshot } = await this.snapshotOf(actor, id);
+    if (scope.kind === 'practice') this.assertInReport(snapshot, scope.practiceId, row);
+    return {
+      fileName: `${this.fileStem(row, snapshot, scope)}.pdf`,
+      contentType: PDF,
+      write: (stream) => writeReportPdf(row, snapshot, scope, stream),
+    };
+  }
+
+  private fileStem(row: ReportRow, snapshot: ReportSnapshot, scope: PackScope): string {
+    const quarter = snapshot.identity.quarter.label.replace(/\s+/g, '-');
+    if (scope.kind === 'region') return `cairn-report-${row.id}-${quarter}-region`;
+    const code =
+      snapshot.practices.find((p) => p.practice.id === scope.practiceId)?.practice.code ??
+      String(scope.practiceId);
+    return `cairn-report-${row.id}-${quarter}-${code}`;
+  }
+
+  private assertInReport(snapshot: ReportSnapshot, practiceId: number, row: ReportRow): void {
+    if (snapshot.practices.some((p) => p.practice.id === practiceId)) return;
+    throw new ProblemException(
+      HttpStatus.NOT_FOUND,
+      'practice-not-in-report',
+      'The practice has no results in this report',
+      `Practice ${practiceId} had no confirmed extract for ${snapshot.identity.quarter.label} when report ${row.id} was published, so the report has no figures of it to download.`,
+    );
   }
 
   // ── withdraw ──
@@ -432,12 +499,16 @@ export class ReportsService {
     if (cached) return cached;
     const stored = await this.repository.snapshot(row.id);
     if (!stored) throw notFound(row.id);
-    const canonical = canonicalBytes(stored, row.contentHash);
+    return this.remember(row.id, canonicalBytes(stored, row.contentHash));
+  }
+
+  /** Keeps a report's decoded snapshot (its bytes never change). */
+  private remember(id: number, canonical: Buffer) {
     const entry = { canonical, snapshot: decodeSnapshot(canonical) };
     if (this.cache.size >= CACHE_ENTRIES) {
       this.cache.delete(this.cache.keys().next().value!);
     }
-    this.cache.set(row.id, entry);
+    this.cache.set(id, entry);
     return entry;
   }
 

@@ -17,7 +17,7 @@ import type { PracticeResultsDto } from '../benchmarks/dto/practice-results.dto.
 import { canonicalJson } from '../measure-sets/canonical.js';
 import type { PracticeDto } from '../organisations/dto/practice.dto.js';
 import type { QuarterDto } from '../quarters/dto/quarter.dto.js';
-import type { PeerTableDto } from './dto/report.dto.js';
+import type { DisclosedCellDto, PeerTableDto } from './dto/report.dto.js';
 
 /** Bumped when the snapshot's shape changes; old snapshots keep their own. */
 export const SNAPSHOT_FORMAT = 1;
@@ -38,12 +38,19 @@ export interface SnapshotIdentity {
 export interface SnapshotPractice {
   practice: PracticeDto;
   submissionId: number;
-  /** As the region's readers see it (no disclosure control) */
-  full: PracticeResultsDto;
-  /** As the practice's own leads see it (region figures and peers under disclosure control) */
-  disclosed: PracticeResultsDto;
+  /** The practice's report as its own leads read it (region figures and peers under disclosure control) */
+  results: PracticeResultsDto;
   /** Each measure (everyone): this practice in full, the others protected */
   peers: PeerTableDto[];
+}
+
+export interface RegionBreakdownRow {
+  measure: string;
+  breakdown: string;
+  category: string;
+  met: DisclosedCellDto;
+  n: DisclosedCellDto;
+  rate: number | null;
 }
 
 export interface ReportSnapshot {
@@ -54,7 +61,10 @@ export interface ReportSnapshot {
     /** all, type1, type2_other */
     splits: RegionBenchmarkDto[];
     funnels: MeasureFunnelDto[];
+    /** The region's series of each measure (`practices` left empty: each practice's is in its part) */
     trends: BenchmarkTrendDto[];
+    /** The region's breakdowns (everyone), each breakdown's categories × (met, not met) protected */
+    breakdowns: RegionBreakdownRow[];
     /** Each measure (everyone), every practice protected */
     peerTables: PeerTableDto[];
   };

@@ -106,8 +106,17 @@ export class ReportDto {
   @ApiProperty({ type: ReportActionsDto }) actions!: ReportActionsDto;
 }
 
+export class ReportListActionsDto {
+  @ApiProperty({
+    type: Boolean,
+    description: 'The reader may publish a report of the quarter asked for (false without one)',
+  })
+  publish!: boolean;
+}
+
 export class ReportListDto {
   @ApiProperty({ type: [ReportDto], description: 'Newest first' }) reports!: ReportDto[];
+  @ApiProperty({ type: ReportListActionsDto }) actions!: ReportListActionsDto;
 }
 
 /** A count as a table under disclosure control shows it. */

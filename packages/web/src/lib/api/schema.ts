@@ -939,6 +939,74 @@ export interface paths {
     patch?: never;
     trace?: never;
   };
+  '/api/reports/{reportId}/data-pack.xlsx': {
+    parameters: {
+      query?: never;
+      header?: never;
+      path?: never;
+      cookie?: never;
+    };
+    /** The region’s data pack of a report (XLSX): other practices under disclosure control */
+    get: operations['ReportsController_regionPack'];
+    put?: never;
+    post?: never;
+    delete?: never;
+    options?: never;
+    head?: never;
+    patch?: never;
+    trace?: never;
+  };
+  '/api/reports/{reportId}/practices/{practiceId}/data-pack.xlsx': {
+    parameters: {
+      query?: never;
+      header?: never;
+      path?: never;
+      cookie?: never;
+    };
+    /** One practice’s data pack of a report (XLSX): its figures in full, others protected */
+    get: operations['ReportsController_practicePack'];
+    put?: never;
+    post?: never;
+    delete?: never;
+    options?: never;
+    head?: never;
+    patch?: never;
+    trace?: never;
+  };
+  '/api/reports/{reportId}/report.pdf': {
+    parameters: {
+      query?: never;
+      header?: never;
+      path?: never;
+      cookie?: never;
+    };
+    /** The region’s report as PDF: every measure and its funnel plot */
+    get: operations['ReportsController_regionPdf'];
+    put?: never;
+    post?: never;
+    delete?: never;
+    options?: never;
+    head?: never;
+    patch?: never;
+    trace?: never;
+  };
+  '/api/reports/{reportId}/practices/{practiceId}/report.pdf': {
+    parameters: {
+      query?: never;
+      header?: never;
+      path?: never;
+      cookie?: never;
+    };
+    /** One practice’s report as PDF, as its leads see it */
+    get: operations['ReportsController_practicePdf'];
+    put?: never;
+    post?: never;
+    delete?: never;
+    options?: never;
+    head?: never;
+    patch?: never;
+    trace?: never;
+  };
   '/api/reports/{reportId}/withdraw': {
     parameters: {
       query?: never;
@@ -2942,9 +3010,14 @@ export interface components {
       practices: components['schemas']['PracticeDto'][];
       actions: components['schemas']['ReportActionsDto'];
     };
+    ReportListActionsDto: {
+      /** @description The reader may publish a report of the quarter asked for (false without one) */
+      publish: boolean;
+    };
     ReportListDto: {
       /** @description Newest first */
       reports: components['schemas']['ReportDto'][];
+      actions: components['schemas']['ReportListActionsDto'];
     };
     /** @enum {string} */
     DisclosureSuppression: 'none' | 'primary' | 'secondary';
@@ -5039,6 +5112,132 @@ export interface operations {
         };
         content: {
           'application/json': components['schemas']['ReportPracticeDto'];
+        };
+      };
+      /** @description RFC 9457 problem details */
+      default: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['ProblemDto'];
+        };
+      };
+    };
+  };
+  ReportsController_regionPack: {
+    parameters: {
+      query?: never;
+      header?: never;
+      path: {
+        reportId: number;
+      };
+      cookie?: never;
+    };
+    requestBody?: never;
+    responses: {
+      /** @description About, region, measures by practice, funnel data, breakdowns, trends */
+      200: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet': string;
+        };
+      };
+      /** @description RFC 9457 problem details */
+      default: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['ProblemDto'];
+        };
+      };
+    };
+  };
+  ReportsController_practicePack: {
+    parameters: {
+      query?: never;
+      header?: never;
+      path: {
+        reportId: number;
+        practiceId: number;
+      };
+      cookie?: never;
+    };
+    requestBody?: never;
+    responses: {
+      /** @description About, your results, measures by practice, funnel data, breakdowns, trends */
+      200: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet': string;
+        };
+      };
+      /** @description RFC 9457 problem details */
+      default: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['ProblemDto'];
+        };
+      };
+    };
+  };
+  ReportsController_regionPdf: {
+    parameters: {
+      query?: never;
+      header?: never;
+      path: {
+        reportId: number;
+      };
+      cookie?: never;
+    };
+    requestBody?: never;
+    responses: {
+      /** @description The region’s report */
+      200: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/pdf': string;
+        };
+      };
+      /** @description RFC 9457 problem details */
+      default: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['ProblemDto'];
+        };
+      };
+    };
+  };
+  ReportsController_practicePdf: {
+    parameters: {
+      query?: never;
+      header?: never;
+      path: {
+        reportId: number;
+        practiceId: number;
+      };
+      cookie?: never;
+    };
+    requestBody?: never;
+    responses: {
+      /** @description The practice’s report */
+      200: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/pdf': string;
         };
       };
       /** @description RFC 9457 problem details */

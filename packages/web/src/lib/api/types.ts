@@ -121,3 +121,12 @@ export type NewExtraRecipient = Schemas['AddExtraRecipientDto'];
 export type MailPreferences = Schemas['MailPreferencesDto'];
 export type MailPreference = Schemas['MailPreferenceDto'];
 export type MailPreferencesChange = Schemas['UpdateMailPreferencesDto'];
+// ── reports: published snapshots, their parts, downloads ──
+export type Report = Schemas['ReportDto'];
+export type ReportList = Schemas['ReportListDto'];
+export type ReportRegion = Schemas['ReportRegionDto'];
+export type ReportPractice = Schemas['ReportPracticeDto'];
+export type PeerTable = Schemas['PeerTableDto'];
+export type DisclosedCell = Schemas['DisclosedCellDto'];
+export type PublishReport = Schemas['PublishReportDto'];
+export type WithdrawReport = Schemas['WithdrawReportDto'];
