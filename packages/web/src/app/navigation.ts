@@ -35,6 +35,13 @@ export const navItems: NavItem[] = [
   { label: 'Coverage', to: '/coverage', icon: 'grid-view', roles: ['regional_lead', 'auditor'] },
   { label: 'Quarters', to: '/quarters', icon: 'calendar', roles: everyone },
   {
+    label: 'Reports',
+    to: '/reports',
+    icon: 'document',
+    roles: everyone,
+    activeFor: /^\/reports\//,
+  },
+  {
     label: 'Measure sets',
     to: '/measure-sets',
     icon: 'properties',

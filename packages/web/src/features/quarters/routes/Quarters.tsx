@@ -201,7 +201,7 @@ function QuarterRow({
           <ul className="cairn-report-list">
             {reports.map((r) => (
               <li key={r.id}>
-                {r.label}{' '}
+                <Link to={`/reports/${r.id}`}>{r.label}</Link>{' '}
                 <span className="cairn-muted cairn-small">
                   ({r.status}, {formatDateTime(r.publishedAt)})
                 </span>
