@@ -70,12 +70,9 @@ describe('reports in the browser', () => {
       .waitFor();
     await browser.screenshot('reports-coverage');
 
-    await nav(page, 'Reports').click();
+    await nav(page, 'Quarters').click();
+    await row.getByRole('link', { name: 'Reports of 2026 Q3' }).click();
     await page.getByRole('heading', { name: 'Reports' }).waitFor();
-    const quarterValue = await page
-      .locator('#report-quarter option', { hasText: '2026 Q3' })
-      .getAttribute('value');
-    await page.locator('#report-quarter').selectOption(quarterValue!);
     await page.getByRole('button', { name: 'Publish report' }).waitFor();
     await accessible(page);
     // A blank note is refused next to its field.
@@ -102,7 +99,7 @@ describe('reports in the browser', () => {
     expect(hash).toMatch(/^[0-9a-f]{64}$/);
     const [packDownload] = await Promise.all([
       page.waitForEvent('download'),
-      page.getByRole('link', { name: 'Region data pack (XLSX)' }).click(),
+      page.getByRole('button', { name: 'Region data pack (XLSX)' }).click(),
     ]);
     const workbook = new ExcelJS.Workbook();
     await workbook.xlsx.load((await bytesOf(packDownload)) as unknown as ArrayBuffer);
@@ -112,7 +109,7 @@ describe('reports in the browser', () => {
     expect(values).toContain(hash);
     const [pdfDownload] = await Promise.all([
       page.waitForEvent('download'),
-      page.getByRole('link', { name: 'Region report (PDF)' }).click(),
+      page.getByRole('button', { name: 'Region report (PDF)' }).click(),
     ]);
     const pdf = join(artifactsDir, 'reports-region.pdf');
     writeFileSync(pdf, await bytesOf(pdfDownload));
@@ -145,7 +142,7 @@ describe('reports in the browser', () => {
     await accessible(page);
     const [pdfDownload] = await Promise.all([
       page.waitForEvent('download'),
-      page.getByRole('link', { name: 'OV102 report (PDF)' }).click(),
+      page.getByRole('button', { name: 'OV102 report (PDF)' }).click(),
     ]);
     const pdf = join(artifactsDir, 'reports-ov102.pdf');
     writeFileSync(pdf, await bytesOf(pdfDownload));
