@@ -195,8 +195,11 @@ function QuarterRow({
         </td>
       ) : null}
       <td>
+        <Link to={`/reports?quarter=${quarter.id}`} className="cairn-small">
+          Reports of {quarter.label}
+        </Link>
         {reports.length === 0 ? (
-          <span className="cairn-muted">No report published yet</span>
+          <div className="cairn-muted">No report published yet</div>
         ) : (
           <ul className="cairn-report-list">
             {reports.map((r) => (

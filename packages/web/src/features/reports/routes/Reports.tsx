@@ -1,8 +1,9 @@
 import {
   Button,
-  Callout,
+  Card,
   FormGroup,
   H2,
+  H3,
   HTMLSelect,
   HTMLTable,
   Intent,
@@ -137,7 +138,8 @@ function PublishForm({ quarterId, quarterLabel }: { quarterId: number; quarterLa
   };
   return (
     <form className="cairn-publish-form" onSubmit={submit} noValidate>
-      <Callout intent={Intent.PRIMARY} icon="upload" title={`Publish ${quarterLabel}`}>
+      <Card>
+        <H3>Publish {quarterLabel}</H3>
         <p>
           Publishing freezes the benchmark of the practices’ current submissions for {quarterLabel}:
           every practice’s results, the region’s, funnels and trends. Practice leads then read their
@@ -170,7 +172,7 @@ function PublishForm({ quarterId, quarterLabel }: { quarterId: number; quarterLa
         <Button type="submit" intent={Intent.PRIMARY} icon="upload" loading={publish.isPending}>
           Publish report
         </Button>
-      </Callout>
+      </Card>
     </form>
   );
 }
