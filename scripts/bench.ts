@@ -6,6 +6,7 @@
  *   - @cairn/api: 500 mails with attachments through the outbox vs nodemailer's pool alone
  *   - @cairn/api: publishing the demo quarter with its region pack, a practice's PDF, and the
  *     region pack of 7,000 synthetic practices vs a bare exceljs write of the same cells
+ *   - @cairn/web: region benchmark page, funnel points visible after navigation; initial JS
  * The ingest benchmark uses the disposable test MariaDB (never the demo data).
  * Exit code 1 when any benchmark misses a target.
  */
@@ -65,6 +66,15 @@ async function main(): Promise<void> {
       outcomes.push([
         'reports',
         await runInherit('npm', ['run', 'bench:reports', '-w', '@cairn/api'], {
+          cwd: ctx.root,
+          env: ctx.childEnv,
+        }),
+      ]);
+      buildIfStale(ctx.root, buildTargets[2]!);
+      log.step('── @cairn/web region benchmark page ──');
+      outcomes.push([
+        'web',
+        await runInherit('npx', ['tsx', 'tests/bench/web.ts'], {
           cwd: ctx.root,
           env: ctx.childEnv,
         }),
