@@ -4,6 +4,8 @@
  *   - @cairn/metrics: evaluation vs DuckDB at 100k / 1M / 3.5M records, funnel limits
  *   - @cairn/api: extract ingest vs LOAD DATA LOCAL INFILE and a bare exceljs read
  *   - @cairn/api: 500 mails with attachments through the outbox vs nodemailer's pool alone
+ *   - @cairn/api: publishing the demo quarter with its region pack, a practice's PDF, and the
+ *     region pack of 7,000 synthetic practices vs a bare exceljs write of the same cells
  *   - @cairn/web: region benchmark page, funnel points visible after navigation; initial JS
  * The ingest benchmark uses the disposable test MariaDB (never the demo data).
  * Exit code 1 when any benchmark misses a target.
@@ -14,6 +16,7 @@ import { buildIfStale, buildTargets } from './lib/build.ts';
 import { loadContext } from './lib/context.ts';
 import { log, runMain } from './lib/log.ts';
 import { runInherit } from './lib/proc.ts';
+import { prepareDemoData } from './lib/seed.ts';
 import { acquireTestDatabase } from './lib/test-db.ts';
 
 function hasBenchScript(root: string, workspace: string): boolean {
@@ -54,6 +57,15 @@ async function main(): Promise<void> {
       outcomes.push([
         'mail',
         await runInherit('npm', ['run', 'bench:mail', '-w', '@cairn/api'], {
+          cwd: ctx.root,
+          env: ctx.childEnv,
+        }),
+      ]);
+      log.step('── @cairn/api reports benchmark ──');
+      prepareDemoData(ctx.root);
+      outcomes.push([
+        'reports',
+        await runInherit('npm', ['run', 'bench:reports', '-w', '@cairn/api'], {
           cwd: ctx.root,
           env: ctx.childEnv,
         }),

@@ -88,6 +88,15 @@ async function main(): Promise<void> {
     env.CAIRN_CHROMIUM = chromium;
   }
 
+  if (selected.some((s) => s === 'api' || s === 'tests')) {
+    // The report checks read the text of the PDFs Cairn makes with poppler's pdftotext.
+    await ensureDebianPackage(
+      'pdftotext',
+      'poppler-utils',
+      'the report checks read PDF text with it',
+    );
+  }
+
   const needsBuild = selected.some((s) => s !== 'lint' && s !== 'format');
   if (needsBuild) {
     // The API and web import @cairn/metrics from its build; browser tests run the built API and web.

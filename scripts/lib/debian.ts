@@ -1,6 +1,7 @@
 /**
  * Installs the Debian packages Cairn needs when their program is missing:
- * mariadb-server (mariadbd) and chromium. As root through apt-get; otherwise
+ * mariadb-server (mariadbd), chromium and poppler-utils (pdftotext, for the
+ * report checks). As root through apt-get; otherwise
  * a clear message naming the package.
  */
 import { findExecutable, runInherit } from './proc.ts';

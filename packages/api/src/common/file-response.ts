@@ -2,6 +2,7 @@
 
 export const XLSX = 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet';
 export const CSV = 'text/csv';
+export const PDF = 'application/pdf';
 
 /** The OpenAPI description of a file download (for `@ApiOkResponse`). */
 export const fileResponse = (mediaType: string, description: string) => ({

@@ -48,6 +48,14 @@ export const navItems: NavItem[] = [
   },
   { label: 'Coverage', to: '/coverage', icon: 'grid-view', roles: ['regional_lead', 'auditor'] },
   { label: 'Quarters', to: '/quarters', icon: 'calendar', roles: everyone },
+  // The regional lead reaches reports from each audit quarter (their navigation is full).
+  {
+    label: 'Reports',
+    to: '/reports',
+    icon: 'document',
+    roles: ['practice_lead', 'auditor'],
+    activeFor: /^\/reports\//,
+  },
   {
     label: 'Measure sets',
     to: '/measure-sets',

@@ -93,6 +93,16 @@ export const routes: RouteObject[] = [
           })),
       },
       {
+        path: 'reports',
+        lazy: () =>
+          import('../features/reports/routes/Reports').then((m) => ({ Component: m.Reports })),
+      },
+      {
+        path: 'reports/:reportId',
+        lazy: () =>
+          import('../features/reports/routes/Report').then((m) => ({ Component: m.Report })),
+      },
+      {
         path: 'profile',
         lazy: () =>
           import('../features/profile/routes/Profile').then((m) => ({ Component: m.Profile })),

@@ -168,3 +168,13 @@ export type CaseFinding = Schemas['CaseFinding'];
 export type OpenCase = Schemas['OpenCaseDto'];
 export type CaseTransition = Schemas['TransitionDto'];
 export type CaseComment = Schemas['CommentDto'];
+
+// ── reports: published snapshots, their parts, downloads ──
+export type Report = Schemas['ReportDto'];
+export type ReportList = Schemas['ReportListDto'];
+export type ReportRegion = Schemas['ReportRegionDto'];
+export type ReportPractice = Schemas['ReportPracticeDto'];
+export type PeerTable = Schemas['PeerTableDto'];
+export type DisclosedCell = Schemas['DisclosedCellDto'];
+export type PublishReport = Schemas['PublishReportDto'];
+export type WithdrawReport = Schemas['WithdrawReportDto'];

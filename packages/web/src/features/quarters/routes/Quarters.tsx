@@ -195,13 +195,16 @@ function QuarterRow({
         </td>
       ) : null}
       <td>
+        <Link to={`/reports?quarter=${quarter.id}`} className="cairn-small">
+          Reports of {quarter.label}
+        </Link>
         {reports.length === 0 ? (
-          <span className="cairn-muted">No report published yet</span>
+          <div className="cairn-muted">No report published yet</div>
         ) : (
           <ul className="cairn-report-list">
             {reports.map((r) => (
               <li key={r.id}>
-                {r.label}{' '}
+                <Link to={`/reports/${r.id}`}>{r.label}</Link>{' '}
                 <span className="cairn-muted cairn-small">
                   ({r.status}, {formatDateTime(r.publishedAt)})
                 </span>
