@@ -265,7 +265,7 @@ describe('accessibility of every page, for every role', () => {
       practice,
       open.id,
       'two-problems.csv',
-      'record_ref,birth_year,Patient name\nA-1,1950,x\n',
+      'record_ref,birth_year,sex,Patient name\nA-1,1950,F,x\n',
     );
     // Two extracts waiting beside the current submission: the home shows all three.
     const older = await uploadCsv(practice, open.id, 'older.csv', await cleanCsv('WAIT-1'));
