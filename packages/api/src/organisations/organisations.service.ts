@@ -59,6 +59,11 @@ export class OrganisationsService {
     return region ? { id: region.id, code: region.code, name: region.name } : null;
   }
 
+  async regionByCode(code: string): Promise<RegionInfo | null> {
+    const region = await this.regions.findOne({ where: { code } });
+    return region ? { id: region.id, code: region.code, name: region.name } : null;
+  }
+
   async region(id: number): Promise<RegionInfo | null> {
     const region = await this.regions.findByPk(id);
     return region ? { id: region.id, code: region.code, name: region.name } : null;

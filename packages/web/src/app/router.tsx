@@ -117,6 +117,28 @@ export const routes: RouteObject[] = [
             Component: m.MailRecipients,
           })),
       },
+      // ── results and benchmarks ──
+      {
+        path: 'results',
+        lazy: () =>
+          import('../features/results/routes/PracticeResults').then((m) => ({
+            Component: m.MyResults,
+          })),
+      },
+      {
+        path: 'practices/:practiceId/results',
+        lazy: () =>
+          import('../features/results/routes/PracticeResults').then((m) => ({
+            Component: m.PracticeResults,
+          })),
+      },
+      {
+        path: 'benchmark',
+        lazy: () =>
+          import('../features/benchmark/routes/RegionBenchmark').then((m) => ({
+            Component: m.RegionBenchmark,
+          })),
+      },
       { path: '*', element: <NotFound /> },
     ],
   },

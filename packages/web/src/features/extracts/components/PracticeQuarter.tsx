@@ -126,15 +126,28 @@ export function PracticeQuarter({
             older={older}
             newer={newest ?? current}
           />
-          {mayUpload ? (
+          {mayUpload || current ? (
             <div className="cairn-home-actions">
-              <LinkButton
-                small
-                intent={!current && waiting.length === 0 ? Intent.PRIMARY : Intent.NONE}
-                icon="upload"
-                to={uploadLink(practice.id, quarter.id)}
-                text={current || waiting.length > 0 ? 'Send a corrected extract' : 'Upload extract'}
-              />
+              {current ? (
+                <LinkButton
+                  small
+                  intent={waiting.length === 0 ? Intent.PRIMARY : Intent.NONE}
+                  icon="timeline-bar-chart"
+                  to={`/practices/${practice.id}/results?quarter=${quarter.id}`}
+                  text="Results"
+                />
+              ) : null}
+              {mayUpload ? (
+                <LinkButton
+                  small
+                  intent={!current && waiting.length === 0 ? Intent.PRIMARY : Intent.NONE}
+                  icon="upload"
+                  to={uploadLink(practice.id, quarter.id)}
+                  text={
+                    current || waiting.length > 0 ? 'Send a corrected extract' : 'Upload extract'
+                  }
+                />
+              ) : null}
             </div>
           ) : null}
         </>

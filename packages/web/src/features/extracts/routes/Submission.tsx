@@ -214,6 +214,11 @@ function SubmissionScreen() {
           Its {formatCount(s.counts?.rowsAccepted ?? 0)} accepted rows are the practice&apos;s care
           records for this audit quarter.
           {mayUpload ? ' To change them, upload a new extract and confirm it.' : ''}
+          <p>
+            <Link to={`/practices/${s.practice.id}/results?quarter=${s.quarter.id}`}>
+              Read the practice&apos;s results for {s.quarter.label}
+            </Link>
+          </p>
         </Notice>
       ) : null}
 
