@@ -106,11 +106,24 @@ describe('accessibility of every page, for every role', () => {
   async function check(who: string, visit: Visit) {
     const { page } = browser;
     const errorsBefore = browser.errors.length;
+    const where = `${who}: ${visit.name} (${visit.path})`;
     await page.goto(server.baseUrl + visit.path, { waitUntil: 'networkidle' });
-    await page.locator('h1').first().waitFor();
+    await page
+      .locator('h1')
+      .first()
+      .waitFor({ timeout: 15_000 })
+      .catch((error: Error) => {
+        throw new Error(`${where}: no h1 (${error.message})`);
+      });
     // Lazy icons and late queries settle.
     await page.waitForTimeout(250);
-    const where = `${who}: ${visit.name} (${visit.path})`;
+    // Every page as it was checked, for a person to look at (tests/artifacts/a11y-…).
+    await browser.screenshot(
+      `a11y-${who}-${visit.name}`
+        .replace(/[^a-z0-9]+/gi, '-')
+        .toLowerCase()
+        .slice(0, 80),
+    );
     const report = await auditA11y(page);
     expect(report.blocking, `${where}\n${describeViolations(report.blocking)}`).toEqual([]);
     const structure = report.other.filter((v) => STRUCTURE.includes(v.id));
@@ -125,9 +138,32 @@ describe('accessibility of every page, for every role', () => {
     expect(browser.errors.slice(errorsBefore), where).toEqual([]);
   }
 
-  const common = (): Visit[] => [
-    { name: 'not found', path: '/no-such-page', title: 'Page not found' },
-    { name: 'sign-in (signed in)', path: '/sign-in', title: 'Sign in' },
+  /** Pages every role reads: audit quarters, measure sets and one of them, the profile. */
+  async function everyone(): Promise<Visit[]> {
+    const sets = await api<{ id: string; label: string }[]>('/api/measure-sets');
+    const set = sets[0]!;
+    return [
+      { name: 'audit quarters', path: '/quarters', title: 'Audit quarters' },
+      { name: 'measure sets', path: '/measure-sets', title: 'Measure sets' },
+      {
+        name: 'a measure set',
+        path: `/measure-sets/${encodeURIComponent(set.id)}`,
+        title: set.label,
+      },
+      { name: 'profile', path: '/profile', title: 'Your profile' },
+      { name: 'not found', path: '/no-such-page', title: 'Page not found' },
+      { name: 'sign-in (signed in)', path: '/sign-in', title: 'Sign in' },
+    ];
+  }
+
+  /** The regional lead's mail pages, as another role meets them (not for their role). */
+  const mailPages = (): Visit[] => [
+    { name: 'mail deliveries (not for this role)', path: '/deliveries', title: 'Mail deliveries' },
+    {
+      name: 'mail recipients (not for this role)',
+      path: '/mail-recipients',
+      title: 'Mail recipients',
+    },
   ];
 
   it('signed out: the landing page, sign-in, sign-out and a page that does not exist', async () => {
@@ -181,7 +217,9 @@ describe('accessibility of every page, for every role', () => {
       { name: 'coverage', path: '/coverage', title: 'Coverage' },
       { name: 'users', path: '/users', title: 'Users' },
       { name: 'audit trail', path: '/audit-trail', title: 'Audit trail' },
-      ...common(),
+      { name: 'mail deliveries', path: '/deliveries', title: 'Mail deliveries' },
+      { name: 'mail recipients', path: '/mail-recipients', title: 'Mail recipients' },
+      ...(await everyone()),
     ])
       await check('regional lead', visit);
     // Signing out ends on the signed-out sign-in page.
@@ -211,7 +249,8 @@ describe('accessibility of every page, for every role', () => {
       { name: 'audit trail', path: '/audit-trail', title: 'Audit trail' },
       { name: 'upload (not for auditors)', path: '/extracts/upload', title: 'Upload extract' },
       { name: 'users (not for auditors)', path: '/users', title: 'Users' },
-      ...common(),
+      ...mailPages(),
+      ...(await everyone()),
     ])
       await check('auditor', visit);
   });
@@ -226,7 +265,7 @@ describe('accessibility of every page, for every role', () => {
       practice,
       open.id,
       'two-problems.csv',
-      'record_ref,birth_year,Patient name\nA-1,1950,x\n',
+      'record_ref,birth_year,sex,Patient name\nA-1,1950,F,x\n',
     );
     // Two extracts waiting beside the current submission: the home shows all three.
     const older = await uploadCsv(practice, open.id, 'older.csv', await cleanCsv('WAIT-1'));
@@ -261,7 +300,8 @@ describe('accessibility of every page, for every role', () => {
       },
       { name: 'coverage (not for practice leads)', path: '/coverage', title: 'Coverage' },
       { name: 'audit trail (not for practice leads)', path: '/audit-trail', title: 'Audit trail' },
-      ...common(),
+      ...mailPages(),
+      ...(await everyone()),
     ])
       await check('practice lead of one practice', visit);
   });
@@ -277,7 +317,7 @@ describe('accessibility of every page, for every role', () => {
         path: `/practices/${p.id}/submissions`,
         title: 'Submissions',
       })),
-      ...common(),
+      ...(await everyone()),
     ])
       await check('practice lead of two practices', visit);
     await check('practice lead of two practices', {
@@ -285,6 +325,38 @@ describe('accessibility of every page, for every role', () => {
       path: '/sign-out',
       title: 'Sign in',
     });
+  });
+
+  // Last: opening the next quarter changes which quarter the other visits find open.
+  it('regional lead: a mail delivery, once a quarter has opened', async () => {
+    await signIn('Imogen Varley');
+    const opened = await browser.page.evaluate(async () => {
+      const session = (await (await fetch('/api/session')).json()) as { csrfToken: string };
+      const deadline = new Date(Date.now() + 30 * 86_400_000).toISOString().slice(0, 10);
+      const res = await fetch('/api/quarters', {
+        method: 'POST',
+        headers: { 'Content-Type': 'application/json', 'X-CSRF-Token': session.csrfToken },
+        body: JSON.stringify({ year: 2026, quarter: 4, submissionDeadline: deadline }),
+      });
+      return res.status;
+    });
+    expect(opened).toBe(201);
+    let sources: { kind: string; sourceId: number; label: string }[] = [];
+    for (let i = 0; i < 120 && sources.length === 0; i++) {
+      sources = (await api<{ sources: typeof sources }>('/api/mail/deliveries')).sources;
+      if (sources.length === 0) await browser.page.waitForTimeout(250);
+    }
+    const source = sources[0]!;
+    for (const visit of [
+      { name: 'mail deliveries', path: '/deliveries', title: 'Mail deliveries' },
+      {
+        name: 'a mail delivery',
+        path: `/deliveries/${source.kind}/${source.sourceId}`,
+        title: source.label,
+      },
+      { name: 'audit quarters, two open', path: '/quarters', title: 'Audit quarters' },
+    ])
+      await check('regional lead', visit);
   });
 
   it('leaves no React Router warning in the console', () => {

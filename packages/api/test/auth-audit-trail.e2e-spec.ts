@@ -56,6 +56,7 @@ describe('audit trail', () => {
     expect(events[0]).toMatchObject({
       action: 'auth.sign_in',
       actorLabel: 'imogen.varley@ostrevale.example',
+      actorName: 'Imogen Varley',
     });
     const ids = events.map((e) => e.id);
     expect([...ids].sort((a, b) => b - a)).toEqual(ids);
@@ -63,6 +64,7 @@ describe('audit trail', () => {
     expect(refused).toMatchObject({
       outcome: 'refused',
       actorLabel: 'sam.ashdown@kettleholm.example',
+      actorName: null,
     });
     expect(refused.summary).toBe('Sign-in refused: the person is not known to Cairn');
     expect(refused.detail!.reason).toBe('unknown-user');
@@ -112,9 +114,27 @@ describe('audit trail', () => {
     const res = await lead.get('/api/audit-events/actions').expect(200);
     expect(res.body).toEqual(
       expect.arrayContaining([
-        { action: 'auth.sign_in', count: 2 },
-        { action: 'auth.sign_in_refused', count: 1 },
-        { action: 'demo.seeded', count: 1 },
+        {
+          action: 'auth.sign_in',
+          label: 'Signed in',
+          group: 'auth.',
+          groupLabel: 'Sign-ins and sign-outs',
+          count: 2,
+        },
+        {
+          action: 'auth.sign_in_refused',
+          label: 'Sign-in refused',
+          group: 'auth.',
+          groupLabel: 'Sign-ins and sign-outs',
+          count: 1,
+        },
+        {
+          action: 'demo.seeded',
+          label: 'Demo data loaded',
+          group: 'demo.',
+          groupLabel: 'Other',
+          count: 1,
+        },
       ]),
     );
   });

@@ -3,6 +3,7 @@ import { InjectModel } from '@nestjs/sequelize';
 import { Op, QueryTypes, type Transaction, type WhereOptions } from 'sequelize';
 import { ProblemException } from '../common/problem.js';
 import { OrganisationsService } from '../organisations/organisations.service.js';
+import { PeopleNames } from '../users/people-names.js';
 import type {
   AuditActionDto,
   AuditEventPageDto,
@@ -31,6 +32,7 @@ export class AuditTrailService {
   constructor(
     @InjectModel(AuditEvent) private readonly events: typeof AuditEvent,
     @Inject(OrganisationsService) private readonly organisations: OrganisationsService,
+    @Inject(PeopleNames) private readonly people: PeopleNames,
   ) {}
 
   /** Appends one event; pass the caller's transaction so the event commits with the change it records. */
@@ -98,6 +100,10 @@ export class AuditTrailService {
       ...new Set(page.map((e) => e.practiceId).filter((id): id is number => id !== null)),
     ];
     const practices = await this.organisations.practiceRefs(practiceIds);
+    const names = await this.people.byEmail(
+      regionId,
+      page.map((e) => e.actorLabel),
+    );
     return {
       events: page.map((e) => ({
         id: Number(e.id),
@@ -107,6 +113,7 @@ export class AuditTrailService {
         outcome: e.outcome,
         actorUserId: e.actorUserId,
         actorLabel: e.actorLabel,
+        actorName: names.get(e.actorLabel) ?? null,
         practice: practices.find((p) => Number(p.id) === e.practiceId) ?? null,
         subjectType: e.subjectType,
         subjectId: e.subjectId,

@@ -36,6 +36,14 @@ export class AuditEventDto {
   @ApiProperty({ type: String, example: 'imogen.varley@ostrevale.example' })
   actorLabel!: string;
 
+  @ApiProperty({
+    nullable: true,
+    type: String,
+    example: 'Imogen Varley',
+    description: 'The name of the person the label names, when they are a user of the region',
+  })
+  actorName!: string | null;
+
   @ApiProperty({ nullable: true, type: PracticeRefDto, description: 'The practice concerned' })
   practice!: PracticeRefDto | null;
 

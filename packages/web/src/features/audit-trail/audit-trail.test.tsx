@@ -27,6 +27,7 @@ const events = [
     outcome: 'refused',
     actorUserId: null,
     actorLabel: 'sam.ashdown@kettleholm.example',
+    actorName: null,
     practice: null,
     subjectType: null,
     subjectId: null,
@@ -42,6 +43,7 @@ const events = [
     outcome: 'success',
     actorUserId: 1,
     actorLabel: 'imogen@x.example',
+    actorName: 'Imogen Varley',
     practice: { id: 14, code: 'OV104', name: 'Fellgate Family Practice' },
     subjectType: 'user',
     subjectId: '3',
@@ -68,6 +70,9 @@ describe('audit trail screen', () => {
     ).toBeTruthy();
     expect(screen.getAllByText('Refused').some((el) => el.closest('.bp6-tag'))).toBe(true);
     expect(screen.getByText('OV104')).toBeTruthy();
+    // People by name (the address they signed in with on hover); unknown addresses as they were.
+    expect(screen.getByTitle('imogen@x.example').textContent).toBe('Imogen Varley');
+    expect(screen.getByText('sam.ashdown@kettleholm.example')).toBeTruthy();
     expect(screen.getByRole('button', { name: 'Show older entries' })).toBeTruthy();
     await userEvent.click(screen.getAllByRole('button', { name: 'Show details' })[0]!);
     expect(await screen.findByText('unknown-user')).toBeTruthy();

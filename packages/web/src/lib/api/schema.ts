@@ -1474,6 +1474,11 @@ export interface components {
       actorUserId: number | null;
       /** @example imogen.varley@ostrevale.example */
       actorLabel: string;
+      /**
+       * @description The name of the person the label names, when they are a user of the region
+       * @example Imogen Varley
+       */
+      actorName: string | null;
       /** @description The practice concerned */
       practice: components['schemas']['PracticeRefDto'] | null;
       subjectType: string | null;

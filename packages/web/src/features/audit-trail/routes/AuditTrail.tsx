@@ -166,7 +166,13 @@ function AuditTrailScreen() {
                       </Tag>
                     </td>
                     <td title={`Action: ${event.action}`}>{event.actionLabel}</td>
-                    <td>{event.actorLabel}</td>
+                    <td>
+                      {event.actorName ? (
+                        <span title={event.actorLabel}>{event.actorName}</span>
+                      ) : (
+                        event.actorLabel
+                      )}
+                    </td>
                     <td>{event.summary}</td>
                     <td>{event.practice?.code ?? ''}</td>
                     <td>

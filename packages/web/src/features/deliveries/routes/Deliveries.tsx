@@ -1,4 +1,4 @@
-import { Classes, H2, HTMLTable, Icon, NonIdealState, Spinner } from '@blueprintjs/core';
+import { Classes, H1, HTMLTable, Icon, Spinner } from '@blueprintjs/core';
 import { Link } from 'react-router-dom';
 import { ProblemCallout } from '../../../components/ProblemCallout';
 import { RequireRole } from '../../../components/RequireRole';
@@ -8,6 +8,7 @@ import { usePageTitle } from '../../../lib/page-title';
 import { useDeliveries } from '../api/deliveries';
 import { StateTag } from './StateTag';
 import './mail.css';
+import { EmptyState } from '../../../components/Notice';
 
 /** `/deliveries`: every source of the region's e-mail, with its messages' counts by state. */
 export function Deliveries() {
@@ -26,7 +27,7 @@ function DeliveriesScreen() {
     <div className="cairn-mail">
       <div className="cairn-page-head">
         <div>
-          <H2>Mail deliveries</H2>
+          <H1 className="cairn-page-title">Mail deliveries</H1>
           <p className="cairn-muted">
             What Cairn has e-mailed to practices, source by source: how many messages were sent, are
             waiting or failed, and why a failed one failed. Open a source to see each message.
@@ -41,7 +42,7 @@ function DeliveriesScreen() {
       {deliveries.isPending ? (
         <Spinner aria-label="Loading the deliveries" />
       ) : sources.length === 0 ? (
-        <NonIdealState
+        <EmptyState
           icon="envelope"
           title="No e-mail yet"
           description="Opening an audit quarter tells each practice its deadline; reminders follow before the deadline."

@@ -1,4 +1,4 @@
-import { Button, Callout, H2, HTMLTable, Intent, Spinner } from '@blueprintjs/core';
+import { Button, Callout, H1, HTMLTable, Intent, Spinner } from '@blueprintjs/core';
 import { useParams } from 'react-router-dom';
 import { ProblemCallout } from '../../../components/ProblemCallout';
 import { RequireRole } from '../../../components/RequireRole';
@@ -9,6 +9,7 @@ import { useDelivery, useResend } from '../api/deliveries';
 import { StateTag } from './StateTag';
 import { Trail } from './Trail';
 import './mail.css';
+import { Notice } from '../../../components/Notice';
 
 /** `/deliveries/:kind/:sourceId`: one source's messages, failures first, and sending them again. */
 export function Delivery() {
@@ -31,7 +32,7 @@ function DeliveryScreen() {
       <Trail here={source?.label ?? '…'} />
       <div className="cairn-page-head">
         <div>
-          <H2>{source?.label ?? 'Mail delivery'}</H2>
+          <H1 className="cairn-page-title">{source?.label ?? 'Mail delivery'}</H1>
           {source ? (
             <p className="cairn-muted">
               For {formatCount(source.practices)} practices, first queued{' '}
@@ -69,7 +70,7 @@ function DeliveryScreen() {
             ))}
           </p>
           {delivery.data.practicesWithoutRecipients.length > 0 ? (
-            <Callout
+            <Notice
               intent={Intent.WARNING}
               icon="inbox"
               title={`${formatCount(delivery.data.practicesWithoutRecipients.length)} practices had nobody to write to`}
@@ -79,7 +80,7 @@ function DeliveryScreen() {
               {delivery.data.practicesWithoutRecipients.map((p) => p.code).join(', ')}. Add
               addresses on the <a href="/mail-recipients">mail recipients</a> page; they receive the
               next messages.
-            </Callout>
+            </Notice>
           ) : null}
           <HTMLTable compact className="cairn-mail-table">
             <thead>

@@ -1,7 +1,7 @@
 import {
   Button,
   FormGroup,
-  H2,
+  H1,
   HTMLSelect,
   HTMLTable,
   InputGroup,
@@ -66,7 +66,7 @@ function MailRecipientsScreen() {
       <Trail here={'Mail recipients'} />
       <div className="cairn-page-head">
         <div>
-          <H2>Mail recipients</H2>
+          <H1 className="cairn-page-title">Mail recipients</H1>
           <p className="cairn-muted">
             Cairn writes to each practice&rsquo;s active practice leads, except for the kinds of
             e-mail they switched off on their profile, and to any extra address you add here (at

@@ -1,6 +1,7 @@
-import { HTMLTable, NonIdealState, Spinner } from '@blueprintjs/core';
+import { HTMLTable, Spinner } from '@blueprintjs/core';
 import { ProblemCallout } from '../../../components/ProblemCallout';
 import { useMeasureSetChanges } from '../api/measure-sets';
+import { EmptyState } from '../../../components/Notice';
 
 const kindWords = { added: 'Added', removed: 'Removed', changed: 'Changed' } as const;
 
@@ -12,7 +13,7 @@ export function ChangesTable({ id, basedOn }: { id: string; basedOn: string }) {
   const list = changes.data.changes;
   if (list.length === 0) {
     return (
-      <NonIdealState
+      <EmptyState
         icon="tick"
         title="No differences yet"
         description={`This version is the same as ${basedOn}.`}

@@ -1,15 +1,4 @@
-import {
-  Alert,
-  Button,
-  Callout,
-  H2,
-  H3,
-  HTMLTable,
-  Intent,
-  NonIdealState,
-  Spinner,
-  Tag,
-} from '@blueprintjs/core';
+import { Alert, Button, H1, H2, HTMLTable, Intent, Spinner, Tag } from '@blueprintjs/core';
 import { useState } from 'react';
 import { Link, useNavigate, useParams } from 'react-router-dom';
 import { ClinicalCaution } from '../../../components/ClinicalCaution';
@@ -32,6 +21,7 @@ import { MeasureSetStatusTag } from '../components/MeasureSetStatusTag';
 import { StartDraftDialog } from '../components/StartDraftDialog';
 import { directionWords } from '../components/words';
 import './MeasureSets.css';
+import { EmptyState, Notice } from '../../../components/Notice';
 
 type Editing = { kind: 'settings' } | { kind: 'measure'; list: MeasureList; index: number } | null;
 
@@ -79,9 +69,9 @@ function VersionPage({ version }: { version: Version }) {
       </p>
       <div className="cairn-page-head">
         <div>
-          <H2>
+          <H1 className="cairn-page-title">
             {version.label} <MeasureSetStatusTag status={version.status} />
-          </H2>
+          </H1>
           <p className="cairn-muted">
             {version.id}
             {version.isDefault ? ' · default for new quarters' : ''}
@@ -119,10 +109,10 @@ function VersionPage({ version }: { version: Version }) {
       </div>
 
       {version.status === 'draft' ? (
-        <Callout intent={Intent.WARNING} icon="edit" title="A draft">
+        <Notice intent={Intent.WARNING} icon="edit" title="A draft">
           Nothing uses a draft. Each change is checked and saved as you make it; publish the draft
           to make it a version that audit quarters can use. Once published it never changes.
-        </Callout>
+        </Notice>
       ) : null}
       <ProblemCallout error={publish.error ?? discard.error} />
 
@@ -167,7 +157,7 @@ function VersionPage({ version }: { version: Version }) {
 
       {version.basedOn ? (
         <section aria-labelledby="changes-heading">
-          <H3 id="changes-heading">Changes from {version.basedOn}</H3>
+          <H2 id="changes-heading">Changes from {version.basedOn}</H2>
           <ChangesTable id={version.id} basedOn={version.basedOn} />
         </section>
       ) : null}
@@ -254,11 +244,11 @@ function MeasuresSection({
 }) {
   return (
     <section aria-labelledby={`${id}-heading`}>
-      <H3 id={`${id}-heading`}>
+      <H2 id={`${id}-heading`}>
         {title} ({measures.length})
-      </H3>
+      </H2>
       {measures.length === 0 ? (
-        <NonIdealState icon="blank" title={`No ${title.toLowerCase()}`} layout="horizontal" />
+        <EmptyState icon="blank" title={`No ${title.toLowerCase()}`} layout="horizontal" />
       ) : (
         <HTMLTable compact striped className="cairn-measures-table">
           <thead>

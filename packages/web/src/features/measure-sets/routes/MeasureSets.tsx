@@ -1,4 +1,4 @@
-import { H2, HTMLTable, NonIdealState, Spinner, Tag } from '@blueprintjs/core';
+import { H1, HTMLTable, Spinner, Tag } from '@blueprintjs/core';
 import { Link } from 'react-router-dom';
 import { ProblemCallout } from '../../../components/ProblemCallout';
 import { formatDateTime } from '../../../lib/format';
@@ -6,6 +6,7 @@ import { usePageTitle } from '../../../lib/page-title';
 import { useMeasureSets } from '../api/measure-sets';
 import { MeasureSetStatusTag } from '../components/MeasureSetStatusTag';
 import './MeasureSets.css';
+import { EmptyState } from '../../../components/Notice';
 
 /** `/measure-sets`: every version the person reads, and where each is used. */
 export function MeasureSets() {
@@ -15,7 +16,7 @@ export function MeasureSets() {
     <div className="cairn-measure-sets">
       <div className="cairn-page-head">
         <div>
-          <H2>Measure sets</H2>
+          <H1 className="cairn-page-title">Measure sets</H1>
           <p className="cairn-muted">
             A measure set lists the care processes and treatment targets a quarter is measured by,
             with every threshold, population and guideline source. Published versions never change;
@@ -26,7 +27,7 @@ export function MeasureSets() {
       <ProblemCallout error={list.error} />
       {list.isPending ? <Spinner aria-label="Loading measure sets" /> : null}
       {list.data && list.data.length === 0 ? (
-        <NonIdealState icon="properties" title="No measure sets" />
+        <EmptyState icon="properties" title="No measure sets" />
       ) : null}
       {list.data && list.data.length > 0 ? (
         <HTMLTable compact striped className="cairn-measure-sets-table">

@@ -1,4 +1,4 @@
-import { Callout, Card, H2, H3, Intent, Spinner, Switch, Tag } from '@blueprintjs/core';
+import { Callout, Card, H1, H2, Intent, Spinner, Switch, Tag } from '@blueprintjs/core';
 import { ProblemCallout } from '../../../components/ProblemCallout';
 import { RequireRole } from '../../../components/RequireRole';
 import { roleValues, type MailKind, type MailPreference } from '../../../lib/api/types';
@@ -34,7 +34,7 @@ function ProfileScreen() {
     <div className="cairn-profile">
       <div className="cairn-page-head">
         <div>
-          <H2>Your profile</H2>
+          <H1 className="cairn-page-title">Your profile</H1>
           <p className="cairn-muted">
             Who Cairn knows you as, and which e-mails it sends you. Your name, role and practices
             are kept by the regional lead.
@@ -73,7 +73,7 @@ function ProfileScreen() {
       </Card>
 
       <section id="mail" aria-labelledby="mail-heading" className="cairn-profile-mail">
-        <H3 id="mail-heading">E-mail from Cairn</H3>
+        <H2 id="mail-heading">E-mail from Cairn</H2>
         <p className="cairn-muted">
           Cairn writes to {me.email}. Switch off what you do not want; the change counts from the
           next message.

@@ -1,4 +1,4 @@
-import { Alert, Button, H2, HTMLTable, Intent, NonIdealState, Spinner } from '@blueprintjs/core';
+import { Alert, Button, H1, HTMLTable, Intent, Spinner } from '@blueprintjs/core';
 import { useState } from 'react';
 import { Link } from 'react-router-dom';
 import { ProblemCallout } from '../../../components/ProblemCallout';
@@ -11,6 +11,7 @@ import { ChangeQuarterDialog } from '../components/ChangeQuarterDialog';
 import { OpenQuarterDialog } from '../components/OpenQuarterDialog';
 import { QuarterStatusTag } from '../components/QuarterStatusTag';
 import './Quarters.css';
+import { EmptyState } from '../../../components/Notice';
 
 type Editing = { kind: 'change' | 'reopen'; row: AuditQuarter } | { kind: 'open' } | null;
 
@@ -33,7 +34,7 @@ export function Quarters() {
     <div className="cairn-quarters">
       <div className="cairn-page-head">
         <div>
-          <H2>Audit quarters</H2>
+          <H1 className="cairn-page-title">Audit quarters</H1>
           <p className="cairn-muted">
             Each quarter practices send one extract for its review window. Until its deadline a
             quarter is open for extracts; its results are measured by the measure set it names.
@@ -56,7 +57,7 @@ export function Quarters() {
       {overview.isPending ? <Spinner aria-label="Loading audit quarters" /> : null}
 
       {data && data.quarters.length === 0 ? (
-        <NonIdealState
+        <EmptyState
           icon="calendar"
           title="No audit quarters yet"
           description={
@@ -177,16 +178,18 @@ function QuarterRow({
       {seesCoverage ? (
         <td>
           {coverage ? (
-            <Link
-              to={`/coverage?quarter=${quarter.id}`}
-              className="cairn-coverage-line"
-              aria-label={`Coverage of ${quarter.label}: ${coverage.current} of ${coverage.practices} practices with a current submission, ${coverage.awaitingConfirmation} awaiting confirmation, ${coverage.none} with none`}
-            >
+            <Link to={`/coverage?quarter=${quarter.id}`} className="cairn-coverage-line">
+              {/* Read whole by a screen reader; the words seen are all part of it. */}
+              <span className="visually-hidden">Coverage of {quarter.label}: </span>
               <span>
                 <strong>{formatCount(coverage.current)}</strong> of{' '}
                 {formatCount(coverage.practices)} current
+                <span className="visually-hidden">,</span>
               </span>
-              <span>{formatCount(coverage.awaitingConfirmation)} awaiting confirmation</span>
+              <span>
+                {formatCount(coverage.awaitingConfirmation)} awaiting confirmation
+                <span className="visually-hidden">,</span>
+              </span>
               <span>{formatCount(coverage.none)} none</span>
             </Link>
           ) : (
