@@ -13,12 +13,14 @@
  * blood pressure around 134/78 mmHg, total cholesterol around 4.5 mmol/L
  * (lower on a statin), creatinine by sex and age, a skewed urine ACR. Type 2
  * time from diagnosis to insulin is exponential with a median of 7 years, the
- * common rule of thumb (methods.md §5, common practice, no source).
+ * common rule of thumb (docs/methods.md §5, common practice, no source).
  *
  * Practice behaviours (demo-region.ts `profile`): 'improving' completes more
  * care processes quarter on quarter; 'persistently-low' stays well below its
  * peers; 'implausible' sends values outside plausible ranges (refused rows);
- * 'not-submitted' sends nothing for the latest quarter.
+ * 'not-submitted' sends nothing for the latest quarter. The implausible practice also shows
+ * clinical data-quality flags: type 1 recorded as not on insulin, and diagnostic results below
+ * the WHO thresholds.
  *
  * Run: npx tsx seed-data/extracts.ts [outDir]
  */
@@ -195,7 +197,10 @@ function makePerson(practice: DemoPractice, n: number, from: number, lastYear: n
     bmiLevel: clamp(normal(r, type === 'type2' ? 31 : 26.5, type === 'type2' ? 5.5 : 4), 17, 58),
     from,
     until: 99,
-    slip: type === 'type1' && r() < 0.01,
+    // The implausible-data practice records insulin carelessly: many of its type 1 people appear
+    // as not on insulin (a clinical data-quality flag). One draw either way, so the rest of every
+    // person is the same as before.
+    slip: type === 'type1' && r() < (practice.profile === 'implausible' ? 0.35 : 0.01),
   };
 }
 
@@ -378,6 +383,13 @@ function rowsFor(practice: DemoPractice, people: Person[], q: number, style: Sty
       else if (x < 0.036) values.birth_year = 1884;
       else if (x < 0.045 && values.creatinine_date !== null) values.creatinine_value = 0.9;
       else if (x < 0.05 && values.hba1c_date !== null) values.hba1c_value = 6.8;
+      // A diagnostic result below the WHO thresholds (a clinical data-quality flag); drawn last,
+      // so nothing else of the row changes.
+      if (r() < 0.05) {
+        values.diagnostic_test = 'fasting_glucose';
+        values.diagnostic_value = round1(5.2 + r());
+        values.diagnostic_unit = 'mmol/L';
+      }
     }
     rows.push(headings.map((h) => values[h] ?? null));
   }

@@ -9,6 +9,7 @@ import { HealthModule } from './health/health.module.js';
 import { MailModule } from './mail/mail.module.js';
 import { MeasureSetsModule } from './measure-sets/measure-sets.module.js';
 import { OrganisationsModule } from './organisations/organisations.module.js';
+import { QuarterOverviewModule } from './quarter-overview/quarter-overview.module.js';
 import { QuartersModule } from './quarters/quarters.module.js';
 import { SubmissionsModule } from './submissions/submissions.module.js';
 import { UsersModule } from './users/users.module.js';
@@ -32,6 +33,7 @@ export const featureModules = [
   QuartersModule,
   SubmissionsModule,
   BenchmarksModule,
+  QuarterOverviewModule,
   MailModule,
 ];
 

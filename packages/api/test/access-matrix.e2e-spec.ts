@@ -83,6 +83,8 @@ function observed(res: {
 }
 
 /**
+ * Hand-written expectations for the sign-in, users, audit-trail, measure-set, audit-quarter and
+ * recall-list routes (a cross-check of the rule above).
  * Hand-written expectations for the sign-in, users, audit-trail, measure-set, recall-list and
  * mail routes (a cross-check of the rule above).
  */
@@ -170,6 +172,47 @@ const handWritten: Record<string, Record<Caller, string>> = {
     auditor: A,
     deactivated: U,
   },
+  // Measure sets and audit quarters: everyone reads; regional leads change (auditors are read-only).
+  ...Object.fromEntries(
+    [
+      'GET /api/quarter-overview',
+      'GET /api/measure-sets/:measureSetId/changes',
+      'GET /api/quarters',
+      'GET /api/quarters/:quarterId',
+    ].map((key) => [
+      key,
+      {
+        anonymous: U,
+        'lead of practice': A,
+        'lead of another': A,
+        'regional lead': A,
+        auditor: A,
+        deactivated: U,
+      },
+    ]),
+  ),
+  ...Object.fromEntries(
+    [
+      'POST /api/measure-sets/:measureSetId/drafts',
+      'PUT /api/measure-sets/:measureSetId',
+      'POST /api/measure-sets/:measureSetId/publish',
+      'DELETE /api/measure-sets/:measureSetId',
+      'POST /api/quarters',
+      'PATCH /api/quarters/:quarterId',
+      'POST /api/quarters/:quarterId/close',
+      'POST /api/quarters/:quarterId/reopen',
+    ].map((key) => [
+      key,
+      {
+        anonymous: U,
+        'lead of practice': R,
+        'lead of another': R,
+        'regional lead': A,
+        auditor: R,
+        deactivated: U,
+      },
+    ]),
+  ),
   ...Object.fromEntries(
     ['recall-list', 'recall-list.csv', 'recall-list.xlsx'].map((path) => [
       `GET /api/practices/:practiceId/quarters/:quarterId/${path}`,

@@ -125,7 +125,7 @@ describe('extracts: upload, report, confirm', () => {
     expect(months.map((m) => m.hba1c_month)).toEqual(['2026-05', '2026-05', '2026-05', '2026-05']);
   });
 
-  it('stores the keyed pseudonym of methods.md §9, computed while loading, equal to @cairn/metrics', async () => {
+  it('stores the keyed pseudonym of docs/methods.md §9, computed while loading, equal to @cairn/metrics', async () => {
     const lead = await signInAs(t, 'practice_lead_one');
     const practice = w.practice('OV102');
     const quarter = w.quarter('2026 Q3');

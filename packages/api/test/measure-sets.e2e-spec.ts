@@ -23,23 +23,34 @@ describe('measure sets', () => {
     await t?.close();
   });
 
-  it.each(['regional_lead', 'auditor', 'practice_lead_one'])(
-    'lists the versions to %s',
-    async (who) => {
-      const agent = who === 'regional_lead' ? lead : await signInAs(t, who);
-      const res = await agent.get('/api/measure-sets').expect(200);
-      expect(res.body).toEqual([
-        {
-          id: DEFAULT,
-          label: 'Cairn default measure set 2026.1',
-          description: expect.stringContaining('care processes'),
-          careProcesses: 10,
-          treatmentTargets: 10,
-          isDefault: true,
-        },
-      ]);
-    },
-  );
+  it.each([
+    ['regional_lead', true],
+    ['auditor', false],
+    ['practice_lead_one', false],
+  ])('lists the versions to %s, with what they may do', async (who, mayClone) => {
+    const agent = who === 'regional_lead' ? lead : await signInAs(t, who);
+    const res = await agent.get('/api/measure-sets').expect(200);
+    expect(res.body).toEqual([
+      {
+        id: DEFAULT,
+        label: 'Cairn default measure set 2026.1',
+        description: expect.stringContaining('care processes'),
+        status: 'published',
+        basedOn: null,
+        shippedWithCairn: true,
+        contentHash: expect.stringMatching(/^[0-9a-f]{64}$/),
+        careProcesses: 10,
+        treatmentTargets: 10,
+        isDefault: true,
+        createdAt: expect.any(String),
+        createdBy: 'Cairn',
+        publishedAt: expect.any(String),
+        publishedBy: 'Cairn',
+        usedBy: [],
+        actions: { clone: mayClone, edit: false, publish: false, discard: false },
+      },
+    ]);
+  });
 
   it('describes every measure of a version', async () => {
     const res = await lead.get(`/api/measure-sets/${DEFAULT}`).expect(200);
@@ -49,7 +60,14 @@ describe('measure sets', () => {
       isDefault: true,
       eligibilityMinAge: 12,
       retinalWindowMonths: 12,
+      status: 'published',
+      revision: 1,
+      suggestedDraftId: 'cairn-default-2026.2',
+      suggestedDraftLabel: 'Cairn default measure set 2026.2',
     });
+    // The definition as stored: what the content hash is of.
+    expect(body.definition.id).toBe(DEFAULT);
+    expect(body.definition.targets[1]).toMatchObject({ key: 'hba1c_le_53', threshold: 53 });
     expect(body.breakdowns.map((b: { key: string }) => b.key)).toEqual([
       'age_band',
       'sex',
@@ -206,6 +224,12 @@ describe('measure sets', () => {
         .send({ year: 2027, quarter: 1 })
         .expect(201);
       expect(byDefault.body.measureSetId).toBe(DEFAULT);
+      // Each version says which quarters use it, latest first.
+      const list = await lead.get('/api/measure-sets').expect(200);
+      expect(list.body[0].usedBy).toEqual([
+        { kind: 'quarter', id: byDefault.body.id, label: '2027 Q1', status: 'open' },
+        { kind: 'quarter', id: chosen.body.id, label: '2026 Q4', status: 'open' },
+      ]);
     });
   });
 });

@@ -12,6 +12,7 @@ export * from './records/columns.js';
 
 // Measure sets and evaluation
 export * from './measures/schema.js';
+export * from './measures/threshold-ranges.js';
 export * from './measures/quarter.js';
 export * from './measures/compile.js';
 export type { HistogramLayout, HistogramPack } from './measures/layout.js';
@@ -54,6 +55,13 @@ export * from './kidney/kdigo.js';
 
 // Disclosure control and pseudonyms
 export * from './disclosure/disclosure-control.js';
+export {
+  protectTable,
+  type ProtectedTable,
+  type PublishedTotals,
+  type TableProtectionOptions,
+} from './disclosure/protect-table.js';
+export { revealedCounts, type TablePosition } from './disclosure/audit-suppression.js';
 export {
   recordPseudonym,
   createPseudonymiser,

@@ -45,25 +45,37 @@ describe('session', () => {
     expect(new Headers(callsOf(fetchMock)[1]![1]?.headers).get('X-CSRF-Token')).toBeNull();
   });
 
-  it('shows each role its own navigation: extracts for practice and regional leads, coverage for regional lead and auditor, Users to the regional lead only', () => {
+  it('shows each role its own navigation: extracts for practice and regional leads, coverage for regional lead and auditor, quarters and measure sets to everyone, Users to the regional lead only', () => {
     expect(navigationFor(lead).map((i) => i.label)).toEqual([
       'Home',
       'Upload extract',
       'Submissions',
       'Coverage',
+      'Quarters',
+      'Measure sets',
       'Users',
       'Audit trail',
     ]);
     expect(navigationFor({ ...lead, role: 'auditor' }).map((i) => i.label)).toEqual([
       'Home',
       'Coverage',
+      'Quarters',
+      'Measure sets',
       'Audit trail',
     ]);
     expect(navigationFor({ ...lead, role: 'practice_lead' }).map((i) => i.label)).toEqual([
       'Home',
       'Upload extract',
       'Submissions',
+      'Quarters',
+      'Measure sets',
     ]);
+  });
+
+  it('keeps Measure sets highlighted on a version’s own page', () => {
+    const sets = navigationFor(lead).find((i) => i.label === 'Measure sets')!;
+    expect(alsoActive(sets, '/measure-sets/cairn-default-2026.1')).toBe(true);
+    expect(alsoActive(sets, '/quarters')).toBe(false);
   });
 
   it('keeps Submissions highlighted on a submission’s own page, and nothing else', () => {

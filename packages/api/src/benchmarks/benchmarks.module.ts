@@ -1,17 +1,32 @@
 import { Module } from '@nestjs/common';
 import { MeasureSetsModule } from '../measure-sets/measure-sets.module.js';
+import { OrganisationsModule } from '../organisations/organisations.module.js';
 import { QuartersModule } from '../quarters/quarters.module.js';
 import { SubmissionsModule } from '../submissions/submissions.module.js';
+import { BenchmarkController } from './benchmark.controller.js';
+import { BenchmarkResultsRepository } from './benchmark-results.repository.js';
+import { BenchmarkStore } from './benchmark-store.service.js';
+import { BenchmarksService } from './benchmarks.service.js';
+import { PracticeResultsController } from './practice-results.controller.js';
+import { PracticeResultsService } from './practice-results.service.js';
 import { RecallListController } from './recall-list.controller.js';
 import { RecallListService } from './recall-list.service.js';
 
 /**
- * Results of an audit quarter read from practices' current submissions:
- * recall lists today (benchmark_results, migration 0301, is this module's).
+ * Results of an audit quarter, read from practices' current submissions: the
+ * region's benchmark (stored in benchmark_results, this module's table),
+ * a practice's results against it, and recall lists.
  */
 @Module({
-  imports: [MeasureSetsModule, QuartersModule, SubmissionsModule],
-  controllers: [RecallListController],
-  providers: [RecallListService],
+  imports: [MeasureSetsModule, OrganisationsModule, QuartersModule, SubmissionsModule],
+  controllers: [BenchmarkController, PracticeResultsController, RecallListController],
+  providers: [
+    BenchmarkResultsRepository,
+    BenchmarkStore,
+    BenchmarksService,
+    PracticeResultsService,
+    RecallListService,
+  ],
+  exports: [BenchmarkStore],
 })
 export class BenchmarksModule {}

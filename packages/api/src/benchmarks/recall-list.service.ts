@@ -126,12 +126,7 @@ export class RecallListService {
         code: submission.practiceCode,
         name: submission.practiceName,
       },
-      quarter: {
-        id: quarter.id,
-        label: quarter.label,
-        windowStart: quarter.windowStart,
-        windowEnd: quarter.windowEnd,
-      },
+      quarter,
       measureSetId: opened.version.id,
       measure: toMeasureDto(opened.measure),
       split: opened.split,

@@ -24,13 +24,23 @@ export interface RegionInfo {
 /** What other modules need to know of a practice. */
 export interface PracticeInfo extends PracticeDto {
   regionId: number;
+  /** The code of its locality (null when it has none) */
+  localityCode: string | null;
   active: boolean;
+}
+
+/** A locality of a region. */
+export interface LocalityInfo {
+  id: number;
+  code: string;
+  name: string;
 }
 
 const ref = (p: Practice): PracticeRefDto => ({ id: p.id, code: p.code, name: p.name });
 const info = (p: Practice): PracticeInfo => ({
   ...ref(p),
   localityName: p.locality?.name ?? null,
+  localityCode: p.locality?.code ?? null,
   regionId: p.regionId,
   active: p.active,
 });
@@ -109,6 +119,12 @@ export class OrganisationsService {
       transaction: options.transaction,
     });
     return rows.map(info);
+  }
+
+  /** A region's localities, by code. */
+  async regionLocalities(regionId: number): Promise<LocalityInfo[]> {
+    const rows = await this.localities.findAll({ where: { regionId }, order: [['code', 'ASC']] });
+    return rows.map((l) => ({ id: l.id, code: l.code, name: l.name }));
   }
 
   /** The practices of a region with these codes; unknown codes are left out. */

@@ -1,8 +1,23 @@
-import { Body, Controller, Get, HttpCode, Inject, Param, ParseIntPipe, Post } from '@nestjs/common';
+import {
+  Body,
+  Controller,
+  Get,
+  HttpCode,
+  Inject,
+  Param,
+  ParseIntPipe,
+  Patch,
+  Post,
+} from '@nestjs/common';
 import { ApiCreatedResponse, ApiOkResponse, ApiOperation, ApiTags } from '@nestjs/swagger';
 import { type Actor, CurrentActor } from '../auth/actor.js';
 import { AnySignedIn, Roles } from '../auth/index.js';
-import { OpenQuarterDto, QuarterDto } from './dto/quarter.dto.js';
+import {
+  OpenQuarterDto,
+  QuarterDto,
+  ReopenQuarterDto,
+  UpdateQuarterDto,
+} from './dto/quarter.dto.js';
 import { QuartersService } from './quarters.service.js';
 import { ApiProblems } from '../common/problem.dto.js';
 
@@ -54,12 +69,30 @@ export class QuartersController {
   @Post(':quarterId/reopen')
   @HttpCode(200)
   @Roles('regional_lead')
-  @ApiOperation({ summary: 'Reopen a closed quarter (regional lead)' })
+  @ApiOperation({
+    summary: 'Reopen a closed quarter, optionally with a new deadline (regional lead)',
+  })
   @ApiOkResponse({ type: QuarterDto })
   reopen(
     @CurrentActor() actor: Actor,
     @Param('quarterId', ParseIntPipe) quarterId: number,
+    @Body() body: ReopenQuarterDto,
   ): Promise<QuarterDto> {
-    return this.quarters.setStatus(actor, quarterId, 'open');
+    return this.quarters.setStatus(actor, quarterId, 'open', body);
+  }
+
+  @Patch(':quarterId')
+  @Roles('regional_lead')
+  @ApiOperation({
+    summary:
+      'Move the deadline of a quarter, or change its measure-set version while it is open and no report has been published from it (regional lead)',
+  })
+  @ApiOkResponse({ type: QuarterDto })
+  update(
+    @CurrentActor() actor: Actor,
+    @Param('quarterId', ParseIntPipe) quarterId: number,
+    @Body() body: UpdateQuarterDto,
+  ): Promise<QuarterDto> {
+    return this.quarters.update(actor, quarterId, body);
   }
 }

@@ -1,5 +1,6 @@
 import { Module } from '@nestjs/common';
 import { MeasureSetsModule } from '../measure-sets/measure-sets.module.js';
+import { QuarterReports } from './quarter-reports.js';
 import { QuartersController } from './quarters.controller.js';
 import { QuarterEvents } from './quarter-events.js';
 import { QuartersService } from './quarters.service.js';
@@ -7,7 +8,7 @@ import { QuartersService } from './quarters.service.js';
 @Module({
   imports: [MeasureSetsModule],
   controllers: [QuartersController],
-  providers: [QuartersService, QuarterEvents],
-  exports: [QuartersService, QuarterEvents],
+  providers: [QuarterReports, QuartersService, QuarterEvents],
+  exports: [QuartersService, QuarterReports, QuarterEvents],
 })
 export class QuartersModule {}

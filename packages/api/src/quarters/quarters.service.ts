@@ -2,7 +2,7 @@
  * Audit quarters (product.md flow 1): a region's regional lead opens a
  * quarter, choosing the measure set and the submission deadline; practices
  * upload extracts to it; after the deadline it is closed. The review window
- * is derived (methods.md §1, reviewWindow in @cairn/metrics).
+ * is derived (docs/methods.md §1, reviewWindow in @cairn/metrics).
  */
 import { HttpStatus, Inject, Injectable } from '@nestjs/common';
 import { ConfigService } from '@nestjs/config';
@@ -13,8 +13,20 @@ import { AuditTrailService } from '../audit-trail/audit-trail.service.js';
 import type { Actor } from '../auth/actor.js';
 import { ProblemException } from '../common/problem.js';
 import type { CairnConfig } from '../config/config.schema.js';
-import type { QuarterDto, QuarterStatus } from './dto/quarter.dto.js';
+import type {
+  QuarterActionsDto,
+  QuarterDto,
+  QuarterReportDto,
+  QuarterStatus,
+} from './dto/quarter.dto.js';
+import type { MeasureSetUseDto } from '../measure-sets/dto/measure-set.dto.js';
+import { MeasureSetUsage } from '../measure-sets/measure-set-usage.js';
 import { MeasureSetsService } from '../measure-sets/measure-sets.service.js';
+import { deadlineProblem, defaultDeadline } from './deadline.js';
+import { type QuarterFacts, quarterActions } from './quarter-policy.js';
+import { QuarterReports } from './quarter-reports.js';
+
+export { defaultDeadline } from './deadline.js';
 import { QuarterEvents } from './quarter-events.js';
 
 interface DbQuarter {
@@ -29,6 +41,12 @@ interface DbQuarter {
   status: QuarterStatus;
   opened_at: Date;
   closed_at: Date | null;
+}
+
+/** What a person may do with a quarter, and the reports published from it. */
+export interface QuarterStanding {
+  actions: QuarterActionsDto;
+  reports: QuarterReportDto[];
 }
 
 const dateOnly = (value: string | Date) =>
@@ -52,10 +70,24 @@ function toQuarter(row: DbQuarter): QuarterDto {
   };
 }
 
-/** The default deadline: a number of days after the last day of the quarter. */
-export function defaultDeadline(year: number, quarter: number, days: number): string {
-  const end = Date.UTC(year, quarter * 3, 0);
-  return new Date(end + days * 86_400_000).toISOString().slice(0, 10);
+/** 422 problem details naming one field of the request. */
+function fieldProblem(slug: string, title: string, field: string, message: string, detail: string) {
+  return new ProblemException(HttpStatus.UNPROCESSABLE_ENTITY, slug, title, detail, {
+    errors: [{ field, message }],
+  });
+}
+
+function assertDeadline(year: number, quarter: number, deadline: string): void {
+  const problem = deadlineProblem(year, quarter, deadline);
+  if (problem) {
+    throw fieldProblem(
+      'deadline-too-early',
+      'The deadline is too early',
+      'submissionDeadline',
+      problem,
+      `The submission deadline ${deadline} ${problem}.`,
+    );
+  }
 }
 
 const SELECT = `SELECT id, region_id, year, quarter, window_start, window_end, measure_set_id,
@@ -69,8 +101,57 @@ export class QuartersService {
     @Inject(ConfigService) private readonly config: ConfigService<CairnConfig, true>,
     @Inject(AuditTrailService) private readonly audit: AuditTrailService,
     @Inject(MeasureSetsService) private readonly measureSets: MeasureSetsService,
+    @Inject(QuarterReports) private readonly reports: QuarterReports,
     @Inject(QuarterEvents) private readonly events: QuarterEvents,
-  ) {}
+    @Inject(MeasureSetUsage) usage: MeasureSetUsage,
+  ) {
+    usage.register({ usesOf: (regionId, ids) => this.measureSetUses(regionId, ids) });
+  }
+
+  /** The quarters of a region that use these measure-set versions (for the measure-set pages). */
+  private async measureSetUses(
+    regionId: number,
+    ids: readonly string[],
+  ): Promise<Map<string, MeasureSetUseDto[]>> {
+    const uses = new Map<string, MeasureSetUseDto[]>();
+    const rows = await this.sequelize.query<DbQuarter>(
+      `${SELECT} WHERE region_id = ? AND measure_set_id IN (?) ORDER BY year DESC, quarter DESC`,
+      { replacements: [regionId, ids], type: QueryTypes.SELECT },
+    );
+    for (const row of rows.map(toQuarter)) {
+      const list = uses.get(row.measureSetId) ?? [];
+      list.push({ kind: 'quarter', id: row.id, label: row.label, status: row.status });
+      uses.set(row.measureSetId, list);
+    }
+    return uses;
+  }
+
+  /** What this person may do with each quarter (quarter-policy.ts), and its reports. */
+  async standing(
+    actor: Pick<Actor, 'role' | 'regionId'>,
+    quarters: readonly QuarterDto[],
+  ): Promise<Map<number, QuarterStanding>> {
+    const reports = await this.reports.of(
+      actor.regionId,
+      quarters.map((q) => q.id),
+    );
+    return new Map(
+      quarters.map((q) => {
+        const published = reports.get(q.id) ?? [];
+        const actions = quarterActions(actor, {
+          status: q.status,
+          hasReport: published.length > 0,
+        });
+        return [q.id, { actions, reports: published }];
+      }),
+    );
+  }
+
+  /** The facts the policy needs about one quarter. */
+  private async facts(actor: Actor, quarter: QuarterDto): Promise<QuarterFacts> {
+    const reports = (await this.reports.of(actor.regionId, [quarter.id])).get(quarter.id) ?? [];
+    return { status: quarter.status, hasReport: reports.length > 0 };
+  }
 
   async list(regionId: number): Promise<QuarterDto[]> {
     const rows = await this.sequelize.query<DbQuarter>(
@@ -122,8 +203,10 @@ export class QuartersService {
       input.submissionDeadline ??
       defaultDeadline(year, quarter, settings.deadlineDaysAfterQuarterEnd);
     const measureSetId = input.measureSetId ?? settings.defaultMeasureSetId;
-    // An unknown version is refused before anything is written (422 naming the field).
-    await this.measureSets.assertKnown(
+    if (input.submissionDeadline !== undefined) assertDeadline(year, quarter, deadline);
+    // An unknown version, or a draft, is refused before anything is written (422 naming the field).
+    await this.measureSets.assertUsable(
+      actor.regionId,
       measureSetId,
       'measureSetId',
       input.measureSetId !== undefined,
@@ -191,26 +274,161 @@ export class QuartersService {
     return rows.map(toQuarter);
   }
 
-  async setStatus(actor: Actor, id: number, status: QuarterStatus): Promise<QuarterDto> {
+  /**
+   * Closes or reopens a quarter. Reopening may move the deadline (it is
+   * checked like any deadline); closing an already closed quarter, or
+   * reopening an open one, changes nothing.
+   */
+  async setStatus(
+    actor: Actor,
+    id: number,
+    status: QuarterStatus,
+    options: { submissionDeadline?: string } = {},
+  ): Promise<QuarterDto> {
     const quarter = await this.get(actor, id);
-    if (quarter.status === status) return quarter;
+    const deadline = options.submissionDeadline;
+    if (deadline !== undefined) assertDeadline(quarter.year, quarter.quarter, deadline);
+    const moved = deadline !== undefined && deadline !== quarter.submissionDeadline;
+    if (quarter.status === status && !moved) return quarter;
     await this.sequelize.transaction(async (transaction) => {
-      await this.sequelize.query(
-        `UPDATE audit_quarters SET status = ?, closed_at = ${status === 'closed' ? 'NOW(3)' : 'NULL'} WHERE id = ?`,
-        { replacements: [status, id], type: QueryTypes.UPDATE, transaction },
-      );
+      const [, changed] = (await this.sequelize.query(
+        `UPDATE audit_quarters SET status = ?, closed_at = ${status === 'closed' ? 'COALESCE(closed_at, NOW(3))' : 'NULL'},
+           submission_deadline = ? WHERE id = ? AND status = ?`,
+        {
+          replacements: [status, deadline ?? quarter.submissionDeadline, id, quarter.status],
+          type: QueryTypes.UPDATE,
+          transaction,
+        },
+      )) as unknown as [unknown, number];
+      if (Number(changed) !== 1) throw this.changedMeanwhile(quarter);
+      const word = status === 'closed' ? 'closed to practice uploads' : 'reopened for submissions';
       await this.audit.append(
         {
-          action: status === 'closed' ? 'quarter.closed' : 'quarter.reopened',
-          summary: `${quarter.label} ${status === 'closed' ? 'closed to practice uploads' : 'reopened for submissions'}`,
+          action:
+            quarter.status === status
+              ? 'quarter.deadline_changed'
+              : status === 'closed'
+                ? 'quarter.closed'
+                : 'quarter.reopened',
+          summary:
+            quarter.status === status
+              ? `${quarter.label} deadline moved from ${quarter.submissionDeadline} to ${deadline}`
+              : `${quarter.label} ${word}${moved ? ` (deadline ${deadline})` : ''}`,
           actor: { id: actor.id, label: actor.label },
           regionId: actor.regionId,
           subjectType: 'audit_quarter',
           subjectId: id,
+          detail: moved ? { deadlineBefore: quarter.submissionDeadline, deadline } : null,
+          requestId: actor.requestId,
+          ipAddress: actor.ipAddress,
         },
         transaction,
       );
     });
     return (await this.find(id))!;
+  }
+
+  /**
+   * Moves a quarter's deadline and, while it is open and no report has been
+   * published from it (quarter-policy.ts), changes its measure-set version.
+   * Both are checked before anything is written; both change in one
+   * transaction with their audit events.
+   */
+  async update(
+    actor: Actor,
+    id: number,
+    input: { submissionDeadline?: string; measureSetId?: string },
+  ): Promise<QuarterDto> {
+    const quarter = await this.get(actor, id);
+    const actions = quarterActions(actor, await this.facts(actor, quarter));
+    const deadline = input.submissionDeadline;
+    const measureSetId = input.measureSetId;
+    if (deadline === undefined && measureSetId === undefined) {
+      throw fieldProblem(
+        'nothing-to-change',
+        'Nothing to change',
+        'submissionDeadline',
+        'give a new deadline, a measure set, or both',
+        'The request named neither a new deadline nor a measure set.',
+      );
+    }
+    if (deadline !== undefined) assertDeadline(quarter.year, quarter.quarter, deadline);
+    const newSet = measureSetId !== undefined && measureSetId !== quarter.measureSetId;
+    if (newSet) {
+      if (!actions.changeMeasureSet) {
+        const reported = quarter.status === 'open';
+        throw new ProblemException(
+          HttpStatus.CONFLICT,
+          'quarter-measure-set-fixed',
+          'The measure set of this quarter can no longer change',
+          reported
+            ? `A report has been published from ${quarter.label} with ${quarter.measureSetId}; its figures stay tied to that version.`
+            : `${quarter.label} is closed. Reopen it to change its measure set.`,
+          { quarterId: id, measureSetId: quarter.measureSetId },
+        );
+      }
+      await this.measureSets.assertUsable(actor.regionId, measureSetId, 'measureSetId', true);
+    }
+    const moved = deadline !== undefined && deadline !== quarter.submissionDeadline;
+    if (!newSet && !moved) return quarter;
+    await this.sequelize.transaction(async (transaction) => {
+      const [, changed] = (await this.sequelize.query(
+        `UPDATE audit_quarters SET submission_deadline = ?, measure_set_id = ?
+         WHERE id = ? AND status = ? AND measure_set_id = ?`,
+        {
+          replacements: [
+            deadline ?? quarter.submissionDeadline,
+            measureSetId ?? quarter.measureSetId,
+            id,
+            quarter.status,
+            quarter.measureSetId,
+          ],
+          type: QueryTypes.UPDATE,
+          transaction,
+        },
+      )) as unknown as [unknown, number];
+      if (Number(changed) !== 1) throw this.changedMeanwhile(quarter);
+      const base = {
+        actor: { id: actor.id, label: actor.label },
+        regionId: actor.regionId,
+        subjectType: 'audit_quarter',
+        subjectId: id,
+        requestId: actor.requestId,
+        ipAddress: actor.ipAddress,
+      };
+      if (moved) {
+        await this.audit.append(
+          {
+            ...base,
+            action: 'quarter.deadline_changed',
+            summary: `${quarter.label} deadline moved from ${quarter.submissionDeadline} to ${deadline}`,
+            detail: { deadlineBefore: quarter.submissionDeadline, deadline },
+          },
+          transaction,
+        );
+      }
+      if (newSet) {
+        await this.audit.append(
+          {
+            ...base,
+            action: 'quarter.measure_set_changed',
+            summary: `${quarter.label} now uses measure set ${measureSetId} (was ${quarter.measureSetId})`,
+            detail: { measureSetBefore: quarter.measureSetId, measureSetId },
+          },
+          transaction,
+        );
+      }
+    });
+    return (await this.find(id))!;
+  }
+
+  private changedMeanwhile(quarter: QuarterDto): ProblemException {
+    return new ProblemException(
+      HttpStatus.CONFLICT,
+      'quarter-changed',
+      'The quarter changed meanwhile',
+      `${quarter.label} was changed by someone else while you were changing it. Reload it and try again.`,
+      { quarterId: quarter.id },
+    );
   }
 }

@@ -46,7 +46,7 @@ export class ShuttingDownError extends Error {
   }
 }
 
-/** Keyed pseudonym of a record reference (methods.md §9), as @cairn/metrics defines it. */
+/** Keyed pseudonym of a record reference (docs/methods.md §9), as @cairn/metrics defines it. */
 export function pseudonymiser(secret: string): (practiceCode: string, recordRef: string) => string {
   return (practiceCode, recordRef) =>
     createHmac('sha256', Buffer.from(secret, 'utf8'))

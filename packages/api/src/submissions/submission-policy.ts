@@ -79,7 +79,7 @@ export function submissionActions(
   };
 }
 
-/** Practice leads of the practice see record references; everyone else sees pseudonyms (methods.md §9). */
+/** Practice leads of the practice see record references; everyone else sees pseudonyms (docs/methods.md §9). */
 export function seesRecordRefs(actor: Pick<Actor, 'role' | 'practiceIds'>, practiceId: number) {
   return actor.role === 'practice_lead' && actor.practiceIds.includes(practiceId);
 }

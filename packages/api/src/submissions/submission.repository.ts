@@ -20,6 +20,7 @@ import type { Issue } from './format/issue-codes.js';
 import { CARE_RECORD_SELECT, type CareRecordRow } from '../database/bulk-load/care-record-row.js';
 import type { RejectedRow } from './pipeline/process-extract.js';
 import { CANCELLABLE, RETRYABLE } from './submission-policy.js';
+import { SUMS_COLUMNS } from './sums/sums-rows.js';
 
 /** A row of `submissions`, with the practice-quarter's current submission. */
 export interface SubmissionRecord {
@@ -87,6 +88,20 @@ export function summaryJson(row: Pick<SubmissionRecord, 'summary'>): SubmissionS
     : row.summary;
 }
 
+/** A row of `submission_sums`. */
+export interface SumsRow {
+  submission_id: number;
+  measure_set_id: string;
+  format_version: number;
+  records: number;
+  bytes: Buffer;
+}
+
+/** Which records a streamed read of sums columns covers. */
+export type RecordScope = { submissionId: number } | { quarterId: number };
+
+const SUMS_SELECT = SUMS_COLUMNS.map((c) => `r.${c}`).join(', ');
+
 /** What a check found, for the row that ends it. */
 export interface CheckedFields {
   kind: string | null;
@@ -138,6 +153,12 @@ const REJECTED_SQL =
 const CHUNK_SQL = 'INSERT INTO extract_file_chunks (submission_id, seq, data) VALUES (?, ?, ?)';
 
 const PURGE_CHUNK = 20_000;
+/** Sums rows per batch when many are stored at once (a full recompute). */
+const SUMS_BATCH = 500;
+const REPLACE_SUMS_SQL = `INSERT INTO submission_sums (submission_id, measure_set_id, format_version, records, bytes, computed_at)
+  VALUES (?, ?, ?, ?, ?, NOW(3))
+  ON DUPLICATE KEY UPDATE format_version = VALUES(format_version), records = VALUES(records),
+    bytes = VALUES(bytes), computed_at = VALUES(computed_at)`;
 /** One stored chunk of an uploaded file: far below MariaDB's max_allowed_packet. */
 export const FILE_CHUNK_BYTES = 1 << 20;
 
@@ -286,6 +307,101 @@ export class SubmissionRepository {
         WHERE submission_id = ? AND source_row IN (?) ORDER BY source_row`,
       [submissionId, [...rows]],
     );
+  }
+
+  /** The current submission of each practice of a quarter (the pointers only). */
+  async currentPointers(
+    quarterId: number,
+  ): Promise<{ practiceId: number; submissionId: number }[]> {
+    const rows = await this.select<{ practice_id: number; current_submission_id: number }>(
+      `SELECT practice_id, current_submission_id FROM practice_quarters
+        WHERE quarter_id = ? AND current_submission_id IS NOT NULL`,
+      [quarterId],
+    );
+    return rows.map((r) => ({
+      practiceId: Number(r.practice_id),
+      submissionId: Number(r.current_submission_id),
+    }));
+  }
+
+  /** The current pointers of several quarters at once. */
+  async currentPointersOf(
+    quarterIds: readonly number[],
+  ): Promise<{ quarterId: number; practiceId: number; submissionId: number }[]> {
+    if (quarterIds.length === 0) return [];
+    const rows = await this.select<{
+      quarter_id: number;
+      practice_id: number;
+      current_submission_id: number;
+    }>(
+      `SELECT quarter_id, practice_id, current_submission_id FROM practice_quarters
+        WHERE quarter_id IN (?) AND current_submission_id IS NOT NULL`,
+      [[...quarterIds]],
+    );
+    return rows.map((r) => ({
+      quarterId: Number(r.quarter_id),
+      practiceId: Number(r.practice_id),
+      submissionId: Number(r.current_submission_id),
+    }));
+  }
+
+  /** Facts of confirmed submissions that never change: records, when confirmed, issue counts. */
+  confirmedFacts(ids: readonly number[]) {
+    if (ids.length === 0) return Promise.resolve([]);
+    return this.select<{
+      id: number;
+      practice_id: number;
+      rows_accepted: number | null;
+      confirmed_at: Date | null;
+      summary: SubmissionSummaryJson | string | null;
+    }>(
+      `SELECT id, practice_id, rows_accepted, confirmed_at, summary FROM submissions
+        WHERE id IN (?) AND confirmed_at IS NOT NULL`,
+      [[...ids]],
+    );
+  }
+
+  /** The stored sums of these submissions under one measure set. */
+  sums(submissionIds: readonly number[], measureSetId: string): Promise<SumsRow[]> {
+    if (submissionIds.length === 0) return Promise.resolve([]);
+    return this.select<SumsRow>(
+      `SELECT submission_id, measure_set_id, format_version, records, bytes FROM submission_sums
+        WHERE measure_set_id = ? AND submission_id IN (?)`,
+      [measureSetId, [...submissionIds]],
+    );
+  }
+
+  /**
+   * Streams the sums columns of a submission's records, or of every current record of a quarter,
+   * each row an array [submission id, ...SUMS_COLUMNS] given to `onRow`; resolves with the
+   * number of rows. One streamed SELECT on a connection of the pool, in the connector's fastest
+   * form: rows as arrays, no type cast function.
+   */
+  async streamSumsRows(scope: RecordScope, onRow: (row: unknown[]) => void): Promise<number> {
+    const sql =
+      'submissionId' in scope
+        ? `SELECT r.submission_id, ${SUMS_SELECT} FROM care_records r WHERE r.submission_id = ?`
+        : `SELECT r.submission_id, ${SUMS_SELECT}
+             FROM practice_quarters pq
+             JOIN care_records r ON r.submission_id = pq.current_submission_id
+            WHERE pq.quarter_id = ?`;
+    const id = 'submissionId' in scope ? scope.submissionId : scope.quarterId;
+    return withRaw(this.sequelize, (connection) => {
+      let rows = 0;
+      return new Promise<number>((resolve, reject) => {
+        const stream = connection.queryStream({ sql, rowsAsArray: true, typeCast: null }, [id]);
+        stream.on('data', (row: unknown[]) => {
+          rows++;
+          try {
+            onRow(row);
+          } catch (error) {
+            stream.destroy(error as Error);
+          }
+        });
+        stream.on('end', () => resolve(rows));
+        stream.on('error', reject);
+      });
+    });
   }
 
   /** A quarter's submissions still in play or refused, latest first. */
@@ -659,6 +775,49 @@ export class SubmissionRepository {
       transaction,
     );
     return changed > 0;
+  }
+
+  // ── sums ──
+
+  /** Stores a submission's sums in the transaction that confirms it (kept if already there). */
+  async insertSums(
+    row: Omit<SumsRow, 'measure_set_id'> & { measure_set_id: string },
+    transaction: Transaction,
+  ): Promise<void> {
+    await this.sequelize.query(
+      `INSERT IGNORE INTO submission_sums (submission_id, measure_set_id, format_version, records, bytes, computed_at)
+       VALUES (?, ?, ?, ?, ?, NOW(3))`,
+      {
+        replacements: [
+          row.submission_id,
+          row.measure_set_id,
+          row.format_version,
+          row.records,
+          row.bytes,
+        ],
+        type: QueryTypes.INSERT,
+        transaction,
+      },
+    );
+  }
+
+  /**
+   * Stores sums computed again from records (missing, of another format, or a full recompute),
+   * replacing what a submission had under that measure set. A batch of rows, one statement.
+   */
+  async replaceSums(rows: readonly SumsRow[]): Promise<void> {
+    if (rows.length === 0) return;
+    // The connector's batch sends the bytes as they are (binary protocol).
+    await withRaw(this.sequelize, async (connection) => {
+      for (let from = 0; from < rows.length; from += SUMS_BATCH) {
+        await connection.batch(
+          REPLACE_SUMS_SQL,
+          rows
+            .slice(from, from + SUMS_BATCH)
+            .map((r) => [r.submission_id, r.measure_set_id, r.format_version, r.records, r.bytes]),
+        );
+      }
+    });
   }
 
   // ── decisions: confirm, cancel, retry ──

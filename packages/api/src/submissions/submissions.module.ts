@@ -1,4 +1,5 @@
 import { Module } from '@nestjs/common';
+import { MeasureSetsModule } from '../measure-sets/measure-sets.module.js';
 import { OrganisationsModule } from '../organisations/organisations.module.js';
 import { QuartersModule } from '../quarters/quarters.module.js';
 import { CoverageController } from './coverage.controller.js';
@@ -15,7 +16,7 @@ import { UploadHandoff } from './upload-handoff.js';
 
 /** Extracts: template, upload, checking as a job, validation report, confirm/cancel/retry, coverage. */
 @Module({
-  imports: [OrganisationsModule, QuartersModule],
+  imports: [OrganisationsModule, QuartersModule, MeasureSetsModule],
   controllers: [ExtractsController, SubmissionsController, CoverageController],
   providers: [
     SubmissionRepository,

@@ -13,11 +13,16 @@
  */
 import type { Writable } from 'node:stream';
 import { HttpStatus, Inject, Injectable } from '@nestjs/common';
+import type { PracticeSums } from '@cairn/metrics';
 import { AuditTrailService } from '../audit-trail/audit-trail.service.js';
 import type { Actor } from '../auth/actor.js';
 import { ProblemException } from '../common/problem.js';
 import { CAIRN_SECRETS } from '../config/config.module.js';
 import type { CairnSecrets } from '../config/config.schema.js';
+import {
+  type MeasureSetVersion,
+  MeasureSetsService,
+} from '../measure-sets/measure-sets.service.js';
 import { OrganisationsService } from '../organisations/organisations.service.js';
 import { QuartersService } from '../quarters/quarters.service.js';
 import type {
@@ -36,6 +41,15 @@ import { assertMay, mayWrite, seesRecordRefs, type SubmissionAction } from './su
 import { SubmissionRepository, summaryJson } from './submission.repository.js';
 import { type LoadedSubmission, SubmissionLoader, toView } from './submission-view.js';
 import { type StoredRecord, toStoredRecord } from '../database/bulk-load/care-record-row.js';
+import { SubmissionSums, type SumsSubject } from './sums/submission-sums.js';
+
+export type { SumsSubject } from './sums/submission-sums.js';
+
+/** A practice's current submission for a quarter, as its pointer names it. */
+export interface CurrentPointer {
+  practiceId: number;
+  submissionId: number;
+}
 
 const notFound = (id: number) =>
   new ProblemException(
@@ -49,6 +63,17 @@ const notFound = (id: number) =>
   );
 
 const DEADLOCK = /deadlock|lock wait timeout/i;
+
+const notAwaiting = (id: number, status: string | null) =>
+  new ProblemException(
+    HttpStatus.CONFLICT,
+    'submission-not-awaiting-confirmation',
+    status === 'accepted' ? 'Already confirmed' : 'This submission cannot be confirmed',
+    status === 'accepted'
+      ? `Submission ${id} is already confirmed and current.`
+      : `Submission ${id} is ${String(status).replace(/_/g, ' ')}; only a submission awaiting confirmation can be confirmed.`,
+    { submissionStatus: status ?? undefined },
+  );
 
 /** A download of a validation report: what to call it, and how to write it. */
 export interface ReportDownload {
@@ -77,12 +102,33 @@ export interface DataQualityFlagCount {
   count: number;
 }
 
+/** What results show of a confirmed submission (none of it changes once confirmed). */
+export interface ConfirmedFacts {
+  id: number;
+  practiceId: number;
+  records: number;
+  confirmedAt: string;
+  dataQuality: DataQualityFlagCount[];
+}
+
+/** Confirmed submissions' facts kept in memory at most. */
+const FACTS_CACHE = 50_000;
+
+/** Every clinical data-quality check (methods.md §7) with its count among `counts` (0 included). */
+function dataQualityCounts(counts: Record<string, number>): DataQualityFlagCount[] {
+  return (Object.keys(ISSUE_CODES) as IssueCodeKey[])
+    .filter((code) => ISSUE_CODES[code].severity === 'flag')
+    .map((code) => ({ code, title: ISSUE_CODES[code].title, count: counts[code] ?? 0 }));
+}
+
 /** Records read per query when a submission's records are read in batches. */
 const RECORD_BATCH = 5000;
 
 @Injectable()
 export class SubmissionsService {
   private readonly pseudonym: (practiceCode: string, ref: string) => string;
+  private readonly sums: SubmissionSums;
+  private readonly facts = new Map<number, ConfirmedFacts>();
 
   constructor(
     @Inject(SubmissionRepository) private readonly submissions: SubmissionRepository,
@@ -92,9 +138,11 @@ export class SubmissionsService {
     @Inject(OrganisationsService) private readonly organisations: OrganisationsService,
     @Inject(JobRunner) private readonly runner: JobRunner,
     @Inject(ValidationReportService) private readonly reports: ValidationReportService,
+    @Inject(MeasureSetsService) private readonly measureSets: MeasureSetsService,
     @Inject(CAIRN_SECRETS) secrets: CairnSecrets,
   ) {
     this.pseudonym = pseudonymiser(secrets.CAIRN_PSEUDONYM_SECRET);
+    this.sums = new SubmissionSums(submissions);
   }
 
   /** The submission, if it is this practice's; 404 otherwise. */
@@ -267,6 +315,49 @@ export class SubmissionsService {
   }
 
   /**
+   * The current submission of every practice of a quarter that has one (the pointers, read in
+   * one SELECT): the set of submissions results of the quarter are built from.
+   */
+  currentSet(quarterId: number): Promise<CurrentPointer[]> {
+    return this.submissions.currentPointers(quarterId);
+  }
+
+  /** The current pointers of several quarters, read in one SELECT. */
+  currentSets(quarterIds: readonly number[]): Promise<(CurrentPointer & { quarterId: number })[]> {
+    return this.submissions.currentPointersOf(quarterIds);
+  }
+
+  /**
+   * The decoded sums of current submissions under a measure-set version, by submission id.
+   * Sums missing or unreadable (an older database, another measure set) are computed again from
+   * the submission's records and stored.
+   */
+  sumsOfCurrent(
+    subjects: readonly SumsSubject[],
+    version: MeasureSetVersion,
+    quarter: { year: number; quarter: 1 | 2 | 3 | 4 },
+  ): Promise<Map<number, PracticeSums>> {
+    return this.sums.ofCurrent(subjects, version, { year: quarter.year, quarter: quarter.quarter });
+  }
+
+  /**
+   * A full recompute of a quarter's sums from records: every current record in one streamed
+   * read, every current submission's sums under `version` stored again. `subjects` must be the
+   * quarter's current submissions (currentSet) with their practices' codes.
+   */
+  recomputeSums(
+    quarterId: number,
+    subjects: readonly SumsSubject[],
+    version: MeasureSetVersion,
+    quarter: { year: number; quarter: 1 | 2 | 3 | 4 },
+  ): Promise<Map<number, PracticeSums>> {
+    return this.sums.recomputeQuarter(quarterId, subjects, version, {
+      year: quarter.year,
+      quarter: quarter.quarter,
+    });
+  }
+
+  /**
    * A submission's stored records in extract order, in batches of up to
    * `batchSize` (a practice may have 200,000: never all in memory at once).
    */
@@ -295,7 +386,7 @@ export class SubmissionsService {
   }
 
   /**
-   * The clinical data-quality flags of a submission (methods.md §7): every
+   * The clinical data-quality flags of a submission (docs/methods.md §7): every
    * flag check Cairn has, with the number of records it flagged (0 included),
    * from the issue counts stored when the extract was checked.
    */
@@ -304,10 +395,34 @@ export class SubmissionsService {
       ? await this.submissions.find(submissionId)
       : null;
     if (!row) throw notFound(submissionId);
-    const counts = summaryJson(row).issueCounts ?? {};
-    return (Object.keys(ISSUE_CODES) as IssueCodeKey[])
-      .filter((code) => ISSUE_CODES[code].severity === 'flag')
-      .map((code) => ({ code, title: ISSUE_CODES[code].title, count: counts[code] ?? 0 }));
+    return dataQualityCounts(summaryJson(row).issueCounts ?? {});
+  }
+
+  /**
+   * Facts of confirmed submissions (records, when confirmed, data-quality flag counts), by id,
+   * read in one SELECT for those not already known (they never change once confirmed).
+   */
+  async confirmedFacts(ids: readonly number[]): Promise<Map<number, ConfirmedFacts>> {
+    const out = new Map<number, ConfirmedFacts>();
+    const wanted = ids.filter((id) => {
+      const known = this.facts.get(id);
+      if (known) out.set(id, known);
+      return !known;
+    });
+    for (const row of await this.submissions.confirmedFacts(wanted)) {
+      const counts = summaryJson(row).issueCounts ?? {};
+      const facts: ConfirmedFacts = {
+        id: Number(row.id),
+        practiceId: Number(row.practice_id),
+        records: Number(row.rows_accepted ?? 0),
+        confirmedAt: new Date(row.confirmed_at!).toISOString(),
+        dataQuality: dataQualityCounts(counts),
+      };
+      out.set(facts.id, facts);
+      if (this.facts.size >= FACTS_CACHE) this.facts.clear();
+      this.facts.set(facts.id, facts);
+    }
+    return out;
   }
 
   /** Makes a submission current for its practice and quarter (atomically). */
@@ -317,6 +432,19 @@ export class SubmissionsService {
     const { record: row, quarter } = loaded;
     /** What was current when this request read the practice-quarter */
     const expected = row.current_submission_id ?? null;
+    if (row.status !== 'awaiting_confirmation') throw notAwaiting(submissionId, row.status);
+    // The submission's sums under the quarter's measure set, from its own records (they never
+    // change once staged): computed before the transaction, inserted inside it, so that a
+    // current submission always has them.
+    const sums = await this.sums.forConfirm(
+      {
+        submissionId,
+        practiceCode: loaded.practice.code,
+        records: Number(row.rows_accepted ?? 0),
+      },
+      await this.measureSets.get(quarter.measureSetId),
+      { year: quarter.year, quarter: quarter.quarter },
+    );
     // The pointer row exists before the transaction, so the lock below is a plain row lock.
     await this.submissions.ensurePracticeQuarter(row.practice_id, row.quarter_id);
     for (let attempt = 0; ; attempt++) {
@@ -328,17 +456,7 @@ export class SubmissionsService {
             transaction,
           );
           const status = await this.submissions.lockStatus(submissionId, transaction);
-          if (status !== 'awaiting_confirmation') {
-            throw new ProblemException(
-              HttpStatus.CONFLICT,
-              'submission-not-awaiting-confirmation',
-              status === 'accepted' ? 'Already confirmed' : 'This submission cannot be confirmed',
-              status === 'accepted'
-                ? `Submission ${submissionId} is already confirmed and current.`
-                : `Submission ${submissionId} is ${String(status).replace(/_/g, ' ')}; only a submission awaiting confirmation can be confirmed.`,
-              { submissionStatus: status ?? undefined },
-            );
-          }
+          if (status !== 'awaiting_confirmation') throw notAwaiting(submissionId, status);
           // Someone else switched this practice-quarter after this request read it (two confirms
           // at once): refuse rather than silently replace what they just made current.
           if (previous !== expected) {
@@ -365,6 +483,7 @@ export class SubmissionsService {
             actor,
             transaction,
           );
+          await this.submissions.insertSums(sums, transaction);
           await this.audit.append(
             {
               action: 'submission.confirmed',

@@ -59,6 +59,8 @@ export async function startApiProcess(
   }
 }
 
+const START_TIMEOUT_MS = 90_000;
+
 class PortTakenError extends Error {}
 
 async function launch(t: TestApp, port: number, env: Record<string, string>): Promise<ApiProcess> {
@@ -85,7 +87,8 @@ async function launch(t: TestApp, port: number, env: Record<string, string>): Pr
   child.stdout!.on('data', (d: Buffer) => (output += d.toString()));
   child.stderr!.on('data', (d: Buffer) => (output += d.toString()));
   const baseUrl = `http://127.0.0.1:${port}`;
-  const deadline = Date.now() + 30_000;
+  // Start-up takes a few seconds; on a machine busy with other work it has taken over 30.
+  const deadline = Date.now() + START_TIMEOUT_MS;
   for (;;) {
     if (child.exitCode !== null) {
       const message = `the API process exited (${child.exitCode}) before it was healthy:\n${output}`;
@@ -101,7 +104,9 @@ async function launch(t: TestApp, port: number, env: Record<string, string>): Pr
     }
     if (Date.now() > deadline) {
       child.kill('SIGKILL');
-      throw new Error(`the API process was not healthy within 30 s:\n${output}`);
+      throw new Error(
+        `the API process was not healthy within ${START_TIMEOUT_MS / 1000} s:\n${output}`,
+      );
     }
     await new Promise((r) => setTimeout(r, 100));
   }

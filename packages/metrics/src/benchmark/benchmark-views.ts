@@ -342,6 +342,24 @@ export function benchmarkPractice(b: Benchmark, code: string): PracticeView {
   };
 }
 
+/** Every practice's record counts (all, eligible, unknown type, under age), in benchmark order. */
+export function benchmarkRecords(b: Benchmark): {
+  code: string;
+  total: number;
+  eligible: number;
+  unknownType: number;
+  underAge: number;
+}[] {
+  const d = unpack(b);
+  return b.practices.map((code, p) => ({
+    code,
+    total: d.records[p * 4] as number,
+    eligible: d.records[p * 4 + 1] as number,
+    unknownType: d.records[p * 4 + 2] as number,
+    underAge: d.records[p * 4 + 3] as number,
+  }));
+}
+
 export interface BenchmarkTable {
   split: TypeSplit;
   level: BenchmarkLevel;

@@ -19,7 +19,12 @@ import { mergeSums } from '../sums/merge-sums.js';
 import type { PracticeSums } from '../sums/practice-sums.js';
 import { sumsOfColumns } from '../sums/sums-of-columns.js';
 import type { Benchmark } from './benchmark.js';
-import { benchmarkMeasure, benchmarkPractice, benchmarkTable } from './benchmark-views.js';
+import {
+  benchmarkMeasure,
+  benchmarkPractice,
+  benchmarkRecords,
+  benchmarkTable,
+} from './benchmark-views.js';
 import { buildBenchmark } from './build-benchmark.js';
 
 /**
@@ -296,6 +301,18 @@ describe('benchmark storage and views', () => {
       const unit = benchmarkMeasure(benchmark, measure.key, 'all').units[7]!;
       expect([row.n[m], row.events[m], row.rate[m]]).toEqual([unit.n, unit.events, unit.rate]);
     });
+  });
+
+  it('reads every practice’s record counts as the practice view does', () => {
+    const all = benchmarkRecords(benchmark);
+    expect(all.map((r) => r.code)).toEqual(benchmark.practices);
+    for (const code of [benchmark.practices[0]!, benchmark.practices[7]!]) {
+      const { code: own, ...records } = all.find((r) => r.code === code)!;
+      expect(own).toBe(code);
+      expect(records).toEqual(benchmarkPractice(benchmark, code).records);
+    }
+    const total = all.reduce((n, r) => n + r.total, 0);
+    expect(total).toBe(benchmark.records.total);
   });
 
   it('refuses unknown measures, practices, splits and formats', () => {

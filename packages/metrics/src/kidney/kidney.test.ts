@@ -16,7 +16,7 @@ function published(scrMgDl: number, age: number, female: boolean): number {
 }
 
 describe('egfrCkdEpi2021', () => {
-  it('gives 91.7 for a man of 50 with creatinine 1.0 mg/dL (check value computed from the equation, methods.md §4)', () => {
+  it('gives 91.7 for a man of 50 with creatinine 1.0 mg/dL (check value computed from the equation, docs/methods.md §4)', () => {
     const egfr = egfrCkdEpi2021({ creatinineUmolL: 88.42, age: 50, sex: 'M' });
     expect(egfr).toBeCloseTo(91.7, 1);
   });

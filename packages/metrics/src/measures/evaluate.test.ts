@@ -10,7 +10,7 @@ import { aggregate, caseMixRatios, eligibleCount, recordCounts, unitAggregates }
 
 /**
  * Hand-built records for 2026 Q3 (review window 2025-10 … 2026-09, ages and durations counted to
- * 2026) whose every outcome is worked out by hand below, from the rules of methods.md §1–3.
+ * 2026) whose every outcome is worked out by hand below, from the rules of docs/methods.md §1–3.
  */
 const quarter = { year: 2026, quarter: 3 } as const;
 const set = defaultMeasureSet();

@@ -128,6 +128,54 @@ describe('an invalid measure set is refused with the path and the problem', () =
     ).toContain('targets[4].bands[0].minAge: must be 0');
   });
 
+  // The plausible ranges of methods §7 (common practice), in the canonical unit.
+  it.each([
+    [
+      'an HbA1c threshold of 530 (53.0 mistyped)',
+      (j: Parameters<Parameters<typeof broken>[0]>[0]) => (j.targets[1]!.threshold = 530),
+      'targets[1].threshold: must be between 20 and 200 mmol/mol (the plausible range of HbA1c)',
+    ],
+    [
+      'a cholesterol threshold of 0',
+      (j: Parameters<Parameters<typeof broken>[0]>[0]) => (j.targets[6]!.threshold = 0),
+      'targets[6].threshold: must be between 1 and 20 mmol/L (the plausible range of total cholesterol)',
+    ],
+    [
+      'a threshold inside a composite',
+      (j: Parameters<Parameters<typeof broken>[0]>[0]) =>
+        ((j.targets[8] as { of: { threshold?: number }[] }).of[1]!.threshold = 50),
+      'targets[8].of[1].threshold: must be between 1 and 20 mmol/L (the plausible range of total cholesterol)',
+    ],
+    [
+      'a blood pressure band below 60 mmHg systolic',
+      (j: Parameters<Parameters<typeof broken>[0]>[0]) =>
+        ((j.targets[4] as { bands: { systolicBelow: number }[] }).bands[1]!.systolicBelow = 15),
+      'targets[4].bands[1].systolicBelow: must be between 60 and 260 mmHg (the plausible range of systolic blood pressure)',
+    ],
+    [
+      'a diastolic limit of 900',
+      (j: Parameters<Parameters<typeof broken>[0]>[0]) =>
+        ((j.targets[5] as { bands: { diastolicBelow: number }[] }).bands[0]!.diastolicBelow = 900),
+      'targets[5].bands[0].diastolicBelow: must be between 30 and 160 mmHg (the plausible range of diastolic blood pressure)',
+    ],
+  ])('refuses %s', (_what, edit, message) => {
+    expect(broken(edit)).toEqual([message]);
+  });
+
+  it('accepts thresholds on the edges of their range', () => {
+    expect(broken((j) => (j.targets[1]!.threshold = 20))).toEqual([]);
+    expect(broken((j) => (j.targets[1]!.threshold = 200))).toEqual([]);
+  });
+
+  it('refuses an empty composite and over-long text, naming the field', () => {
+    expect(broken((j) => ((j.careProcesses[9] as { of: string[] }).of = []))).toEqual([
+      'careProcesses[9].of: must have at least 1 item(s)',
+    ]);
+    expect(broken((j) => (j.targets[0]!.label = 'x'.repeat(201)))).toEqual([
+      'targets[0].label: must be at most 200 characters long',
+    ]);
+  });
+
   it('throws a MeasureSetError whose message lists the issues', () => {
     const json = defaultMeasureSetJson();
     json.retinalWindowMonths = 0;

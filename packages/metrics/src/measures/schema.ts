@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { CARE_PROCESS_FIELDS } from '../records/record.js';
+import { thresholdProblem } from './threshold-ranges.js';
 
 /**
  * Measure sets as data (methods §2–3). A measure set is a versioned list of care processes and
@@ -30,15 +31,15 @@ const populationSchema = z
   .strict();
 
 const common = {
-  key: z.string().regex(KEY, 'must be lower case letters, digits and _ (e.g. hba1c_le_53)'),
-  label: z.string().trim().min(1),
+  key: z.string().max(64).regex(KEY, 'must be lower case letters, digits and _ (e.g. hba1c_le_53)'),
+  label: z.string().trim().min(1).max(200),
   /** The guideline or rule the measure comes from, as text. */
-  source: z.string().trim().min(1),
+  source: z.string().trim().min(1).max(2000),
   denominator: z.enum(['eligible', 'measured']),
   direction: z.enum(['higher', 'lower']),
   population: populationSchema,
   /** Optional explanation shown with the measure. */
-  note: z.string().optional(),
+  note: z.string().max(2000).optional(),
 };
 
 const recordedProcessSchema = z
@@ -127,9 +128,9 @@ const measureSetSchema = z
   .object({
     $schema: z.string().optional(),
     /** Versioned id, e.g. 'cairn-default-2026.1'. */
-    id: z.string().regex(ID, "must be a versioned id such as 'cairn-default-2026.1'"),
-    label: z.string().trim().min(1),
-    description: z.string().optional(),
+    id: z.string().max(64).regex(ID, "must be a versioned id such as 'cairn-default-2026.1'"),
+    label: z.string().trim().min(1).max(200),
+    description: z.string().max(2000).optional(),
     eligibility: z
       .object({
         /** Minimum age at the end of the review window (methods §1: 12). */
@@ -210,18 +211,33 @@ const measureSetSchema = z
         bands.map((b) => b.minAge),
         [...path, 'bands'],
       );
+      bands.forEach((b, k) => {
+        const systolic = thresholdProblem('systolic', b.systolicBelow);
+        if (systolic) issue([...path, 'bands', k, 'systolicBelow'], systolic);
+        const diastolic = thresholdProblem('diastolic', b.diastolicBelow);
+        if (diastolic) issue([...path, 'bands', k, 'diastolicBelow'], diastolic);
+      });
+    };
+    const checkThreshold = (
+      c: { measurement: z.infer<typeof measurementSchema>; threshold: number },
+      path: (string | number)[],
+    ): void => {
+      const problem = thresholdProblem(c.measurement, c.threshold);
+      if (problem) issue([...path, 'threshold'], problem);
     };
     set.targets.forEach((t, i) => {
       const path = ['targets', i];
       checkKey(t.key, `targets[${i}]`, path);
       checkPopulation(t.population, path);
       if (t.rule === 'bloodPressure') checkBands(t.bands, path);
+      if (t.rule === 'value') checkThreshold(t, path);
       if (t.rule === 'anyOf' || t.rule === 'allOf') {
         t.of.forEach((c, j) => {
           if (c.rule === 'target' && !targetsBefore.has(c.key)) {
             issue([...path, 'of', j, 'key'], `"${c.key}" is not a target defined before this one`);
           }
           if (c.rule === 'bloodPressure') checkBands(c.bands, [...path, 'of', j]);
+          if (c.rule === 'value') checkThreshold(c, [...path, 'of', j]);
         });
       }
       targetsBefore.add(t.key);
@@ -330,7 +346,9 @@ function describeIssue(issue: z.core.$ZodIssue, root: unknown): MeasureSetIssue 
         message:
           issue.origin === 'array'
             ? `must have at most ${String(issue.maximum)} item(s)`
-            : `must be ${issue.inclusive === false ? 'below' : 'at most'} ${String(issue.maximum)}`,
+            : issue.origin === 'string'
+              ? `must be at most ${String(issue.maximum)} characters long`
+              : `must be ${issue.inclusive === false ? 'below' : 'at most'} ${String(issue.maximum)}`,
       };
     case 'invalid_format':
       return { path, message: issue.message };

@@ -3,7 +3,7 @@ import { wilsonInterval } from './wilson-interval.js';
 
 describe('wilsonInterval', () => {
   // Newcombe, Stat Med 1998;17:857–72, Table I (Wilson score method without continuity
-  // correction), values as listed in methods.md §8.
+  // correction), values as listed in docs/methods.md §8.
   it.each([
     [81, 263, 0.2553, 0.3662],
     [15, 148, 0.0624, 0.1605],

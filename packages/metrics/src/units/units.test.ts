@@ -6,7 +6,7 @@ import { glucoseMgDlFromMmolL, glucoseMmolLFromMgDl } from './glucose.js';
 import { hba1cMmolMolFromPercent, hba1cPercentFromMmolMol } from './hba1c.js';
 
 describe('HbA1c (IFCC–NGSP master equation, Hoelzel et al., Clin Chem 2004;50:166–74)', () => {
-  // The IFCC–NGSP conversion table of methods.md §6 (whole mmol/mol).
+  // The IFCC–NGSP conversion table of docs/methods.md §6 (whole mmol/mol).
   it.each([
     [6.0, 42],
     [6.5, 48],
@@ -31,7 +31,7 @@ describe('HbA1c (IFCC–NGSP master equation, Hoelzel et al., Clin Chem 2004;50:
   });
 });
 
-describe('other conversions (molar masses, methods.md §6)', () => {
+describe('other conversions (molar masses, docs/methods.md §6)', () => {
   it('converts glucose at 18.016 mg/dL per mmol/L (glucose 180.16 g/mol)', () => {
     expect(glucoseMmolLFromMgDl(126)).toBeCloseTo(6.99, 2); // WHO fasting threshold 7.0 mmol/L
     expect(glucoseMgDlFromMmolL(glucoseMmolLFromMgDl(200))).toBeCloseTo(200, 12);

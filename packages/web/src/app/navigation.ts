@@ -33,6 +33,14 @@ export const navItems: NavItem[] = [
     activeFor: /^\/practices\/[^/]+\/submissions(\/|$)/,
   },
   { label: 'Coverage', to: '/coverage', icon: 'grid-view', roles: ['regional_lead', 'auditor'] },
+  { label: 'Quarters', to: '/quarters', icon: 'calendar', roles: everyone },
+  {
+    label: 'Measure sets',
+    to: '/measure-sets',
+    icon: 'properties',
+    roles: everyone,
+    activeFor: /^\/measure-sets\//,
+  },
   { label: 'Users', to: '/users', icon: 'people', roles: ['regional_lead'] },
   {
     label: 'Mail',

@@ -70,6 +70,25 @@ export const routes: RouteObject[] = [
           import('../features/extracts/routes/Coverage').then((m) => ({ Component: m.Coverage })),
       },
       {
+        path: 'quarters',
+        lazy: () =>
+          import('../features/quarters/routes/Quarters').then((m) => ({ Component: m.Quarters })),
+      },
+      {
+        path: 'measure-sets',
+        lazy: () =>
+          import('../features/measure-sets/routes/MeasureSets').then((m) => ({
+            Component: m.MeasureSets,
+          })),
+      },
+      {
+        path: 'measure-sets/:measureSetId',
+        lazy: () =>
+          import('../features/measure-sets/routes/MeasureSet').then((m) => ({
+            Component: m.MeasureSet,
+          })),
+      },
+      {
         path: 'profile',
         lazy: () =>
           import('../features/profile/routes/Profile').then((m) => ({ Component: m.Profile })),

@@ -5,6 +5,8 @@ import { Type } from 'class-transformer';
 import { IsIn, IsInt, IsOptional, IsString, Max, MaxLength, Min } from 'class-validator';
 import { READING_FIELDS, type ReadingField } from '../../measure-sets/describe.js';
 import { MeasureDto } from '../../measure-sets/dto/measure-set.dto.js';
+import { PracticeRefDto } from '../../organisations/dto/practice.dto.js';
+import { QuarterDto } from '../../quarters/dto/quarter.dto.js';
 import { RECALL_REASONS, type RecallReason } from '../recall/recall-rule.js';
 
 export const RECALL_PAGE_MAX = 1000;
@@ -38,35 +40,6 @@ export class RecallListQueryDto extends RecallExportQueryDto {
   @Min(1)
   @Max(RECALL_PAGE_MAX)
   limit?: number;
-}
-
-export class RecallPracticeDto {
-  @ApiProperty({ type: Number, example: 12 })
-  id!: number;
-
-  @ApiProperty({ type: String, example: 'OV102' })
-  code!: string;
-
-  @ApiProperty({ type: String, example: 'Quarrybank Surgery' })
-  name!: string;
-}
-
-export class RecallQuarterDto {
-  @ApiProperty({ type: Number })
-  id!: number;
-
-  @ApiProperty({ type: String, example: '2026 Q3' })
-  label!: string;
-
-  @ApiProperty({
-    type: String,
-    example: '2025-10',
-    description: 'First month of the review window',
-  })
-  windowStart!: string;
-
-  @ApiProperty({ type: String, example: '2026-09', description: 'Last month of the review window' })
-  windowEnd!: string;
 }
 
 export class RecallSubmissionDto {
@@ -195,11 +168,11 @@ export class RecallItemDto {
 }
 
 export class RecallListDto {
-  @ApiProperty({ type: RecallPracticeDto })
-  practice!: RecallPracticeDto;
+  @ApiProperty({ type: PracticeRefDto })
+  practice!: PracticeRefDto;
 
-  @ApiProperty({ type: RecallQuarterDto })
-  quarter!: RecallQuarterDto;
+  @ApiProperty({ type: QuarterDto })
+  quarter!: QuarterDto;
 
   @ApiProperty({ type: String, example: 'cairn-default-2026.1' })
   measureSetId!: string;

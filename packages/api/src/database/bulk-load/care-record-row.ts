@@ -83,7 +83,7 @@ export interface StoredRecord {
   row: number;
   /** The practice's own reference (shown only to the practice's leads) */
   recordRef: string;
-  /** Its keyed pseudonym (methods.md §9), for everyone else */
+  /** Its keyed pseudonym (docs/methods.md §9), for everyone else */
   pseudonym: string;
   record: CareRecord;
 }

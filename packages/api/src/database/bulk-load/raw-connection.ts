@@ -19,6 +19,11 @@ export interface RawConnection {
     values?: unknown[],
   ): Promise<T>;
   batch(sql: string, values: unknown[][]): Promise<RawResult | RawResult[]>;
+  /** A streamed SELECT: rows arrive one 'data' event each. */
+  queryStream(
+    sql: { sql: string; rowsAsArray?: boolean; typeCast?: null },
+    values?: unknown[],
+  ): Readable;
   beginTransaction(): Promise<void>;
   commit(): Promise<void>;
   rollback(): Promise<void>;

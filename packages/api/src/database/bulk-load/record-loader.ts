@@ -20,7 +20,7 @@ import { TsvEncoder } from './tsv-encoder.js';
  * The HMAC-SHA256 key pads (RFC 2104) of the pseudonym secret. MariaDB computes each staged
  * record's pseudonym from them while loading, as
  *   SHA2((K ⊕ opad) ‖ SHA2((K ⊕ ipad) ‖ practice code ‖ U+001F ‖ record_ref)),
- * first 12 hex characters: the same value as recordPseudonym in @cairn/metrics (methods.md §9),
+ * first 12 hex characters: the same value as recordPseudonym in @cairn/metrics (docs/methods.md §9),
  * computed where there is spare CPU (a test checks that the two agree).
  */
 export function hmacPads(secret: string): { ipad: string; opad: string } {

@@ -1,6 +1,6 @@
 /**
  * Audit quarters: the periods practices submit extracts for. The review
- * window (methods.md §1) is derived from the year and quarter and stored for
+ * window (docs/methods.md §1) is derived from the year and quarter and stored for
  * readers; the measure set is chosen when the quarter is opened.
  */
 import type { Migration } from '../migrator.js';

@@ -12,7 +12,7 @@
  * practice_quarters_quarter.
  *
  * record_ref is the practice's own reference, shown only to that practice;
- * pseudonym is its keyed hash (methods.md §9) for everyone else.
+ * pseudonym is its keyed hash (docs/methods.md §9) for everyone else.
  */
 import type { Migration } from '../migrator.js';
 

@@ -1,7 +1,7 @@
 /** The audit quarter as the API sends it (alone, in lists, and inside submissions and coverage). */
 import { ApiProperty, ApiPropertyOptional } from '@nestjs/swagger';
 import {
-  IsDateString,
+  buildMessage,
   IsIn,
   IsInt,
   IsOptional,
@@ -9,7 +9,23 @@ import {
   Matches,
   Max,
   Min,
+  isISO8601,
+  ValidateBy,
 } from 'class-validator';
+
+/** A calendar date written YYYY-MM-DD (no time), that exists (no 30 February). */
+function IsCalendarDate(): PropertyDecorator {
+  return ValidateBy({
+    name: 'isCalendarDate',
+    validator: {
+      validate: (value: unknown) =>
+        typeof value === 'string' &&
+        /^\d{4}-\d{2}-\d{2}$/.test(value) &&
+        isISO8601(value, { strict: true }),
+      defaultMessage: buildMessage(() => '$property must be a date written YYYY-MM-DD'),
+    },
+  });
+}
 
 export const QUARTER_STATUSES = ['open', 'closed'] as const;
 export type QuarterStatus = (typeof QUARTER_STATUSES)[number];
@@ -78,7 +94,7 @@ export class OpenQuarterDto {
     description: 'Default: a fixed number of days after the quarter ends',
   })
   @IsOptional()
-  @IsDateString({ strict: true })
+  @IsCalendarDate()
   submissionDeadline?: string;
 
   @ApiPropertyOptional({ type: String, example: 'cairn-default-2026.1' })
@@ -86,4 +102,50 @@ export class OpenQuarterDto {
   @IsString()
   @Matches(/^[a-z0-9][a-z0-9.-]{0,63}$/)
   measureSetId?: string;
+}
+
+/** Changes to a quarter: its deadline, and (while it is open, before any report) its measure set. */
+export class UpdateQuarterDto {
+  @ApiPropertyOptional({ type: String, example: '2027-02-14', description: 'YYYY-MM-DD' })
+  @IsOptional()
+  @IsCalendarDate()
+  submissionDeadline?: string;
+
+  @ApiPropertyOptional({ type: String, example: 'cairn-default-2026.2' })
+  @IsOptional()
+  @IsString()
+  @Matches(/^[a-z0-9][a-z0-9.-]{0,63}$/, { message: '$property must be a measure-set id' })
+  measureSetId?: string;
+}
+
+export class ReopenQuarterDto {
+  @ApiPropertyOptional({
+    type: String,
+    example: '2027-02-14',
+    description: 'A new deadline (YYYY-MM-DD); the current one is kept when not given',
+  })
+  @IsOptional()
+  @IsCalendarDate()
+  submissionDeadline?: string;
+}
+
+/** What the caller may do with a quarter (decided by quarter-policy.ts). */
+export class QuarterActionsDto {
+  @ApiProperty({ type: Boolean }) close!: boolean;
+  @ApiProperty({ type: Boolean }) reopen!: boolean;
+  @ApiProperty({ type: Boolean }) changeDeadline!: boolean;
+
+  @ApiProperty({
+    type: Boolean,
+    description: 'Only while the quarter is open and no report has been published from it',
+  })
+  changeMeasureSet!: boolean;
+}
+
+/** A report published from a quarter. */
+export class QuarterReportDto {
+  @ApiProperty({ type: Number }) id!: number;
+  @ApiProperty({ type: String }) label!: string;
+  @ApiProperty({ type: String, example: 'published' }) status!: string;
+  @ApiProperty({ type: String, description: 'ISO 8601' }) publishedAt!: string;
 }

@@ -7,7 +7,7 @@
  * here and everything else follows.
  *
  * Canonical units are those of the care record (@cairn/metrics, record.ts).
- * Conversions are the published ones of methods.md §6 (IFCC–NGSP master
+ * Conversions are the published ones of docs/methods.md §6 (IFCC–NGSP master
  * equation for HbA1c; molar masses for cholesterol, creatinine, ACR, glucose),
  * implemented in @cairn/metrics/src/units. Converted values are rounded to
  * the reporting precision of the canonical unit, as laboratories report them
@@ -31,7 +31,7 @@ export interface UnitDef {
   aliases: readonly string[];
   /** Conversion to the column's canonical unit (identity for the canonical unit) */
   toCanonical: (value: number) => number;
-  /** The conversion rule and its source, in words (methods.md §6); none for a canonical unit */
+  /** The conversion rule and its source, in words (docs/methods.md §6); none for a canonical unit */
   rule?: string;
 }
 
@@ -61,7 +61,7 @@ export interface ColumnDef {
   unitColumn?: string;
   /** For unit columns: the value column whose unit they give */
   unitFor?: string;
-  /** Plausible range in the canonical unit (methods.md §7, common practice) */
+  /** Plausible range in the canonical unit (docs/methods.md §7, common practice) */
   range?: { min: number; max: number };
   /** Decimal places kept after a unit conversion */
   decimals?: number;
@@ -128,7 +128,7 @@ export const UNITS = {
 
 const yesNo = 'yes or no (also accepted: y/n, true/false, 1/0); blank when not recorded';
 
-/** The care processes of methods.md §2, with the columns that hold each. */
+/** The care processes of docs/methods.md §2, with the columns that hold each. */
 export interface ProcessDef {
   key: string;
   label: string;
@@ -635,11 +635,15 @@ export function findUnit(def: ColumnDef, text: string): UnitDef | null {
   return null;
 }
 
-/** WHO diagnostic thresholds (WHO 2006 for glucose, WHO 2011 for HbA1c), canonical units. */
+/**
+ * Diagnostic thresholds, canonical units: WHO 2006 for fasting and 2-hour glucose, WHO 2011 for
+ * HbA1c; the random glucose threshold (with symptoms) is the ADA Standards of Care's diagnostic
+ * criterion (recalled from memory; docs/methods.md §7).
+ */
 export const DIAGNOSTIC_THRESHOLDS: Record<string, { min: number; unit: string; source: string }> =
   {
     fasting_glucose: { min: 7.0, unit: 'mmol/L', source: 'WHO 2006' },
     two_hour_glucose: { min: 11.1, unit: 'mmol/L', source: 'WHO 2006' },
-    random_glucose: { min: 11.1, unit: 'mmol/L', source: 'WHO 2006' },
+    random_glucose: { min: 11.1, unit: 'mmol/L', source: 'ADA Standards of Care, with symptoms' },
     hba1c: { min: 48, unit: 'mmol/mol', source: 'WHO 2011' },
   };

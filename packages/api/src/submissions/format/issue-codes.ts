@@ -2,7 +2,7 @@
  * Every problem Cairn can report about an extract, by code. Refusals stop
  * the whole file (nothing is stored); row errors refuse one row (the rest is
  * kept); warnings keep the row and say what Cairn did; flags are clinical
- * data-quality checks (methods.md §7), shown to the practice and the auditor.
+ * data-quality checks (docs/methods.md §7), shown to the practice and the auditor.
  *
  * The codes are stable: the API, the report download, the tests and
  * docs/extract-format.md use them.

@@ -1,5 +1,5 @@
 /**
- * Reading the cells of one extract row into Cairn's values (methods.md §7): each reader finds a
+ * Reading the cells of one extract row into Cairn's values (docs/methods.md §7): each reader finds a
  * Cairn column in the row and turns its cell into a code, yes or no, a year, a month or a
  * measurement in the column's canonical unit; a cell it cannot read becomes an issue of the row
  * (with the message and fix the practice reads) and the reader returns null. The issues of the

@@ -1,5 +1,5 @@
 /**
- * Validates and normalises one data row of an extract (methods.md §7):
+ * Validates and normalises one data row of an extract (docs/methods.md §7):
  * row errors refuse the row, warnings keep it and say what Cairn did, flags
  * are clinical data-quality checks. Accepted rows come out as a RecordRow in
  * canonical units with dates coarsened to the month.
@@ -629,7 +629,7 @@ export class RowValidator {
     return unit.toCanonical(read.value);
   }
 
-  /** Clinical data-quality flag (methods.md §7): type 1 diabetes recorded as not on insulin. */
+  /** Clinical data-quality flag (docs/methods.md §7): type 1 diabetes recorded as not on insulin. */
   private flagType1NotOnInsulin(record: RecordRow): void {
     if (record[COL.diabetes_type] === 'type1' && record[COL.on_insulin] === 0) {
       this.reader.add(

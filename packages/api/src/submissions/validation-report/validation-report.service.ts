@@ -4,7 +4,7 @@
  * as given with an added "Cairn issues" column, so that a practice can fix
  * them in place. Every text written to the spreadsheet is neutralised
  * against formula injection; record references are pseudonymised for anyone
- * outside the practice (methods.md §9).
+ * outside the practice (docs/methods.md §9).
  */
 import type { Writable } from 'node:stream';
 import { Inject, Injectable } from '@nestjs/common';

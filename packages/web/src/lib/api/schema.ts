@@ -303,7 +303,7 @@ export interface paths {
       path?: never;
       cookie?: never;
     };
-    /** Every measure-set version Cairn knows */
+    /** The measure-set versions you read: published ones, and your region’s drafts (regional lead, auditor), each with where it is used */
     get: operations['MeasureSetsController_list'];
     put?: never;
     post?: never;
@@ -320,10 +320,63 @@ export interface paths {
       path?: never;
       cookie?: never;
     };
-    /** One measure-set version: every care process and treatment target, its definition in words, population, denominator, direction and guideline */
+    /** One measure-set version: every care process and treatment target, its definition in words, population, denominator, direction and guideline, and the definition as stored */
     get: operations['MeasureSetsController_get'];
+    /** Save a draft’s whole definition (regional lead); refused with every problem and its field when the measure set is not valid */
+    put: operations['MeasureSetsController_save'];
+    post?: never;
+    /** Discard a draft (regional lead); a published version is kept */
+    delete: operations['MeasureSetsController_discard'];
+    options?: never;
+    head?: never;
+    patch?: never;
+    trace?: never;
+  };
+  '/api/measure-sets/{measureSetId}/changes': {
+    parameters: {
+      query?: never;
+      header?: never;
+      path?: never;
+      cookie?: never;
+    };
+    /** The differences from the version it was started from, in words */
+    get: operations['MeasureSetsController_changes'];
     put?: never;
     post?: never;
+    delete?: never;
+    options?: never;
+    head?: never;
+    patch?: never;
+    trace?: never;
+  };
+  '/api/measure-sets/{measureSetId}/drafts': {
+    parameters: {
+      query?: never;
+      header?: never;
+      path?: never;
+      cookie?: never;
+    };
+    get?: never;
+    put?: never;
+    /** Start a draft from a published version (regional lead) */
+    post: operations['MeasureSetsController_clone'];
+    delete?: never;
+    options?: never;
+    head?: never;
+    patch?: never;
+    trace?: never;
+  };
+  '/api/measure-sets/{measureSetId}/publish': {
+    parameters: {
+      query?: never;
+      header?: never;
+      path?: never;
+      cookie?: never;
+    };
+    get?: never;
+    put?: never;
+    /** Publish a draft as a new version, fixed for good (regional lead) */
+    post: operations['MeasureSetsController_publish'];
     delete?: never;
     options?: never;
     head?: never;
@@ -362,7 +415,8 @@ export interface paths {
     delete?: never;
     options?: never;
     head?: never;
-    patch?: never;
+    /** Move the deadline of a quarter, or change its measure-set version while it is open and no report has been published from it (regional lead) */
+    patch: operations['QuartersController_update'];
     trace?: never;
   };
   '/api/quarters/{quarterId}/close': {
@@ -391,7 +445,7 @@ export interface paths {
     };
     get?: never;
     put?: never;
-    /** Reopen a closed quarter (regional lead) */
+    /** Reopen a closed quarter, optionally with a new deadline (regional lead) */
     post: operations['QuartersController_reopen'];
     delete?: never;
     options?: never;
@@ -640,6 +694,86 @@ export interface paths {
     patch?: never;
     trace?: never;
   };
+  '/api/quarters/{quarterId}/benchmark': {
+    parameters: {
+      query?: never;
+      header?: never;
+      path?: never;
+      cookie?: never;
+    };
+    /**
+     * Every practice on every measure of an audit quarter, with the region’s statistics
+     * @description Read from the practices’ current submissions for the quarter; `builtFrom` says which set. Practices without a current submission are listed in `coverage.missing`, never counted as zero. 404 quarter-not-found, 404 locality-not-found; 400 for a bad split.
+     */
+    get: operations['BenchmarkController_region'];
+    put?: never;
+    post?: never;
+    delete?: never;
+    options?: never;
+    head?: never;
+    patch?: never;
+    trace?: never;
+  };
+  '/api/quarters/{quarterId}/benchmark/measures/{measureKey}': {
+    parameters: {
+      query?: never;
+      header?: never;
+      path?: never;
+      cookie?: never;
+    };
+    /**
+     * One measure’s funnel plot: every practice’s point, the limits as curves, over-dispersion
+     * @description 404 measure-not-found naming the measure set’s measures.
+     */
+    get: operations['BenchmarkController_funnel'];
+    put?: never;
+    post?: never;
+    delete?: never;
+    options?: never;
+    head?: never;
+    patch?: never;
+    trace?: never;
+  };
+  '/api/quarters/{quarterId}/benchmark/trend': {
+    parameters: {
+      query?: never;
+      header?: never;
+      path?: never;
+      cookie?: never;
+    };
+    /**
+     * One measure over every quarter of the region up to this one: the region and every practice
+     * @description Each quarter with its own measure set; a quarter whose measure set lacks the measure, or without a current submission, is a gap (no rate), never a zero. Run-chart signals per series.
+     */
+    get: operations['BenchmarkController_trend'];
+    put?: never;
+    post?: never;
+    delete?: never;
+    options?: never;
+    head?: never;
+    patch?: never;
+    trace?: never;
+  };
+  '/api/practices/{practiceId}/quarters/{quarterId}/results': {
+    parameters: {
+      query?: never;
+      header?: never;
+      path?: never;
+      cookie?: never;
+    };
+    /**
+     * A practice's results for an audit quarter, against the region, with its trend
+     * @description Every measure and split: its own figures, the region's rate, median and limits at its n, its flags, change since the previous quarter, trend with run-chart signals and improvement potential; breakdowns, kidney grid, time to insulin and value histograms against the region; data-quality flags. Other practices appear only as region aggregates and unnamed points, under disclosure control for practice leads. A practice without a current submission: state no-current-submission, with the upload action.
+     */
+    get: operations['PracticeResultsController_get'];
+    put?: never;
+    post?: never;
+    delete?: never;
+    options?: never;
+    head?: never;
+    patch?: never;
+    trace?: never;
+  };
   '/api/practices/{practiceId}/quarters/{quarterId}/recall-list': {
     parameters: {
       query?: never;
@@ -686,6 +820,23 @@ export interface paths {
     };
     /** The whole recall list of a measure as XLSX, with a sheet about the measure */
     get: operations['RecallListController_xlsx'];
+    put?: never;
+    post?: never;
+    delete?: never;
+    options?: never;
+    head?: never;
+    patch?: never;
+    trace?: never;
+  };
+  '/api/quarter-overview': {
+    parameters: {
+      query?: never;
+      header?: never;
+      path?: never;
+      cookie?: never;
+    };
+    /** The audit quarters of your region with deadline, measure set, coverage (regional lead, auditor) and published reports, what you may do with each, and the quarter that would open next */
+    get: operations['QuarterOverviewController_get'];
     put?: never;
     post?: never;
     delete?: never;
@@ -1037,18 +1188,64 @@ export interface components {
       process: components['schemas']['HealthProcessDto'];
       database: components['schemas']['HealthDatabaseDto'];
     };
+    /**
+     * @description draft: being edited, used by nothing; published: fixed for good
+     * @enum {string}
+     */
+    MeasureSetStatus: 'draft' | 'published';
+    /** @enum {string} */
+    MeasureSetUseKind: 'quarter' | 'report';
+    MeasureSetUseDto: {
+      kind: components['schemas']['MeasureSetUseKind'];
+      id: number;
+      /** @example 2026 Q3 */
+      label: string;
+      /**
+       * @description The quarter’s or report’s status
+       * @example open
+       */
+      status: string;
+    };
+    MeasureSetActionsDto: {
+      /** @description Start a draft from this published version */
+      clone: boolean;
+      /** @description Change this draft */
+      edit: boolean;
+      /** @description Publish this draft as a new version */
+      publish: boolean;
+      /** @description Discard this draft */
+      discard: boolean;
+    };
     MeasureSetSummaryDto: {
       /** @example cairn-default-2026.1 */
       id: string;
       /** @example Cairn default measure set 2026.1 */
       label: string;
       description: string | null;
+      /** @description draft: being edited, used by nothing; published: fixed for good */
+      status: components['schemas']['MeasureSetStatus'];
+      /** @description The version this one was started from */
+      basedOn: string | null;
+      /** @description Shipped with Cairn (config/measure-sets/) and read by every region */
+      shippedWithCairn: boolean;
+      /** @description SHA-256 (hex) of the definition as stored */
+      contentHash: string;
       /** @example 10 */
       careProcesses: number;
       /** @example 10 */
       treatmentTargets: number;
       /** @description The version a new audit quarter gets by default */
       isDefault: boolean;
+      /** @description ISO 8601 */
+      createdAt: string;
+      /** @description Who started it (Cairn itself for a shipped version) */
+      createdBy: string;
+      /** @description ISO 8601 */
+      publishedAt: string | null;
+      publishedBy: string | null;
+      /** @description The quarters (and reports) that use it */
+      usedBy: components['schemas']['MeasureSetUseDto'][];
+      actions: components['schemas']['MeasureSetActionsDto'];
     };
     /** @enum {string} */
     BreakdownKey: 'age_band' | 'sex' | 'deprivation' | 'duration';
@@ -1132,18 +1329,246 @@ export interface components {
       /** @description Keys of the measures a composite combines (empty otherwise) */
       components: string[];
     };
+    PopulationDefinitionDto: {
+      types: components['schemas']['DiabetesType'][];
+      /** @description Youngest age included; null: none */
+      minAge: number | null;
+      /** @description Oldest age included; null: none */
+      maxAge: number | null;
+    };
+    /**
+     * @description The record field whose month must lie in the window
+     * @enum {string}
+     */
+    CareProcessField:
+      | 'hba1c'
+      | 'bloodPressure'
+      | 'cholesterol'
+      | 'serumCreatinine'
+      | 'urineAlbumin'
+      | 'footSurveillance'
+      | 'bmi'
+      | 'smoking'
+      | 'retinalScreening';
+    /** @enum {string} */
+    MeasureWindow: 'review' | 'retinal';
+    RecordedProcessDefinitionDto: {
+      /** @example hba1c_le_53 */
+      key: string;
+      label: string;
+      /** @description The guideline or rule the measure comes from */
+      source: string;
+      denominator: components['schemas']['DenominatorKind'];
+      direction: components['schemas']['MeasureDirection'];
+      population: components['schemas']['PopulationDefinitionDto'];
+      note?: string;
+      /** @enum {string} */
+      rule: 'recorded';
+      /** @description The record field whose month must lie in the window */
+      field: components['schemas']['CareProcessField'];
+      window: components['schemas']['MeasureWindow'];
+    };
+    CompositeProcessDefinitionDto: {
+      /** @example hba1c_le_53 */
+      key: string;
+      label: string;
+      /** @description The guideline or rule the measure comes from */
+      source: string;
+      denominator: components['schemas']['DenominatorKind'];
+      direction: components['schemas']['MeasureDirection'];
+      population: components['schemas']['PopulationDefinitionDto'];
+      note?: string;
+      /** @enum {string} */
+      rule: 'allOf';
+      /** @description Keys of the recorded care processes that must all be complete */
+      of: string[];
+    };
+    /** @enum {string} */
+    Measurement:
+      | 'hba1c'
+      | 'systolic'
+      | 'diastolic'
+      | 'cholesterol'
+      | 'serumCreatinine'
+      | 'urineAlbumin'
+      | 'bmi';
+    /** @enum {string} */
+    Comparator: 'lt' | 'le' | 'gt' | 'ge';
+    ValueTargetDefinitionDto: {
+      /** @example hba1c_le_53 */
+      key: string;
+      label: string;
+      /** @description The guideline or rule the measure comes from */
+      source: string;
+      denominator: components['schemas']['DenominatorKind'];
+      direction: components['schemas']['MeasureDirection'];
+      population: components['schemas']['PopulationDefinitionDto'];
+      note?: string;
+      /** @enum {string} */
+      rule: 'value';
+      measurement: components['schemas']['Measurement'];
+      comparator: components['schemas']['Comparator'];
+      threshold: number;
+    };
+    BloodPressureBandDto: {
+      /** @description The band applies from this age */
+      minAge: number;
+      /** @example 140 */
+      systolicBelow: number;
+      /** @example 90 */
+      diastolicBelow: number;
+    };
+    BloodPressureTargetDefinitionDto: {
+      /** @example hba1c_le_53 */
+      key: string;
+      label: string;
+      /** @description The guideline or rule the measure comes from */
+      source: string;
+      denominator: components['schemas']['DenominatorKind'];
+      direction: components['schemas']['MeasureDirection'];
+      population: components['schemas']['PopulationDefinitionDto'];
+      note?: string;
+      /** @enum {string} */
+      rule: 'bloodPressure';
+      bands: components['schemas']['BloodPressureBandDto'][];
+    };
+    /** @enum {string} */
+    FlagField: 'onStatin' | 'onInsulin' | 'cvdHistory';
+    FlagTargetDefinitionDto: {
+      /** @example hba1c_le_53 */
+      key: string;
+      label: string;
+      /** @description The guideline or rule the measure comes from */
+      source: string;
+      denominator: components['schemas']['DenominatorKind'];
+      direction: components['schemas']['MeasureDirection'];
+      population: components['schemas']['PopulationDefinitionDto'];
+      note?: string;
+      /** @enum {string} */
+      rule: 'flag';
+      flag: components['schemas']['FlagField'];
+      equals: boolean;
+    };
+    ValueConditionDto: {
+      /** @enum {string} */
+      rule: 'value';
+      measurement: components['schemas']['Measurement'];
+      comparator: components['schemas']['Comparator'];
+      /** @description In the measurement’s canonical unit */
+      threshold: number;
+    };
+    BloodPressureConditionDto: {
+      /** @enum {string} */
+      rule: 'bloodPressure';
+      bands: components['schemas']['BloodPressureBandDto'][];
+    };
+    FlagConditionDto: {
+      /** @enum {string} */
+      rule: 'flag';
+      flag: components['schemas']['FlagField'];
+      /** @description The recorded value that meets the target */
+      equals: boolean;
+    };
+    TargetRefConditionDto: {
+      /** @enum {string} */
+      rule: 'target';
+      /** @description Key of a target defined before this one */
+      key: string;
+    };
+    /** @enum {string} */
+    CompositeRule: 'anyOf' | 'allOf';
+    CompositeTargetDefinitionDto: {
+      /** @example hba1c_le_53 */
+      key: string;
+      label: string;
+      /** @description The guideline or rule the measure comes from */
+      source: string;
+      denominator: components['schemas']['DenominatorKind'];
+      direction: components['schemas']['MeasureDirection'];
+      population: components['schemas']['PopulationDefinitionDto'];
+      note?: string;
+      rule: components['schemas']['CompositeRule'];
+      of: (
+        | components['schemas']['ValueConditionDto']
+        | components['schemas']['BloodPressureConditionDto']
+        | components['schemas']['FlagConditionDto']
+        | components['schemas']['TargetRefConditionDto']
+      )[];
+    };
+    EligibilityDefinitionDto: {
+      /** @example 12 */
+      minAge: number;
+    };
+    BreakdownBandsDto: {
+      /**
+       * @example [
+       *       12,
+       *       40,
+       *       65,
+       *       80
+       *     ]
+       */
+      ageBands: number[];
+      /**
+       * @example [
+       *       0,
+       *       2,
+       *       7,
+       *       15
+       *     ]
+       */
+      durationBands: number[];
+    };
+    MeasureSetDefinitionDto: {
+      /** @example cairn-default-2026.1 */
+      id: string;
+      label: string;
+      description?: string;
+      eligibility: components['schemas']['EligibilityDefinitionDto'];
+      /** @example 12 */
+      retinalWindowMonths: number;
+      breakdowns: components['schemas']['BreakdownBandsDto'];
+      careProcesses: (
+        | components['schemas']['RecordedProcessDefinitionDto']
+        | components['schemas']['CompositeProcessDefinitionDto']
+      )[];
+      targets: (
+        | components['schemas']['ValueTargetDefinitionDto']
+        | components['schemas']['BloodPressureTargetDefinitionDto']
+        | components['schemas']['FlagTargetDefinitionDto']
+        | components['schemas']['CompositeTargetDefinitionDto']
+      )[];
+    };
     MeasureSetDto: {
       /** @example cairn-default-2026.1 */
       id: string;
       /** @example Cairn default measure set 2026.1 */
       label: string;
       description: string | null;
+      /** @description draft: being edited, used by nothing; published: fixed for good */
+      status: components['schemas']['MeasureSetStatus'];
+      /** @description The version this one was started from */
+      basedOn: string | null;
+      /** @description Shipped with Cairn (config/measure-sets/) and read by every region */
+      shippedWithCairn: boolean;
+      /** @description SHA-256 (hex) of the definition as stored */
+      contentHash: string;
       /** @example 10 */
       careProcesses: number;
       /** @example 10 */
       treatmentTargets: number;
       /** @description The version a new audit quarter gets by default */
       isDefault: boolean;
+      /** @description ISO 8601 */
+      createdAt: string;
+      /** @description Who started it (Cairn itself for a shipped version) */
+      createdBy: string;
+      /** @description ISO 8601 */
+      publishedAt: string | null;
+      publishedBy: string | null;
+      /** @description The quarters (and reports) that use it */
+      usedBy: components['schemas']['MeasureSetUseDto'][];
+      actions: components['schemas']['MeasureSetActionsDto'];
       /**
        * @description Youngest age counted at all, at the end of the review window
        * @example 12
@@ -1157,6 +1582,62 @@ export interface components {
       breakdowns: components['schemas']['BreakdownDto'][];
       /** @description Care processes first, then treatment targets */
       measures: components['schemas']['MeasureDto'][];
+      /** @description Saves of a draft so far; send it back when saving */
+      revision: number;
+      /** @description The definition, as stored */
+      definition: components['schemas']['MeasureSetDefinitionDto'];
+      /** @description An unused id for a draft started from this version (when the caller may start one) */
+      suggestedDraftId: string | null;
+      /** @description A label for that draft */
+      suggestedDraftLabel: string | null;
+    };
+    /** @enum {string} */
+    MeasureChangeKind: 'added' | 'removed' | 'changed';
+    MeasureSetChangeDto: {
+      kind: components['schemas']['MeasureChangeKind'];
+      /** @description The measure; null for the set itself */
+      measureKey: string | null;
+      measureLabel: string | null;
+      /**
+       * @description Path within the measure (or the set); null when the measure was added or removed
+       * @example threshold
+       */
+      field: string | null;
+      /** @example Threshold */
+      fieldLabel: string;
+      /** @example 53 */
+      before: string | null;
+      /** @example 50 */
+      after: string | null;
+    };
+    MeasureSetChangesDto: {
+      id: string;
+      /** @description The version compared with */
+      basedOn: string | null;
+      basedOnLabel: string | null;
+      /** @description Empty when nothing differs */
+      changes: components['schemas']['MeasureSetChangeDto'][];
+    };
+    CloneMeasureSetDto: {
+      /** @example cairn-default-2026.2 */
+      id: string;
+      /** @example Cairn default measure set 2026.2 */
+      label: string;
+    };
+    SaveMeasureSetDraftDto: {
+      /** @description The revision the change was made to */
+      revision: number;
+      definition: components['schemas']['MeasureSetDefinitionDto'];
+    };
+    PublishMeasureSetDto: {
+      /** @description The revision being published, as last read */
+      revision: number;
+    };
+    DiscardedMeasureSetDto: {
+      /** @description The draft discarded */
+      id: string;
+      /** @description The version it was started from */
+      basedOn: string | null;
     };
     /**
      * @description Closed: closed to practice uploads (a regional lead can still correct it)
@@ -1210,6 +1691,22 @@ export interface components {
        */
       submissionDeadline?: string;
       /** @example cairn-default-2026.1 */
+      measureSetId?: string;
+    };
+    ReopenQuarterDto: {
+      /**
+       * @description A new deadline (YYYY-MM-DD); the current one is kept when not given
+       * @example 2027-02-14
+       */
+      submissionDeadline?: string;
+    };
+    UpdateQuarterDto: {
+      /**
+       * @description YYYY-MM-DD
+       * @example 2027-02-14
+       */
+      submissionDeadline?: string;
+      /** @example cairn-default-2026.2 */
       measureSetId?: string;
     };
     ExtractLimitsDto: {
@@ -1521,28 +2018,591 @@ export interface components {
     };
     /** @enum {string} */
     TypeSplit: 'all' | 'type1' | 'type2_other';
-    RecallPracticeDto: {
-      /** @example 12 */
-      id: number;
-      /** @example OV102 */
+    /**
+     * @description no-accepted-submissions: nobody has a current submission for the quarter yet
+     * @enum {string}
+     */
+    BenchmarkState: 'results' | 'no-accepted-submissions';
+    LocalityDto: {
+      /** @example HRN */
       code: string;
-      /** @example Quarrybank Surgery */
+      /** @example Harnleigh Fold */
       name: string;
     };
-    RecallQuarterDto: {
-      id: number;
+    BuiltFromDto: {
+      /** @description The stored result (benchmark_results) */
+      resultId: number;
+      quarterId: number;
       /** @example 2026 Q3 */
+      quarterLabel: string;
+      /** @example cairn-default-2026.1 */
+      measureSetId: string;
+      /** @description Current submissions it was built from */
+      submissions: number;
+      /** @description SHA-256 (hex) of the sorted ids of those submissions: results with the same key were built from the same set */
+      submissionsKey: string;
+      /** @description When it was built (ISO 8601) */
+      builtAt: string;
+      /** @description Milliseconds the build took */
+      buildMs: number;
+    };
+    OverdispersionDto: {
+      /** @description φ: mean of the Winsorised z² */
+      phi: number | null;
+      /** @description τ²: the additive between-unit variance */
+      tau2: number | null;
+      /** @description I·φ above the χ²(I − 1) 95 % point */
+      present: boolean;
+      /** @description I·φ */
+      statistic: number | null;
+      /** @description The χ²(I − 1) 95 % point */
+      critical: number | null;
+    };
+    RegionMeasureDto: {
+      /** @example hba1c */
+      measure: string;
+      /** @description Σ events over every practice */
+      events: number;
+      /** @description Σ n over every practice */
+      n: number;
+      /** @description θ₀: the pooled regional rate Σ events / Σ n, the funnel’s target */
+      theta0: number | null;
+      /** @description Median of the practices’ rates (n > 0) */
+      median: number | null;
+      /** @description Practices with n > 0 */
+      practices: number;
+      /** @description null when θ₀ is 0, 1 or unknown */
+      overdispersion: components['schemas']['OverdispersionDto'] | null;
+    };
+    RecordCountsDto: {
+      total: number;
+      /** @description Known diabetes type and old enough */
+      eligible: number;
+      /** @description Left out: diabetes type not known */
+      unknownType: number;
+      /** @description Left out: under the youngest age counted */
+      underAge: number;
+    };
+    DataQualityCountDto: {
+      /** @example type1_not_on_insulin */
+      code: string;
+      /** @example Type 1 diabetes but not on insulin */
+      title: string;
+      /** @description Records of the submission it flagged */
+      count: number;
+    };
+    IntervalDto: {
+      /** @description null when there is nothing to estimate */
+      lower: number | null;
+      upper: number | null;
+    };
+    /**
+     * @description within the 95 % limits; notable: beyond them; outlier: beyond the 99.8 % limits. null when n = 0
+     * @enum {string}
+     */
+    FunnelBand: 'within' | 'notable' | 'outlier';
+    /**
+     * @description Which side of the limits the rate lies beyond; null when within
+     * @enum {string}
+     */
+    FunnelSide: 'above' | 'below';
+    /**
+     * @description The side read through the measure’s direction: better or worse than expected
+     * @enum {string}
+     */
+    FlagAssessment: 'better' | 'worse';
+    FlagDto: {
+      /** @description within the 95 % limits; notable: beyond them; outlier: beyond the 99.8 % limits. null when n = 0 */
+      band: components['schemas']['FunnelBand'] | null;
+      /** @description Which side of the limits the rate lies beyond; null when within */
+      side: components['schemas']['FunnelSide'] | null;
+      /** @description The side read through the measure’s direction: better or worse than expected */
+      assessment: components['schemas']['FlagAssessment'] | null;
+    };
+    CaseMixDto: {
+      /** @description O: events observed */
+      observed: number;
+      /** @description E: events expected from the region’s stratum rates (indirect standardisation) */
+      expected: number;
+      /** @description O/E; null when E = 0 */
+      ratio: number | null;
+      /** @description Exact (Garwood) 95 % interval of O/E */
+      interval: components['schemas']['IntervalDto'];
+      /** @description (O/E) × the region’s rate */
+      adjustedRate: number | null;
+    };
+    BenchmarkCellDto: {
+      /** @example hba1c */
+      measure: string;
+      /** @description The denominator: eligible or measured, as the measure declares */
+      n: number;
+      events: number;
+      /** @description events / n; null when n = 0 */
+      rate: number | null;
+      /** @description Wilson 95 % interval of the rate */
+      interval: components['schemas']['IntervalDto'];
+      /** @description Against the exact binomial funnel limits */
+      exact: components['schemas']['FlagDto'];
+      /** @description Against the over-dispersion-adjusted limits */
+      adjusted: components['schemas']['FlagDto'];
+      caseMix: components['schemas']['CaseMixDto'];
+      /** @description Records to change to reach the region’s median rate (0 at or beyond it); null when n = 0 */
+      improvementPotential: number | null;
+    };
+    BenchmarkPracticeDto: {
+      practice: components['schemas']['PracticeDto'];
+      /** @example HRN */
+      localityCode: string | null;
+      /** @description The current submission its figures come from */
+      submissionId: number;
+      records: components['schemas']['RecordCountsDto'];
+      /** @description Clinical data-quality flags of its submission (every check, 0 included) */
+      dataQuality: components['schemas']['DataQualityCountDto'][];
+      /** @description One per measure, in `measures` order */
+      cells: components['schemas']['BenchmarkCellDto'][];
+    };
+    BenchmarkCoverageDto: {
+      /** @description Active practices of the region (of the locality when filtered) */
+      practices: number;
+      /** @description Practices with a current submission for the quarter */
+      withSubmission: number;
+      /** @description Active practices without a current submission: missing, never counted as zero */
+      missing: components['schemas']['PracticeDto'][];
+    };
+    RegionBenchmarkDto: {
+      /** @description no-accepted-submissions: nobody has a current submission for the quarter yet */
+      state: components['schemas']['BenchmarkState'];
+      quarter: components['schemas']['QuarterDto'];
+      /** @example cairn-default-2026.1 */
+      measureSetId: string;
+      split: components['schemas']['TypeSplit'];
+      /** @description The locality filter, if any */
+      locality: components['schemas']['LocalityDto'] | null;
+      /** @description The region’s localities (for a filter) */
+      localities: components['schemas']['LocalityDto'][];
+      /** @description null when there is no result */
+      builtFrom: components['schemas']['BuiltFromDto'] | null;
+      /** @description Care processes first, then treatment targets */
+      measures: components['schemas']['MeasureDto'][];
+      /** @description One per measure, in `measures` order */
+      region: components['schemas']['RegionMeasureDto'][];
+      /** @description Practices with a current submission, by code */
+      practices: components['schemas']['BenchmarkPracticeDto'][];
+      coverage: components['schemas']['BenchmarkCoverageDto'];
+      /** @description The clinical caution to show with these figures */
+      caution: string;
+    };
+    FunnelOverdispersionDto: {
+      /** @description φ: mean of the Winsorised z² */
+      phi: number | null;
+      /** @description τ²: the additive between-unit variance */
+      tau2: number | null;
+      /** @description I·φ above the χ²(I − 1) 95 % point */
+      present: boolean;
+      /** @description I·φ */
+      statistic: number | null;
+      /** @description The χ²(I − 1) 95 % point */
+      critical: number | null;
+      /** @description The z-scores’ 10th and 90th percentiles the Winsorising clips to */
+      bounds: components['schemas']['IntervalDto'] | null;
+    };
+    FlagWithLimitsDto: {
+      /** @description within the 95 % limits; notable: beyond them; outlier: beyond the 99.8 % limits. null when n = 0 */
+      band: components['schemas']['FunnelBand'] | null;
+      /** @description Which side of the limits the rate lies beyond; null when within */
+      side: components['schemas']['FunnelSide'] | null;
+      /** @description The side read through the measure’s direction: better or worse than expected */
+      assessment: components['schemas']['FlagAssessment'] | null;
+      /** @description The 95 % limits at this n */
+      inner: components['schemas']['IntervalDto'];
+      /** @description The 99.8 % limits at this n */
+      outer: components['schemas']['IntervalDto'];
+    };
+    FunnelPointDto: {
+      practice: components['schemas']['PracticeDto'];
+      localityCode: string | null;
+      n: number;
+      events: number;
+      rate: number | null;
+      /** @description Wilson 95 % interval */
+      interval: components['schemas']['IntervalDto'];
+      /** @description (rate − θ₀) / √(θ₀(1 − θ₀)/n) */
+      z: number | null;
+      /** @description Exact binomial limits at its n, and its flag */
+      exact: components['schemas']['FlagWithLimitsDto'];
+      /** @description Over-dispersion-adjusted limits at its n, and its flag */
+      adjusted: components['schemas']['FlagWithLimitsDto'];
+      caseMix: components['schemas']['CaseMixDto'];
+      improvementPotential: number | null;
+    };
+    FunnelLimitCurvesDto: {
+      /** @description 95 % lower limit at each n of the grid */
+      innerLower: number[];
+      innerUpper: number[];
+      /** @description 99.8 % lower limit at each n of the grid */
+      outerLower: number[];
+      outerUpper: number[];
+    };
+    FunnelCurvesDto: {
+      /** @description The grid of n the curves are drawn at */
+      n: number[];
+      /** @description Exact binomial limits */
+      exact: components['schemas']['FunnelLimitCurvesDto'];
+      /** @description Over-dispersion-adjusted limits; null when no over-dispersion is present */
+      adjusted: components['schemas']['FunnelLimitCurvesDto'] | null;
+    };
+    MeasureFunnelDto: {
+      state: components['schemas']['BenchmarkState'];
+      quarter: components['schemas']['QuarterDto'];
+      measureSetId: string;
+      builtFrom: components['schemas']['BuiltFromDto'] | null;
+      measure: components['schemas']['MeasureDto'];
+      split: components['schemas']['TypeSplit'];
+      /** @description null when there is no result */
+      region: components['schemas']['RegionMeasureDto'] | null;
+      /** @description φ, τ², whether present, the χ² statistic and its critical value */
+      overdispersion: components['schemas']['FunnelOverdispersionDto'] | null;
+      /** @description Every practice with a current submission */
+      points: components['schemas']['FunnelPointDto'][];
+      /** @description null when θ₀ is 0, 1 or unknown */
+      curves: components['schemas']['FunnelCurvesDto'] | null;
+      /** @description Active practices without a current submission */
+      missing: components['schemas']['PracticeDto'][];
+      caution: string;
+    };
+    TrendQuarterDto: {
+      quarterId: number;
+      /** @example 2026 Q2 */
+      quarterLabel: string;
+      /** @description The measure set of that quarter */
+      measureSetId: string;
+      /** @description What that quarter’s figures were built from; null: no current submission then */
+      builtFrom: components['schemas']['BuiltFromDto'] | null;
+      /** @description Whether that quarter’s measure set has the measure */
+      hasMeasure: boolean;
+    };
+    /**
+     * @description value: figures below; no-submission: no current submission that quarter (a gap); not-in-measure-set: that quarter’s measure set has no such measure (a gap)
+     * @enum {string}
+     */
+    TrendPointState: 'value' | 'no-submission' | 'not-in-measure-set';
+    TrendPointDto: {
+      /** @description value: figures below; no-submission: no current submission that quarter (a gap); not-in-measure-set: that quarter’s measure set has no such measure (a gap) */
+      state: components['schemas']['TrendPointState'];
+      events: number;
+      n: number;
+      /** @description null for a gap or n = 0 */
+      rate: number | null;
+    };
+    RunsLimitsDto: {
+      lower: number;
+      upper: number;
+    };
+    /** @enum {string} */
+    ShiftSide: 'above' | 'below';
+    RunShiftDto: {
+      /** @description Index of the first point (into points) */
+      start: number;
+      /** @description Index of the last point */
+      end: number;
+      /** @description Points in the shift */
+      length: number;
+      side: components['schemas']['ShiftSide'];
+    };
+    /** @enum {string} */
+    TrendDirection: 'up' | 'down';
+    RunTrendDto: {
+      /** @description Index of the first point (into points) */
+      start: number;
+      /** @description Index of the last point */
+      end: number;
+      length: number;
+      direction: components['schemas']['TrendDirection'];
+    };
+    RunChartSignalsDto: {
+      /** @description The centre line (median of the rates) */
+      median: number | null;
+      /** @description Points neither missing nor on the median */
+      usefulObservations: number;
+      runs: number;
+      /** @description Fewest and most runs expected by chance; null under 10 useful points */
+      runsLimits: components['schemas']['RunsLimitsDto'] | null;
+      tooFewRuns: boolean;
+      tooManyRuns: boolean;
+      /** @description 6 or more points on one side of the median */
+      shifts: components['schemas']['RunShiftDto'][];
+      /** @description 5 or more points all going up or all down */
+      trends: components['schemas']['RunTrendDto'][];
+    };
+    RateTrendDto: {
+      /** @description Oldest quarter first: points[i] is the response’s quarters[i] */
+      points: components['schemas']['TrendPointDto'][];
+      signals: components['schemas']['RunChartSignalsDto'];
+    };
+    PracticeTrendDto: {
+      practice: components['schemas']['PracticeDto'];
+      trend: components['schemas']['RateTrendDto'];
+    };
+    BenchmarkTrendDto: {
+      /** @description The latest quarter of the series */
+      quarter: components['schemas']['QuarterDto'];
+      measure: components['schemas']['MeasureDto'];
+      split: components['schemas']['TypeSplit'];
+      /** @description Every quarter of the region up to this one, oldest first */
+      quarters: components['schemas']['TrendQuarterDto'][];
+      /** @description The region’s pooled rate per quarter */
+      region: components['schemas']['RateTrendDto'];
+      /** @description Every practice of the region, by code */
+      practices: components['schemas']['PracticeTrendDto'][];
+    };
+    /**
+     * @description no-current-submission: the practice has no confirmed extract for the quarter
+     * @enum {string}
+     */
+    PracticeResultsState: 'results' | 'no-current-submission';
+    PracticeSubmissionRefDto: {
+      id: number;
+      /** @description Records it holds */
+      records: number;
+      /** @description ISO 8601 */
+      confirmedAt: string;
+    };
+    ResultsActionsDto: {
+      /** @description Whether the reader may upload an extract for this practice and quarter */
+      upload: boolean;
+      /** @example /extracts/upload?practice=12&quarter=8 */
+      uploadPath: string | null;
+    };
+    /**
+     * @description applied: region figures and peers are under disclosure control (counts 1–4 as “< 5”, rates of fewer than 10 withheld); none: the reader may see every practice
+     * @enum {string}
+     */
+    PeerDisclosure: 'applied' | 'none';
+    SeriesQuarterDto: {
+      quarterId: number;
+      /** @example 2026 Q2 */
+      quarterLabel: string;
+      /** @description The measure set of that quarter */
+      measureSetId: string;
+      /** @description What that quarter’s figures were built from; null: no current submission then */
+      builtFrom: components['schemas']['BuiltFromDto'] | null;
+    };
+    OwnFiguresDto: {
+      n: number;
+      events: number;
+      rate: number | null;
+      /** @description Wilson 95 % interval */
+      interval: components['schemas']['IntervalDto'];
+      /** @description The exact funnel limits at its n and its flag */
+      exact: components['schemas']['FlagWithLimitsDto'];
+      /** @description The over-dispersion-adjusted limits at its n and its flag */
+      adjusted: components['schemas']['FlagWithLimitsDto'];
+      caseMix: components['schemas']['CaseMixDto'];
+    };
+    DisclosedCountDto: {
+      /** @description null when suppressed */
+      value: number | null;
+      /**
+       * @description The count as printed: the number, “< 5” or “withheld”
+       * @example < 5
+       */
+      display: string;
+    };
+    RegionFiguresDto: {
+      /** @description θ₀: the region’s pooled rate */
+      rate: number | null;
+      /** @description Median of the practices’ rates */
+      median: number | null;
+      events: components['schemas']['DisclosedCountDto'];
+      n: components['schemas']['DisclosedCountDto'];
+      /** @description Practices with n > 0 */
+      practices: number;
+      /** @description Over-dispersion present (the adjusted limits are wider) */
+      overdispersion: boolean;
+    };
+    ChangeDto: {
+      previousQuarterId: number;
+      previousQuarterLabel: string;
+      previousRate: number;
+      /** @description This quarter’s rate minus the previous (a proportion) */
+      difference: number;
+    };
+    ImprovementDto: {
+      /** @description k: records that would need this done (higher is better) or no longer counted (lower is better) to bring the practice to the region median; 0 at or beyond it; null when n = 0 */
+      records: number | null;
+      /** @description The region median it is measured against */
+      median: number | null;
+    };
+    PeerPointsDto: {
+      /** @description n of each other practice shown, ascending */
+      n: number[];
+      /** @description Its rate (same order) */
+      rate: number[];
+      /** @description Other practices not shown: n under 10 or 1–4 events (disclosure control), or n = 0 */
+      withheld: number;
+    };
+    PracticeSplitResultDto: {
+      split: components['schemas']['TypeSplit'];
+      own: components['schemas']['OwnFiguresDto'];
+      region: components['schemas']['RegionFiguresDto'];
+      /** @description null when the previous quarter has no rate to compare */
+      change: components['schemas']['ChangeDto'] | null;
+      improvement: components['schemas']['ImprovementDto'];
+      /** @description Every quarter of the region up to this one, with run-chart signals */
+      trend: components['schemas']['RateTrendDto'];
+      /** @description The region’s pooled rate over the same quarters */
+      regionTrend: components['schemas']['RateTrendDto'];
+      /** @description The other practices as unnamed points */
+      peers: components['schemas']['PeerPointsDto'];
+    };
+    PracticeMeasureResultDto: {
+      measure: components['schemas']['MeasureDto'];
+      /** @description all; type 1; type 2 and other */
+      splits: components['schemas']['PracticeSplitResultDto'][];
+    };
+    DetailOwnCountsDto: {
+      events: number;
+      n: number;
+      rate: number | null;
+      /** @description Wilson 95 % interval */
+      interval: components['schemas']['IntervalDto'];
+    };
+    DetailRegionCountsDto: {
+      events: components['schemas']['DisclosedCountDto'];
+      n: components['schemas']['DisclosedCountDto'];
+      /** @description null when n = 0 or withheld */
+      rate: number | null;
+    };
+    DetailCellDto: {
+      /** @description Category key (“everyone” for the whole split) */
+      category: string;
+      practice: components['schemas']['DetailOwnCountsDto'];
+      /** @description The region, this practice included */
+      region: components['schemas']['DetailRegionCountsDto'];
+    };
+    DetailBreakdownDto: {
+      /** @example age_band */
+      breakdown: string;
+      /** @description One per category, in the breakdown’s order */
+      cells: components['schemas']['DetailCellDto'][];
+    };
+    DetailSplitDto: {
+      split: components['schemas']['TypeSplit'];
+      everyone: components['schemas']['DetailCellDto'];
+      breakdowns: components['schemas']['DetailBreakdownDto'][];
+    };
+    DetailMeasureDto: {
+      measure: string;
+      splits: components['schemas']['DetailSplitDto'][];
+    };
+    KidneyRowDto: {
+      /**
+       * @description A row of `rows`
+       * @example G3a
+       */
+      row: string;
+      /** @description The practice’s count per albuminuria column */
+      practice: number[];
+      /** @description The region’s count per column, this practice included, as shown */
+      region: components['schemas']['DisclosedCountDto'][];
+    };
+    KidneySplitDto: {
+      split: components['schemas']['TypeSplit'];
+      /** @description One per GFR row, in `rows` order */
+      rows: components['schemas']['KidneyRowDto'][];
+    };
+    KidneyGridDto: {
+      /** @description GFR categories (KDIGO 2012) and why eGFR is unknown */
+      rows: string[];
+      /** @description Albuminuria categories (KDIGO 2012) and no ACR */
+      columns: string[];
+      splits: components['schemas']['KidneySplitDto'][];
+    };
+    SurvivalStepDto: {
+      /** @description Whole years since diagnosis */
+      time: number;
+      atRisk: components['schemas']['DisclosedCountDto'];
+      events: components['schemas']['DisclosedCountDto'];
+      /** @description S(t); null when withheld */
+      survival: number | null;
+      /** @description Greenwood standard error */
+      standardError: number | null;
+    };
+    SurvivalDto: {
+      /** @description People with type 2 in the estimate */
+      n: components['schemas']['DisclosedCountDto'];
+      /** @description Insulin starts */
+      events: components['schemas']['DisclosedCountDto'];
+      /** @description Left out for incomplete or inconsistent insulin data */
+      excluded: number;
+      /** @description Median years to insulin; null when survival stays above ½ */
+      median: number | null;
+      /** @description Kaplan–Meier steps */
+      steps: components['schemas']['SurvivalStepDto'][];
+    };
+    ProgressionDto: {
+      practice: components['schemas']['SurvivalDto'];
+      /** @description The region, this practice included */
+      region: components['schemas']['SurvivalDto'];
+      /** @description A rule of thumb of the field for type 2 (years from diagnosis to insulin), for reference only */
+      ruleOfThumbYears: number;
+    };
+    HistogramCountsDto: {
+      notRecorded: components['schemas']['DisclosedCountDto'];
+      /** @description Below the first edge */
+      below: components['schemas']['DisclosedCountDto'];
+      /** @description Bin i: edges[i] ≤ value < edges[i + 1] */
+      bins: components['schemas']['DisclosedCountDto'][];
+      /** @description At or above the last edge */
+      above: components['schemas']['DisclosedCountDto'];
+    };
+    HistogramSplitDto: {
+      split: components['schemas']['TypeSplit'];
+      practice: components['schemas']['HistogramCountsDto'];
+      region: components['schemas']['HistogramCountsDto'];
+    };
+    ValueHistogramDto: {
+      /** @example hba1c */
+      key: string;
+      /** @example HbA1c */
       label: string;
-      /**
-       * @description First month of the review window
-       * @example 2025-10
-       */
-      windowStart: string;
-      /**
-       * @description Last month of the review window
-       * @example 2026-09
-       */
-      windowEnd: string;
+      /** @example mmol/mol */
+      unit: string;
+      edges: number[];
+      splits: components['schemas']['HistogramSplitDto'][];
+    };
+    PracticeDetailDto: {
+      /** @description The breakdowns and their categories */
+      breakdowns: components['schemas']['BreakdownDto'][];
+      /** @description Per measure and split, by breakdown category */
+      measures: components['schemas']['DetailMeasureDto'][];
+      kidney: components['schemas']['KidneyGridDto'];
+      /** @description Type 2: time from diagnosis to insulin */
+      progression: components['schemas']['ProgressionDto'];
+      values: components['schemas']['ValueHistogramDto'][];
+    };
+    PracticeResultsDto: {
+      /** @description no-current-submission: the practice has no confirmed extract for the quarter */
+      state: components['schemas']['PracticeResultsState'];
+      /** @description What the state means, in words */
+      message: string | null;
+      practice: components['schemas']['PracticeDto'];
+      quarter: components['schemas']['QuarterDto'];
+      measureSetId: string;
+      submission: components['schemas']['PracticeSubmissionRefDto'] | null;
+      builtFrom: components['schemas']['BuiltFromDto'] | null;
+      actions: components['schemas']['ResultsActionsDto'];
+      /** @description applied: region figures and peers are under disclosure control (counts 1–4 as “< 5”, rates of fewer than 10 withheld); none: the reader may see every practice */
+      disclosure: components['schemas']['PeerDisclosure'];
+      records: components['schemas']['RecordCountsDto'] | null;
+      /** @description Every quarter of the region up to this one, oldest first: the quarters of every trend below */
+      quarters: components['schemas']['SeriesQuarterDto'][];
+      /** @description Care processes first, then treatment targets */
+      measures: components['schemas']['PracticeMeasureResultDto'][];
+      detail: components['schemas']['PracticeDetailDto'] | null;
+      /** @description Clinical data-quality flags of its current submission */
+      dataQuality: components['schemas']['DataQualityCountDto'][];
+      caution: string;
     };
     RecallSubmissionDto: {
       /** @description The current submission the list is read from */
@@ -1619,8 +2679,8 @@ export interface components {
       detail: string;
     };
     RecallListDto: {
-      practice: components['schemas']['RecallPracticeDto'];
-      quarter: components['schemas']['RecallQuarterDto'];
+      practice: components['schemas']['PracticeRefDto'];
+      quarter: components['schemas']['QuarterDto'];
       /** @example cairn-default-2026.1 */
       measureSetId: string;
       measure: components['schemas']['MeasureDto'];
@@ -1635,6 +2695,78 @@ export interface components {
       limit: number;
       /** @description This page, in extract row order */
       items: components['schemas']['RecallItemDto'][];
+    };
+    MeasureSetRefDto: {
+      /** @example cairn-default-2026.1 */
+      id: string;
+      /** @example Cairn default measure set 2026.1 */
+      label: string;
+    };
+    QuarterReportDto: {
+      id: number;
+      label: string;
+      /** @example published */
+      status: string;
+      /** @description ISO 8601 */
+      publishedAt: string;
+    };
+    QuarterActionsDto: {
+      close: boolean;
+      reopen: boolean;
+      changeDeadline: boolean;
+      /** @description Only while the quarter is open and no report has been published from it */
+      changeMeasureSet: boolean;
+    };
+    AuditQuarterDto: {
+      quarter: components['schemas']['QuarterDto'];
+      measureSet: components['schemas']['MeasureSetRefDto'];
+      /** @description Practices with a current submission, awaiting confirmation, or none (regional lead and auditor; null for others) */
+      coverage: components['schemas']['CoverageTotalsDto'] | null;
+      /** @description Reports published from it, newest first */
+      reports: components['schemas']['QuarterReportDto'][];
+      actions: components['schemas']['QuarterActionsDto'];
+    };
+    NextQuarterDto: {
+      /** @example 2026 */
+      year: number;
+      /**
+       * @example 4
+       * @enum {number}
+       */
+      quarter: 1 | 2 | 3 | 4;
+      /** @example 2026 Q4 */
+      label: string;
+      /**
+       * @description First month of the review window
+       * @example 2026-01
+       */
+      windowStart: string;
+      /**
+       * @description Last month of the review window
+       * @example 2026-12
+       */
+      windowEnd: string;
+      /**
+       * @description Last day of the quarter
+       * @example 2026-12-31
+       */
+      quarterEnd: string;
+      /** @example 2027-02-14 */
+      defaultDeadline: string;
+      /** @example cairn-default-2026.1 */
+      defaultMeasureSetId: string | null;
+    };
+    AuditQuartersActionsDto: {
+      /** @description Open the next quarter */
+      open: boolean;
+    };
+    AuditQuartersDto: {
+      /** @description Latest first */
+      quarters: components['schemas']['AuditQuarterDto'][];
+      next: components['schemas']['NextQuarterDto'];
+      /** @description The published measure-set versions a quarter of the region may use */
+      measureSets: components['schemas']['MeasureSetRefDto'][];
+      actions: components['schemas']['AuditQuartersActionsDto'];
     };
     /** @enum {string} */
     MailKind: 'quarter_opened' | 'deadline_reminder';
@@ -2404,6 +3536,15 @@ export interface operations {
           'application/json': components['schemas']['MeasureSetSummaryDto'][];
         };
       };
+      /** @description RFC 9457 problem details */
+      default: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['ProblemDto'];
+        };
+      };
     };
   };
   MeasureSetsController_get: {
@@ -2423,6 +3564,177 @@ export interface operations {
         };
         content: {
           'application/json': components['schemas']['MeasureSetDto'];
+        };
+      };
+      /** @description RFC 9457 problem details */
+      default: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['ProblemDto'];
+        };
+      };
+    };
+  };
+  MeasureSetsController_save: {
+    parameters: {
+      query?: never;
+      header?: never;
+      path: {
+        measureSetId: string;
+      };
+      cookie?: never;
+    };
+    requestBody: {
+      content: {
+        'application/json': components['schemas']['SaveMeasureSetDraftDto'];
+      };
+    };
+    responses: {
+      200: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['MeasureSetDto'];
+        };
+      };
+      /** @description RFC 9457 problem details */
+      default: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['ProblemDto'];
+        };
+      };
+    };
+  };
+  MeasureSetsController_discard: {
+    parameters: {
+      query?: never;
+      header?: never;
+      path: {
+        measureSetId: string;
+      };
+      cookie?: never;
+    };
+    requestBody?: never;
+    responses: {
+      200: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['DiscardedMeasureSetDto'];
+        };
+      };
+      /** @description RFC 9457 problem details */
+      default: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['ProblemDto'];
+        };
+      };
+    };
+  };
+  MeasureSetsController_changes: {
+    parameters: {
+      query?: never;
+      header?: never;
+      path: {
+        measureSetId: string;
+      };
+      cookie?: never;
+    };
+    requestBody?: never;
+    responses: {
+      200: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['MeasureSetChangesDto'];
+        };
+      };
+      /** @description RFC 9457 problem details */
+      default: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['ProblemDto'];
+        };
+      };
+    };
+  };
+  MeasureSetsController_clone: {
+    parameters: {
+      query?: never;
+      header?: never;
+      path: {
+        measureSetId: string;
+      };
+      cookie?: never;
+    };
+    requestBody: {
+      content: {
+        'application/json': components['schemas']['CloneMeasureSetDto'];
+      };
+    };
+    responses: {
+      201: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['MeasureSetDto'];
+        };
+      };
+      /** @description RFC 9457 problem details */
+      default: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['ProblemDto'];
+        };
+      };
+    };
+  };
+  MeasureSetsController_publish: {
+    parameters: {
+      query?: never;
+      header?: never;
+      path: {
+        measureSetId: string;
+      };
+      cookie?: never;
+    };
+    requestBody: {
+      content: {
+        'application/json': components['schemas']['PublishMeasureSetDto'];
+      };
+    };
+    responses: {
+      200: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['MeasureSetDto'];
+        };
+      };
+      /** @description RFC 9457 problem details */
+      default: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['ProblemDto'];
         };
       };
     };
@@ -2517,6 +3829,40 @@ export interface operations {
       };
     };
   };
+  QuartersController_update: {
+    parameters: {
+      query?: never;
+      header?: never;
+      path: {
+        quarterId: number;
+      };
+      cookie?: never;
+    };
+    requestBody: {
+      content: {
+        'application/json': components['schemas']['UpdateQuarterDto'];
+      };
+    };
+    responses: {
+      200: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['QuarterDto'];
+        };
+      };
+      /** @description RFC 9457 problem details */
+      default: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['ProblemDto'];
+        };
+      };
+    };
+  };
   QuartersController_close: {
     parameters: {
       query?: never;
@@ -2556,7 +3902,11 @@ export interface operations {
       };
       cookie?: never;
     };
-    requestBody?: never;
+    requestBody: {
+      content: {
+        'application/json': components['schemas']['ReopenQuarterDto'];
+      };
+    };
     responses: {
       200: {
         headers: {
@@ -3031,6 +4381,141 @@ export interface operations {
       };
     };
   };
+  BenchmarkController_region: {
+    parameters: {
+      query?: {
+        /** @description Diabetes types: all; type 1; type 2 and other */
+        split?: components['schemas']['TypeSplit'];
+        /** @description Only the practices of this locality (the region’s statistics stay the region’s) */
+        locality?: string;
+      };
+      header?: never;
+      path: {
+        quarterId: number;
+      };
+      cookie?: never;
+    };
+    requestBody?: never;
+    responses: {
+      200: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['RegionBenchmarkDto'];
+        };
+      };
+      /** @description RFC 9457 problem details */
+      default: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['ProblemDto'];
+        };
+      };
+    };
+  };
+  BenchmarkController_funnel: {
+    parameters: {
+      query?: {
+        /** @description Diabetes types: all; type 1; type 2 and other */
+        split?: components['schemas']['TypeSplit'];
+      };
+      header?: never;
+      path: {
+        quarterId: number;
+        measureKey: string;
+      };
+      cookie?: never;
+    };
+    requestBody?: never;
+    responses: {
+      200: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['MeasureFunnelDto'];
+        };
+      };
+      /** @description RFC 9457 problem details */
+      default: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['ProblemDto'];
+        };
+      };
+    };
+  };
+  BenchmarkController_trend: {
+    parameters: {
+      query: {
+        /** @description Diabetes types: all; type 1; type 2 and other */
+        split?: components['schemas']['TypeSplit'];
+        /** @description Key of a measure of the quarter’s measure set */
+        measure: string;
+      };
+      header?: never;
+      path: {
+        quarterId: number;
+      };
+      cookie?: never;
+    };
+    requestBody?: never;
+    responses: {
+      200: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['BenchmarkTrendDto'];
+        };
+      };
+      /** @description RFC 9457 problem details */
+      default: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['ProblemDto'];
+        };
+      };
+    };
+  };
+  PracticeResultsController_get: {
+    parameters: {
+      query?: never;
+      header?: never;
+      path: {
+        practiceId: number;
+        quarterId: number;
+      };
+      cookie?: never;
+    };
+    requestBody?: never;
+    responses: {
+      200: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['PracticeResultsDto'];
+        };
+      };
+      /** @description RFC 9457 problem details */
+      default: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['ProblemDto'];
+        };
+      };
+    };
+  };
   RecallListController_list: {
     parameters: {
       query: {
@@ -3127,6 +4612,34 @@ export interface operations {
         };
         content: {
           'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet': string;
+        };
+      };
+      /** @description RFC 9457 problem details */
+      default: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['ProblemDto'];
+        };
+      };
+    };
+  };
+  QuarterOverviewController_get: {
+    parameters: {
+      query?: never;
+      header?: never;
+      path?: never;
+      cookie?: never;
+    };
+    requestBody?: never;
+    responses: {
+      200: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['AuditQuartersDto'];
         };
       };
       /** @description RFC 9457 problem details */
@@ -3445,6 +4958,12 @@ export const healthDatabaseDtoStatusValues: ReadonlyArray<
 export const healthDtoStatusValues: ReadonlyArray<
   FlattenedDeepRequired<components>['schemas']['HealthDto']['status']
 > = ['ok'];
+export const measureSetStatusValues: ReadonlyArray<
+  FlattenedDeepRequired<components>['schemas']['MeasureSetStatus']
+> = ['draft', 'published'];
+export const measureSetUseKindValues: ReadonlyArray<
+  FlattenedDeepRequired<components>['schemas']['MeasureSetUseKind']
+> = ['quarter', 'report'];
 export const breakdownKeyValues: ReadonlyArray<
   FlattenedDeepRequired<components>['schemas']['BreakdownKey']
 > = ['age_band', 'sex', 'deprivation', 'duration'];
@@ -3476,6 +4995,64 @@ export const readingFieldValues: ReadonlyArray<
   'onInsulin',
   'cvdHistory',
 ];
+export const careProcessFieldValues: ReadonlyArray<
+  FlattenedDeepRequired<components>['schemas']['CareProcessField']
+> = [
+  'hba1c',
+  'bloodPressure',
+  'cholesterol',
+  'serumCreatinine',
+  'urineAlbumin',
+  'footSurveillance',
+  'bmi',
+  'smoking',
+  'retinalScreening',
+];
+export const measureWindowValues: ReadonlyArray<
+  FlattenedDeepRequired<components>['schemas']['MeasureWindow']
+> = ['review', 'retinal'];
+export const recordedProcessDefinitionDtoRuleValues: ReadonlyArray<
+  FlattenedDeepRequired<components>['schemas']['RecordedProcessDefinitionDto']['rule']
+> = ['recorded'];
+export const compositeProcessDefinitionDtoRuleValues: ReadonlyArray<
+  FlattenedDeepRequired<components>['schemas']['CompositeProcessDefinitionDto']['rule']
+> = ['allOf'];
+export const measurementValues: ReadonlyArray<
+  FlattenedDeepRequired<components>['schemas']['Measurement']
+> = ['hba1c', 'systolic', 'diastolic', 'cholesterol', 'serumCreatinine', 'urineAlbumin', 'bmi'];
+export const comparatorValues: ReadonlyArray<
+  FlattenedDeepRequired<components>['schemas']['Comparator']
+> = ['lt', 'le', 'gt', 'ge'];
+export const valueTargetDefinitionDtoRuleValues: ReadonlyArray<
+  FlattenedDeepRequired<components>['schemas']['ValueTargetDefinitionDto']['rule']
+> = ['value'];
+export const bloodPressureTargetDefinitionDtoRuleValues: ReadonlyArray<
+  FlattenedDeepRequired<components>['schemas']['BloodPressureTargetDefinitionDto']['rule']
+> = ['bloodPressure'];
+export const flagFieldValues: ReadonlyArray<
+  FlattenedDeepRequired<components>['schemas']['FlagField']
+> = ['onStatin', 'onInsulin', 'cvdHistory'];
+export const flagTargetDefinitionDtoRuleValues: ReadonlyArray<
+  FlattenedDeepRequired<components>['schemas']['FlagTargetDefinitionDto']['rule']
+> = ['flag'];
+export const valueConditionDtoRuleValues: ReadonlyArray<
+  FlattenedDeepRequired<components>['schemas']['ValueConditionDto']['rule']
+> = ['value'];
+export const bloodPressureConditionDtoRuleValues: ReadonlyArray<
+  FlattenedDeepRequired<components>['schemas']['BloodPressureConditionDto']['rule']
+> = ['bloodPressure'];
+export const flagConditionDtoRuleValues: ReadonlyArray<
+  FlattenedDeepRequired<components>['schemas']['FlagConditionDto']['rule']
+> = ['flag'];
+export const targetRefConditionDtoRuleValues: ReadonlyArray<
+  FlattenedDeepRequired<components>['schemas']['TargetRefConditionDto']['rule']
+> = ['target'];
+export const compositeRuleValues: ReadonlyArray<
+  FlattenedDeepRequired<components>['schemas']['CompositeRule']
+> = ['anyOf', 'allOf'];
+export const measureChangeKindValues: ReadonlyArray<
+  FlattenedDeepRequired<components>['schemas']['MeasureChangeKind']
+> = ['added', 'removed', 'changed'];
 export const quarterStatusValues: ReadonlyArray<
   FlattenedDeepRequired<components>['schemas']['QuarterStatus']
 > = ['open', 'closed'];
@@ -3520,6 +5097,33 @@ export const coverageStateValues: ReadonlyArray<
 export const typeSplitValues: ReadonlyArray<
   FlattenedDeepRequired<components>['schemas']['TypeSplit']
 > = ['all', 'type1', 'type2_other'];
+export const benchmarkStateValues: ReadonlyArray<
+  FlattenedDeepRequired<components>['schemas']['BenchmarkState']
+> = ['results', 'no-accepted-submissions'];
+export const funnelBandValues: ReadonlyArray<
+  FlattenedDeepRequired<components>['schemas']['FunnelBand']
+> = ['within', 'notable', 'outlier'];
+export const funnelSideValues: ReadonlyArray<
+  FlattenedDeepRequired<components>['schemas']['FunnelSide']
+> = ['above', 'below'];
+export const flagAssessmentValues: ReadonlyArray<
+  FlattenedDeepRequired<components>['schemas']['FlagAssessment']
+> = ['better', 'worse'];
+export const trendPointStateValues: ReadonlyArray<
+  FlattenedDeepRequired<components>['schemas']['TrendPointState']
+> = ['value', 'no-submission', 'not-in-measure-set'];
+export const shiftSideValues: ReadonlyArray<
+  FlattenedDeepRequired<components>['schemas']['ShiftSide']
+> = ['above', 'below'];
+export const trendDirectionValues: ReadonlyArray<
+  FlattenedDeepRequired<components>['schemas']['TrendDirection']
+> = ['up', 'down'];
+export const practiceResultsStateValues: ReadonlyArray<
+  FlattenedDeepRequired<components>['schemas']['PracticeResultsState']
+> = ['results', 'no-current-submission'];
+export const peerDisclosureValues: ReadonlyArray<
+  FlattenedDeepRequired<components>['schemas']['PeerDisclosure']
+> = ['applied', 'none'];
 export const recordReferenceKindValues: ReadonlyArray<
   FlattenedDeepRequired<components>['schemas']['RecordReferenceKind']
 > = ['record_ref', 'pseudonym'];
@@ -3532,6 +5136,9 @@ export const sexValues: ReadonlyArray<FlattenedDeepRequired<components>['schemas
 export const recallReasonValues: ReadonlyArray<
   FlattenedDeepRequired<components>['schemas']['RecallReason']
 > = ['not_recorded', 'not_measured', 'not_met', 'adverse_result'];
+export const nextQuarterDtoQuarterValues: ReadonlyArray<
+  FlattenedDeepRequired<components>['schemas']['NextQuarterDto']['quarter']
+> = [1, 2, 3, 4];
 export const mailKindValues: ReadonlyArray<
   FlattenedDeepRequired<components>['schemas']['MailKind']
 > = ['quarter_opened', 'deadline_reminder'];

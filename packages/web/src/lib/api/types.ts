@@ -24,7 +24,11 @@ export type MailKind = Schemas['MailKind'];
 export type OutboxState = Schemas['OutboxState'];
 export {
   auditOutcomeValues,
+  comparatorValues,
   coverageStateValues,
+  denominatorKindValues,
+  diabetesTypeValues,
+  measureDirectionValues,
   issueSeverityValues,
   mailKindValues,
   outboxStateValues,
@@ -69,6 +73,40 @@ export type CoveragePractice = Schemas['CoveragePracticeDto'];
 export type ExtractFormat = Schemas['ExtractFormatDto'];
 export type FormatColumn = Schemas['FormatColumnDto'];
 
+// ── audit quarters ──
+export type AuditQuarters = Schemas['AuditQuartersDto'];
+export type AuditQuarter = Schemas['AuditQuarterDto'];
+export type NextQuarter = Schemas['NextQuarterDto'];
+export type QuarterActions = Schemas['QuarterActionsDto'];
+export type QuarterReport = Schemas['QuarterReportDto'];
+export type MeasureSetRef = Schemas['MeasureSetRefDto'];
+export type OpenQuarter = Schemas['OpenQuarterDto'];
+export type QuarterChanges = Schemas['UpdateQuarterDto'];
+export type ReopenQuarter = Schemas['ReopenQuarterDto'];
+
+// ── measure sets ──
+export type MeasureSetStatus = Schemas['MeasureSetStatus'];
+export type MeasureSetSummary = Schemas['MeasureSetSummaryDto'];
+export type MeasureSet = Schemas['MeasureSetDto'];
+export type Measure = Schemas['MeasureDto'];
+export type MeasureSetActions = Schemas['MeasureSetActionsDto'];
+export type MeasureSetUse = Schemas['MeasureSetUseDto'];
+export type MeasureSetChanges = Schemas['MeasureSetChangesDto'];
+export type MeasureSetChange = Schemas['MeasureSetChangeDto'];
+export type NewDraft = Schemas['CloneMeasureSetDto'];
+export type SaveDraft = Schemas['SaveMeasureSetDraftDto'];
+export type DiscardedMeasureSet = Schemas['DiscardedMeasureSetDto'];
+export type MeasureSetDefinition = Schemas['MeasureSetDefinitionDto'];
+export type CareProcessDefinition = MeasureSetDefinition['careProcesses'][number];
+export type TargetDefinition = MeasureSetDefinition['targets'][number];
+export type ConditionDefinition = Schemas['CompositeTargetDefinitionDto']['of'][number];
+export type PopulationDefinition = Schemas['PopulationDefinitionDto'];
+export type BloodPressureBand = Schemas['BloodPressureBandDto'];
+export type DiabetesType = Schemas['DiabetesType'];
+export type DenominatorKind = Schemas['DenominatorKind'];
+export type MeasureDirection = Schemas['MeasureDirection'];
+export type Comparator = Schemas['Comparator'];
+export type Measurement = Schemas['Measurement'];
 // ── mail: deliveries, recipients, mail preferences ──
 export type OutboxCounts = Schemas['OutboxCountsDto'];
 export type DeliverySource = Schemas['DeliverySourceDto'];

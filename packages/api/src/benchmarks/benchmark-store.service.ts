@@ -1,0 +1,327 @@
+/**
+ * A quarter's benchmark, as every route reads it (docs/methods.md §10): the
+ * result of exactly one set of current submissions, said which.
+ *
+ * 1. One SELECT of the quarter's current pointers (SubmissionsService).
+ * 2. key = SHA-256 of the sorted submission ids; the stored result of
+ *    (quarter, measure-set version, result format, key) is looked up.
+ * 3. Found: its body is decoded (kept in memory by result id: rows never
+ *    change). Not found: the sums of those submissions (SubmissionsService,
+ *    which fills any missing from records), `buildBenchmark` with the
+ *    practices in code order and their localities (OrganisationsService), the
+ *    region's sums merged, the body stored (INSERT IGNORE) and served.
+ *
+ * A request thus sees one consistent set, never a mix; nothing a reader needs
+ * lives only here (any process finds the row, or builds the same bytes).
+ * `recompute` is the full recompute from records: every current record of the
+ * quarter in one streamed read, every submission's sums stored again, the
+ * benchmark built and stored the same way.
+ */
+import { createHash } from 'node:crypto';
+import { Inject, Injectable, Logger } from '@nestjs/common';
+import {
+  type Benchmark,
+  buildBenchmark,
+  mergeSums,
+  type PracticeSums,
+  sumsLayout,
+} from '@cairn/metrics';
+import {
+  type MeasureSetVersion,
+  MeasureSetsService,
+} from '../measure-sets/measure-sets.service.js';
+import { OrganisationsService, type PracticeInfo } from '../organisations/organisations.service.js';
+import type { QuarterDto } from '../quarters/dto/quarter.dto.js';
+import {
+  type CurrentPointer,
+  SubmissionsService,
+  type SumsSubject,
+} from '../submissions/submissions.service.js';
+import { BenchmarkResultsRepository, type ResultRow } from './benchmark-results.repository.js';
+import {
+  decodeResult,
+  encodeResult,
+  RESULT_FORMAT,
+  type ResultContent,
+} from './results/result-body.js';
+
+/** A quarter's built benchmark and what it was built from. */
+export interface QuarterResult {
+  /** benchmark_results.id */
+  id: number;
+  quarterId: number;
+  quarterLabel: string;
+  /** The audit quarter's year and quarter */
+  at: { year: number; quarter: 1 | 2 | 3 | 4 };
+  version: MeasureSetVersion;
+  /** SHA-256 (hex) of the sorted ids of the submissions it was built from */
+  key: string;
+  submissionCount: number;
+  builtAt: string;
+  buildMs: number;
+  benchmark: Benchmark;
+  regionSums: PracticeSums | null;
+  /** Practices in benchmark order (by code) with the submission each was built from */
+  practices: { code: string; submissionId: number }[];
+  submissionOf: ReadonlyMap<string, number>;
+}
+
+/** The key of a set of submissions: SHA-256 (hex) of their ids, sorted, comma-separated. */
+export function submissionsKey(ids: readonly number[]): string {
+  const sorted = [...ids].sort((a, b) => a - b);
+  return createHash('sha256').update(sorted.join(',')).digest('hex');
+}
+
+/** Practices by code, in a fixed order that does not depend on a database collation. */
+export const byCode = <T extends { code: string }>(a: T, b: T): number =>
+  a.code < b.code ? -1 : a.code > b.code ? 1 : 0;
+
+/** Decoded results kept in memory at most, by the size of their stored bodies. */
+const CACHE_BYTES = 96 * 1024 * 1024;
+
+@Injectable()
+export class BenchmarkStore {
+  private readonly logger = new Logger('BenchmarkStore');
+  /** Result ids by key (rows never change, so a key's id never does). */
+  private readonly ids = new Map<string, ResultRow>();
+  private readonly results = new Map<number, { result: QuarterResult; size: number }>();
+  private cachedBytes = 0;
+  private readonly building = new Map<string, Promise<QuarterResult>>();
+
+  constructor(
+    @Inject(BenchmarkResultsRepository) private readonly repository: BenchmarkResultsRepository,
+    @Inject(SubmissionsService) private readonly submissions: SubmissionsService,
+    @Inject(OrganisationsService) private readonly organisations: OrganisationsService,
+    @Inject(MeasureSetsService) private readonly measureSets: MeasureSetsService,
+  ) {}
+
+  /** The quarter's result for its current submissions now; null when it has none. */
+  async resultOf(quarter: QuarterDto): Promise<QuarterResult | null> {
+    return this.resultFor(quarter, await this.submissions.currentSet(quarter.id));
+  }
+
+  /** The results of several quarters of one region (their pointers read in one SELECT). */
+  async resultsOf(quarters: readonly QuarterDto[]): Promise<Map<number, QuarterResult | null>> {
+    const pointers = await this.submissions.currentSets(quarters.map((q) => q.id));
+    const out = new Map<number, QuarterResult | null>();
+    for (const quarter of quarters) {
+      out.set(
+        quarter.id,
+        await this.resultFor(
+          quarter,
+          pointers.filter((p) => p.quarterId === quarter.id),
+        ),
+      );
+    }
+    return out;
+  }
+
+  /** The decoded sums of one practice of a result (for its page). */
+  async practiceSums(result: QuarterResult, code: string): Promise<PracticeSums | null> {
+    const submissionId = result.submissionOf.get(code);
+    if (submissionId === undefined) return null;
+    const sums = await this.submissions.sumsOfCurrent(
+      [{ submissionId, practiceCode: code, records: 0 }],
+      result.version,
+      result.at,
+    );
+    return sums.get(submissionId) ?? null;
+  }
+
+  /**
+   * A full recompute from records (a measure-set change, and the check of the incremental
+   * path): the sums of every current submission computed again from every current record of
+   * the quarter in one streamed read and stored, then the benchmark built and stored. Returns
+   * the result as stored and the bytes this recompute built (equal to the stored ones when the
+   * set was built before).
+   */
+  async recompute(
+    quarter: QuarterDto,
+  ): Promise<{ result: QuarterResult | null; body: Buffer | null }> {
+    const version = await this.measureSets.get(quarter.measureSetId);
+    const pointers = await this.submissions.currentSet(quarter.id);
+    if (pointers.length === 0) return { result: null, body: null };
+    const subjects = await this.subjects(quarter, pointers);
+    const t0 = performance.now();
+    const sums = await this.submissions.recomputeSums(quarter.id, subjects, version, quarter);
+    const content = this.content(quarter, version, subjects, sums);
+    const body = encodeResult(content);
+    const key = submissionsKey(pointers.map((p) => p.submissionId));
+    const row = await this.repository.insert(this.resultKey(quarter, version, key), {
+      submissionCount: pointers.length,
+      body,
+      buildMs: performance.now() - t0,
+    });
+    return { result: this.remember(row, quarter, version, key, content, body.length), body };
+  }
+
+  private resultKey(quarter: QuarterDto, version: MeasureSetVersion, key: string) {
+    return {
+      quarterId: quarter.id,
+      measureSetId: version.id,
+      formatVersion: RESULT_FORMAT,
+      submissionsKey: key,
+    };
+  }
+
+  private async resultFor(
+    quarter: QuarterDto,
+    pointers: readonly CurrentPointer[],
+  ): Promise<QuarterResult | null> {
+    if (pointers.length === 0) return null;
+    const version = await this.measureSets.get(quarter.measureSetId);
+    const key = submissionsKey(pointers.map((p) => p.submissionId));
+    const resultKey = this.resultKey(quarter, version, key);
+    const cacheKey = `${quarter.id}/${version.id}/${RESULT_FORMAT}/${key}`;
+    let row = this.ids.get(cacheKey) ?? null;
+    if (!row) {
+      row = await this.repository.find(resultKey);
+      if (row) this.ids.set(cacheKey, row);
+    }
+    if (row) {
+      const cached = this.results.get(row.id);
+      if (cached) {
+        // Most recently used last.
+        this.results.delete(row.id);
+        this.results.set(row.id, cached);
+        return cached.result;
+      }
+      const loaded = await this.load(row, quarter, version, key);
+      if (loaded) return loaded;
+    }
+    let pending = this.building.get(cacheKey);
+    if (!pending) {
+      pending = this.build(quarter, version, pointers, key).finally(() =>
+        this.building.delete(cacheKey),
+      );
+      this.building.set(cacheKey, pending);
+    }
+    return pending;
+  }
+
+  /** Reads and decodes a stored result; null when its bytes cannot be read by this build. */
+  private async load(
+    row: ResultRow,
+    quarter: QuarterDto,
+    version: MeasureSetVersion,
+    key: string,
+  ): Promise<QuarterResult | null> {
+    const body = await this.repository.body(row.id);
+    if (!body) return null;
+    try {
+      const content = decodeResult(body, sumsLayout(version.compiled));
+      return this.remember(row, quarter, version, key, content, body.length);
+    } catch (error) {
+      this.logger.warn(
+        `stored benchmark ${row.id} (${quarter.label}) cannot be read, built again in memory: ${(error as Error).message}`,
+      );
+      return null;
+    }
+  }
+
+  private async subjects(
+    quarter: QuarterDto,
+    pointers: readonly CurrentPointer[],
+  ): Promise<(SumsSubject & { practice: PracticeInfo })[]> {
+    const practices = await this.organisations.regionPractices(quarter.regionId, {
+      ids: pointers.map((p) => p.practiceId),
+    });
+    const byId = new Map(practices.map((p) => [p.id, p]));
+    return pointers
+      .map((p) => {
+        const practice = byId.get(p.practiceId);
+        if (!practice) {
+          throw new Error(
+            `practice ${p.practiceId} has a current submission for ${quarter.label} but is not of its region`,
+          );
+        }
+        return { submissionId: p.submissionId, practiceCode: practice.code, records: 0, practice };
+      })
+      .sort((a, b) => byCode(a.practice, b.practice));
+  }
+
+  /** The benchmark and the region's sums of these submissions (in code order). */
+  private content(
+    quarter: QuarterDto,
+    version: MeasureSetVersion,
+    subjects: readonly (SumsSubject & { practice: PracticeInfo })[],
+    sums: ReadonlyMap<number, PracticeSums>,
+  ): ResultContent {
+    const ordered = subjects.map((s) => {
+      const own = sums.get(s.submissionId);
+      if (!own) throw new Error(`no sums for submission ${s.submissionId}`);
+      return { code: s.practice.code, locality: s.practice.localityCode, sums: own };
+    });
+    const at = { year: quarter.year, quarter: quarter.quarter };
+    const benchmark = buildBenchmark({
+      practices: ordered,
+      measureSet: sumsLayout(version.compiled),
+      quarter: at,
+    });
+    return {
+      description: {
+        quarterId: quarter.id,
+        measureSetId: version.id,
+        practices: subjects.map((s) => ({ code: s.practice.code, submissionId: s.submissionId })),
+      },
+      benchmark,
+      regionSums: ordered.length > 0 ? mergeSums(ordered.map((o) => o.sums)) : null,
+    };
+  }
+
+  private async build(
+    quarter: QuarterDto,
+    version: MeasureSetVersion,
+    pointers: readonly CurrentPointer[],
+    key: string,
+  ): Promise<QuarterResult> {
+    const t0 = performance.now();
+    const subjects = await this.subjects(quarter, pointers);
+    const sums = await this.submissions.sumsOfCurrent(subjects, version, quarter);
+    const content = this.content(quarter, version, subjects, sums);
+    const body = encodeResult(content);
+    const row = await this.repository.insert(this.resultKey(quarter, version, key), {
+      submissionCount: pointers.length,
+      body,
+      buildMs: performance.now() - t0,
+    });
+    this.ids.set(`${quarter.id}/${version.id}/${RESULT_FORMAT}/${key}`, row);
+    return this.remember(row, quarter, version, key, content, body.length);
+  }
+
+  private remember(
+    row: ResultRow,
+    quarter: QuarterDto,
+    version: MeasureSetVersion,
+    key: string,
+    content: ResultContent,
+    size: number,
+  ): QuarterResult {
+    const result: QuarterResult = {
+      id: row.id,
+      quarterId: quarter.id,
+      quarterLabel: quarter.label,
+      at: { year: quarter.year, quarter: quarter.quarter },
+      version,
+      key,
+      submissionCount: row.submissionCount,
+      builtAt: row.builtAt,
+      buildMs: row.buildMs,
+      benchmark: content.benchmark,
+      regionSums: content.regionSums,
+      practices: content.description.practices,
+      submissionOf: new Map(content.description.practices.map((p) => [p.code, p.submissionId])),
+    };
+    const old = this.results.get(row.id);
+    if (old) this.cachedBytes -= old.size;
+    this.results.delete(row.id);
+    this.results.set(row.id, { result, size });
+    this.cachedBytes += size;
+    for (const [oldest, entry] of this.results) {
+      if (this.cachedBytes <= CACHE_BYTES || oldest === row.id) break;
+      this.results.delete(oldest);
+      this.cachedBytes -= entry.size;
+    }
+    return result;
+  }
+}

@@ -1,0 +1,72 @@
+import { Controller, Get, Inject, Param, ParseIntPipe, Query } from '@nestjs/common';
+import { ApiOkResponse, ApiOperation, ApiTags } from '@nestjs/swagger';
+import { type Actor, CurrentActor } from '../auth/actor.js';
+import { Roles } from '../auth/index.js';
+import { ApiProblems } from '../common/problem.dto.js';
+import {
+  BenchmarkQueryDto,
+  BenchmarkTrendDto,
+  MeasureFunnelDto,
+  RegionBenchmarkDto,
+  TrendQueryDto,
+} from './dto/benchmark.dto.js';
+import { SplitQueryDto } from './dto/results-common.dto.js';
+import { BenchmarksService } from './benchmarks.service.js';
+
+/** The region's benchmark of an audit quarter: regional leads and auditors. */
+@ApiProblems()
+@ApiTags('benchmarks')
+@Controller('quarters/:quarterId/benchmark')
+export class BenchmarkController {
+  constructor(@Inject(BenchmarksService) private readonly benchmarks: BenchmarksService) {}
+
+  @Get()
+  @Roles('regional_lead', 'auditor')
+  @ApiOperation({
+    summary: 'Every practice on every measure of an audit quarter, with the region’s statistics',
+    description:
+      'Read from the practices’ current submissions for the quarter; `builtFrom` says which set. Practices without a current submission are listed in `coverage.missing`, never counted as zero. 404 quarter-not-found, 404 locality-not-found; 400 for a bad split.',
+  })
+  @ApiOkResponse({ type: RegionBenchmarkDto })
+  region(
+    @CurrentActor() actor: Actor,
+    @Param('quarterId', ParseIntPipe) quarterId: number,
+    @Query() query: BenchmarkQueryDto,
+  ): Promise<RegionBenchmarkDto> {
+    return this.benchmarks.region(actor, quarterId, query);
+  }
+
+  @Get('measures/:measureKey')
+  @Roles('regional_lead', 'auditor')
+  @ApiOperation({
+    summary:
+      'One measure’s funnel plot: every practice’s point, the limits as curves, over-dispersion',
+    description: '404 measure-not-found naming the measure set’s measures.',
+  })
+  @ApiOkResponse({ type: MeasureFunnelDto })
+  funnel(
+    @CurrentActor() actor: Actor,
+    @Param('quarterId', ParseIntPipe) quarterId: number,
+    @Param('measureKey') measureKey: string,
+    @Query() query: SplitQueryDto,
+  ): Promise<MeasureFunnelDto> {
+    return this.benchmarks.funnel(actor, quarterId, measureKey, query.split ?? 'all');
+  }
+
+  @Get('trend')
+  @Roles('regional_lead', 'auditor')
+  @ApiOperation({
+    summary:
+      'One measure over every quarter of the region up to this one: the region and every practice',
+    description:
+      'Each quarter with its own measure set; a quarter whose measure set lacks the measure, or without a current submission, is a gap (no rate), never a zero. Run-chart signals per series.',
+  })
+  @ApiOkResponse({ type: BenchmarkTrendDto })
+  trend(
+    @CurrentActor() actor: Actor,
+    @Param('quarterId', ParseIntPipe) quarterId: number,
+    @Query() query: TrendQueryDto,
+  ): Promise<BenchmarkTrendDto> {
+    return this.benchmarks.trend(actor, quarterId, query);
+  }
+}

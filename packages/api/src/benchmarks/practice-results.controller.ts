@@ -1,0 +1,32 @@
+import { Controller, Get, Inject, Param, ParseIntPipe } from '@nestjs/common';
+import { ApiOkResponse, ApiOperation, ApiTags } from '@nestjs/swagger';
+import { type Actor, CurrentActor } from '../auth/actor.js';
+import { PracticeScoped, Roles } from '../auth/index.js';
+import { ApiProblems } from '../common/problem.dto.js';
+import { PracticeResultsDto } from './dto/practice-results.dto.js';
+import { PracticeResultsService } from './practice-results.service.js';
+
+/** One practice's results for an audit quarter: its leads, the regional lead, the auditor. */
+@ApiProblems()
+@ApiTags('practice results')
+@Controller('practices/:practiceId/quarters/:quarterId')
+export class PracticeResultsController {
+  constructor(@Inject(PracticeResultsService) private readonly results: PracticeResultsService) {}
+
+  @Get('results')
+  @Roles('practice_lead', 'regional_lead', 'auditor')
+  @PracticeScoped('practiceId')
+  @ApiOperation({
+    summary: "A practice's results for an audit quarter, against the region, with its trend",
+    description:
+      "Every measure and split: its own figures, the region's rate, median and limits at its n, its flags, change since the previous quarter, trend with run-chart signals and improvement potential; breakdowns, kidney grid, time to insulin and value histograms against the region; data-quality flags. Other practices appear only as region aggregates and unnamed points, under disclosure control for practice leads. A practice without a current submission: state no-current-submission, with the upload action.",
+  })
+  @ApiOkResponse({ type: PracticeResultsDto })
+  get(
+    @CurrentActor() actor: Actor,
+    @Param('practiceId', ParseIntPipe) practiceId: number,
+    @Param('quarterId', ParseIntPipe) quarterId: number,
+  ): Promise<PracticeResultsDto> {
+    return this.results.results(actor, practiceId, quarterId);
+  }
+}

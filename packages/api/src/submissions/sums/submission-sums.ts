@@ -1,0 +1,253 @@
+/**
+ * A submission's sums (@cairn/metrics practice sums, docs/methods.md §10):
+ * every count a benchmark needs of one practice's records, computed once from
+ * the submission's own stored records and kept in `submission_sums`, one row
+ * per measure-set version.
+ *
+ * - At confirm: `forConfirm` computes them before the confirm transaction (the
+ *   records never change once staged) and the transaction inserts them, so a
+ *   current submission always has its sums under its quarter's measure set.
+ * - On read: `ofCurrent` gives the decoded sums of a quarter's current
+ *   submissions, from memory (decoded sums of a submission under a
+ *   measure-set version never change, so any process may keep them), else
+ *   from the table, else — missing (an older database, a measure-set change)
+ *   or unreadable (another format, another layout) — computed again from the
+ *   records by the same code and stored.
+ * - A full recompute (`recomputeQuarter`): every current record of the quarter
+ *   in one streamed read, the sums of every practice at once, all stored.
+ *
+ * The records are read as arrays straight from the connector (sums-rows.ts)
+ * into the column builder; `sumsOfColumns` then makes the sums.
+ */
+import {
+  type AuditQuarter,
+  createColumnBuilder,
+  decodeSums,
+  encodeSums,
+  type PracticeSums,
+  SUMS_FORMAT_VERSION,
+  sumsLayout,
+  sumsOfColumns,
+} from '@cairn/metrics';
+import type { MeasureSetVersion } from '../../measure-sets/measure-sets.service.js';
+import type { RecordScope, SubmissionRepository, SumsRow } from '../submission.repository.js';
+import { rowAppender } from './sums-rows.js';
+
+/** A current submission whose sums are wanted: its id, its practice's code, its records. */
+export interface SumsSubject {
+  submissionId: number;
+  practiceCode: string;
+  /** Records accepted (a capacity hint for the column builder) */
+  records: number;
+}
+
+/** Bytes of decoded sums kept in memory at most (an estimate from their arrays). */
+const CACHE_BYTES = 160 * 1024 * 1024;
+
+function sizeOf(s: PracticeSums): number {
+  return (
+    s.cells.byteLength +
+    s.eligible.byteLength +
+    s.strata.ids.byteLength +
+    s.strata.values.byteLength +
+    s.insulin.counts.byteLength +
+    s.values.byteLength +
+    s.kidney.byteLength +
+    s.tallies.byteLength +
+    256
+  );
+}
+
+export class SubmissionSums {
+  private readonly cache = new Map<string, PracticeSums>();
+  private cachedBytes = 0;
+
+  constructor(private readonly repository: SubmissionRepository) {}
+
+  /**
+   * The sums of every practice of `scope`'s records (one submission, or every current record
+   * of a quarter), by practice code; `practices` are indexed first, so a practice without
+   * records gets empty sums.
+   */
+  private async compute(
+    scope: RecordScope,
+    practiceOf: (submissionId: number) => string,
+    practices: readonly string[],
+    capacity: number,
+    version: MeasureSetVersion,
+    quarter: AuditQuarter,
+  ): Promise<Map<string, PracticeSums>> {
+    const builder = createColumnBuilder({
+      capacity: Math.max(capacity, 16),
+      practiceCodes: practices,
+    });
+    await this.repository.streamSumsRows(scope, rowAppender(builder, practiceOf));
+    return sumsOfColumns(builder.finish(), sumsLayout(version.compiled), quarter);
+  }
+
+  private row(submissionId: number, version: MeasureSetVersion, sums: PracticeSums): SumsRow {
+    return {
+      submission_id: submissionId,
+      measure_set_id: version.id,
+      format_version: SUMS_FORMAT_VERSION,
+      records: sums.records[0] as number,
+      bytes: Buffer.from(encodeSums(sums)),
+    };
+  }
+
+  /** One submission's sums from its own records, as the row the confirm transaction inserts. */
+  async forConfirm(
+    subject: SumsSubject,
+    version: MeasureSetVersion,
+    quarter: AuditQuarter,
+  ): Promise<SumsRow> {
+    const sums = await this.computeOne(subject, version, quarter);
+    return this.row(subject.submissionId, version, sums);
+  }
+
+  private async computeOne(
+    subject: SumsSubject,
+    version: MeasureSetVersion,
+    quarter: AuditQuarter,
+  ): Promise<PracticeSums> {
+    const all = await this.compute(
+      { submissionId: subject.submissionId },
+      () => subject.practiceCode,
+      [subject.practiceCode],
+      subject.records,
+      version,
+      quarter,
+    );
+    const sums = all.get(subject.practiceCode);
+    if (!sums || all.size !== 1) {
+      throw new Error(`the sums of submission ${subject.submissionId} are not one practice's`);
+    }
+    return sums;
+  }
+
+  /**
+   * Decoded sums of these current submissions under `version`, by submission id: from memory,
+   * from the table, or computed from the records (then stored) when missing or unreadable.
+   */
+  async ofCurrent(
+    subjects: readonly SumsSubject[],
+    version: MeasureSetVersion,
+    quarter: AuditQuarter,
+  ): Promise<Map<number, PracticeSums>> {
+    const out = new Map<number, PracticeSums>();
+    const wanted: SumsSubject[] = [];
+    for (const s of subjects) {
+      const cached = this.recall(s.submissionId, version.id);
+      if (cached) out.set(s.submissionId, cached);
+      else wanted.push(s);
+    }
+    if (wanted.length === 0) return out;
+    const layout = sumsLayout(version.compiled);
+    const stored = new Map(
+      (
+        await this.repository.sums(
+          wanted.map((s) => s.submissionId),
+          version.id,
+        )
+      ).map((r) => [Number(r.submission_id), r]),
+    );
+    const missing: SumsSubject[] = [];
+    for (const s of wanted) {
+      const row = stored.get(s.submissionId);
+      let sums: PracticeSums | null = null;
+      if (row && Number(row.format_version) === SUMS_FORMAT_VERSION) {
+        try {
+          sums = decodeSums(row.bytes, layout);
+        } catch {
+          // Another layout, damaged or truncated bytes: the records are the truth.
+          sums = null;
+        }
+      }
+      if (sums && !sameQuarter(sums.quarter, quarter)) sums = null;
+      if (sums === null) missing.push(s);
+      else {
+        out.set(s.submissionId, sums);
+        this.remember(s.submissionId, version.id, sums);
+      }
+    }
+    const filled: SumsRow[] = [];
+    for (const s of missing) {
+      const sums = await this.computeOne(s, version, quarter);
+      out.set(s.submissionId, sums);
+      this.remember(s.submissionId, version.id, sums);
+      filled.push(this.row(s.submissionId, version, sums));
+    }
+    await this.repository.replaceSums(filled);
+    return out;
+  }
+
+  /**
+   * A full recompute: every current record of the quarter in one streamed read, the sums of
+   * each current submission, all stored (replacing what they had under this measure set).
+   * Returns the sums by submission id.
+   */
+  async recomputeQuarter(
+    quarterId: number,
+    subjects: readonly SumsSubject[],
+    version: MeasureSetVersion,
+    quarter: AuditQuarter,
+  ): Promise<Map<number, PracticeSums>> {
+    const codeOf = new Map(subjects.map((s) => [s.submissionId, s.practiceCode]));
+    const capacity = subjects.reduce((n, s) => n + s.records, 0);
+    const byCode = await this.compute(
+      { quarterId },
+      (submissionId) => {
+        const code = codeOf.get(submissionId);
+        if (code === undefined) {
+          throw new Error(`submission ${submissionId} became current during the recompute`);
+        }
+        return code;
+      },
+      subjects.map((s) => s.practiceCode),
+      capacity,
+      version,
+      quarter,
+    );
+    const out = new Map<number, PracticeSums>();
+    const rows: SumsRow[] = [];
+    for (const s of subjects) {
+      const sums = byCode.get(s.practiceCode)!;
+      out.set(s.submissionId, sums);
+      this.remember(s.submissionId, version.id, sums);
+      rows.push(this.row(s.submissionId, version, sums));
+    }
+    await this.repository.replaceSums(rows);
+    return out;
+  }
+
+  private recall(submissionId: number, measureSetId: string): PracticeSums | undefined {
+    const key = `${submissionId}/${measureSetId}`;
+    const sums = this.cache.get(key);
+    if (sums) {
+      // Most recently used last.
+      this.cache.delete(key);
+      this.cache.set(key, sums);
+    }
+    return sums;
+  }
+
+  private remember(submissionId: number, measureSetId: string, sums: PracticeSums): void {
+    const key = `${submissionId}/${measureSetId}`;
+    const old = this.cache.get(key);
+    if (old) {
+      this.cache.delete(key);
+      this.cachedBytes -= sizeOf(old);
+    }
+    this.cache.set(key, sums);
+    this.cachedBytes += sizeOf(sums);
+    for (const [oldest, s] of this.cache) {
+      if (this.cachedBytes <= CACHE_BYTES || oldest === key) break;
+      this.cache.delete(oldest);
+      this.cachedBytes -= sizeOf(s);
+    }
+  }
+}
+
+function sameQuarter(a: AuditQuarter, b: AuditQuarter): boolean {
+  return a.year === b.year && a.quarter === b.quarter;
+}
