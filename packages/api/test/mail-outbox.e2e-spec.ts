@@ -18,6 +18,7 @@ import { demoIds, seedDemoOrganisation, signInAs, type SignedInAgent } from './s
 import {
   type Capture,
   daysFromToday,
+  q1Deadline2027,
   header,
   mailTestApp,
   outboxRows,
@@ -37,7 +38,7 @@ describe('mail: opening message, reminders, recipients, deliveries', () => {
   let ids: Awaited<ReturnType<typeof demoIds>>;
   let quarterId: number;
   let regionId: number;
-  const deadline = daysFromToday(40);
+  const deadline = q1Deadline2027();
 
   const audit = (action: string) =>
     t.db.query<{ summary: string; detail: string | null }>(

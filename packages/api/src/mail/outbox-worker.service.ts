@@ -2,13 +2,11 @@
  * Sends the outbox's messages from this API process. Messages live in
  * MariaDB, so any number of API processes send together:
  *
- * - claim: SELECT … FOR UPDATE SKIP LOCKED the messages due, a few at a time
- *   (up to CLAIM_FACTOR × mail.outbox.concurrency), and mark them sending,
- *   each with its Message-ID, under a lease this process renews while it holds
- *   them (OutboxRepository.claim);
+ * - claim: SELECT … FOR UPDATE SKIP LOCKED the messages due, and mark them
+ *   sending, each with its Message-ID, under a lease this process renews
+ *   while it sends (OutboxRepository.claim);
  * - send: compose, hand to the SMTP server through the pooled transport, and
- *   mark sent right after the server's 250 (the 250s that arrive together are
- *   recorded in one transaction); a refusal (5xx) marks the message
+ *   mark sent right after the server's 250; a refusal (5xx) marks the message
  *   failed with the server's reply; anything else (4xx, no answer) queues it
  *   again after an exponential back-off, until the attempts are used up;
  * - a process that dies mid-send leaves its messages sending: once their lease
@@ -38,7 +36,7 @@ import { OutboxRepository, type OutboxMessageRow } from './outbox.repository.js'
 
 /** The headers and parts of one outbox message as handed to nodemailer. */
 export function mailOptions(
-  row: OutboxMessageRow,
+  row: Pick<OutboxMessageRow, 'recipient_address' | 'recipient_name' | 'message_id'>,
   composed: ComposedMail,
   settings: { from: string; publicUrl: string },
   now = new Date(),
@@ -64,25 +62,11 @@ export function mailOptions(
   };
 }
 
-/** Messages claimed at once, per message sent at once: fewer claims, each a transaction. */
-export const CLAIM_FACTOR = 4;
-
-interface PendingSent {
-  id: number;
-  reply: string;
-  done: (recorded: boolean) => void;
-  failed: (error: unknown) => void;
-}
-
 @Injectable()
 export class OutboxWorker implements OnApplicationBootstrap, OnApplicationShutdown {
   private readonly logger = new Logger('Outbox');
   readonly owner = `${hostname().slice(0, 30)}:${process.pid}:${randomBytes(3).toString('hex')}`;
   private readonly inFlight = new Map<number, Promise<void>>();
-  /** Claimed, not yet handed to the server */
-  private readonly ready: OutboxMessageRow[] = [];
-  private pendingSent: PendingSent[] = [];
-  private flushScheduled = false;
   private timer: NodeJS.Timeout | null = null;
   private renewTimer: NodeJS.Timeout | null = null;
   private ticking = false;
@@ -121,7 +105,6 @@ export class OutboxWorker implements OnApplicationBootstrap, OnApplicationShutdo
     this.stopping = true;
     if (this.timer) clearInterval(this.timer);
     if (this.renewTimer) clearInterval(this.renewTimer);
-    await this.releaseReady();
     const inFlight = [...this.inFlight.values()];
     if (inFlight.length === 0) return;
     let timer: NodeJS.Timeout | undefined;
@@ -162,17 +145,14 @@ export class OutboxWorker implements OnApplicationBootstrap, OnApplicationShutdo
           Date.now() >= this.pausedUntil &&
           this.inFlight.size < concurrency
         ) {
-          if (this.ready.length === 0) {
-            const rows = await this.outbox.claim(
-              this.owner,
-              concurrency * CLAIM_FACTOR - this.inFlight.size,
-              leaseSeconds,
-              this.host,
-            );
-            if (rows.length === 0) break;
-            this.ready.push(...rows);
-          }
-          this.start(this.ready.shift()!);
+          const rows = await this.outbox.claim(
+            this.owner,
+            concurrency - this.inFlight.size,
+            leaseSeconds,
+            this.host,
+          );
+          if (rows.length === 0) break;
+          for (const row of rows) this.start(row);
         }
       } while (this.again && !this.stopping);
     } catch (error) {
@@ -228,7 +208,7 @@ export class OutboxWorker implements OnApplicationBootstrap, OnApplicationShutdo
     try {
       const reply = await this.transport.send(options);
       this.unreachableInARow = 0;
-      if (!(await this.recordSent(row.id, reply.response)))
+      if (!(await this.outbox.markSent(row.id, this.owner, reply.response)))
         this.logger.warn(
           { outboxId: row.id, messageId: row.message_id },
           'sent, but the lease had passed to another process meanwhile',
@@ -240,8 +220,6 @@ export class OutboxWorker implements OnApplicationBootstrap, OnApplicationShutdo
         // The pause grows with each round of sends that found it away (not with each message).
         this.unreachableInARow++;
         this.pausedUntil = Date.now() + backoffMs(this.unreachableInARow, mail.outbox);
-        // What this process holds but has not tried goes back, for any process to try later.
-        await this.releaseReady();
       }
       if (failure.kind === 'permanent') {
         await this.outbox.markFailed(row.id, this.owner, failure);
@@ -261,54 +239,12 @@ export class OutboxWorker implements OnApplicationBootstrap, OnApplicationShutdo
     }
   }
 
-  /**
-   * Records a 250: the acceptances that arrive in the same turn of the event loop are written
-   * in one transaction (one commit), right after the last of them.
-   */
-  private recordSent(id: number, reply: string): Promise<boolean> {
-    return new Promise((done, failed) => {
-      this.pendingSent.push({ id, reply, done, failed });
-      if (this.flushScheduled) return;
-      this.flushScheduled = true;
-      setImmediate(() => void this.flushSent());
-    });
-  }
-
-  private async flushSent(): Promise<void> {
-    this.flushScheduled = false;
-    const batch = this.pendingSent;
-    this.pendingSent = [];
-    try {
-      const recorded = await this.outbox.markSentMany(
-        this.owner,
-        batch.map(({ id, reply }) => ({ id, reply })),
-      );
-      for (const entry of batch) entry.done(recorded.has(entry.id));
-    } catch (error) {
-      for (const entry of batch) entry.failed(error);
-    }
-  }
-
-  private async releaseReady(): Promise<void> {
-    const rows = this.ready.splice(0);
-    if (rows.length === 0) return;
-    try {
-      await this.outbox.release(
-        this.owner,
-        rows.map((r) => r.id),
-      );
-    } catch (error) {
-      // Left sending: their lease runs out and they are claimed again (never sent: no repeat).
-      this.logger.warn({ err: error }, 'could not hand back unsent outbox messages');
-    }
-  }
-
   private async renew(): Promise<void> {
-    if (this.inFlight.size === 0 && this.ready.length === 0) return;
+    if (this.inFlight.size === 0) return;
     try {
       await this.outbox.renew(
         this.owner,
-        [...this.inFlight.keys(), ...this.ready.map((r) => r.id)],
+        [...this.inFlight.keys()],
         this.settings.outbox.leaseSeconds,
       );
     } catch (error) {

@@ -218,41 +218,15 @@ export class OutboxRepository {
     );
   }
 
-  /**
-   * Several messages the server accepted, recorded in one transaction (one commit for the
-   * messages whose 250 came at the same moment); the ids whose lease was still `owner`'s.
-   */
-  markSentMany(
-    owner: string,
-    sent: readonly { id: number; reply: string }[],
-  ): Promise<Set<number>> {
-    return this.transaction(async (transaction) => {
-      const changed = new Set<number>();
-      for (const { id, reply } of sent) {
-        const n = await this.execute(
-          `UPDATE outbox_messages SET state = 'sent', sent_at = NOW(3), server_reply = ?, last_error = NULL,
-             last_reply_code = NULL, lease_owner = NULL, lease_expires_at = NULL
-           WHERE id = ? AND state = 'sending' AND lease_owner = ?`,
-          [reply.slice(0, 500), id, owner],
-          transaction,
-        );
-        if (n > 0) changed.add(id);
-      }
-      return changed;
-    });
-  }
-
-  /**
-   * Hands back messages `owner` claimed but never gave to the server (shutting down, or the
-   * server away): queued again at once, the attempt not counted.
-   */
-  release(owner: string, ids: readonly number[]): Promise<number> {
-    if (ids.length === 0) return Promise.resolve(0);
-    return this.execute(
-      `UPDATE outbox_messages SET state = 'queued', attempts = GREATEST(attempts, 1) - 1,
-         next_attempt_at = NOW(3), lease_owner = NULL, lease_expires_at = NULL
-       WHERE id IN (?) AND state = 'sending' AND lease_owner = ?`,
-      [[...ids], owner],
+  /** The server accepted the message (250): sent. False when the lease was lost meanwhile. */
+  async markSent(id: number, owner: string, reply: string): Promise<boolean> {
+    return (
+      (await this.execute(
+        `UPDATE outbox_messages SET state = 'sent', sent_at = NOW(3), server_reply = ?, last_error = NULL,
+           last_reply_code = NULL, lease_owner = NULL, lease_expires_at = NULL
+         WHERE id = ? AND state = 'sending' AND lease_owner = ?`,
+        [reply.slice(0, 500), id, owner],
+      )) > 0
     );
   }
 
