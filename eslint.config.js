@@ -75,6 +75,7 @@ export const tableOwners = {
   outbox_messages: ['mail'],
   mail_extra_recipients: ['mail'],
   mail_schedule: ['mail'],
+  digest_schedules: ['digests'],
 };
 
 const sqlTouching = (tables) =>

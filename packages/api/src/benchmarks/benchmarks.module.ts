@@ -27,6 +27,6 @@ import { RecallListService } from './recall-list.service.js';
     PracticeResultsService,
     RecallListService,
   ],
-  exports: [BenchmarkStore],
+  exports: [BenchmarkStore, BenchmarksService, PracticeResultsService],
 })
 export class BenchmarksModule {}

@@ -5,7 +5,7 @@
  */
 import type { Role } from '../users/roles.js';
 
-export const MAIL_KINDS = ['quarter_opened', 'deadline_reminder'] as const;
+export const MAIL_KINDS = ['quarter_opened', 'deadline_reminder', 'digest'] as const;
 export type MailKind = (typeof MAIL_KINDS)[number];
 
 export interface MailKindInfo {
@@ -32,6 +32,13 @@ export const MAIL_KIND_INFO: Record<MailKind, MailKindInfo> = {
       'Before a submission deadline, when your practice has no current submission for that audit quarter. Once per practice and quarter.',
     sentTo: ['practice_lead'],
     sourceNoun: 'deadline reminders',
+  },
+  digest: {
+    label: 'Quarterly digests',
+    description:
+      "When the regional lead sends a quarter's report: where your practice stands against the region, what changed, where improvement would matter most, with the practice's figures attached.",
+    sentTo: ['practice_lead'],
+    sourceNoun: 'digests',
   },
 };
 

@@ -114,6 +114,12 @@ export const routes: RouteObject[] = [
             Component: m.MailRecipients,
           })),
       },
+      // ── digests ──
+      {
+        path: 'digests',
+        lazy: () =>
+          import('../features/deliveries/routes/Digests').then((m) => ({ Component: m.Digests })),
+      },
       { path: '*', element: <NotFound /> },
     ],
   },

@@ -30,6 +30,7 @@ export function MailRecipients() {
 const kindLabels: Record<string, string> = {
   quarter_opened: 'opening messages',
   deadline_reminder: 'reminders',
+  digest: 'digests',
 };
 
 function MailRecipientsScreen() {
