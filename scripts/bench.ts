@@ -4,6 +4,7 @@
  *   - @cairn/metrics: evaluation vs DuckDB at 100k / 1M / 3.5M records, funnel limits
  *   - @cairn/api: extract ingest vs LOAD DATA LOCAL INFILE and a bare exceljs read
  *   - @cairn/api: 500 mails with attachments through the outbox vs nodemailer's pool alone
+ *   - @cairn/api: composing a practice's digest, and 500 digests with their workbooks through the outbox
  * The ingest benchmark uses the disposable test MariaDB (never the demo data).
  * Exit code 1 when any benchmark misses a target.
  */
@@ -53,6 +54,14 @@ async function main(): Promise<void> {
       outcomes.push([
         'mail',
         await runInherit('npm', ['run', 'bench:mail', '-w', '@cairn/api'], {
+          cwd: ctx.root,
+          env: ctx.childEnv,
+        }),
+      ]);
+      log.step('── @cairn/api digest benchmark ──');
+      outcomes.push([
+        'digests',
+        await runInherit('npm', ['run', 'bench:digests', '-w', '@cairn/api'], {
           cwd: ctx.root,
           env: ctx.childEnv,
         }),

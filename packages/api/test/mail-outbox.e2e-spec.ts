@@ -71,6 +71,7 @@ describe('mail: opening message, reminders, recipients, deliveries', () => {
       expect(res.body.preferences.map((p: { kind: string }) => p.kind)).toEqual([
         'quarter_opened',
         'deadline_reminder',
+        'digest',
       ]);
       for (const p of res.body.preferences) {
         expect(p).toMatchObject({ receive: true, appliesToYou: true, sentTo: ['practice_lead'] });
@@ -106,6 +107,7 @@ describe('mail: opening message, reminders, recipients, deliveries', () => {
       ).toEqual([
         ['quarter_opened', false],
         ['deadline_reminder', true],
+        ['digest', true],
       ]);
       // The same choice again changes nothing and records nothing.
       await daniel

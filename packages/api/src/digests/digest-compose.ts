@@ -282,7 +282,7 @@ export function composeDigest(input: DigestInput, recipient: DigestRecipient): R
         'To stop these messages, ask the regional lead to remove it.',
       ];
   footer.push(
-    `Made from ${input.report.label}, published ${input.report.publishedAt.slice(0, 10)}. The attached workbook holds ${practice.name}'s figures; this message holds no patient data.`,
+    `Made from ${input.report.label}. The attached workbook holds ${practice.name}'s figures; this message holds no patient data.`,
   );
 
   return renderMail({
