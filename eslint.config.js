@@ -68,6 +68,7 @@ export const tableOwners = {
   submission_rejected_rows: ['submissions'],
   submission_sums: ['submissions'],
   benchmark_results: ['benchmarks'],
+  reports: ['reports'],
   // Staged by the submissions module through the bulk-load plumbing (src/database/bulk-load).
   care_records: ['submissions', 'database'],
   schema_migrations: ['database'],

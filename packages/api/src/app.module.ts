@@ -12,6 +12,7 @@ import { MeasureSetsModule } from './measure-sets/measure-sets.module.js';
 import { OrganisationsModule } from './organisations/organisations.module.js';
 import { QuarterOverviewModule } from './quarter-overview/quarter-overview.module.js';
 import { QuartersModule } from './quarters/quarters.module.js';
+import { ReportsModule } from './reports/reports.module.js';
 import { SubmissionsModule } from './submissions/submissions.module.js';
 import { UsersModule } from './users/users.module.js';
 
@@ -35,6 +36,7 @@ export const featureModules = [
   SubmissionsModule,
   BenchmarksModule,
   QuarterOverviewModule,
+  ReportsModule,
   MailModule,
   DigestsModule,
 ];

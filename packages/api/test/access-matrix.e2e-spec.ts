@@ -283,6 +283,61 @@ const handWritten: Record<string, Record<Caller, string>> = {
       },
     ]),
   ),
+  // ── reports ──
+  ...Object.fromEntries(
+    ['GET /api/reports', 'GET /api/reports/:reportId'].map((route) => [
+      route,
+      {
+        anonymous: U,
+        'lead of practice': A,
+        'lead of another': A,
+        'regional lead': A,
+        auditor: A,
+        deactivated: U,
+      },
+    ]),
+  ),
+  ...Object.fromEntries(
+    ['GET /api/reports/:reportId/region'].map((route) => [
+      route,
+      {
+        anonymous: U,
+        'lead of practice': R,
+        'lead of another': R,
+        'regional lead': A,
+        auditor: A,
+        deactivated: U,
+      },
+    ]),
+  ),
+  ...Object.fromEntries(
+    ['GET /api/reports/:reportId/practices/:practiceId'].map((route) => [
+      route,
+      {
+        anonymous: U,
+        'lead of practice': A,
+        'lead of another': '403 practice-not-yours',
+        'regional lead': A,
+        auditor: A,
+        deactivated: U,
+      },
+    ]),
+  ),
+  ...Object.fromEntries(
+    ['POST /api/quarters/:quarterId/reports', 'POST /api/reports/:reportId/withdraw'].map(
+      (route) => [
+        route,
+        {
+          anonymous: U,
+          'lead of practice': R,
+          'lead of another': R,
+          'regional lead': A,
+          auditor: R,
+          deactivated: U,
+        },
+      ],
+    ),
+  ),
   'GET /api/health': {
     anonymous: A,
     'lead of practice': A,

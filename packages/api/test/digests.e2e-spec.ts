@@ -30,6 +30,9 @@ describe('digests', () => {
   let daniel: SignedInAgent;
   let q3: number;
   let ov102: number;
+  /** The published 2026 Q3 report: the source of its digests */
+  let r3: number;
+  let r3Label: string;
 
   beforeAll(async () => {
     capture = await startCapture();
@@ -45,6 +48,12 @@ describe('digests', () => {
     const ov103 = w.practice('OV103');
     const his = await uploadAndWait(daniel, ov103, q3, csvOf(goodRows(30)), { name: 'ov103.csv' });
     await daniel.post(`/api/practices/${ov103}/submissions/${his.id}/confirm`).expect(200);
+    const published = await regional
+      .post(`/api/quarters/${q3}/reports`)
+      .send({ releaseNote: 'First publication of 2026 Q3.' })
+      .expect(201);
+    r3 = published.body.id;
+    r3Label = published.body.label;
     // Opening 2026 Q3 sent its opening messages; digests are counted apart from them.
     await waitUntil(
       async () => (await outboxRows(t)).every((r) => r.state === 'sent'),
@@ -66,9 +75,10 @@ describe('digests', () => {
 
   it('lists what digests can be made from and previews a practice’s digest as sent', async () => {
     const list = await regional.get('/api/digests').expect(200);
-    expect(list.body.map((r: { quarterLabel: string }) => r.quarterLabel)).toContain('2026 Q3');
+    expect(list.body.map((r: { id: number }) => r.id)).toEqual([r3]);
+    expect(list.body[0].label).toBe(r3Label);
 
-    const res = await regional.get(preview(q3, ov102)).expect(200);
+    const res = await regional.get(preview(r3, ov102)).expect(200);
     expect(res.body.practice.code).toBe('OV102');
     expect(res.body.subject).toBe('Quarrybank Surgery: your 2026 Q3 digest');
     expect(res.body.recipients.map((r: { address: string }) => r.address)).toContain(
@@ -83,7 +93,7 @@ describe('digests', () => {
     expect(text).toContain('NICE NG28');
     expect(res.body.reviewCasesCounted).toBe(false);
     expect(res.body.attachment).toMatchObject({
-      filename: 'cairn-OV102-2026-Q3-figures.xlsx',
+      filename: `cairn-OV102-2026-Q3-report-${r3}-figures.xlsx`,
       contentType: 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet',
     });
 
@@ -96,30 +106,30 @@ describe('digests', () => {
   });
 
   it('refuses whoever is not the regional lead, and names what it cannot find', async () => {
-    await priya.get(preview(q3, ov102)).expect(403);
-    await priya.post(`/api/digests/${q3}/send`).expect(403);
+    await priya.get(preview(r3, ov102)).expect(403);
+    await priya.post(`/api/digests/${r3}/send`).expect(403);
     const unknown = await regional.get(preview(987654, ov102)).expect(404);
     expect(unknown.headers['content-type']).toMatch(/application\/problem\+json/);
     expect(unknown.body.type).toMatch(/digest-source-not-found$/);
-    const practice = await regional.get(preview(q3, 987654)).expect(404);
+    const practice = await regional.get(preview(r3, 987654)).expect(404);
     expect(practice.body.type).toMatch(/practice-not-in-report$/);
     const bad = await regional
-      .put(`/api/digests/${q3}/schedule`)
+      .put(`/api/digests/${r3}/schedule`)
       .send({ sendAt: 'next tuesday' })
       .expect(400);
     expect(bad.body.errors.map((e: { field: string }) => e.field)).toContain('sendAt');
     const past = await regional
-      .put(`/api/digests/${q3}/schedule`)
+      .put(`/api/digests/${r3}/schedule`)
       .send({ sendAt: '2020-01-01T08:00:00Z' })
       .expect(422);
     expect(past.body.errors.map((e: { field: string }) => e.field)).toEqual(['sendAt']);
-    const none = await regional.delete(`/api/digests/${q3}/schedule`).expect(409);
+    const none = await regional.delete(`/api/digests/${r3}/schedule`).expect(409);
     expect(none.body.type).toMatch(/no-digest-schedule$/);
     expect(await digestRows()).toEqual([]);
   });
 
   it('sends a test to the regional lead alone, through the server, not the outbox', async () => {
-    const res = await regional.post(`/api/digests/${q3}/practices/${ov102}/test`).expect(200);
+    const res = await regional.post(`/api/digests/${r3}/practices/${ov102}/test`).expect(200);
     expect(res.body.to).toBe(regional.user.email);
     const tests = capture.messages().filter((m) => m.subject.startsWith('Test: '));
     expect(tests).toHaveLength(1);
@@ -127,7 +137,7 @@ describe('digests', () => {
     expect(message!.to).toEqual([regional.user.email]);
     expect(message!.subject).toBe('Test: Quarrybank Surgery: your 2026 Q3 digest');
     expect(message!.attachments.map((a) => a.filename)).toEqual([
-      'cairn-OV102-2026-Q3-figures.xlsx',
+      `cairn-OV102-2026-Q3-report-${r3}-figures.xlsx`,
     ]);
     expect(await digestRows()).toEqual([]);
   });
@@ -137,10 +147,10 @@ describe('digests', () => {
       .put('/api/me/mail-preferences')
       .send({ optedOut: ['digest'] })
       .expect(200);
-    const res = await regional.post(`/api/digests/${q3}/send`).expect(200);
+    const res = await regional.post(`/api/digests/${r3}/send`).expect(200);
     expect(res.body.practices).toBe(res.body.report.practices);
     expect(res.body.alreadyQueued).toBe(0);
-    const again = await regional.post(`/api/digests/${q3}/send`).expect(200);
+    const again = await regional.post(`/api/digests/${r3}/send`).expect(200);
     expect(again.body).toMatchObject({ practices: 0, messages: 0 });
     expect(again.body.alreadyQueued).toBe(res.body.practices);
 
@@ -170,11 +180,11 @@ describe('digests', () => {
     expect(typeof parsed.html).toBe('string');
     expect(parsed.html as string).not.toMatch(/<img\b|url\(|<script\b/i);
     // What the preview showed is what arrived.
-    const shown = await regional.get(preview(q3, ov102)).expect(200);
+    const shown = await regional.get(preview(r3, ov102)).expect(200);
     expect(parsed.text!.trim()).toBe((shown.body.text as string).trim());
     // The attachment is a workbook with the practice's measures.
     const [pack] = parsed.attachments;
-    expect(pack!.filename).toBe('cairn-OV102-2026-Q3-figures.xlsx');
+    expect(pack!.filename).toBe(`cairn-OV102-2026-Q3-report-${r3}-figures.xlsx`);
     const workbook = new ExcelJS.Workbook();
     await workbook.xlsx.load(pack!.content as unknown as ArrayBuffer);
     const sheet = workbook.getWorksheet('Measures')!;
@@ -187,7 +197,18 @@ describe('digests', () => {
   }, 120_000);
 
   it('schedules a sending, moves and cancels it, and runs a due one once', async () => {
-    const q2 = w.quarter('2026 Q2');
+    const q2 = r3;
+    const digests = t.app.get(DigestsService);
+    // A newly published report gets a sending of its own, a while after its publication.
+    expect(await digests.scheduleNewReports(new Date())).toBe(1);
+    expect(await digests.scheduleNewReports(new Date())).toBe(0);
+    const auto = await regional.get(`/api/digests/${q2}/schedule`).expect(200);
+    expect(auto.body).toMatchObject({ state: 'scheduled', scheduledBy: 'on publication' });
+    const report = await regional.get(`/api/reports/${r3}`).expect(200);
+    expect(Date.parse(auto.body.sendAt) - Date.parse(report.body.publishedAt)).toBe(
+      t.config.mail.digests.afterPublicationMinutes * 60_000,
+    );
+    const queuedBefore = (await digestRows(q2)).length;
     const at = new Date(Date.now() + 3_600_000).toISOString();
     const set = await regional.put(`/api/digests/${q2}/schedule`).send({ sendAt: at }).expect(200);
     expect(set.body).toMatchObject({ state: 'scheduled', sendAt: at });
@@ -197,17 +218,19 @@ describe('digests', () => {
     );
     await regional.put(`/api/digests/${q2}/schedule`).send({ sendAt: at }).expect(200);
 
-    const digests = t.app.get(DigestsService);
     // Not due yet: nothing sent.
     expect(await digests.runScheduled(new Date())).toBe(0);
-    expect(await digestRows(q2)).toEqual([]);
+    expect(await digestRows(q2)).toHaveLength(queuedBefore);
     // An hour and a minute later it is due, and runs once.
     const later = new Date(Date.now() + 3_660_000);
     expect(await digests.runScheduled(later)).toBe(1);
     expect(await digests.runScheduled(later)).toBe(0);
     const after = await regional.get(`/api/digests/${q2}/schedule`).expect(200);
     expect(after.body.state).toBe('sent');
-    expect(after.body.outcome).toMatch(/practices, \d+ messages queued/);
+    // Sent already by hand: the scheduled sending queues nothing twice.
+    expect(after.body.outcome).toMatch(
+      /^0 practices, 0 messages queued; \d+ practices queued before$/,
+    );
     const moved = await regional
       .put(`/api/digests/${q2}/schedule`)
       .send({ sendAt: at })

@@ -210,6 +210,7 @@ describe('outbox faults', () => {
         CAIRN_MAIL_OUTBOX_BACKOFF_BASE_SECONDS: '0.2',
         CAIRN_MAIL_OUTBOX_BACKOFF_MAX_SECONDS: '1',
         CAIRN_MAIL_REMINDERS_CHECK_CRON: '0 0 0 1 1 *',
+        CAIRN_MAIL_DIGESTS_CHECK_CRON: '0 0 0 1 1 *',
       };
       const first = await startApiProcess(t, env);
       await capture.waitFor(RUN / 3, 60_000);

@@ -282,7 +282,9 @@ export function composeDigest(input: DigestInput, recipient: DigestRecipient): R
         'To stop these messages, ask the regional lead to remove it.',
       ];
   footer.push(
-    `Made from ${input.report.label}. The attached workbook holds ${practice.name}'s figures; this message holds no patient data.`,
+    input.state === 'results' && input.measures.length > 0
+      ? `Made from ${input.report.label}. The attached workbook holds ${practice.name}'s figures; this message holds no patient data.`
+      : `Made from ${input.report.label}. This message holds no patient data.`,
   );
 
   return renderMail({

@@ -28,14 +28,15 @@ export interface DataPack {
 export interface DigestSource {
   /** What the source is, in words, for problem details and the delivery page */
   readonly noun: string;
-  report(id: number, regionId?: number): Promise<DigestReport | null>;
+  /** The report, if it is of the region and may be read (not withdrawn) */
+  report(id: number, regionId: number): Promise<DigestReport | null>;
   /** The region's reports, latest first */
   list(regionId: number): Promise<DigestReport[]>;
-  /** The practice's part of the report as its leads see it; null when it has none */
+  /** The practice's part of the report as its leads see it; null when it has no figures in it */
   practiceResults(report: DigestReport, practiceId: number): Promise<PracticeResultsDto | null>;
   /** Where the practice's part of the report and its recall lists are, in Cairn's web app */
   paths(report: DigestReport, practiceId: number): { report: string; recallLists: string };
-  /** The practice's XLSX data pack from the report */
+  /** The practice's XLSX data pack from its figures in the report */
   dataPack(report: DigestReport, results: PracticeResultsDto): Promise<DataPack>;
 }
 

@@ -41,6 +41,7 @@ import {
   OrganisationsService,
   type PracticeInfo,
 } from '../organisations/organisations.service.js';
+import { QuartersService } from '../quarters/quarters.service.js';
 import { composeDigest } from './digest-compose.js';
 import { dataQualityFlags, digestMeasures } from './digest-from-results.js';
 import type { DigestInput, DigestRecipient } from './digest-input.js';
@@ -62,12 +63,15 @@ import { OpenReviewCases } from './review-case-counts.js';
 
 export const DIGEST_KIND = 'digest';
 export const DIGEST_SCHEDULE_JOB = 'digest-schedules';
+/** Reports published longer ago than this are not scheduled on their own (older ones: by hand). */
+const PUBLICATION_LOOKBACK_MS = 7 * 86_400_000;
 const CACHE_LIMIT = 256;
 const YEAR_MS = 366 * 86_400_000;
 
 interface PracticePart {
   input: Omit<DigestInput, 'openReviewCases'>;
-  dataPack: DataPack;
+  /** None for a practice without figures in the report */
+  dataPack: DataPack | null;
 }
 
 @Injectable()
@@ -84,6 +88,7 @@ export class DigestsService implements OnModuleInit, OnApplicationBootstrap {
     @Inject(OutboxService) private readonly outbox: OutboxService,
     @Inject(RecipientsService) private readonly recipients: RecipientsService,
     @Inject(OrganisationsService) private readonly organisations: OrganisationsService,
+    @Inject(QuartersService) private readonly quarters: QuartersService,
     @Inject(MailTransport) private readonly transport: MailTransport,
     @Inject(DigestSchedulesRepository) private readonly schedules: DigestSchedulesRepository,
     @Inject(AuditTrailService) private readonly audit: AuditTrailService,
@@ -93,15 +98,15 @@ export class DigestsService implements OnModuleInit, OnApplicationBootstrap {
 
   onModuleInit(): void {
     this.composers.register(DIGEST_KIND, {
-      sourceLabel: async (id) =>
-        `${(await this.source.report(id))?.label ?? `Report ${id}`} digests`,
+      sourceLabel: async (id, regionId) =>
+        `${(await this.source.report(id, regionId))?.label ?? `Report ${id}`} digests`,
       compose: (row) => this.composeRow(row),
     });
   }
 
   onApplicationBootstrap(): void {
     const job = CronJob.from({
-      cronTime: this.config.get('mail', { infer: true }).reminders.checkCron,
+      cronTime: this.config.get('mail', { infer: true }).digests.checkCron,
       onTick: () => void this.runScheduled(),
       start: true,
       timeZone: 'UTC',
@@ -115,7 +120,7 @@ export class DigestsService implements OnModuleInit, OnApplicationBootstrap {
     return new URL(path, this.config.get('server', { infer: true }).publicUrl).href;
   }
 
-  private async report(id: number, regionId?: number): Promise<DigestReport> {
+  private async report(id: number, regionId: number): Promise<DigestReport> {
     const report = await this.source.report(id, regionId);
     if (!report)
       throw new ProblemException(
@@ -158,8 +163,6 @@ export class DigestsService implements OnModuleInit, OnApplicationBootstrap {
 
   private async makePart(report: DigestReport, practice: PracticeInfo): Promise<PracticePart> {
     const results = await this.source.practiceResults(report, practice.id);
-    if (!results)
-      throw new CompositionError(`${report.label} has no part for practice ${practice.code}`);
     const region = await this.organisations.region(report.regionId);
     const paths = this.source.paths(report, practice.id);
     const input: PracticePart['input'] = {
@@ -167,10 +170,10 @@ export class DigestsService implements OnModuleInit, OnApplicationBootstrap {
       practice: { id: practice.id, code: practice.code, name: practice.name },
       quarter: { id: report.quarterId, label: report.quarterLabel },
       report: { id: report.id, label: report.label, publishedAt: report.publishedAt },
-      state: results.state === 'results' ? 'results' : 'no-current-submission',
-      measures: digestMeasures(results),
-      dataQualityFlags: dataQualityFlags(results),
-      caution: results.caution || CLINICAL_CAUTION,
+      state: results ? 'results' : 'no-current-submission',
+      measures: results ? digestMeasures(results) : [],
+      dataQualityFlags: results ? dataQualityFlags(results) : 0,
+      caution: results?.caution || CLINICAL_CAUTION,
       links: {
         report: this.link(paths.report),
         recallLists: this.link(paths.recallLists),
@@ -178,7 +181,7 @@ export class DigestsService implements OnModuleInit, OnApplicationBootstrap {
         profile: this.link('/profile'),
       },
     };
-    return { input, dataPack: await this.source.dataPack(report, results) };
+    return { input, dataPack: results ? await this.source.dataPack(report, results) : null };
   }
 
   private async compose(
@@ -191,11 +194,11 @@ export class DigestsService implements OnModuleInit, OnApplicationBootstrap {
       this.reviewCases.count(practice.id, report.regionId),
     ]);
     const mail = composeDigest({ ...part.input, openReviewCases }, recipient);
-    return { ...mail, attachments: [{ ...part.dataPack }] };
+    return { ...mail, attachments: part.dataPack ? [{ ...part.dataPack }] : [] };
   }
 
   private async composeRow(row: OutboxMessageRow): Promise<ComposedMail> {
-    const report = await this.source.report(row.source_id);
+    const report = await this.source.report(row.source_id, row.region_id);
     if (!report)
       throw new CompositionError(`${this.source.noun} ${row.source_id} no longer exists`);
     const practice = await this.organisations.practice(row.practice_id);
@@ -230,7 +233,7 @@ export class DigestsService implements OnModuleInit, OnApplicationBootstrap {
       (await this.recipients.forPractices([practiceId], DIGEST_KIND)).get(practiceId) ?? [];
     const first = recipients[0] ?? null;
     const mail = await this.compose(report, practice, recipientOf(first));
-    const pack = mail.attachments![0]!;
+    const pack = mail.attachments?.[0] ?? null;
     return {
       report: this.reportRef(report),
       practice: practiceDto(practice),
@@ -240,11 +243,9 @@ export class DigestsService implements OnModuleInit, OnApplicationBootstrap {
       subject: mail.subject,
       text: mail.text,
       htmlPath: `/api/digests/${report.id}/practices/${practiceId}/preview.html`,
-      attachment: {
-        filename: pack.filename,
-        contentType: pack.contentType,
-        bytes: pack.content.length,
-      },
+      attachment: pack
+        ? { filename: pack.filename, contentType: pack.contentType, bytes: pack.content.length }
+        : null,
       reviewCasesCounted: this.reviewCases.registered,
     };
   }
@@ -429,6 +430,33 @@ export class DigestsService implements OnModuleInit, OnApplicationBootstrap {
     return this.scheduleOf(actor, reportId);
   }
 
+  /**
+   * Gives each report published in the last week that has no scheduled sending (and was never
+   * scheduled, moved or cancelled by the regional lead) one, `mail.digests.afterPublicationMinutes`
+   * after its publication: time for the regional lead to preview the digests, send a test, move
+   * or cancel the sending.
+   */
+  async scheduleNewReports(now = new Date()): Promise<number> {
+    const regions = new Set((await this.quarters.openQuarters()).map((q) => q.regionId));
+    const primary = await this.organisations.primaryRegion();
+    if (primary) regions.add(primary.id);
+    const after = this.config.get('mail', { infer: true }).digests.afterPublicationMinutes * 60_000;
+    let scheduled = 0;
+    for (const regionId of regions) {
+      for (const report of await this.source.list(regionId)) {
+        const published = Date.parse(report.publishedAt);
+        if (now.getTime() - published > PUBLICATION_LOOKBACK_MS) continue;
+        if (await this.schedules.find(report.id)) continue;
+        await this.schedules.schedule(report.id, regionId, new Date(published + after), {
+          userId: null,
+          label: 'on publication',
+        });
+        scheduled++;
+      }
+    }
+    return scheduled;
+  }
+
   /** Sends the digests whose time has come; one process at a time (null: another ran it). */
   async runScheduled(now = new Date()): Promise<number | null> {
     try {
@@ -437,6 +465,7 @@ export class DigestsService implements OnModuleInit, OnApplicationBootstrap {
         this.owner,
         300,
         async () => {
+          await this.scheduleNewReports(now);
           let ran = 0;
           for (const row of await this.schedules.due(now)) {
             const system = systemActor('scheduled digests', row.region_id);

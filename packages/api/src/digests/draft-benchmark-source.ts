@@ -35,9 +35,9 @@ export class DraftBenchmarkDigestSource implements DigestSource {
     @Inject(OrganisationsService) private readonly organisations: OrganisationsService,
   ) {}
 
-  async report(id: number, regionId?: number): Promise<DigestReport | null> {
+  async report(id: number, regionId: number): Promise<DigestReport | null> {
     const quarter = await this.quarters.find(id);
-    if (!quarter || (regionId !== undefined && quarter.regionId !== regionId)) return null;
+    if (!quarter || quarter.regionId !== regionId) return null;
     const result = await this.store.resultOf(quarter);
     const practices = await this.organisations.regionPractices(quarter.regionId, {
       activeOnly: true,
@@ -59,12 +59,16 @@ export class DraftBenchmarkDigestSource implements DigestSource {
     return reports.filter((r): r is DigestReport => r !== null);
   }
 
-  practiceResults(report: DigestReport, practiceId: number): Promise<PracticeResultsDto | null> {
-    return this.results.results(
+  async practiceResults(
+    report: DigestReport,
+    practiceId: number,
+  ): Promise<PracticeResultsDto | null> {
+    const results = await this.results.results(
       leadsView(report.regionId, practiceId),
       practiceId,
       report.quarterId,
     );
+    return results.state === 'results' ? results : null;
   }
 
   paths(report: DigestReport, practiceId: number) {

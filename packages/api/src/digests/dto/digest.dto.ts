@@ -44,7 +44,12 @@ export class DigestPreviewDto {
     description: 'Where the HTML part is served alone, as sent (for a sandboxed frame)',
   })
   htmlPath!: string;
-  @ApiProperty({ type: DigestAttachmentDto }) attachment!: DigestAttachmentDto;
+  @ApiProperty({
+    type: DigestAttachmentDto,
+    nullable: true,
+    description: 'The practice’s figures workbook; null when it has no figures in the report',
+  })
+  attachment!: DigestAttachmentDto | null;
   @ApiProperty({
     type: Boolean,
     description: 'False until a module that runs review cases counts them: every count is 0',

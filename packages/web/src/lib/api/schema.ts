@@ -845,6 +845,117 @@ export interface paths {
     patch?: never;
     trace?: never;
   };
+  '/api/quarters/{quarterId}/reports': {
+    parameters: {
+      query?: never;
+      header?: never;
+      path?: never;
+      cookie?: never;
+    };
+    get?: never;
+    put?: never;
+    /**
+     * Publish the quarter’s benchmark as a report that never changes afterwards
+     * @description Freezes the benchmark of the quarter’s current submissions (every practice’s results, the region’s, funnels, trends) with the measure-set version, the submissions, the publisher, the time and the release note; its content hash is the SHA-256 of those canonical bytes. An earlier published report of the quarter stays readable, marked replaced. 409 nothing-to-publish when no extract is confirmed; 409 benchmark-changed when one was confirmed while publishing.
+     */
+    post: operations['PublishReportController_publish'];
+    delete?: never;
+    options?: never;
+    head?: never;
+    patch?: never;
+    trace?: never;
+  };
+  '/api/reports': {
+    parameters: {
+      query?: never;
+      header?: never;
+      path?: never;
+      cookie?: never;
+    };
+    /** The region’s reports, newest first (withdrawn ones as tombstones) */
+    get: operations['ReportsController_list'];
+    put?: never;
+    post?: never;
+    delete?: never;
+    options?: never;
+    head?: never;
+    patch?: never;
+    trace?: never;
+  };
+  '/api/reports/{reportId}': {
+    parameters: {
+      query?: never;
+      header?: never;
+      path?: never;
+      cookie?: never;
+    };
+    /** A report’s identity and standing (its permanent address) */
+    get: operations['ReportsController_get'];
+    put?: never;
+    post?: never;
+    delete?: never;
+    options?: never;
+    head?: never;
+    patch?: never;
+    trace?: never;
+  };
+  '/api/reports/{reportId}/region': {
+    parameters: {
+      query?: never;
+      header?: never;
+      path?: never;
+      cookie?: never;
+    };
+    /**
+     * The region’s figures of a report, exactly as published
+     * @description 410 report-withdrawn with the tombstone when it was withdrawn.
+     */
+    get: operations['ReportsController_region'];
+    put?: never;
+    post?: never;
+    delete?: never;
+    options?: never;
+    head?: never;
+    patch?: never;
+    trace?: never;
+  };
+  '/api/reports/{reportId}/practices/{practiceId}': {
+    parameters: {
+      query?: never;
+      header?: never;
+      path?: never;
+      cookie?: never;
+    };
+    /**
+     * One practice’s part of a report, exactly as published
+     * @description Its own figures in full; for practice leads the region’s figures and other practices under disclosure control. State not-in-report when the practice had no confirmed extract then.
+     */
+    get: operations['ReportsController_practice'];
+    put?: never;
+    post?: never;
+    delete?: never;
+    options?: never;
+    head?: never;
+    patch?: never;
+    trace?: never;
+  };
+  '/api/reports/{reportId}/withdraw': {
+    parameters: {
+      query?: never;
+      header?: never;
+      path?: never;
+      cookie?: never;
+    };
+    get?: never;
+    put?: never;
+    /** Withdraw a report: its figures are no longer served; a tombstone keeps the reason */
+    post: operations['ReportsController_withdraw'];
+    delete?: never;
+    options?: never;
+    head?: never;
+    patch?: never;
+    trace?: never;
+  };
   '/api/mail/deliveries': {
     parameters: {
       query?: never;
@@ -2875,6 +2986,138 @@ export interface components {
       measureSets: components['schemas']['MeasureSetRefDto'][];
       actions: components['schemas']['AuditQuartersActionsDto'];
     };
+    PublishReportDto: {
+      /**
+       * @description What readers should know about this report (kept with it for good)
+       * @example Second quarter of the new foot-surveillance measure; OV303 had not submitted.
+       */
+      releaseNote: string;
+    };
+    /** @enum {string} */
+    ReportStatus: 'published' | 'replaced' | 'withdrawn';
+    ReportRefDto: {
+      id: number;
+      /** @example 2026 Q3 · report 2 */
+      label: string;
+    };
+    ReportWithdrawalDto: {
+      /** @description ISO 8601 */
+      at: string;
+      /** @example Imogen Varley */
+      by: string;
+      reason: string;
+    };
+    ReportActionsDto: {
+      /** @description The reader may withdraw this report */
+      withdraw: boolean;
+      /** @description The reader may read the region’s figures, data pack and PDF */
+      region: boolean;
+    };
+    ReportDto: {
+      id: number;
+      /** @example 2026 Q3 · report 1 */
+      label: string;
+      /** @description The how-manieth report of its quarter (1, 2, …) */
+      sequence: number;
+      quarterId: number;
+      /** @example 2026 Q3 */
+      quarterLabel: string;
+      /** @example cairn-default-2026.1 */
+      measureSetId: string;
+      status: components['schemas']['ReportStatus'];
+      /** @description ISO 8601 */
+      publishedAt: string;
+      /** @example Imogen Varley */
+      publishedBy: string;
+      releaseNote: string;
+      /**
+       * @description SHA-256 (hex) of the report’s canonical bytes
+       * @example 3f1c…
+       */
+      contentHash: string;
+      /** @description Submissions the figures were computed from */
+      submissionCount: number;
+      /** @description The report that replaced it */
+      replacedBy: components['schemas']['ReportRefDto'] | null;
+      withdrawal: components['schemas']['ReportWithdrawalDto'] | null;
+      /**
+       * @description The report’s permanent page
+       * @example /reports/12
+       */
+      permalink: string;
+      /** @description The practices whose part the reader may open: every practice of the report for regional leads and auditors, their own for practice leads */
+      practices: components['schemas']['PracticeDto'][];
+      actions: components['schemas']['ReportActionsDto'];
+    };
+    ReportListDto: {
+      /** @description Newest first */
+      reports: components['schemas']['ReportDto'][];
+    };
+    /** @enum {string} */
+    DisclosureSuppression: 'none' | 'primary' | 'secondary';
+    DisclosedCellDto: {
+      /** @description null when suppressed */
+      value: number | null;
+      /** @example < 5 */
+      display: string;
+      suppression: components['schemas']['DisclosureSuppression'];
+    };
+    PeerRowDto: {
+      practice: components['schemas']['PracticeDto'];
+      /** @description The reader’s own practice (shown in full) */
+      own: boolean;
+      /** @description People who met the measure */
+      met: components['schemas']['DisclosedCellDto'];
+      /** @description People who did not */
+      notMet: components['schemas']['DisclosedCellDto'];
+      /** @description The denominator (met + not met) */
+      n: components['schemas']['DisclosedCellDto'];
+      /** @description met / n; null when withheld */
+      rate: number | null;
+    };
+    PeerTableDto: {
+      /** @example hba1c_target */
+      measure: string;
+      /** @example all */
+      split: string;
+      rows: components['schemas']['PeerRowDto'][];
+      met: components['schemas']['DisclosedCellDto'];
+      notMet: components['schemas']['DisclosedCellDto'];
+      n: components['schemas']['DisclosedCellDto'];
+      rate: number | null;
+      /** @description No suppression pattern could protect every count: the table is withheld */
+      withheld: boolean;
+    };
+    ReportRegionDto: {
+      report: components['schemas']['ReportDto'];
+      /** @description Every practice on every measure: everyone, type 1, type 2 and other */
+      splits: components['schemas']['RegionBenchmarkDto'][];
+      /** @description Each measure’s funnel (everyone) */
+      funnels: components['schemas']['MeasureFunnelDto'][];
+      /** @description Each measure over the quarters up to this one */
+      trends: components['schemas']['BenchmarkTrendDto'][];
+      /** @description Each measure’s table under disclosure control, as handed beyond the practices */
+      peerTables: components['schemas']['PeerTableDto'][];
+      caution: string;
+    };
+    /** @enum {string} */
+    ReportPracticeState: 'results' | 'not-in-report';
+    ReportPracticeDto: {
+      report: components['schemas']['ReportDto'];
+      practice: components['schemas']['PracticeDto'];
+      state: components['schemas']['ReportPracticeState'];
+      /** @description Why there are no results */
+      message: string | null;
+      /** @description As frozen: in full for the region’s readers, under disclosure control for practice leads */
+      results: components['schemas']['PracticeResultsDto'] | null;
+      /** @description Each measure: this practice in full, every other practice under disclosure control */
+      peers: components['schemas']['PeerTableDto'][];
+      caution: string;
+    };
+    WithdrawReportDto: {
+      /** @example A practice’s extract was found to hold another quarter’s records. */
+      reason: string;
+    };
     /** @enum {string} */
     MailKind: 'quarter_opened' | 'deadline_reminder' | 'digest';
     OutboxCountsDto: {
@@ -3059,7 +3302,8 @@ export interface components {
       text: string;
       /** @description Where the HTML part is served alone, as sent (for a sandboxed frame) */
       htmlPath: string;
-      attachment: components['schemas']['DigestAttachmentDto'];
+      /** @description The practice’s figures workbook; null when it has no figures in the report */
+      attachment: components['schemas']['DigestAttachmentDto'] | null;
       /** @description False until a module that runs review cases counts them: every count is 0 */
       reviewCasesCounted: boolean;
     };
@@ -4836,6 +5080,196 @@ export interface operations {
       };
     };
   };
+  PublishReportController_publish: {
+    parameters: {
+      query?: never;
+      header?: never;
+      path: {
+        quarterId: number;
+      };
+      cookie?: never;
+    };
+    requestBody: {
+      content: {
+        'application/json': components['schemas']['PublishReportDto'];
+      };
+    };
+    responses: {
+      201: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['ReportDto'];
+        };
+      };
+      /** @description RFC 9457 problem details */
+      default: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['ProblemDto'];
+        };
+      };
+    };
+  };
+  ReportsController_list: {
+    parameters: {
+      query?: {
+        /** @description Only the reports of this audit quarter */
+        quarterId?: number;
+      };
+      header?: never;
+      path?: never;
+      cookie?: never;
+    };
+    requestBody?: never;
+    responses: {
+      200: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['ReportListDto'];
+        };
+      };
+      /** @description RFC 9457 problem details */
+      default: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['ProblemDto'];
+        };
+      };
+    };
+  };
+  ReportsController_get: {
+    parameters: {
+      query?: never;
+      header?: never;
+      path: {
+        reportId: number;
+      };
+      cookie?: never;
+    };
+    requestBody?: never;
+    responses: {
+      200: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['ReportDto'];
+        };
+      };
+      /** @description RFC 9457 problem details */
+      default: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['ProblemDto'];
+        };
+      };
+    };
+  };
+  ReportsController_region: {
+    parameters: {
+      query?: never;
+      header?: never;
+      path: {
+        reportId: number;
+      };
+      cookie?: never;
+    };
+    requestBody?: never;
+    responses: {
+      200: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['ReportRegionDto'];
+        };
+      };
+      /** @description RFC 9457 problem details */
+      default: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['ProblemDto'];
+        };
+      };
+    };
+  };
+  ReportsController_practice: {
+    parameters: {
+      query?: never;
+      header?: never;
+      path: {
+        reportId: number;
+        practiceId: number;
+      };
+      cookie?: never;
+    };
+    requestBody?: never;
+    responses: {
+      200: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['ReportPracticeDto'];
+        };
+      };
+      /** @description RFC 9457 problem details */
+      default: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['ProblemDto'];
+        };
+      };
+    };
+  };
+  ReportsController_withdraw: {
+    parameters: {
+      query?: never;
+      header?: never;
+      path: {
+        reportId: number;
+      };
+      cookie?: never;
+    };
+    requestBody: {
+      content: {
+        'application/json': components['schemas']['WithdrawReportDto'];
+      };
+    };
+    responses: {
+      200: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['ReportDto'];
+        };
+      };
+      /** @description RFC 9457 problem details */
+      default: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['ProblemDto'];
+        };
+      };
+    };
+  };
   DeliveriesController_list: {
     parameters: {
       query?: never;
@@ -5568,6 +6002,15 @@ export const recallReasonValues: ReadonlyArray<
 export const nextQuarterDtoQuarterValues: ReadonlyArray<
   FlattenedDeepRequired<components>['schemas']['NextQuarterDto']['quarter']
 > = [1, 2, 3, 4];
+export const reportStatusValues: ReadonlyArray<
+  FlattenedDeepRequired<components>['schemas']['ReportStatus']
+> = ['published', 'replaced', 'withdrawn'];
+export const disclosureSuppressionValues: ReadonlyArray<
+  FlattenedDeepRequired<components>['schemas']['DisclosureSuppression']
+> = ['none', 'primary', 'secondary'];
+export const reportPracticeStateValues: ReadonlyArray<
+  FlattenedDeepRequired<components>['schemas']['ReportPracticeState']
+> = ['results', 'not-in-report'];
 export const mailKindValues: ReadonlyArray<
   FlattenedDeepRequired<components>['schemas']['MailKind']
 > = ['quarter_opened', 'deadline_reminder', 'digest'];

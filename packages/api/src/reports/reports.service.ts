@@ -1,0 +1,552 @@
+/**
+ * Published reports: a quarter's draft benchmark frozen into an immutable
+ * snapshot (snapshot.ts) by the regional lead, read for good from its stored
+ * bytes (never from the quarter's current submissions), listed per region,
+ * withdrawn with a tombstone, replaced by a later report of the same quarter.
+ *
+ * Who reads what: regional leads and auditors read the region's part and every
+ * practice's part in full; a practice lead reads the report's identity and
+ * their own practices' parts, with the region's figures and other practices
+ * under disclosure control (docs/methods.md §9). Other modules (digests) read
+ * one practice's part through `practicePart`.
+ */
+import { HttpStatus, Inject, Injectable } from '@nestjs/common';
+import type { Actor } from '../auth/actor.js';
+import { AuditTrailService } from '../audit-trail/audit-trail.service.js';
+import { BenchmarksService } from '../benchmarks/benchmarks.service.js';
+import type { RegionBenchmarkDto } from '../benchmarks/dto/benchmark.dto.js';
+import type { PracticeResultsDto } from '../benchmarks/dto/practice-results.dto.js';
+import { PracticeResultsService } from '../benchmarks/practice-results.service.js';
+import { ProblemException } from '../common/problem.js';
+import type { MeasureSetUseDto } from '../measure-sets/dto/measure-set.dto.js';
+import { MeasureSetUsage } from '../measure-sets/measure-set-usage.js';
+import type { PracticeDto } from '../organisations/dto/practice.dto.js';
+import { CLINICAL_CAUTION } from '../organisations/organisations.service.js';
+import type { QuarterReportDto } from '../quarters/dto/quarter.dto.js';
+import { QuarterReports } from '../quarters/quarter-reports.js';
+import { QuartersService } from '../quarters/quarters.service.js';
+import type {
+  PeerTableDto,
+  ReportDto,
+  ReportListDto,
+  ReportPracticeDto,
+  ReportRegionDto,
+} from './dto/report.dto.js';
+import { type PeerCounts, practicePeerTable, protectedPeerTable } from './peer-table.js';
+import { ReportRepository, type ReportRow } from './report.repository.js';
+import {
+  canonicalBytes,
+  decodeSnapshot,
+  encodeSnapshot,
+  type ReportSnapshot,
+  SNAPSHOT_FORMAT,
+  type SnapshotPractice,
+} from './snapshot.js';
+
+const SPLITS = ['all', 'type1', 'type2_other'] as const;
+
+/** Decoded snapshots kept in memory (keyed by report id: the bytes never change). */
+const CACHE_ENTRIES = 8;
+
+/** Whose view of a practice's part: its own leads' (disclosure control) or the region's. */
+export type PracticePartView = 'practice-lead' | 'region';
+
+export const reportLabel = (quarterLabel: string, sequence: number) =>
+  `${quarterLabel} · report ${sequence}`;
+
+@Injectable()
+export class ReportsService {
+  private readonly cache = new Map<number, { canonical: Buffer; snapshot: ReportSnapshot }>();
+
+  constructor(
+    @Inject(ReportRepository) private readonly repository: ReportRepository,
+    @Inject(QuartersService) private readonly quarters: QuartersService,
+    @Inject(BenchmarksService) private readonly benchmarks: BenchmarksService,
+    @Inject(PracticeResultsService) private readonly practiceResults: PracticeResultsService,
+    @Inject(AuditTrailService) private readonly audit: AuditTrailService,
+    @Inject(QuarterReports) quarterReports: QuarterReports,
+    @Inject(MeasureSetUsage) usage: MeasureSetUsage,
+  ) {
+    quarterReports.register({ reportsOf: (regionId, ids) => this.quarterReports(regionId, ids) });
+    usage.register({ usesOf: (regionId, ids) => this.measureSetUses(regionId, ids) });
+  }
+
+  // ── publish ──
+
+  /** Freezes the quarter's benchmark of its current submissions into a new report. */
+  async publish(actor: Actor, quarterId: number, releaseNote: string): Promise<ReportDto> {
+    const note = releaseNote.trim();
+    if (note.length === 0) {
+      throw new ProblemException(
+        HttpStatus.BAD_REQUEST,
+        'validation-failed',
+        'The release note is empty',
+        'Write a release note: what readers of this report should know.',
+        { errors: [{ field: 'releaseNote', message: 'releaseNote must not be blank' }] },
+      );
+    }
+    const quarter = await this.quarters.get(actor, quarterId);
+    const { meta, body } = await this.figures(actor, quarter.id);
+    const id = await this.repository.transaction(async (transaction) => {
+      const earlier = await this.repository.ofQuarterForUpdate(quarter.id, transaction);
+      const sequence = earlier.reduce((max, r) => Math.max(max, r.sequence), 0) + 1;
+      const publishedAt = new Date();
+      const snapshot: ReportSnapshot = {
+        ...body,
+        identity: {
+          regionId: quarter.regionId,
+          quarter,
+          sequence,
+          label: reportLabel(quarter.label, sequence),
+          ...meta,
+          publishedAt: publishedAt.toISOString(),
+          publishedBy: { userId: actor.id, name: actor.displayName },
+          releaseNote: note,
+        },
+      };
+      const encoded = encodeSnapshot(snapshot);
+      const id = await this.repository.insert(
+        {
+          regionId: quarter.regionId,
+          quarterId: quarter.id,
+          sequence,
+          measureSetId: snapshot.identity.measureSetId,
+          benchmarkResultId: snapshot.identity.benchmarkResultId,
+          submissionsKey: snapshot.identity.submissionsKey,
+          submissionCount: snapshot.submissions.length,
+          publishedAt,
+          publishedByUserId: actor.id,
+          publishedBy: actor.displayName,
+          releaseNote: note,
+          contentHash: encoded.contentHash,
+          snapshotBytes: encoded.canonical.length,
+          snapshot: encoded.stored,
+        },
+        transaction,
+      );
+      const replaced = earlier.filter((r) => r.status === 'published');
+      for (const r of replaced) {
+        await this.repository.markReplaced(r.id, id, publishedAt, transaction);
+      }
+      await this.audit.append(
+        {
+          action: 'report.published',
+          summary: `${actor.displayName} published ${snapshot.identity.label} (${snapshot.submissions.length} practices)${
+            replaced.length > 0
+              ? `, replacing ${replaced.map((r) => reportLabel(quarter.label, r.sequence)).join(', ')}`
+              : ''
+          }`,
+          actor,
+          regionId: quarter.regionId,
+          subjectType: 'report',
+          subjectId: id,
+          detail: {
+            quarterId: quarter.id,
+            contentHash: encoded.contentHash,
+            replaced: replaced.map((r) => r.id),
+          },
+          requestId: actor.requestId,
+          ipAddress: actor.ipAddress,
+        },
+        transaction,
+      );
+      return id;
+    });
+    return this.get(actor, id);
+  }
+
+  /** Every figure of the quarter's benchmark now, checked to come from one stored result. */
+  private async figures(actor: Actor, quarterId: number) {
+    const splits: RegionBenchmarkDto[] = [];
+    for (const split of SPLITS) {
+      splits.push(await this.benchmarks.region(actor, quarterId, { split }));
+    }
+    const all = splits[0]!;
+    if (all.state !== 'results' || !all.builtFrom) {
+      throw new ProblemException(
+        HttpStatus.CONFLICT,
+        'nothing-to-publish',
+        'Nothing to publish yet',
+        `${all.quarter.label} has no confirmed extract yet, so it has no benchmark to publish. A report can be published once at least one practice's extract is confirmed.`,
+      );
+    }
+    const resultId = all.builtFrom.resultId;
+    const funnels = [];
+    const trends = [];
+    for (const m of all.measures) {
+      funnels.push(await this.benchmarks.funnel(actor, quarterId, m.key, 'all'));
+      trends.push(await this.benchmarks.trend(actor, quarterId, { measure: m.key, split: 'all' }));
+    }
+    const countsOf = (measureIndex: number): PeerCounts[] =>
+      all.practices.map((p) => ({
+        practice: p.practice,
+        events: p.cells[measureIndex]!.events,
+        n: p.cells[measureIndex]!.n,
+      }));
+    const practices: SnapshotPractice[] = [];
+    for (const p of all.practices) {
+      const full = frozen(await this.practiceResults.results(actor, p.practice.id, quarterId));
+      const disclosed = frozen(
+        await this.practiceResults.results(
+          practiceReader(actor, p.practice.id),
+          p.practice.id,
+          quarterId,
+        ),
+      );
+      const peers = all.measures.map((m, i) => {
+        const counts = countsOf(i);
+        const own = counts.find((c) => c.practice.id === p.practice.id)!;
+        return practicePeerTable(
+          m.key,
+          'all',
+          own,
+          counts.filter((c) => c !== own),
+        );
+      });
+      practices.push({
+        practice: p.practice,
+        submissionId: p.submissionId,
+        full,
+        disclosed,
+        peers,
+      });
+    }
+    const built = [
+      ...splits.map((s) => s.builtFrom?.resultId),
+      ...funnels.map((f) => f.builtFrom?.resultId),
+      ...practices.flatMap((p) => [p.full.builtFrom?.resultId, p.disclosed.builtFrom?.resultId]),
+    ];
+    if (built.some((id) => id !== resultId)) {
+      throw new ProblemException(
+        HttpStatus.CONFLICT,
+        'benchmark-changed',
+        'The benchmark changed while publishing',
+        `An extract for ${all.quarter.label} was confirmed while the report was being frozen, so its figures would not all come from one set of submissions. Nothing was published: review the benchmark and publish again.`,
+      );
+    }
+    const peerTables: PeerTableDto[] = all.measures.map((m, i) =>
+      protectedPeerTable(m.key, 'all', countsOf(i)),
+    );
+    const meta = {
+      measureSetId: all.measureSetId,
+      benchmarkResultId: resultId,
+      submissionsKey: all.builtFrom.submissionsKey,
+    };
+    const body: Omit<ReportSnapshot, 'identity'> = {
+      format: SNAPSHOT_FORMAT,
+      submissions: all.practices.map((p) => ({
+        practiceId: p.practice.id,
+        code: p.practice.code,
+        submissionId: p.submissionId,
+      })),
+      region: { splits, funnels, trends, peerTables },
+      practices,
+      caution: CLINICAL_CAUTION,
+    };
+    return { meta, body };
+  }
+
+  // ── read ──
+
+  async list(actor: Actor, quarterId?: number): Promise<ReportListDto> {
+    if (quarterId !== undefined) await this.quarters.get(actor, quarterId);
+    const rows = await this.repository.list(
+      actor.regionId,
+      quarterId === undefined ? undefined : [quarterId],
+    );
+    const reports: ReportDto[] = [];
+    for (const row of rows) reports.push(await this.dto(actor, row));
+    return { reports };
+  }
+
+  async get(actor: Actor, id: number): Promise<ReportDto> {
+    return this.dto(actor, await this.row(actor, id));
+  }
+
+  /** The region's part of a report (regional leads and auditors: the route declares them). */
+  async region(actor: Actor, id: number): Promise<ReportRegionDto> {
+    const row = await this.readable(actor, id);
+    const { snapshot } = await this.snapshot(row);
+    return {
+      report: await this.dto(actor, row),
+      splits: snapshot.region.splits,
+      funnels: snapshot.region.funnels,
+      trends: snapshot.region.trends,
+      peerTables: snapshot.region.peerTables,
+      caution: snapshot.caution,
+    };
+  }
+
+  /** One practice's part of a report as this reader may see it (the route scopes the practice). */
+  async practice(actor: Actor, id: number, practiceId: number): Promise<ReportPracticeDto> {
+    const row = await this.readable(actor, id);
+    const view: PracticePartView = actor.role === 'practice_lead' ? 'practice-lead' : 'region';
+    return this.part(actor, row, practiceId, view);
+  }
+
+  /**
+   * One practice's part of a report, for another module acting for Cairn (a digest): the
+   * practice's leads' view (`practice-lead`: region and peers under disclosure control) or the
+   * region's. 404 report-not-found, 410 report-withdrawn; a practice without results in the
+   * report gets state `not-in-report`.
+   */
+  async practicePart(
+    actor: Actor,
+    id: number,
+    practiceId: number,
+    view: PracticePartView,
+  ): Promise<ReportPracticeDto> {
+    const row = await this.readable(actor, id);
+    return this.part(actor, row, practiceId, view);
+  }
+
+  /** The canonical bytes of a report's snapshot (checked against its hash). */
+  async canonical(actor: Actor, id: number): Promise<{ row: ReportRow; canonical: Buffer }> {
+    const row = await this.row(actor, id);
+    return { row, canonical: (await this.snapshot(row)).canonical };
+  }
+
+  /** The decoded snapshot of a readable (not withdrawn) report, with its row. */
+  async snapshotOf(
+    actor: Actor,
+    id: number,
+  ): Promise<{ row: ReportRow; snapshot: ReportSnapshot }> {
+    const row = await this.readable(actor, id);
+    return { row, snapshot: (await this.snapshot(row)).snapshot };
+  }
+
+  private async part(
+    actor: Actor,
+    row: ReportRow,
+    practiceId: number,
+    view: PracticePartView,
+  ): Promise<ReportPracticeDto> {
+    const { snapshot } = await this.snapshot(row);
+    const report = await this.dto(actor, row);
+    const found = snapshot.practices.find((p) => p.practice.id === practiceId);
+    if (!found) {
+      const missing = snapshot.region.splits[0]?.coverage.missing.find((p) => p.id === practiceId);
+      if (!missing) {
+        throw new ProblemException(
+          HttpStatus.NOT_FOUND,
+          'practice-not-in-report',
+          'The practice is not in this report',
+          `Practice ${practiceId} was not a practice of the region when ${report.label} was published.`,
+        );
+      }
+      return {
+        report,
+        practice: missing,
+        state: 'not-in-report',
+        message: `${missing.code} had no confirmed extract for ${snapshot.identity.quarter.label} when this report was published, so the report has no results for it.`,
+        results: null,
+        peers: [],
+        caution: snapshot.caution,
+      };
+    }
+    return {
+      report,
+      practice: found.practice,
+      state: 'results',
+      message: null,
+      results: view === 'practice-lead' ? found.disclosed : found.full,
+      peers: found.peers,
+      caution: snapshot.caution,
+    };
+  }
+
+  // ── withdraw ──
+
+  async withdraw(actor: Actor, id: number, reason: string): Promise<ReportDto> {
+    const text = reason.trim();
+    if (text.length === 0) {
+      throw new ProblemException(
+        HttpStatus.BAD_REQUEST,
+        'validation-failed',
+        'The reason is empty',
+        'Say why the report is withdrawn: readers see the reason in its place.',
+        { errors: [{ field: 'reason', message: 'reason must not be blank' }] },
+      );
+    }
+    await this.repository.transaction(async (transaction) => {
+      const row = await this.repository.get(id, transaction);
+      if (!row || row.regionId !== actor.regionId) throw notFound(id);
+      if (row.status === 'withdrawn') {
+        throw new ProblemException(
+          HttpStatus.CONFLICT,
+          'report-withdrawn',
+          'Already withdrawn',
+          `${reportLabel(await this.quarterLabel(actor, row), row.sequence)} was withdrawn on ${row.withdrawnAt} by ${row.withdrawnBy}: ${row.withdrawnReason}`,
+        );
+      }
+      await this.repository.withdraw(
+        id,
+        { at: new Date(), userId: actor.id, by: actor.displayName, reason: text },
+        transaction,
+      );
+      await this.audit.append(
+        {
+          action: 'report.withdrawn',
+          summary: `${actor.displayName} withdrew report ${id}: ${text}`,
+          actor,
+          regionId: row.regionId,
+          subjectType: 'report',
+          subjectId: id,
+          detail: { reason: text, contentHash: row.contentHash },
+          requestId: actor.requestId,
+          ipAddress: actor.ipAddress,
+        },
+        transaction,
+      );
+    });
+    return this.get(actor, id);
+  }
+
+  // ── pieces ──
+
+  private async row(actor: Pick<Actor, 'regionId'>, id: number): Promise<ReportRow> {
+    const row = Number.isSafeInteger(id) ? await this.repository.get(id) : null;
+    if (!row || row.regionId !== actor.regionId) throw notFound(id);
+    return row;
+  }
+
+  /** A report whose figures may be read: not withdrawn (410 with the tombstone otherwise). */
+  private async readable(actor: Actor, id: number): Promise<ReportRow> {
+    const row = await this.row(actor, id);
+    if (row.status === 'withdrawn') {
+      throw new ProblemException(
+        HttpStatus.GONE,
+        'report-withdrawn',
+        'This report was withdrawn',
+        `Withdrawn on ${row.withdrawnAt} by ${row.withdrawnBy}: ${row.withdrawnReason}`,
+        {
+          withdrawal: { at: row.withdrawnAt, by: row.withdrawnBy, reason: row.withdrawnReason },
+        },
+      );
+    }
+    return row;
+  }
+
+  private async snapshot(row: ReportRow): Promise<{ canonical: Buffer; snapshot: ReportSnapshot }> {
+    const cached = this.cache.get(row.id);
+    if (cached) return cached;
+    const stored = await this.repository.snapshot(row.id);
+    if (!stored) throw notFound(row.id);
+    const canonical = canonicalBytes(stored, row.contentHash);
+    const entry = { canonical, snapshot: decodeSnapshot(canonical) };
+    if (this.cache.size >= CACHE_ENTRIES) {
+      this.cache.delete(this.cache.keys().next().value!);
+    }
+    this.cache.set(row.id, entry);
+    return entry;
+  }
+
+  private async quarterLabel(actor: Pick<Actor, 'regionId'>, row: ReportRow): Promise<string> {
+    return (await this.quarters.get(actor, row.quarterId)).label;
+  }
+
+  private async dto(actor: Actor, row: ReportRow): Promise<ReportDto> {
+    const quarterLabel = await this.quarterLabel(actor, row);
+    const region = actor.role === 'regional_lead' || actor.role === 'auditor';
+    let practices: PracticeDto[] = [];
+    if (row.status !== 'withdrawn') {
+      const { snapshot } = await this.snapshot(row);
+      const all = [
+        ...snapshot.practices.map((p) => p.practice),
+        ...(snapshot.region.splits[0]?.coverage.missing ?? []),
+      ].sort((a, b) => (a.code < b.code ? -1 : a.code > b.code ? 1 : 0));
+      practices = region ? all : all.filter((p) => actor.practiceIds.includes(p.id));
+    }
+    const replacedBy = row.replacedById ? await this.repository.get(row.replacedById) : null;
+    return {
+      id: row.id,
+      label: reportLabel(quarterLabel, row.sequence),
+      sequence: row.sequence,
+      quarterId: row.quarterId,
+      quarterLabel,
+      measureSetId: row.measureSetId,
+      status: row.status,
+      publishedAt: row.publishedAt,
+      publishedBy: row.publishedBy,
+      releaseNote: row.releaseNote,
+      contentHash: row.contentHash,
+      submissionCount: row.submissionCount,
+      replacedBy: replacedBy
+        ? { id: replacedBy.id, label: reportLabel(quarterLabel, replacedBy.sequence) }
+        : null,
+      withdrawal:
+        row.status === 'withdrawn'
+          ? { at: row.withdrawnAt!, by: row.withdrawnBy!, reason: row.withdrawnReason! }
+          : null,
+      permalink: `/reports/${row.id}`,
+      practices,
+      actions: {
+        withdraw: actor.role === 'regional_lead' && row.status !== 'withdrawn',
+        region: region && row.status !== 'withdrawn',
+      },
+    };
+  }
+
+  private async quarterReports(
+    regionId: number,
+    quarterIds: readonly number[],
+  ): Promise<Map<number, QuarterReportDto[]>> {
+    const out = new Map<number, QuarterReportDto[]>();
+    const rows = await this.repository.list(regionId, quarterIds);
+    const labels = new Map<number, string>();
+    for (const row of rows) {
+      if (!labels.has(row.quarterId)) {
+        labels.set(row.quarterId, (await this.quarters.get({ regionId }, row.quarterId)).label);
+      }
+      const list = out.get(row.quarterId) ?? [];
+      list.push({
+        id: row.id,
+        label: reportLabel(labels.get(row.quarterId)!, row.sequence),
+        status: row.status,
+        publishedAt: row.publishedAt,
+      });
+      out.set(row.quarterId, list);
+    }
+    return out;
+  }
+
+  private async measureSetUses(
+    regionId: number,
+    ids: readonly string[],
+  ): Promise<Map<string, MeasureSetUseDto[]>> {
+    const out = new Map<string, MeasureSetUseDto[]>();
+    const labels = new Map<number, string>();
+    for (const row of await this.repository.usingMeasureSets(regionId, ids)) {
+      if (!labels.has(row.quarterId)) {
+        labels.set(row.quarterId, (await this.quarters.get({ regionId }, row.quarterId)).label);
+      }
+      const list = out.get(row.measureSetId) ?? [];
+      list.push({
+        kind: 'report',
+        id: row.id,
+        label: reportLabel(labels.get(row.quarterId)!, row.sequence),
+        status: row.status,
+      });
+      out.set(row.measureSetId, list);
+    }
+    return out;
+  }
+}
+
+const notFound = (id: number) =>
+  new ProblemException(
+    HttpStatus.NOT_FOUND,
+    'report-not-found',
+    'No such report',
+    `Your region has no report ${id}.`,
+  );
+
+/** A practice's results as frozen in a report: nothing to act on. */
+function frozen(results: PracticeResultsDto): PracticeResultsDto {
+  return { ...results, actions: { upload: false, uploadPath: null } };
+}
+
+/** How a lead of this practice (and no other) reads its results: under disclosure control. */
+function practiceReader(actor: Actor, practiceId: number): Actor {
+  return { ...actor, role: 'practice_lead', practiceIds: [practiceId] };
+}
