@@ -139,8 +139,9 @@ function DigestsScreen() {
               <tr>
                 <th scope="row">Attachment</th>
                 <td>
-                  {preview.data.attachment.filename} (
-                  {Math.ceil(preview.data.attachment.bytes / 1024)} kB)
+                  {preview.data.attachment
+                    ? `${preview.data.attachment.filename} (${Math.ceil(preview.data.attachment.bytes / 1024)} kB)`
+                    : 'None: the practice has no figures in this report'}
                 </td>
               </tr>
             </tbody>
