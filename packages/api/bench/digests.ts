@@ -4,7 +4,8 @@
  * last two audit quarters loaded through the upload → check → confirm
  * pipeline:
  *
- *  - composing: each practice's digest for the latest quarter composed through
+ *  - composing: each practice's digest of the latest quarter's report (published
+ *    here) composed through
  *    the registered composer, as the outbox worker does (its results read, the
  *    content, both parts and its figures workbook): the median of the first
  *    composition per practice (nothing cached) and of a further one for another
@@ -133,6 +134,12 @@ async function main(): Promise<void> {
       'SELECT id, region_id FROM audit_quarters ORDER BY year DESC, quarter DESC LIMIT 1',
       { type: QueryTypes.SELECT },
     );
+    // The latest quarter published as a report: digests are made from it.
+    const { ReportsService } = await fromDist('reports/reports.service.js');
+    const { systemActor } = await fromDist('auth/actor.js');
+    const report = await bench.app
+      .get(ReportsService)
+      .publish(systemActor('benchmark', quarter!.region_id), quarter!.id, 'Benchmark report.');
     const practices = await bench.db.query<{ id: number }>(
       'SELECT id FROM practices WHERE active = 1 ORDER BY id',
       { type: QueryTypes.SELECT },
@@ -141,7 +148,7 @@ async function main(): Promise<void> {
     // ── composing ──
     const row = (practiceId: number, i: number) => ({
       kind: 'digest',
-      source_id: quarter!.id,
+      source_id: report.id,
       practice_id: practiceId,
       region_id: quarter!.region_id,
       recipient_address: `reader${i}@bench.example`,
@@ -195,7 +202,7 @@ async function main(): Promise<void> {
         await outbox.queue(
           {
             kind: 'digest',
-            sourceId: quarter!.id,
+            sourceId: report.id,
             regionId: quarter!.region_id,
             practiceId: practice.id,
             recipients: perPractice.get(practice.id) ?? [],
