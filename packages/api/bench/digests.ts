@@ -120,6 +120,7 @@ async function main(): Promise<void> {
     },
   }));
   const subset = demoSubset();
+  const opened: { close(): Promise<void> }[] = [];
   let missed = false;
   try {
     const { ingestDemoExtracts } = await fromDist('submissions/demo-ingest.js');
@@ -127,9 +128,21 @@ async function main(): Promise<void> {
     console.log(
       `  loaded ${loaded.extracts} demo extracts of ${loaded.quarters} quarters (${loaded.records} records) in ${loaded.seconds.toFixed(0)} s`,
     );
+    // The loading closed the connection the models were bound to: a fresh API process's app
+    // (this process's first one is closed, so that one outbox sends).
+    await bench.app.close();
+    const { createApp } = await fromDist('app.factory.js');
+    const { createRootLogger } = await fromDist('common/logger.js');
+    const app = await createApp({
+      config: bench.config,
+      secrets: bench.secrets,
+      logger: createRootLogger('silent'),
+    });
+    await app.init();
+    opened.push(app);
     const { MailComposers } = await fromDist('mail/mail-composers.js');
     const { OutboxService } = await fromDist('mail/outbox.service.js');
-    const composer = bench.app.get(MailComposers).get('digest');
+    const composer = app.get(MailComposers).get('digest');
     const [quarter] = await bench.db.query<{ id: number; region_id: number }>(
       'SELECT id, region_id FROM audit_quarters ORDER BY year DESC, quarter DESC LIMIT 1',
       { type: QueryTypes.SELECT },
@@ -137,7 +150,7 @@ async function main(): Promise<void> {
     // The latest quarter published as a report: digests are made from it.
     const { ReportsService } = await fromDist('reports/reports.service.js');
     const { systemActor } = await fromDist('auth/actor.js');
-    const report = await bench.app
+    const report = await app
       .get(ReportsService)
       .publish(systemActor('benchmark', quarter!.region_id), quarter!.id, 'Benchmark report.');
     const practices = await bench.db.query<{ id: number }>(
@@ -188,7 +201,7 @@ async function main(): Promise<void> {
         { address: `reader${i}@bench.example`, name: `Reader ${i}`, userId: null },
       ]);
     }
-    const outbox = bench.app.get(OutboxService);
+    const outbox = app.get(OutboxService);
     const sent = async () => {
       const [r] = await bench.db.query<{ n: number }>(
         "SELECT COUNT(*) AS n FROM outbox_messages WHERE kind = 'digest' AND state = 'sent'",
@@ -241,6 +254,7 @@ async function main(): Promise<void> {
     }
   } finally {
     rmSync(subset, { recursive: true, force: true });
+    for (const app of opened) await app.close();
     await bench.close();
     await server.close();
   }
