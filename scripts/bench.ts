@@ -5,6 +5,7 @@
  *   - @cairn/api: extract ingest vs LOAD DATA LOCAL INFILE and a bare exceljs read
  *   - @cairn/api: 500 mails with attachments through the outbox vs nodemailer's pool alone
  *   - @cairn/api: composing a practice's digest, and 500 digests with their workbooks through the outbox
+ *   - @cairn/web: region benchmark page, funnel points visible after navigation; initial JS
  * The ingest benchmark uses the disposable test MariaDB (never the demo data).
  * Exit code 1 when any benchmark misses a target.
  */
@@ -62,6 +63,15 @@ async function main(): Promise<void> {
       outcomes.push([
         'digests',
         await runInherit('npm', ['run', 'bench:digests', '-w', '@cairn/api'], {
+          cwd: ctx.root,
+          env: ctx.childEnv,
+        }),
+      ]);
+      buildIfStale(ctx.root, buildTargets[2]!);
+      log.step('── @cairn/web region benchmark page ──');
+      outcomes.push([
+        'web',
+        await runInherit('npx', ['tsx', 'tests/bench/web.ts'], {
           cwd: ctx.root,
           env: ctx.childEnv,
         }),

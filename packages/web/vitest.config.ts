@@ -9,6 +9,7 @@ export default mergeConfig(
       include: ['src/**/*.test.{ts,tsx}', 'test/**/*.test.{ts,tsx}'],
       setupFiles: ['./test/setup.ts'],
       css: false,
+      testTimeout: 20_000,
     },
   }),
 );

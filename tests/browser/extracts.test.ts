@@ -290,7 +290,7 @@ describe('extracts in the browser', () => {
     await signIn('Tobias Renwick');
     expect(
       await page.getByRole('navigation', { name: 'Main' }).getByRole('link').allTextContents(),
-    ).toEqual(['Home', 'Coverage', 'Audit trail']);
+    ).toEqual(['Home', 'Benchmark', 'Coverage', 'Quarters', 'Measure sets', 'Audit trail']);
     await nav(page, 'Coverage').click();
     await page
       .locator('tr[data-practice="OV102"]')

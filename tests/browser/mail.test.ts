@@ -2,7 +2,7 @@
  * Mail as its users meet it, in headless Chromium against the built app and
  * the local fakes (mail capture included): the regional lead adds extra
  * addresses for two practices (one the capture refuses), opens an audit
- * quarter whose deadline is three days away, and follows the delivery page:
+ * quarter whose deadline falls inside the reminder window, and follows the delivery page:
  * the opening messages and the reminders, the refusal with the server's reply,
  * sending it again. The captured mail: the mailbox lists the opening message
  * and a reminder; one delivered message is opened from the mailbox and its
@@ -30,6 +30,14 @@ interface Captured {
 const inDays = (days: number) =>
   new Date(Date.now() + days * 86_400_000).toISOString().slice(0, 10);
 
+// 2026 Q4's deadline must fall after the quarter ends (31 December 2026); three days away when
+// that allows, else the first days of 2027, with the reminder window stretched to reach today.
+const q4Deadline = [inDays(3), '2027-01-04'].sort().at(-1)!;
+const reminderDays = Math.min(
+  60,
+  Math.max(7, Math.ceil((Date.parse(`${q4Deadline}T00:00:00Z`) - Date.now()) / 86_400_000) + 1),
+);
+
 function header(raw: string, name: string): string | null {
   const head = raw.split(/\r?\n\r?\n/)[0]!.replace(/\r?\n[ \t]+/g, ' ');
   return new RegExp(`^${name}:\\s*(.*)$`, 'im').exec(head)?.[1]?.trim() ?? null;
@@ -40,7 +48,9 @@ describe('mail in the browser', () => {
   let browser: BrowserSession;
 
   beforeAll(async () => {
-    server = await startCairn();
+    server = await startCairn({
+      env: { CAIRN_MAIL_REMINDERS_DAYS_BEFORE_DEADLINE: String(reminderDays) },
+    });
     browser = await openBrowser();
   });
   afterAll(async () => {
@@ -127,7 +137,7 @@ describe('mail in the browser', () => {
         body: JSON.stringify({ year: 2026, quarter: 4, submissionDeadline: deadline }),
       });
       return { status: res.status, body: (await res.json()) as { id: number } };
-    }, inDays(3));
+    }, q4Deadline);
     expect(opened.status).toBe(201);
 
     // Reachable leads: Priya (OV102), Daniel (OV101, OV103), Ruth (OV201); extras for OV102 and

@@ -588,6 +588,23 @@ async function streamRead(
   }
 }
 
+/** The reference read alone (months as strings, nothing done with the rows): seconds and rows. */
+export function referenceRead(
+  config: CairnConfig,
+  secrets: CairnSecrets,
+  data: BenchData,
+): Promise<ReadResult> {
+  return streamRead(
+    config,
+    secrets,
+    data.variant,
+    data.quarterId,
+    'months as strings (reference)',
+    false,
+    null,
+  );
+}
+
 /** The three reads, each after an untimed warm-up read of the same rows. */
 /** Runs of each read; every run's time is printed beside the median (this machine is noisy). */
 export const READ_RUNS = 3;

@@ -14,7 +14,13 @@
  *   5. (not with --quick, unless --national is given) national- and
  *      region-size data in the test MariaDB, generated once and reused, and a
  *      bare streamed SELECT of a quarter's current records
- *      (bench/national-data.ts): figures, no target yet.
+ *      (bench/national-data.ts): figures, no target yet;
+ *   6. (as 5) results and benchmarks on the same data (bench/results.ts): a
+ *      full recompute from records ≤ 1.5 × that SELECT at national size and
+ *      ≤ 1 s at region size; one more practice confirming → the new result
+ *      served ≤ 1 s later at national size;
+ *   7. (as 5) the region benchmark and practice results routes of the demo
+ *      region under 50 connections (bench/http.ts): p95 ≤ 50 ms, no errors.
  *
  * Targets: CSV ≥ 0.5 × LOAD DATA rows/s; XLSX ≥ 0.8 × bare exceljs rows/s.
  * Each of 1 and 2, ours and the reference alike, is the median of RUNS runs
@@ -370,6 +376,22 @@ async function main(): Promise<void> {
     );
     const { runNationalBench } = await import('./national-data.js');
     await runNationalBench();
+
+    // 6. Results and benchmarks on the same data (bench/results.ts): full recompute from records
+    // against the reference read, and one more practice confirming → the new result served.
+    console.log('');
+    console.log(
+      'Results and benchmarks: full recompute from records, and a confirm reflected in the region',
+    );
+    const { runResultsBench } = await import('./results.js');
+    const { loadConfig, loadSecrets } = await import('../src/config/load-config.js');
+    if (!(await runResultsBench(loadConfig({ profile: 'test' }), loadSecrets()))) failed = true;
+
+    // 7. The results routes under load over loopback, on the demo region (bench/http.ts).
+    console.log('');
+    console.log('Results routes under load: autocannon over the demo region');
+    const { runHttpBench } = await import('./http.js');
+    if (!(await runHttpBench(loadConfig({ profile: 'test' }), loadSecrets()))) failed = true;
   }
   process.exitCode = failed ? 1 : 0;
 }

@@ -7,6 +7,7 @@ import { ConfigService } from '@nestjs/config';
 import { NestFactory } from '@nestjs/core';
 import type { NestExpressApplication } from '@nestjs/platform-express';
 import { SwaggerModule } from '@nestjs/swagger';
+import type { NextFunction, Request, Response } from 'express';
 import helmet from 'helmet';
 import type { Logger } from 'pino';
 import { type AppModuleOptions, AppModule } from './app.module.js';
@@ -65,6 +66,12 @@ export function configureApp(app: INestApplication, config: CairnConfig, logger:
       crossOriginEmbedderPolicy: false,
     }),
   );
+  // No API answer is kept by the browser or a proxy: most hold records or who is signed in, and a
+  // shared computer's cache must not keep them after sign-out. (The web's files are cached.)
+  app.use('/api', (_req: Request, res: Response, next: NextFunction) => {
+    res.setHeader('Cache-Control', 'no-store');
+    next();
+  });
   // Sessions in MariaDB, before any route (see auth/session-store.ts).
   installSessions(app, config);
   app.setGlobalPrefix('api');

@@ -10,6 +10,10 @@
  *   node packages/api/dist/cli.js add-user --region NORTH --email lead@example.org --name "A Lead" \
  *        --role regional_lead|auditor|practice_lead [--practices P1,P2]
  *                                                      a new deployment's first region and first users
+ *   node packages/api/dist/cli.js recompute --region NORTH [--quarter "2026 Q3"]
+ *                                                      every current submission's sums and the benchmark
+ *                                                      of each quarter (or the one named) computed again
+ *                                                      from the records and stored
  */
 import 'reflect-metadata';
 import { join, resolve } from 'node:path';
@@ -18,6 +22,7 @@ import { connect, createDatabase, dropTestDatabase } from './database/connect.js
 import { migrateUp } from './database/migrator.js';
 import { readDemoOrganisation, seedDemoOrganisation } from './organisations/demo-seed.js';
 import { ingestDemoExtracts } from './submissions/demo-ingest.js';
+import { recomputeResults } from './benchmarks/recompute-command.js';
 import { addRegion, addUser, flags, OperatorError } from './users/operator-commands.js';
 
 const quietLogger = { info: () => {}, debug: () => {}, warn: console.warn, error: console.error };
@@ -88,10 +93,27 @@ async function main(): Promise<void> {
         console.log(`${f.email} added as ${f.role} (user id ${id}); they can now sign in`);
         break;
       }
+      case 'recompute': {
+        const f = flags(args);
+        if (!f.region) throw new OperatorError('recompute needs --region CODE');
+        const done = await recomputeResults(config, secrets, {
+          region: f.region,
+          quarter: f.quarter,
+        });
+        for (const q of done) {
+          console.log(
+            q.submissions === 0
+              ? `${q.quarter}: no accepted submissions, nothing to compute`
+              : `${q.quarter}: ${q.submissions} submissions recomputed from their records under ${q.measureSetId} in ${q.seconds.toFixed(2)} s; stored result ${q.resultId} ${q.sameAsStored ? 'agrees byte for byte' : 'DIFFERS from the recompute'}`,
+          );
+          if (!q.sameAsStored) process.exitCode = 1;
+        }
+        break;
+      }
       default:
         console.error(
           'usage: cli.js migrate [--create] | seed-demo <folder> | drop-test-database | add-region --code C --name N | ' +
-            'add-user --region C --email E --name N --role R [--practices P1,P2]',
+            'add-user --region C --email E --name N --role R [--practices P1,P2] | recompute --region C [--quarter "YYYY Qn"]',
         );
         process.exitCode = 2;
     }

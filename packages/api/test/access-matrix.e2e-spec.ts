@@ -85,8 +85,8 @@ function observed(res: {
 /**
  * Hand-written expectations for the sign-in, users, audit-trail, measure-set, audit-quarter and
  * recall-list routes (a cross-check of the rule above).
- * Hand-written expectations for the sign-in, users, audit-trail, measure-set, recall-list and
- * mail routes (a cross-check of the rule above).
+ * Hand-written expectations for the sign-in, users, audit-trail, measure-set, recall-list,
+ * results, benchmark and mail routes (a cross-check of the rule above).
  */
 const A = 'allowed';
 const U = '401 sign-in-required';
@@ -226,6 +226,33 @@ const handWritten: Record<string, Record<Caller, string>> = {
       },
     ]),
   ),
+  // Results and benchmarks: the region's figures for the regional lead and the auditor; a
+  // practice's results for its own leads too, never for a lead of another practice.
+  ...Object.fromEntries(
+    [
+      'GET /api/quarters/:quarterId/benchmark',
+      'GET /api/quarters/:quarterId/benchmark/measures/:measureKey',
+      'GET /api/quarters/:quarterId/benchmark/trend',
+    ].map((route) => [
+      route,
+      {
+        anonymous: U,
+        'lead of practice': R,
+        'lead of another': R,
+        'regional lead': A,
+        auditor: A,
+        deactivated: U,
+      },
+    ]),
+  ),
+  'GET /api/practices/:practiceId/quarters/:quarterId/results': {
+    anonymous: U,
+    'lead of practice': A,
+    'lead of another': '403 practice-not-yours',
+    'regional lead': A,
+    auditor: A,
+    deactivated: U,
+  },
   ...Object.fromEntries(
     [
       'GET /api/mail/deliveries',
@@ -507,5 +534,5 @@ describe('access matrix', () => {
     expect(mismatches).toEqual([]);
     for (const key of Object.keys(handWritten))
       expect(rows.some((r) => r.startsWith(`| ${key} |`))).toBe(true);
-  });
+  }, 300_000); // every route × caller, one request each: a few hundred requests in sequence
 });

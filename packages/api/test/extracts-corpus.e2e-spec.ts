@@ -27,12 +27,18 @@ import {
   xlsxOf,
 } from './extracts-fixtures/rows.js';
 import { alterSheet, alterWorkbook, buildZip } from './extracts-fixtures/zip.js';
+import { encryptXlsx, wordDocument, xlsWorkbook } from './extracts-fixtures/compound.js';
 import { columnLetter } from '../src/submissions/format/header.js';
 
 const BOMB_CAP = 8 * 1024 * 1024;
 
 interface Expect {
-  refusal?: { code: string; message: string; fix?: string };
+  refusal?: {
+    code: string;
+    message: string;
+    fix?: string;
+    problems?: { code: string; title: string; message: string; fix: string }[];
+  };
   issue?: {
     row: number | null;
     code: string;
@@ -63,11 +69,6 @@ const withRow = (overrides: Row, n = 5) => {
 };
 const csvCase = (overrides: Row) => () => ({ buf: csvOf(withRow(overrides)), name: 'extract.csv' });
 
-function cfb(extra: Buffer): Buffer {
-  const head = Buffer.from([0xd0, 0xcf, 0x11, 0xe0, 0xa1, 0xb1, 0x1a, 0xe1]);
-  return Buffer.concat([head, Buffer.alloc(504), extra, Buffer.alloc(1024, 7)]);
-}
-
 function tenDigitModulus11(i: number): string {
   for (let k = 0; ; k++) {
     const nine = String(400_000_000 + i * 97 + k).padStart(9, '0');
@@ -97,7 +98,7 @@ const cases: Case[] = [
   },
   {
     name: 'an Excel 97–2003 workbook (.xls)',
-    file: () => ({ buf: cfb(Buffer.from('Workbook', 'utf16le')), name: 'extract.xls' }),
+    file: () => ({ buf: xlsWorkbook(), name: 'extract.xls' }),
     expect: {
       refusal: {
         code: 'save_as_xlsx',
@@ -157,20 +158,34 @@ const cases: Case[] = [
   },
   {
     name: 'a workbook encrypted with a password',
-    file: () => ({
-      buf: cfb(
-        Buffer.concat([
-          Buffer.from('EncryptionInfo', 'utf16le'),
-          Buffer.from('EncryptedPackage', 'utf16le'),
-        ]),
-      ),
-      name: 'extract.xlsx',
-    }),
+    file: async () => ({ buf: encryptXlsx(await xlsxOf(goodRows(3))), name: 'extract.xlsx' }),
     expect: {
       refusal: {
         code: 'encrypted_workbook',
         message: 'The workbook is protected with a password, so Cairn cannot read it.',
         fix: 'In Excel choose File › Info › Protect Workbook › Encrypt with Password, delete the password, save, and upload the file again.',
+      },
+    },
+  },
+  {
+    name: 'an Excel 97–2003 workbook protected with a password',
+    file: () => ({ buf: xlsWorkbook({ password: true, large: true }), name: 'extract.xls' }),
+    expect: {
+      refusal: {
+        code: 'encrypted_workbook',
+        message:
+          'This is an Excel 97–2003 workbook (.xls) protected with a password, so Cairn cannot read it.',
+        fix: 'Open it in Excel with its password, choose File › Info › Protect Workbook › Encrypt with Password and delete the password, then choose File › Save As, pick “Excel Workbook (.xlsx)” or “CSV UTF-8”, and upload that file.',
+      },
+    },
+  },
+  {
+    name: 'a Word 97–2003 document',
+    file: () => ({ buf: wordDocument(), name: 'annual-review.doc' }),
+    expect: {
+      refusal: {
+        code: 'unsupported_file_type',
+        message: '“annual-review.doc” is a Word 97–2003 document, not a spreadsheet or CSV file.',
       },
     },
   },
@@ -241,6 +256,38 @@ const cases: Case[] = [
         message:
           'The file has columns that could identify people: “Patient Name” (column AI, looks like names) and “Postcode” (column AJ, looks like a postcode or ZIP code). Cairn accepts only de-identified data, so the file was not accepted and nothing from it was kept.',
         fix: 'Delete those columns from the file (Cairn needs only the columns of its template) and upload again.',
+      },
+    },
+  },
+  {
+    name: 'a column that identifies people and missing columns, refused for both at once',
+    file: () => ({
+      buf: csvOf(
+        goodRows(3).map((r) => ({ ...r, 'NHS number': '' })),
+        [...HEADINGS.filter((h) => h !== 'sex' && h !== 'bmi_value'), 'NHS number'],
+      ),
+      name: 'extract.csv',
+    }),
+    expect: {
+      refusal: {
+        code: 'identifier_column',
+        message:
+          'The heading row has 2 problems (column that identifies people; required columns missing), so the file was not accepted and nothing from it was kept.',
+        fix: 'Fix each of them as its own note says, then upload the file again; or start from Cairn’s template.',
+        problems: [
+          {
+            code: 'identifier_column',
+            title: 'Column that identifies people',
+            message: `The file has a column that could identify people: “NHS number” (column ${columnLetter(HEADINGS.length - 2)}, looks like a national health or insurance number). Cairn accepts only de-identified data, so the file was not accepted and nothing from it was kept.`,
+            fix: 'Delete that column from the file (Cairn needs only the columns of its template) and upload again.',
+          },
+          {
+            code: 'missing_columns',
+            title: 'Required columns missing',
+            message: 'The file has no columns sex and bmi_value, which Cairn needs.',
+            fix: 'Add the columns with those headings (leave cells blank where nothing was recorded), or start from Cairn’s template.',
+          },
+        ],
       },
     },
   },
@@ -980,7 +1027,7 @@ describe('the bad-file corpus', () => {
     });
     expect(res.body.detail).toMatch(
       new RegExp(
-        `^This file is identical to the extract uploaded on \\d{4}-\\d{2}-\\d{2} \\d{2}:\\d{2} UTC by priya\\.calloway@quarrybank\\.example \\(submission ${baseline.current}\\), which is already the current submission for 2026 Q3\\. Nothing was changed\\.$`,
+        `^This file is identical to the extract uploaded on \\d{4}-\\d{2}-\\d{2} \\d{2}:\\d{2} UTC by Priya Calloway \\(submission ${baseline.current}\\), which is already the current submission for 2026 Q3\\. Nothing was changed\\.$`,
       ),
     );
     expect(await currentState(t, practice, quarter)).toEqual(baseline);

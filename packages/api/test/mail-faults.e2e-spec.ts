@@ -17,11 +17,11 @@ import { mkdirSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { QueryTypes } from 'sequelize';
 import { findRepoRoot } from '../src/config/load-config.js';
+import { defaultDeadline } from '../src/quarters/deadline.js';
 import { startApiProcess } from './support/api-process.js';
 import { seedDemoOrganisation, signInAs } from './support/auth.js';
 import {
   type Capture,
-  q1Deadline2027,
   mailTestApp,
   outboxRows,
   startCapture,
@@ -59,7 +59,7 @@ async function openQuarter(t: TestApp): Promise<number> {
   const lead = await signInAs(t, 'regional_lead');
   const res = await lead
     .post('/api/quarters')
-    .send({ year: 2027, quarter: 1, submissionDeadline: q1Deadline2027() })
+    .send({ year: 2027, quarter: 1, submissionDeadline: defaultDeadline(2027, 1, 45) })
     .expect(201);
   return res.body.id as number;
 }

@@ -45,19 +45,22 @@ describe('session', () => {
     expect(new Headers(callsOf(fetchMock)[1]![1]?.headers).get('X-CSRF-Token')).toBeNull();
   });
 
-  it('shows each role its own navigation: extracts for practice and regional leads, coverage for regional lead and auditor, quarters and measure sets to everyone, Users to the regional lead only', () => {
+  it('shows each role its own navigation: extracts for practice and regional leads, results for practice leads, benchmark and coverage for regional lead and auditor, quarters and measure sets to everyone, Users and Mail to the regional lead only', () => {
     expect(navigationFor(lead).map((i) => i.label)).toEqual([
       'Home',
       'Upload extract',
       'Submissions',
+      'Benchmark',
       'Coverage',
       'Quarters',
       'Measure sets',
       'Users',
+      'Mail',
       'Audit trail',
     ]);
     expect(navigationFor({ ...lead, role: 'auditor' }).map((i) => i.label)).toEqual([
       'Home',
+      'Benchmark',
       'Coverage',
       'Quarters',
       'Measure sets',
@@ -67,6 +70,7 @@ describe('session', () => {
       'Home',
       'Upload extract',
       'Submissions',
+      'Results',
       'Quarters',
       'Measure sets',
     ]);

@@ -33,22 +33,39 @@ describe('web shell', () => {
     expect(await screen.findByRole('heading', { level: 1, name: 'Cairn' })).toBeTruthy();
     expect(await screen.findByText('30 practices in 4 localities take part.')).toBeTruthy();
     expect(screen.getAllByRole('button', { name: /Sign in/ }).length).toBeGreaterThan(0);
-    expect(screen.getAllByText(/not clinical advice/).length).toBeGreaterThan(0);
+    // The caution once on the page (the landing page's own), not again in the footer.
+    expect(screen.getAllByText(/not clinical advice/)).toHaveLength(1);
+    expect(document.title).toBe('Cairn');
+  });
+
+  it('keeps the sign-in page to one way in: no Sign in button in its header', async () => {
+    stubFetch({ '/api/about': { body: about }, '/api/session': { body: { user: null } } });
+    renderApp('/sign-in');
+    expect(await screen.findByRole('heading', { level: 1, name: 'Sign in to Cairn' })).toBeTruthy();
+    expect(screen.getByRole('banner').querySelector('a[href="/sign-in"]')).toBeNull();
+    expect(screen.getAllByRole('heading', { level: 1 })).toHaveLength(1);
+    await waitFor(() => expect(document.title).toBe('Sign in · Cairn'));
   });
 
   it('greets a signed-in practice lead with their role and practices', async () => {
     stubFetch({ '/api/about': { body: about }, '/api/session': { body: { user: practiceLead } } });
     renderApp('/');
-    expect(await screen.findByRole('heading', { name: 'Welcome, Pat Lead' })).toBeTruthy();
-    expect(screen.getByText('Wrenfield Health Centre')).toBeTruthy();
+    expect(
+      await screen.findByRole('heading', { level: 1, name: 'Welcome, Pat Lead' }),
+    ).toBeTruthy();
+    expect(screen.getByRole('heading', { name: /Wrenfield Health Centre/ })).toBeTruthy();
+    await waitFor(() => expect(document.title).toBe('Home · Cairn'));
     expect(screen.getByRole('button', { name: /Sign out/ })).toBeTruthy();
   });
 
   it('renders the 404 page for an unknown route', async () => {
     stubFetch({ '/api/about': { body: about }, '/api/session': { body: { user: null } } });
     renderApp('/nothing/here');
-    expect(await screen.findByText('This page does not exist')).toBeTruthy();
+    expect(
+      await screen.findByRole('heading', { level: 1, name: 'This page does not exist' }),
+    ).toBeTruthy();
     expect(screen.getByText('/nothing/here')).toBeTruthy();
+    await waitFor(() => expect(document.title).toBe('Page not found · Cairn'));
   });
 
   it('explains a failed session check instead of showing a blank page', async () => {

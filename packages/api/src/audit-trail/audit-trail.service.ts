@@ -9,6 +9,7 @@ import type {
   ListAuditEventsQuery,
 } from './dto/audit-event.dto.js';
 import { AuditEvent, type AuditOutcome } from './models/audit-event.model.js';
+import { ACTION_GROUP_LABELS, actionLabel } from './action-labels.js';
 
 export interface AuditEntry {
   action: string;
@@ -102,6 +103,7 @@ export class AuditTrailService {
         id: Number(e.id),
         occurredAt: new Date(e.occurredAt).toISOString(),
         action: e.action,
+        actionLabel: actionLabel(e.action),
         outcome: e.outcome,
         actorUserId: e.actorUserId,
         actorLabel: e.actorLabel,
@@ -126,7 +128,16 @@ export class AuditTrailService {
         WHERE region_id = ? OR region_id IS NULL GROUP BY action ORDER BY action`,
       { replacements: [regionId], type: QueryTypes.SELECT },
     );
-    return rows.map((r) => ({ action: r.action, count: Number(r.count) }));
+    return rows.map((r) => {
+      const group = `${r.action.split('.')[0]}.`;
+      return {
+        action: r.action,
+        label: actionLabel(r.action),
+        group,
+        groupLabel: ACTION_GROUP_LABELS[group] ?? 'Other',
+        count: Number(r.count),
+      };
+    });
   }
 }
 

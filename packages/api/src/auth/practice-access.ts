@@ -12,7 +12,7 @@ import { type AuthUser, canReadPractice, type PracticeRef } from './auth-user.js
 export class PracticeAccess {
   constructor(@Inject(OrganisationsService) private readonly organisations: OrganisationsService) {}
 
-  async find(practiceId: number): Promise<PracticeRef | null> {
+  async find(practiceId: number): Promise<(PracticeRef & { code: string }) | null> {
     return this.organisations.practiceRegion(practiceId);
   }
 
@@ -40,30 +40,32 @@ export class PracticeAccess {
         HttpStatus.BAD_REQUEST,
         'bad-practice-id',
         'Not a practice id',
-        `The practice id in the address must be a whole number; "${String(practiceId)}" is not.`,
+        `The address names a practice by Cairn's number for it, a whole number; "${String(practiceId)}" is not one.`,
       );
     }
     const practice = await this.find(id);
     if (!practice || (practice.regionId !== user.regionId && user.role !== 'practice_lead')) {
+      // The practice's code is not told to someone outside its region: the address is all they gave.
       throw new ProblemException(
         HttpStatus.NOT_FOUND,
         'practice-not-found',
         'No such practice',
-        `There is no practice ${id} in your region.`,
+        'The practice this address names is not one of your region’s practices. The link may be old, or the address mistyped.',
         { practiceId: id },
       );
     }
     if (!canReadPractice(user, practice)) {
+      const own = (await this.organisations.practiceRefs(user.practiceIds)).map((p) => p.code);
       throw new ProblemException(
         HttpStatus.FORBIDDEN,
         'practice-not-yours',
         'Not one of your practices',
         user.role === 'practice_lead'
-          ? `You lead ${user.practiceIds.length === 1 ? 'one practice' : `${user.practiceIds.length} practices`}, and practice ${id} is not among them. Ask your regional lead if you should have access.`
-          : `Practice ${id} belongs to another region.`,
-        { practiceId: id },
+          ? `You lead ${own.length === 1 ? 'one practice' : `${own.length} practices`}${own.length > 0 ? ` (${own.join(', ')})` : ''}, and ${practice.code} is not among them. Ask your regional lead if you should have access.`
+          : `${practice.code} belongs to another region.`,
+        { practiceId: id, practiceCode: practice.code },
       );
     }
-    return practice;
+    return { id: practice.id, regionId: practice.regionId };
   }
 }

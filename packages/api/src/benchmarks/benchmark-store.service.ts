@@ -76,6 +76,38 @@ export function submissionsKey(ids: readonly number[]): string {
 export const byCode = <T extends { code: string }>(a: T, b: T): number =>
   a.code < b.code ? -1 : a.code > b.code ? 1 : 0;
 
+/**
+ * The benchmark and the region's sums of these submissions, whose practices come in code order
+ * (`byCode`): what a stored result holds, whichever way the sums were made.
+ */
+export function resultContent(
+  quarter: Pick<QuarterDto, 'id' | 'year' | 'quarter'>,
+  version: MeasureSetVersion,
+  subjects: readonly (SumsSubject & { practice: Pick<PracticeInfo, 'code' | 'localityCode'> })[],
+  sums: ReadonlyMap<number, PracticeSums>,
+): ResultContent {
+  const ordered = subjects.map((s) => {
+    const own = sums.get(s.submissionId);
+    if (!own) throw new Error(`no sums for submission ${s.submissionId}`);
+    return { code: s.practice.code, locality: s.practice.localityCode, sums: own };
+  });
+  const at = { year: quarter.year, quarter: quarter.quarter };
+  const benchmark = buildBenchmark({
+    practices: ordered,
+    measureSet: sumsLayout(version.compiled),
+    quarter: at,
+  });
+  return {
+    description: {
+      quarterId: quarter.id,
+      measureSetId: version.id,
+      practices: subjects.map((s) => ({ code: s.practice.code, submissionId: s.submissionId })),
+    },
+    benchmark,
+    regionSums: ordered.length > 0 ? mergeSums(ordered.map((o) => o.sums)) : null,
+  };
+}
+
 /** Decoded results kept in memory at most, by the size of their stored bodies. */
 const CACHE_BYTES = 96 * 1024 * 1024;
 
@@ -132,19 +164,19 @@ export class BenchmarkStore {
    * A full recompute from records (a measure-set change, and the check of the incremental
    * path): the sums of every current submission computed again from every current record of
    * the quarter in one streamed read and stored, then the benchmark built and stored. Returns
-   * the result as stored and the bytes this recompute built (equal to the stored ones when the
-   * set was built before).
+   * the result as stored, the bytes this recompute built and the bytes stored under its key
+   * (equal to the built ones, also when the set was built before by the incremental path).
    */
   async recompute(
     quarter: QuarterDto,
-  ): Promise<{ result: QuarterResult | null; body: Buffer | null }> {
+  ): Promise<{ result: QuarterResult | null; body: Buffer | null; stored: Buffer | null }> {
     const version = await this.measureSets.get(quarter.measureSetId);
     const pointers = await this.submissions.currentSet(quarter.id);
-    if (pointers.length === 0) return { result: null, body: null };
+    if (pointers.length === 0) return { result: null, body: null, stored: null };
     const subjects = await this.subjects(quarter, pointers);
     const t0 = performance.now();
     const sums = await this.submissions.recomputeSums(quarter.id, subjects, version, quarter);
-    const content = this.content(quarter, version, subjects, sums);
+    const content = resultContent(quarter, version, subjects, sums);
     const body = encodeResult(content);
     const key = submissionsKey(pointers.map((p) => p.submissionId));
     const row = await this.repository.insert(this.resultKey(quarter, version, key), {
@@ -152,7 +184,17 @@ export class BenchmarkStore {
       body,
       buildMs: performance.now() - t0,
     });
-    return { result: this.remember(row, quarter, version, key, content, body.length), body };
+    const stored = await this.repository.body(row.id);
+    if (stored && !stored.equals(body)) {
+      this.logger.warn(
+        `the stored benchmark ${row.id} (${quarter.label}) differs from a recompute from records`,
+      );
+    }
+    return {
+      result: this.remember(row, quarter, version, key, content, body.length),
+      body,
+      stored,
+    };
   }
 
   private resultKey(quarter: QuarterDto, version: MeasureSetVersion, key: string) {
@@ -240,35 +282,6 @@ export class BenchmarkStore {
       .sort((a, b) => byCode(a.practice, b.practice));
   }
 
-  /** The benchmark and the region's sums of these submissions (in code order). */
-  private content(
-    quarter: QuarterDto,
-    version: MeasureSetVersion,
-    subjects: readonly (SumsSubject & { practice: PracticeInfo })[],
-    sums: ReadonlyMap<number, PracticeSums>,
-  ): ResultContent {
-    const ordered = subjects.map((s) => {
-      const own = sums.get(s.submissionId);
-      if (!own) throw new Error(`no sums for submission ${s.submissionId}`);
-      return { code: s.practice.code, locality: s.practice.localityCode, sums: own };
-    });
-    const at = { year: quarter.year, quarter: quarter.quarter };
-    const benchmark = buildBenchmark({
-      practices: ordered,
-      measureSet: sumsLayout(version.compiled),
-      quarter: at,
-    });
-    return {
-      description: {
-        quarterId: quarter.id,
-        measureSetId: version.id,
-        practices: subjects.map((s) => ({ code: s.practice.code, submissionId: s.submissionId })),
-      },
-      benchmark,
-      regionSums: ordered.length > 0 ? mergeSums(ordered.map((o) => o.sums)) : null,
-    };
-  }
-
   private async build(
     quarter: QuarterDto,
     version: MeasureSetVersion,
@@ -278,7 +291,7 @@ export class BenchmarkStore {
     const t0 = performance.now();
     const subjects = await this.subjects(quarter, pointers);
     const sums = await this.submissions.sumsOfCurrent(subjects, version, quarter);
-    const content = this.content(quarter, version, subjects, sums);
+    const content = resultContent(quarter, version, subjects, sums);
     const body = encodeResult(content);
     const row = await this.repository.insert(this.resultKey(quarter, version, key), {
       submissionCount: pointers.length,

@@ -2,7 +2,7 @@
  * A practice's digest, composed from its part of a report: a pure function
  * of DigestInput and the recipient, giving the subject, an HTML part (Cairn's
  * mail layout: table layout, inline CSS, bars made of table cells, no image)
- * and a plain-text part. What it says (docs/methods.md §10):
+ * and a plain-text part. What it says (docs/methods.md §11):
  *
  *  - where the practice stands: how many measures lie above, within and below
  *    the region's limits at its n, each read through the measure's direction;

@@ -3,7 +3,7 @@
  * practice, under disclosure control as its leads see it) turned into the
  * measures of its digest. Pure; the "all" split (every person counted) and the
  * over-dispersion-adjusted flag, which equals the exact flag when the region
- * shows no over-dispersion (docs/methods.md §8, Flags; §10).
+ * shows no over-dispersion (docs/methods.md §8, Flags; §11).
  */
 import type { PracticeResultsDto } from '../benchmarks/dto/practice-results.dto.js';
 import type { DigestMeasure } from './digest-input.js';

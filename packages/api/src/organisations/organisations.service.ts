@@ -59,6 +59,11 @@ export class OrganisationsService {
     return region ? { id: region.id, code: region.code, name: region.name } : null;
   }
 
+  async regionByCode(code: string): Promise<RegionInfo | null> {
+    const region = await this.regions.findOne({ where: { code } });
+    return region ? { id: region.id, code: region.code, name: region.name } : null;
+  }
+
   async region(id: number): Promise<RegionInfo | null> {
     const region = await this.regions.findByPk(id);
     return region ? { id: region.id, code: region.code, name: region.name } : null;
@@ -85,11 +90,13 @@ export class OrganisationsService {
     return practice ? info(practice) : null;
   }
 
-  /** The practice's id and region only (access checks on every request; null when unknown). */
-  async practiceRegion(id: number): Promise<{ id: number; regionId: number } | null> {
+  /** The practice's id, region and code only (access checks on every request; null when unknown). */
+  async practiceRegion(id: number): Promise<{ id: number; regionId: number; code: string } | null> {
     if (!Number.isSafeInteger(id)) return null;
-    const practice = await this.practices.findByPk(id, { attributes: ['id', 'regionId'] });
-    return practice ? { id: practice.id, regionId: practice.regionId } : null;
+    const practice = await this.practices.findByPk(id, {
+      attributes: ['id', 'regionId', 'code'],
+    });
+    return practice ? { id: practice.id, regionId: practice.regionId, code: practice.code } : null;
   }
 
   /** These practices (any region), by code; unknown ids are left out. */

@@ -213,6 +213,7 @@ export class ExtractProcessor {
       delimiter: outcome.delimiter,
       encoding: outcome.encoding,
       refusalDetail: outcome.refusal?.detail ?? null,
+      refusalProblems: outcome.refusal?.problems ?? null,
     });
   }
 

@@ -6,10 +6,11 @@
  * for a minute (UploadHandoff), so that this process, which is kicked to
  * check it at once, need not read the file back from MariaDB.
  *
- * Refused here, before any checking: a file over the size limit (a rejected
- * submission, so history shows it), and a file identical (SHA-256) to one
- * already current, awaiting confirmation, being checked or refused for the
- * same practice and quarter (nothing is created).
+ * Refused here, before any checking: an upload carrying more than one file
+ * (nothing is kept), a file over the size limit (a rejected submission, so
+ * history shows it), and a file identical (SHA-256) to one already current,
+ * awaiting confirmation, being checked or refused for the same practice and
+ * quarter (nothing is created).
  */
 import { createHash } from 'node:crypto';
 import { HttpStatus, Inject, Injectable } from '@nestjs/common';
@@ -23,6 +24,7 @@ import type { CairnConfig } from '../config/config.schema.js';
 import { OrganisationsService, type PracticeInfo } from '../organisations/organisations.service.js';
 import type { QuarterDto } from '../quarters/dto/quarter.dto.js';
 import { QuartersService } from '../quarters/quarters.service.js';
+import { PeopleNames } from '../users/people-names.js';
 import type { DateConvention } from './dto/submission.dto.js';
 import { JobRunner, UPLOAD_LEASE_PREFIX } from './job-runner.service.js';
 import { assertMay } from './submission-policy.js';
@@ -35,6 +37,11 @@ export interface ExtractUpload {
   chunks: AsyncIterable<Buffer>;
   /** Set when the stream was cut at the size limit */
   truncated: () => boolean;
+  /**
+   * Settles once the whole request has been read, after the file's last byte: rejects when the
+   * upload turns out not to be acceptable (a second file in it), so that nothing is kept.
+   */
+  complete?: () => Promise<void>;
 }
 
 export function cleanFileName(name: string): string {
@@ -46,6 +53,15 @@ export function cleanFileName(name: string): string {
     .trim();
   return (base || 'extract').slice(0, 255);
 }
+
+/** An upload with more than one file: which one is the extract cannot be known, so none is taken. */
+const severalFiles = (parts: number) =>
+  new ProblemException(
+    HttpStatus.BAD_REQUEST,
+    'upload-several-files',
+    'Send one file at a time',
+    `The upload carried ${parts > 10 ? 'more than 10' : parts} files; Cairn takes one extract per upload, so none of them was kept. Send the extract alone, in a part named "file".`,
+  );
 
 const fmtMb = (bytes: number) =>
   `${(bytes / 1_048_576).toFixed(bytes < 10 * 1_048_576 ? 1 : 0)} MB`;
@@ -60,6 +76,7 @@ export class IntakeService {
     @Inject(QuartersService) private readonly quarters: QuartersService,
     @Inject(JobRunner) private readonly runner: JobRunner,
     @Inject(UploadHandoff) private readonly handoff: UploadHandoff,
+    @Inject(PeopleNames) private readonly people: PeopleNames,
   ) {}
 
   /** The practice and quarter, checked: the quarter is the practice's region's, and the actor may upload to it. */
@@ -109,11 +126,13 @@ export class IntakeService {
     const maxBytes = this.config.get('extracts', { infer: true }).maxBytes;
     const parser = busboy({
       headers: req.headers,
-      limits: { files: 1, fileSize: maxBytes, fields: 20, parts: 30 },
+      limits: { files: 10, fileSize: maxBytes, fields: 20, parts: 30 },
     });
     let result: Promise<number> | null = null;
+    let fileParts = 0;
     const finished = new Promise<void>((resolve, reject) => {
       parser.on('file', (field, stream, info) => {
+        fileParts++;
         if (field !== 'file' || result) {
           stream.resume();
           return;
@@ -124,10 +143,15 @@ export class IntakeService {
           fileName: info.filename ?? 'extract',
           chunks: stream as AsyncIterable<Buffer>,
           truncated: () => truncated,
+          complete: async () => {
+            await finished;
+            if (fileParts > 1) throw severalFiles(fileParts);
+          },
         });
         // Keep the request flowing even when storing fails, so the answer can be sent.
         result.catch(() => stream.resume());
       });
+      parser.on('filesLimit', () => (fileParts = Math.max(fileParts, 11)));
       parser.on('close', () => resolve());
       parser.on('error', (error) => reject(error));
     });
@@ -142,6 +166,7 @@ export class IntakeService {
         'The upload was cut off or is not valid multipart/form-data. Try again.',
       );
     }
+    if (fileParts > 1 && !result) throw severalFiles(fileParts);
     if (!result) {
       throw new ProblemException(
         HttpStatus.BAD_REQUEST,
@@ -219,6 +244,8 @@ export class IntakeService {
       }
       if (upload.truncated()) size = Math.max(size, maxBytes + 1);
       if (size <= maxBytes) await flush();
+      // The rest of the request: an upload carrying a second file is refused, and nothing kept.
+      await upload.complete?.();
     } catch (error) {
       await this.submissions.deleteUnfinishedUpload(id);
       throw error;
@@ -299,7 +326,11 @@ export class IntakeService {
         processing: 'which Cairn is still checking. Wait for its report',
         rejected: `which was refused${identical.refusal_message ? ` (${identical.refusal_message.replace(/\.$/, '')})` : ''}. Fix the problems in its report before uploading again`,
       };
-      const message = `This file is identical to the extract uploaded on ${when} UTC by ${identical.uploaded_by_label} (submission ${identical.id}), ${state[identical.status] ?? 'already received'}.`;
+      const uploader =
+        (await this.people.byEmail(regionId, [identical.uploaded_by_label])).get(
+          identical.uploaded_by_label,
+        ) ?? identical.uploaded_by_label;
+      const message = `This file is identical to the extract uploaded on ${when} UTC by ${uploader} (submission ${identical.id}), ${state[identical.status] ?? 'already received'}.`;
       await this.audit.append({
         action: 'submission.identical_refused',
         outcome: 'refused',

@@ -8,12 +8,18 @@ import type { PracticeInfo } from '../organisations/organisations.service.js';
 import { OrganisationsService } from '../organisations/organisations.service.js';
 import type { QuarterDto } from '../quarters/dto/quarter.dto.js';
 import { QuartersService } from '../quarters/quarters.service.js';
-import type { SubmissionDto, SubmissionStatus } from './dto/submission.dto.js';
+import { PeopleNames } from '../users/people-names.js';
+import type {
+  SubmissionDto,
+  SubmissionRefusalDto,
+  SubmissionStatus,
+} from './dto/submission.dto.js';
 import { ISSUE_CODES, type IssueCodeKey } from './format/issue-codes.js';
 import { type PolicyActor, submissionActions } from './submission-policy.js';
 import {
   type SubmissionRecord,
   SubmissionRepository,
+  type SubmissionSummaryJson,
   summaryJson,
 } from './submission.repository.js';
 
@@ -34,17 +40,28 @@ export interface LoadedSubmission {
   record: SubmissionRecord;
   practice: PracticeInfo;
   quarter: QuarterDto;
+  /** People's names by the e-mail address recorded for who acted (PeopleNames.byEmail) */
+  names?: ReadonlyMap<string, string>;
 }
+
+/** The addresses recorded for who uploaded, confirmed and cancelled a submission. */
+export const actorLabels = (record: SubmissionRecord): (string | null)[] => [
+  record.uploaded_by_label,
+  record.confirmed_by_label,
+  record.cancelled_by_label,
+];
 
 /** Its file is still kept (a failed check can be retried). */
 export const fileKept = (record: SubmissionRecord) =>
   record.file_deleted_at === null && record.file_sha256 !== null;
 
 export function toView(
-  { record: row, practice, quarter }: LoadedSubmission,
+  { record: row, practice, quarter, names }: LoadedSubmission,
   actor: PolicyActor,
 ): SubmissionDto {
   const summary = summaryJson(row);
+  // A person by name; what Cairn did ("demo seeding"), or an address no longer known, as recorded.
+  const who = (label: string | null) => (label === null ? null : (names?.get(label) ?? label));
   const counts =
     row.rows_read === null || row.rows_accepted === null || row.error_count === null
       ? null
@@ -90,29 +107,21 @@ export function toView(
       encoding: summary.encoding ?? null,
       kept: kept && (row.status === 'processing' || row.status === 'failed'),
     },
-    uploadedBy: row.uploaded_by_label,
+    uploadedBy: who(row.uploaded_by_label)!,
     uploadedAt: iso(row.uploaded_at)!,
     processingStartedAt: iso(row.processing_started_at),
     processedAt: iso(row.processed_at),
     confirmedAt: iso(row.confirmed_at),
-    confirmedBy: row.confirmed_by_label,
+    confirmedBy: who(row.confirmed_by_label),
     cancelledAt: iso(row.cancelled_at),
-    cancelledBy: row.cancelled_by_label,
+    cancelledBy: who(row.cancelled_by_label),
     supersededAt: iso(row.superseded_at),
     supersededBySubmissionId: row.superseded_by_submission_id,
     failedAt: iso(row.failed_at),
     progress: { rowsDone: row.rows_done, rowsTotal: row.rows_total },
     counts,
     issuesByCode,
-    refusal: row.refusal_code
-      ? {
-          code: row.refusal_code,
-          title: ISSUE_CODES[row.refusal_code as IssueCodeKey]?.title ?? row.refusal_code,
-          message: row.refusal_message ?? '',
-          fix: row.refusal_fix ?? '',
-          detail: summary.refusalDetail ?? null,
-        }
-      : null,
+    refusal: row.refusal_code ? refusalView(row, summary) : null,
     failure:
       row.status === 'failed'
         ? { message: row.failure_message ?? '', attempts: row.attempts, canRetry: kept }
@@ -130,6 +139,36 @@ export function toView(
   };
 }
 
+/** A refusal in words: its primary reason, and every reason found (one, or the heading row's several). */
+function refusalView(row: SubmissionRecord, summary: SubmissionSummaryJson): SubmissionRefusalDto {
+  const code = row.refusal_code!;
+  const primary = {
+    code,
+    title: issueTitle(code),
+    message: row.refusal_message ?? '',
+    fix: row.refusal_fix ?? '',
+    detail: summary.refusalDetail ?? null,
+  };
+  const stored = summary.refusalProblems ?? [];
+  return {
+    ...primary,
+    problems:
+      stored.length > 0
+        ? stored.map((p) => ({
+            code: p.code,
+            title: issueTitle(p.code),
+            message: p.message,
+            fix: p.fix,
+            detail: p.detail ?? null,
+          }))
+        : [primary],
+  };
+}
+
+/** The words for an issue or refusal code (the code itself for one Cairn no longer has). */
+export const issueTitle = (code: string): string =>
+  ISSUE_CODES[code as IssueCodeKey]?.title ?? code;
+
 function severityRank(severity: string): number {
   return severity === 'error' ? 0 : severity === 'flag' ? 1 : 2;
 }
@@ -141,6 +180,7 @@ export class SubmissionLoader {
     @Inject(SubmissionRepository) private readonly submissions: SubmissionRepository,
     @Inject(OrganisationsService) private readonly organisations: OrganisationsService,
     @Inject(QuartersService) private readonly quarters: QuartersService,
+    @Inject(PeopleNames) private readonly people: PeopleNames,
   ) {}
 
   async load(id: number): Promise<LoadedSubmission | null> {
@@ -155,6 +195,11 @@ export class SubmissionLoader {
     ]);
     if (!practice || !quarter)
       throw new Error(`submission ${record.id} names a practice or quarter that does not exist`);
-    return { record, practice, quarter };
+    return { record, practice, quarter, names: await this.names(practice.regionId, [record]) };
+  }
+
+  /** The names of the people who uploaded, confirmed or cancelled these submissions. */
+  names(regionId: number, records: readonly SubmissionRecord[]): Promise<Map<string, string>> {
+    return this.people.byEmail(regionId, records.flatMap(actorLabels));
   }
 }

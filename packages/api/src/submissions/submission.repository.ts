@@ -79,6 +79,9 @@ export interface SubmissionSummaryJson {
   delimiter?: string | null;
   encoding?: string | null;
   refusalDetail?: Record<string, unknown> | null;
+  /** Every reason the file was refused, when several were found at once (the primary first) */
+  refusalProblems?:
+    { code: string; message: string; fix: string; detail?: Record<string, unknown> }[] | null;
 }
 
 export function summaryJson(row: Pick<SubmissionRecord, 'summary'>): SubmissionSummaryJson {
@@ -98,7 +101,9 @@ export interface SumsRow {
 }
 
 /** Which records a streamed read of sums columns covers. */
-export type RecordScope = { submissionId: number } | { quarterId: number };
+/** Records to read: one submission's, several submissions', or every current record of a quarter. */
+export type RecordScope =
+  { submissionId: number } | { submissionIds: readonly number[] } | { quarterId: number };
 
 const SUMS_SELECT = SUMS_COLUMNS.map((c) => `r.${c}`).join(', ');
 
@@ -378,18 +383,27 @@ export class SubmissionRepository {
    * form: rows as arrays, no type cast function.
    */
   async streamSumsRows(scope: RecordScope, onRow: (row: unknown[]) => void): Promise<number> {
-    const sql =
-      'submissionId' in scope
-        ? `SELECT r.submission_id, ${SUMS_SELECT} FROM care_records r WHERE r.submission_id = ?`
-        : `SELECT r.submission_id, ${SUMS_SELECT}
-             FROM practice_quarters pq
-             JOIN care_records r ON r.submission_id = pq.current_submission_id
-            WHERE pq.quarter_id = ?`;
-    const id = 'submissionId' in scope ? scope.submissionId : scope.quarterId;
+    let sql: string;
+    let values: unknown[];
+    if ('submissionId' in scope) {
+      sql = `SELECT r.submission_id, ${SUMS_SELECT} FROM care_records r WHERE r.submission_id = ?`;
+      values = [scope.submissionId];
+    } else if ('submissionIds' in scope) {
+      if (scope.submissionIds.length === 0) return 0;
+      sql = `SELECT r.submission_id, ${SUMS_SELECT} FROM care_records r
+              WHERE r.submission_id IN (${scope.submissionIds.map(() => '?').join(', ')})`;
+      values = [...scope.submissionIds];
+    } else {
+      sql = `SELECT r.submission_id, ${SUMS_SELECT}
+               FROM practice_quarters pq
+               JOIN care_records r ON r.submission_id = pq.current_submission_id
+              WHERE pq.quarter_id = ?`;
+      values = [scope.quarterId];
+    }
     return withRaw(this.sequelize, (connection) => {
       let rows = 0;
       return new Promise<number>((resolve, reject) => {
-        const stream = connection.queryStream({ sql, rowsAsArray: true, typeCast: null }, [id]);
+        const stream = connection.queryStream({ sql, rowsAsArray: true, typeCast: null }, values);
         stream.on('data', (row: unknown[]) => {
           rows++;
           try {

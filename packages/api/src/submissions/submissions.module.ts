@@ -2,6 +2,7 @@ import { Module } from '@nestjs/common';
 import { MeasureSetsModule } from '../measure-sets/measure-sets.module.js';
 import { OrganisationsModule } from '../organisations/organisations.module.js';
 import { QuartersModule } from '../quarters/quarters.module.js';
+import { PeopleNamesModule } from '../users/people-names.js';
 import { CoverageController } from './coverage.controller.js';
 import { ExtractProcessor } from './extract-processor.js';
 import { ExtractsController } from './extracts.controller.js';
@@ -16,7 +17,7 @@ import { UploadHandoff } from './upload-handoff.js';
 
 /** Extracts: template, upload, checking as a job, validation report, confirm/cancel/retry, coverage. */
 @Module({
-  imports: [OrganisationsModule, QuartersModule, MeasureSetsModule],
+  imports: [OrganisationsModule, QuartersModule, MeasureSetsModule, PeopleNamesModule],
   controllers: [ExtractsController, SubmissionsController, CoverageController],
   providers: [
     SubmissionRepository,

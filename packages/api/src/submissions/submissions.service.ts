@@ -25,6 +25,7 @@ import {
 } from '../measure-sets/measure-sets.service.js';
 import { OrganisationsService } from '../organisations/organisations.service.js';
 import { QuartersService } from '../quarters/quarters.service.js';
+import { PeopleNames } from '../users/people-names.js';
 import type {
   CoverageDto,
   IssuePageDto,
@@ -39,7 +40,7 @@ import { JobRunner } from './job-runner.service.js';
 import { ValidationReportService } from './validation-report/validation-report.service.js';
 import { assertMay, mayWrite, seesRecordRefs, type SubmissionAction } from './submission-policy.js';
 import { SubmissionRepository, summaryJson } from './submission.repository.js';
-import { type LoadedSubmission, SubmissionLoader, toView } from './submission-view.js';
+import { issueTitle, type LoadedSubmission, SubmissionLoader, toView } from './submission-view.js';
 import { type StoredRecord, toStoredRecord } from '../database/bulk-load/care-record-row.js';
 import { SubmissionSums, type SumsSubject } from './sums/submission-sums.js';
 
@@ -114,7 +115,7 @@ export interface ConfirmedFacts {
 /** Confirmed submissions' facts kept in memory at most. */
 const FACTS_CACHE = 50_000;
 
-/** Every clinical data-quality check (methods.md §7) with its count among `counts` (0 included). */
+/** Every clinical data-quality check (docs/methods.md §7) with its count among `counts` (0 included). */
 function dataQualityCounts(counts: Record<string, number>): DataQualityFlagCount[] {
   return (Object.keys(ISSUE_CODES) as IssueCodeKey[])
     .filter((code) => ISSUE_CODES[code].severity === 'flag')
@@ -138,6 +139,7 @@ export class SubmissionsService {
     @Inject(OrganisationsService) private readonly organisations: OrganisationsService,
     @Inject(JobRunner) private readonly runner: JobRunner,
     @Inject(ValidationReportService) private readonly reports: ValidationReportService,
+    @Inject(PeopleNames) private readonly people: PeopleNames,
     @Inject(MeasureSetsService) private readonly measureSets: MeasureSetsService,
     @Inject(CAIRN_SECRETS) secrets: CairnSecrets,
   ) {
@@ -162,8 +164,9 @@ export class SubmissionsService {
     const quarters = await this.quarters.list(practice.regionId);
     const records = await this.submissions.listForPractice(practiceId);
     const byId = new Map(quarters.map((q) => [q.id, q]));
+    const names = await this.loader.names(practice.regionId, records);
     const views = records.map((record) =>
-      toView({ record, practice, quarter: byId.get(record.quarter_id)! }, actor),
+      toView({ record, practice, quarter: byId.get(record.quarter_id)!, names }, actor),
     );
     return {
       practice: { id: practice.id, code: practice.code, name: practice.name },
@@ -587,8 +590,11 @@ export class SubmissionsService {
     const practices = await this.organisations.regionPractices(actor.regionId, {
       activeOnly: true,
     });
-    const current = new Map(
-      (await this.submissions.currentOfQuarter(quarterId)).map((c) => [c.practice_id, c]),
+    const currents = await this.submissions.currentOfQuarter(quarterId);
+    const current = new Map(currents.map((c) => [c.practice_id, c]));
+    const names = await this.people.byEmail(
+      actor.regionId,
+      currents.map((c) => c.confirmed_by),
     );
     const others = await this.submissions.outstandingOfQuarter(quarterId);
     const latestOther = new Map<number, (typeof others)[number][]>();
@@ -613,7 +619,9 @@ export class SubmissionsService {
                 submissionId: cur.current_id,
                 records: cur.current_rows,
                 confirmedAt: cur.confirmed_at ? new Date(cur.confirmed_at).toISOString() : null,
-                confirmedBy: cur.confirmed_by,
+                confirmedBy: cur.confirmed_by
+                  ? (names.get(cur.confirmed_by) ?? cur.confirmed_by)
+                  : null,
               },
         waiting: pending
           .filter((o) => o.status === 'awaiting_confirmation' || o.status === 'processing')
@@ -627,19 +635,28 @@ export class SubmissionsService {
               submissionId: lastProblem.id,
               status: lastProblem.status,
               code: lastProblem.refusal_code,
+              reason:
+                lastProblem.status === 'failed'
+                  ? 'Cairn could not finish checking it'
+                  : lastProblem.refusal_code
+                    ? issueTitle(lastProblem.refusal_code)
+                    : 'Refused',
               uploadedAt: new Date(lastProblem.uploaded_at).toISOString(),
             }
           : null,
       };
     });
+    // The three states are a partition: every practice is counted once.
+    const count = (state: string) => rows.filter((r) => r.state === state).length;
     return {
       quarter,
       totals: {
         practices: rows.length,
-        current: rows.filter((r) => r.state === 'current').length,
-        // Every practice with an extract waiting, whether or not it already has a current one.
-        awaitingConfirmation: rows.filter((r) => r.waiting.length > 0).length,
-        none: rows.filter((r) => r.state === 'none').length,
+        current: count('current'),
+        currentWithWaiting: rows.filter((r) => r.state === 'current' && r.waiting.length > 0)
+          .length,
+        awaitingConfirmation: count('awaiting_confirmation'),
+        none: count('none'),
         records: rows.reduce((n, r) => n + (r.current?.records ?? 0), 0),
       },
       practices: rows,

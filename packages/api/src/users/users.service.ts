@@ -157,7 +157,7 @@ export class UsersService {
         HttpStatus.UNPROCESSABLE_ENTITY,
         'unknown-practice',
         'Unknown practice',
-        `No practice ${missing.join(', ')} in your region.`,
+        `No practice of your region has the id ${missing.join(', ')}.`,
         { errors: [{ field: 'practiceIds', message: `unknown practice ${missing.join(', ')}` }] },
       );
     }
@@ -334,11 +334,17 @@ export class UsersService {
       const user = await this.find(c.regionId, userId, transaction);
       const membership = (user.memberships ?? []).find((m) => m.practiceId === practiceId);
       if (!membership) {
+        const [named] = await this.organisations.regionPractices(c.regionId, {
+          ids: [practiceId],
+          transaction,
+        });
         throw new ProblemException(
           HttpStatus.NOT_FOUND,
           'membership-not-found',
           'Not one of their practices',
-          `${user.displayName} does not lead practice ${practiceId}.`,
+          named
+            ? `${user.displayName} does not lead ${named.code} (${named.name}).`
+            : `${user.displayName} does not lead the practice this address names.`,
         );
       }
       const [practice] = await this.organisations.practiceRefs([practiceId], transaction);

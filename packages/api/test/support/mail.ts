@@ -151,16 +151,6 @@ export function daysFromToday(days: number): string {
   return new Date(Date.now() + days * 86_400_000).toISOString().slice(0, 10);
 }
 
-/**
- * A deadline for opening 2027 Q1 in a test: at least `days` days from today (so its opening
- * message is sent and no reminder is due yet) and after the quarter's last day (31 March 2027),
- * as every deadline must be.
- */
-export function q1Deadline2027(days = 40): string {
-  const soonest = daysFromToday(days);
-  return soonest > '2027-04-14' ? soonest : '2027-04-15';
-}
-
 /** One header of a raw message (unfolded), or null. */
 export function header(raw: string, name: string): string | null {
   const head = raw.split(/\r?\n\r?\n/)[0]!.replace(/\r?\n[ \t]+/g, ' ');

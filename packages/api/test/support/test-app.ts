@@ -33,6 +33,12 @@ export interface TestAppOptions {
   modules?: (Type<unknown> | DynamicModule)[];
   /** Do not listen (supertest binds an ephemeral port itself) */
   listen?: boolean;
+  /**
+   * Runs on the migrated database before the app starts: for loading data through code that
+   * starts a Nest context of its own (the demo extracts), which must be done before this app
+   * binds the Sequelize models to its connection.
+   */
+  prepare?: (config: CairnConfig, secrets: CairnSecrets, db: Sequelize) => Promise<void>;
 }
 
 export function testConfig(): { config: CairnConfig; secrets: CairnSecrets } {
@@ -61,6 +67,7 @@ export async function createTestApp(options: TestAppOptions = {}): Promise<TestA
   const base = testConfig();
   const configured = options.configure ? options.configure(base.config) : base.config;
   const fresh = await freshDatabase(configured, base.secrets);
+  if (options.prepare) await options.prepare(fresh.config, base.secrets, fresh.db);
   const app = await createApp({
     config: fresh.config,
     secrets: base.secrets,

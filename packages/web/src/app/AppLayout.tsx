@@ -11,7 +11,6 @@ import {
 } from '@blueprintjs/core';
 import { NavLink, Outlet, ScrollRestoration, useLocation } from 'react-router-dom';
 import { CairnMark } from '../components/CairnMark';
-import { CLINICAL_CAUTION } from '../components/ClinicalCaution';
 import { useAbout } from '../features/landing/api/about';
 import { roleLabels } from '../lib/roles';
 import { useMe } from '../lib/session';
@@ -31,63 +30,66 @@ export function AppLayout() {
       <a className="cairn-skip-link" href="#main">
         Skip to content
       </a>
-      <Navbar className="cairn-navbar">
-        <NavbarGroup align={Alignment.START}>
-          <NavLink to="/" className="cairn-brand" aria-label="Cairn home">
-            <CairnMark size={28} />
-            <NavbarHeading className="cairn-brand-name">Cairn</NavbarHeading>
-          </NavLink>
-          {about.data?.regionName ? (
-            <span className="cairn-region">{about.data.regionName}</span>
-          ) : null}
-          {items.length > 0 ? <NavbarDivider /> : null}
-          <nav aria-label="Main" className="cairn-nav">
-            {items.map((item) => (
-              <NavLink
-                key={item.to}
-                to={item.to}
-                end={item.to === '/'}
-                className={({ isActive }) =>
-                  `cairn-nav-link${isActive || alsoActive(item, pathname) ? ' active' : ''}`
-                }
-              >
-                {item.label}
-              </NavLink>
-            ))}
-          </nav>
-        </NavbarGroup>
-        <NavbarGroup align={Alignment.END}>
-          <Button
-            variant="minimal"
-            icon={theme === 'dark' ? 'flash' : 'moon'}
-            aria-label={theme === 'dark' ? 'Use the light theme' : 'Use the dark theme'}
-            title={theme === 'dark' ? 'Light theme' : 'Dark theme'}
-            onClick={toggle}
-          />
-          <NavbarDivider />
-          {me.isPending ? (
-            <Spinner size={16} aria-label="Checking sign-in" />
-          ) : me.data ? (
-            <>
-              <NavLink to="/profile" className="cairn-user" title="Your profile and mail">
-                {me.data.displayName} <Tag minimal>{roleLabels[me.data.role]}</Tag>
-              </NavLink>
-              <AnchorButton variant="minimal" icon="log-out" href="/sign-out">
-                Sign out
+      <header>
+        <Navbar className="cairn-navbar">
+          <NavbarGroup align={Alignment.START}>
+            <NavLink to="/" className="cairn-brand" aria-label="Cairn home">
+              <CairnMark size={28} />
+              <NavbarHeading className="cairn-brand-name">Cairn</NavbarHeading>
+            </NavLink>
+            {about.data?.regionName ? (
+              <span className="cairn-region">{about.data.regionName}</span>
+            ) : null}
+            {items.length > 0 ? <NavbarDivider /> : null}
+            <nav aria-label="Main" className="cairn-nav">
+              {items.map((item) => (
+                <NavLink
+                  key={item.to}
+                  to={item.to}
+                  end={item.to === '/'}
+                  className={({ isActive }) =>
+                    `cairn-nav-link${isActive || alsoActive(item, pathname) ? ' active' : ''}`
+                  }
+                >
+                  {item.label}
+                </NavLink>
+              ))}
+            </nav>
+          </NavbarGroup>
+          <NavbarGroup align={Alignment.END}>
+            <Button
+              variant="minimal"
+              icon={theme === 'dark' ? 'flash' : 'moon'}
+              aria-label={theme === 'dark' ? 'Use the light theme' : 'Use the dark theme'}
+              title={theme === 'dark' ? 'Light theme' : 'Dark theme'}
+              onClick={toggle}
+            />
+            <NavbarDivider />
+            {me.isPending ? (
+              <Spinner size={16} aria-label="Checking sign-in" />
+            ) : me.data ? (
+              <>
+                <NavLink to="/profile" className="cairn-user" title="Your profile and mail">
+                  {me.data.displayName} <Tag minimal>{roleLabels[me.data.role]}</Tag>
+                </NavLink>
+                <AnchorButton variant="minimal" icon="log-out" href="/sign-out">
+                  Sign out
+                </AnchorButton>
+              </>
+            ) : pathname.startsWith('/sign-in') ? null : (
+              // Not on the sign-in page itself, which is all about signing in.
+              <AnchorButton intent="primary" icon="log-in" href="/sign-in">
+                Sign in
               </AnchorButton>
-            </>
-          ) : (
-            <AnchorButton intent="primary" icon="log-in" href="/sign-in">
-              Sign in
-            </AnchorButton>
-          )}
-        </NavbarGroup>
-      </Navbar>
+            )}
+          </NavbarGroup>
+        </Navbar>
+      </header>
       <main id="main" className="cairn-main" tabIndex={-1}>
         <Outlet />
       </main>
+      {/* The clinical caution is shown once, on the screens where it matters (ClinicalCaution). */}
       <footer className="cairn-footer">
-        <p>{CLINICAL_CAUTION}</p>
         <p className="cairn-footer-meta">
           Cairn {about.data?.version ? `v${about.data.version}` : ''} ·{' '}
           <a href="/api/docs">API documentation</a>

@@ -1,45 +1,36 @@
-import {
-  Callout,
-  Card,
-  H2,
-  H3,
-  HTMLTable,
-  Intent,
-  NonIdealState,
-  Spinner,
-} from '@blueprintjs/core';
+import { Card, H1, H2, Intent, Spinner } from '@blueprintjs/core';
 import { Link } from 'react-router-dom';
-import type { Me, Quarter, Submission } from '../lib/api/types';
+import { EmptyState, Notice } from '../components/Notice';
+import type { Me, Quarter } from '../lib/api/types';
 import { formatCount } from '../lib/format';
+import { usePageTitle } from '../lib/page-title';
 import { roleLabels } from '../lib/roles';
 import { useMe } from '../lib/session';
-import {
-  useCoverage,
-  useHistory,
-  useQuarters,
-  useUploadOptions,
-} from '../features/extracts/api/extracts';
+import { useCoverage, useQuarters, useUploadOptions } from '../features/extracts/api/extracts';
 import { Figure } from '../features/extracts/components/Figure';
 import { formatDate } from '../features/extracts/components/format';
 import { LinkButton } from '../features/extracts/components/LinkButton';
-import { CoverageTag, StatusTag } from '../features/extracts/components/StatusTag';
+import { PracticeHeading, PracticeQuarter } from '../features/extracts/components/PracticeQuarter';
+import { CoverageTag } from '../features/extracts/components/StatusTag';
 import { Landing } from '../features/landing/routes/Landing';
 import '../features/extracts/routes/Extracts.css';
 import './Home.css';
 
 /**
  * `/`: the landing page when signed out; when signed in, where the person
- * stands this audit quarter and the next thing to do. The clinical caution
- * is in the footer of every screen (AppLayout).
+ * stands this audit quarter and the next thing to do.
  */
 export function Home() {
   const me = useMe();
+  // The front page is "Cairn" alone; signed in, it is the person's home.
+  usePageTitle(me.data ? 'Home' : null);
   if (me.isPending) return null;
   if (me.isError) {
     return (
-      <NonIdealState
+      <EmptyState
         icon="error"
         title="Cairn could not check your sign-in"
+        headingLevel={1}
         description={me.error.message}
       />
     );
@@ -48,7 +39,7 @@ export function Home() {
   const user = me.data;
   return (
     <div className="cairn-home">
-      <H2>Welcome, {user.displayName}</H2>
+      <H1 className="cairn-page-title">Welcome, {user.displayName}</H1>
       <p>
         You are signed in as <strong>{roleLabels[user.role]}</strong> for {user.regionName}.
       </p>
@@ -82,107 +73,33 @@ function PracticeLeadHome({ user }: { user: Me }) {
   const quarter = quarterNow(quarters.data);
   if (user.practices.length === 0) {
     return (
-      <Callout intent={Intent.WARNING} icon="info-sign" title="No practice yet">
+      <Notice intent={Intent.WARNING} icon="info-sign" title="No practice yet">
         You are not assigned to a practice yet. Ask your regional lead to add your practice to your
         account.
-      </Callout>
+      </Notice>
     );
   }
   return (
-    <section aria-labelledby="home-practices">
-      <H3 id="home-practices">Your practices{quarter ? ` this quarter (${quarter.label})` : ''}</H3>
+    <section aria-labelledby="home-practices" className="cairn-home-practices">
+      <H2 id="home-practices">
+        {user.practices.length === 1 ? 'Your practice' : 'Your practices'}
+        {quarter ? ` this quarter (${quarter.label})` : ''}
+      </H2>
       {quarter ? <QuarterLine quarter={quarter} /> : null}
-      <Card className="cairn-home-card">
-        <HTMLTable compact striped className="cairn-home-table">
-          <thead>
-            <tr>
-              <th>Practice</th>
-              <th>Code</th>
-              <th>{quarter ? quarter.label : 'Audit quarter'}</th>
-              <th>Next step</th>
-            </tr>
-          </thead>
-          <tbody>
-            {user.practices.map((practice) => (
-              <PracticeRow key={practice.id} practice={practice} quarter={quarter} />
-            ))}
-          </tbody>
-        </HTMLTable>
-      </Card>
+      {quarters.isPending ? <Spinner size={20} aria-label="Reading the audit quarters" /> : null}
+      {!quarters.isPending && !quarter ? (
+        <p className="cairn-muted">No audit quarter is open for extracts yet.</p>
+      ) : null}
+      {user.practices.map((practice) => (
+        <Card key={practice.id} className="cairn-home-card">
+          {quarter ? (
+            <PracticeQuarter practice={practice} quarter={quarter} />
+          ) : (
+            <PracticeHeading practice={practice} />
+          )}
+        </Card>
+      ))}
     </section>
-  );
-}
-
-function PracticeRow({
-  practice,
-  quarter,
-}: {
-  practice: Me['practices'][number];
-  quarter: Quarter | null;
-}) {
-  const history = useHistory(practice.id);
-  const entry = history.data?.quarters.find((q) => q.quarter.id === quarter?.id);
-  const current = entry?.submissions.find((s) => s.id === entry.currentSubmissionId) ?? null;
-  // The newest extract still being read or waiting for its sender's decision.
-  const open = entry?.submissions.find(
-    (s: Submission) => s.status === 'processing' || s.status === 'awaiting_confirmation',
-  );
-  // The API's upload action for this practice in this quarter.
-  const upload =
-    quarter && entry?.actions.upload
-      ? `/extracts/upload?practice=${practice.id}&quarter=${quarter.id}`
-      : null;
-  return (
-    <tr data-practice={practice.code}>
-      <td>{practice.name}</td>
-      <td>{practice.code}</td>
-      <td>
-        {history.isPending ? (
-          <Spinner size={14} aria-label={`Reading ${practice.code}'s submissions`} />
-        ) : history.isError ? (
-          <span className="cairn-muted">Could not read submissions</span>
-        ) : open ? (
-          <Link to={`/practices/${practice.id}/submissions/${open.id}`}>
-            <StatusTag status={open.status} /> <span>Submission {open.id}</span>
-          </Link>
-        ) : current ? (
-          <span>
-            <CoverageTag state="current" />{' '}
-            {current.counts ? `${formatCount(current.counts.rowsAccepted)} records` : null}
-          </span>
-        ) : (
-          <CoverageTag state="none" />
-        )}
-      </td>
-      <td className="cairn-home-actions">
-        {open?.status === 'awaiting_confirmation' ? (
-          <LinkButton
-            small
-            intent={Intent.PRIMARY}
-            icon="eye-open"
-            to={`/practices/${practice.id}/submissions/${open.id}`}
-            text="Read the report and confirm"
-          />
-        ) : upload && !current && !open ? (
-          <LinkButton
-            small
-            intent={Intent.PRIMARY}
-            icon="upload"
-            to={upload}
-            text="Upload extract"
-          />
-        ) : upload && !open ? (
-          <LinkButton small icon="upload" to={upload} text="Send a corrected extract" />
-        ) : null}
-        <LinkButton
-          small
-          variant="minimal"
-          icon="list-columns"
-          to={`/practices/${practice.id}/submissions`}
-          text="Submissions"
-        />
-      </td>
-    </tr>
   );
 }
 
@@ -199,7 +116,7 @@ function RegionHome({ user }: { user: Me }) {
     `/coverage?quarter=${quarter?.id ?? ''}${state ? `&state=${state}` : ''}`;
   return (
     <section aria-labelledby="home-region">
-      <H3 id="home-region">{quarter ? `The region in ${quarter.label}` : 'The region'}</H3>
+      <H2 id="home-region">{quarter ? `The region in ${quarter.label}` : 'The region'}</H2>
       {user.role === 'auditor' ? (
         <p>You can read every practice of the region; you cannot change anything.</p>
       ) : null}
@@ -208,35 +125,43 @@ function RegionHome({ user }: { user: Me }) {
         <Spinner size={20} aria-label="Reading the quarter's coverage" />
       ) : null}
       {!quarters.isPending && !quarter ? (
-        <NonIdealState icon="calendar" title="No audit quarters yet" />
+        <EmptyState icon="calendar" title="No audit quarters yet" />
       ) : null}
       {coverage.isError ? (
-        <Callout intent={Intent.DANGER} title="Cairn could not read the coverage">
+        <Notice intent={Intent.DANGER} title="Cairn could not read the coverage">
           {coverage.error.message}
-        </Callout>
+        </Notice>
       ) : null}
       {totals ? (
         <>
           <div className="cairn-figures" role="list" aria-label="Coverage">
             {(
               [
-                ['Practices', totals.practices, null],
-                [<CoverageTag key="c" state="current" />, totals.current, 'current'],
+                ['Practices', totals.practices, null, undefined],
+                [
+                  <CoverageTag key="c" state="current" />,
+                  totals.current,
+                  'current',
+                  totals.currentWithWaiting > 0
+                    ? `${formatCount(totals.currentWithWaiting)} with another extract waiting`
+                    : undefined,
+                ],
                 [
                   <CoverageTag key="a" state="awaiting_confirmation" />,
                   totals.awaitingConfirmation,
                   'awaiting_confirmation',
+                  'no current one yet',
                 ],
-                [<CoverageTag key="n" state="none" />, totals.none, 'none'],
+                [<CoverageTag key="n" state="none" />, totals.none, 'none', undefined],
               ] as const
-            ).map(([label, value, state], i) => (
+            ).map(([label, value, state, note], i) => (
               <div role="listitem" key={i}>
                 {state && value > 0 ? (
                   <Link className="cairn-home-figure-link" to={coverageLink(state)}>
-                    <Figure label={label} value={value} />
+                    <Figure label={label} value={value} note={note} />
                   </Link>
                 ) : (
-                  <Figure label={label} value={value} />
+                  <Figure label={label} value={value} note={note} />
                 )}
               </div>
             ))}
@@ -244,7 +169,7 @@ function RegionHome({ user }: { user: Me }) {
           <p>
             {totals.none === 0
               ? 'Every practice has sent an extract for this quarter.'
-              : `${formatCount(totals.none)} of ${formatCount(totals.practices)} practices ${totals.none === 1 ? 'has' : 'have'} no current submission yet.`}{' '}
+              : `${formatCount(totals.none)} of ${formatCount(totals.practices)} practices ${totals.none === 1 ? 'has' : 'have'} neither a current submission nor an extract waiting.`}{' '}
             {formatCount(totals.records)} records are in current submissions.
           </p>
           <div className="cairn-home-actions">

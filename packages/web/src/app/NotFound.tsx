@@ -1,12 +1,16 @@
-import { AnchorButton, NonIdealState } from '@blueprintjs/core';
+import { AnchorButton } from '@blueprintjs/core';
 import { useLocation } from 'react-router-dom';
+import { EmptyState } from '../components/Notice';
+import { usePageTitle } from '../lib/page-title';
 
 export function NotFound() {
   const location = useLocation();
+  usePageTitle('Page not found');
   return (
-    <NonIdealState
+    <EmptyState
       icon="path-search"
       title="This page does not exist"
+      headingLevel={1}
       description={
         <>
           Nothing in Cairn lives at <code>{location.pathname}</code>. The link may be old, or the

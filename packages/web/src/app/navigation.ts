@@ -32,6 +32,20 @@ export const navItems: NavItem[] = [
     roles: ['practice_lead', 'regional_lead'],
     activeFor: /^\/practices\/[^/]+\/submissions(\/|$)/,
   },
+  {
+    label: 'Results',
+    to: '/results',
+    icon: 'timeline-bar-chart',
+    roles: ['practice_lead'],
+    activeFor: /^\/practices\/[^/]+\/results(\/|$)/,
+  },
+  {
+    label: 'Benchmark',
+    to: '/benchmark',
+    icon: 'scatter-plot',
+    roles: ['regional_lead', 'auditor'],
+    activeFor: /^\/practices\/[^/]+\/results(\/|$)/,
+  },
   { label: 'Coverage', to: '/coverage', icon: 'grid-view', roles: ['regional_lead', 'auditor'] },
   { label: 'Quarters', to: '/quarters', icon: 'calendar', roles: everyone },
   {

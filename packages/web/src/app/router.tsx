@@ -2,6 +2,7 @@ import { createBrowserRouter, type RouteObject } from 'react-router-dom';
 import { AppLayout } from './AppLayout';
 import { Home } from './Home';
 import { NotFound } from './NotFound';
+import { PageLoading } from './PageLoading';
 import { RouteError } from './RouteError';
 
 /**
@@ -13,6 +14,8 @@ export const routes: RouteObject[] = [
     path: '/',
     element: <AppLayout />,
     errorElement: <RouteError />,
+    // Shown while the first page's lazy code loads (the data router asks for one).
+    hydrateFallbackElement: <PageLoading />,
     children: [
       { index: true, element: <Home /> },
       {
@@ -119,6 +122,28 @@ export const routes: RouteObject[] = [
         path: 'digests',
         lazy: () =>
           import('../features/deliveries/routes/Digests').then((m) => ({ Component: m.Digests })),
+      },
+      // ── results and benchmarks ──
+      {
+        path: 'results',
+        lazy: () =>
+          import('../features/results/routes/PracticeResults').then((m) => ({
+            Component: m.MyResults,
+          })),
+      },
+      {
+        path: 'practices/:practiceId/results',
+        lazy: () =>
+          import('../features/results/routes/PracticeResults').then((m) => ({
+            Component: m.PracticeResults,
+          })),
+      },
+      {
+        path: 'benchmark',
+        lazy: () =>
+          import('../features/benchmark/routes/RegionBenchmark').then((m) => ({
+            Component: m.RegionBenchmark,
+          })),
       },
       { path: '*', element: <NotFound /> },
     ],

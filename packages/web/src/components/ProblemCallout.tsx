@@ -1,12 +1,13 @@
-import { Callout, Intent } from '@blueprintjs/core';
+import { Intent } from '@blueprintjs/core';
 import { ApiError } from '../lib/api-client';
+import { Notice } from './Notice';
 
 /** A failed request explained in place: the API's own title and detail. */
 export function ProblemCallout({ error }: { error: unknown }) {
   if (!error) return null;
   const problem = error instanceof ApiError ? error.problem : null;
   return (
-    <Callout
+    <Notice
       intent={Intent.DANGER}
       icon="error"
       title={problem?.title ?? 'That did not work'}
@@ -20,7 +21,7 @@ export function ProblemCallout({ error }: { error: unknown }) {
           </a>
         </p>
       ) : null}
-    </Callout>
+    </Notice>
   );
 }
 

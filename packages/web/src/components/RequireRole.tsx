@@ -1,9 +1,10 @@
-import { AnchorButton, NonIdealState, Spinner } from '@blueprintjs/core';
+import { AnchorButton, Spinner } from '@blueprintjs/core';
 import type { ReactNode } from 'react';
 import { Navigate, useLocation } from 'react-router-dom';
 import type { Role } from '../lib/api/types';
 import { roleLabels } from '../lib/roles';
 import { useMe } from '../lib/session';
+import { EmptyState } from './Notice';
 
 /**
  * Shows its children only to signed-in people with one of these roles.
@@ -17,7 +18,8 @@ export function RequireRole({ roles, children }: { roles: readonly Role[]; child
   if (me.isPending) return <Spinner aria-label="Checking sign-in" />;
   if (me.isError) {
     return (
-      <NonIdealState
+      <EmptyState
+        headingLevel={1}
         icon="error"
         title="Cairn could not check your sign-in"
         description={me.error.message}
@@ -30,7 +32,8 @@ export function RequireRole({ roles, children }: { roles: readonly Role[]; child
   }
   if (!roles.includes(me.data.role)) {
     return (
-      <NonIdealState
+      <EmptyState
+        headingLevel={1}
         icon="lock"
         title="Not available for your role"
         description={`This page is for ${roles.map((r) => roleLabels[r].toLowerCase() + 's').join(' and ')}. You are signed in as ${roleLabels[me.data.role].toLowerCase()}.`}

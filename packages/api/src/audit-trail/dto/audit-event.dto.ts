@@ -21,8 +21,11 @@ export class AuditEventDto {
   @ApiProperty({ type: String, description: 'ISO 8601' })
   occurredAt!: string;
 
-  @ApiProperty({ type: String, example: 'auth.sign_in' })
+  @ApiProperty({ type: String, example: 'auth.sign_in', description: 'For support and filters' })
   action!: string;
+
+  @ApiProperty({ type: String, example: 'Signed in', description: 'The action in words' })
+  actionLabel!: string;
 
   @ApiProperty({ enum: AUDIT_OUTCOMES, enumName: 'AuditOutcome' })
   outcome!: AuditOutcome;
@@ -75,6 +78,23 @@ export class AuditEventPageDto {
 export class AuditActionDto {
   @ApiProperty({ type: String, example: 'auth.sign_in' })
   action!: string;
+
+  @ApiProperty({ type: String, example: 'Signed in', description: 'The action in words' })
+  label!: string;
+
+  @ApiProperty({
+    type: String,
+    example: 'auth.',
+    description: 'The group it belongs to, as a filter prefix',
+  })
+  group!: string;
+
+  @ApiProperty({
+    type: String,
+    example: 'Sign-ins and sign-outs',
+    description: 'The group in words',
+  })
+  groupLabel!: string;
 
   @ApiProperty({ type: Number })
   count!: number;

@@ -1,6 +1,6 @@
 /**
  * A measure set's definition, field by field, as stored and as a draft is
- * edited: the shape @cairn/metrics' parseMeasureSet validates (methods.md
+ * edited: the shape @cairn/metrics' parseMeasureSet validates (docs/methods.md
  * §2–3). These classes describe it for the OpenAPI document and the web;
  * the validation itself is the schema's (zod), whose errors name the path in
  * this shape (e.g. `targets[3].threshold`).

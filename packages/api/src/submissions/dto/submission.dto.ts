@@ -175,11 +175,12 @@ export class IssueCountDto {
   count!: number;
 }
 
-export class SubmissionRefusalDto {
-  @ApiProperty({ type: String, example: 'missing_columns' })
+/** One reason a file was refused, in words, with how to fix it. */
+export class SubmissionRefusalProblemDto {
+  @ApiProperty({ type: String, example: 'missing_columns', description: 'For support; not shown' })
   code!: string;
 
-  @ApiProperty({ type: String })
+  @ApiProperty({ type: String, example: 'Required columns missing' })
   title!: string;
 
   @ApiProperty({ type: String })
@@ -195,6 +196,15 @@ export class SubmissionRefusalDto {
     description: 'Facts behind the refusal (which columns, which limit); keys depend on the code',
   })
   detail!: Record<string, unknown> | null;
+}
+
+export class SubmissionRefusalDto extends SubmissionRefusalProblemDto {
+  @ApiProperty({
+    type: [SubmissionRefusalProblemDto],
+    description:
+      'Every reason found, the primary one (code, title…) first: all the problems of the heading row (columns that identify people, units not recognised, repeated and missing columns) are reported together',
+  })
+  problems!: SubmissionRefusalProblemDto[];
 }
 
 export class SubmissionFailureDto {
@@ -259,7 +269,10 @@ export class SubmissionDto {
   @ApiProperty({ type: SubmissionFileDto, description: 'The file itself is not kept once checked' })
   file!: SubmissionFileDto;
 
-  @ApiProperty({ type: String, description: 'Who uploaded it (e-mail address, or what Cairn did)' })
+  @ApiProperty({
+    type: String,
+    description: "Who uploaded it: the person's name (or what Cairn did, e.g. demo seeding)",
+  })
   uploadedBy!: string;
 
   @ApiProperty({ type: String, description: 'ISO 8601' })
@@ -440,8 +453,18 @@ export class CoverageProblemDto {
   @ApiProperty({ type: Number }) submissionId!: number;
   @ApiProperty({ enum: SUBMISSION_STATUSES, enumName: 'SubmissionStatus' })
   status!: SubmissionStatus;
-  @ApiProperty({ type: String, nullable: true, description: 'The refusal code, if refused' })
+  @ApiProperty({
+    type: String,
+    nullable: true,
+    description: 'The refusal code, if refused (for support)',
+  })
   code!: string | null;
+  @ApiProperty({
+    type: String,
+    example: 'Required columns missing',
+    description: 'Why, in words',
+  })
+  reason!: string;
   @ApiProperty({ type: String }) uploadedAt!: string;
 }
 
@@ -469,15 +492,22 @@ export class CoveragePracticeDto {
   lastProblem!: CoverageProblemDto | null;
 }
 
+/** Practices by state: current + awaitingConfirmation + none = practices (each counted once). */
 export class CoverageTotalsDto {
   @ApiProperty({ type: Number }) practices!: number;
-  @ApiProperty({ type: Number }) current!: number;
+  @ApiProperty({ type: Number, description: 'Practices with a current submission' })
+  current!: number;
   @ApiProperty({
     type: Number,
-    description: 'Practices with an extract waiting (some also have a current one)',
+    description: 'Of the practices with a current submission, those with another extract waiting',
+  })
+  currentWithWaiting!: number;
+  @ApiProperty({
+    type: Number,
+    description: 'Practices with no current submission yet but an extract waiting',
   })
   awaitingConfirmation!: number;
-  @ApiProperty({ type: Number }) none!: number;
+  @ApiProperty({ type: Number, description: 'Practices with neither' }) none!: number;
   @ApiProperty({ type: Number, description: 'Records in current submissions' }) records!: number;
 }
 

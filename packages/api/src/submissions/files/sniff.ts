@@ -2,9 +2,12 @@
  * What kind of file an upload is, from its bytes (and its name only to word
  * the message): an XLSX workbook, CSV text, or something Cairn refuses with
  * a specific reason (.xls, .xlsm, .xlsb, .ods, .numbers, encrypted, damaged,
- * not a spreadsheet at all).
+ * not a spreadsheet at all). An OLE compound file is told apart by its
+ * directory (cfb.ts): a workbook, one protected with a password, an encrypted
+ * Office 2007+ workbook, or another Office document.
  */
 import { type Refusal, refusal } from '../format/issue-codes.js';
+import { CfbError, type CompoundKind, compoundKind } from './cfb.js';
 import { isZip, readZipDirectory, ZipError, type ZipEntry } from './zip.js';
 
 export type Sniffed =
@@ -39,6 +42,49 @@ export const encrypted = (): Refusal =>
     'In Excel choose File › Info › Protect Workbook › Encrypt with Password, delete the password, save, and upload the file again.',
   );
 
+/** An Excel 97–2003 workbook with a password: both the password and the old format must go. */
+export const encryptedXls = (): Refusal =>
+  refusal(
+    'encrypted_workbook',
+    'This is an Excel 97–2003 workbook (.xls) protected with a password, so Cairn cannot read it.',
+    'Open it in Excel with its password, choose File › Info › Protect Workbook › Encrypt with Password and delete the password, then choose File › Save As, pick “Excel Workbook (.xlsx)” or “CSV UTF-8”, and upload that file.',
+  );
+
+/** An OLE compound file (an Office 97–2003 document, or an encrypted Office 2007+ one). */
+function compound(buf: Buffer, fileName: string, ext: string): Sniffed {
+  let kind: CompoundKind;
+  try {
+    kind = compoundKind(buf);
+  } catch (error) {
+    if (!(error instanceof CfbError)) throw error;
+    // A directory that cannot be read (cut short, damaged): an encrypted workbook is still told by
+    // its stream's name; anything else is damaged.
+    if (buf.includes(ENCRYPTED_PACKAGE)) return { kind: 'refused', refusal: encrypted() };
+    return {
+      kind: 'refused',
+      refusal: unreadable(`its directory cannot be read: ${error.message}`),
+    };
+  }
+  switch (kind) {
+    case 'encrypted_ooxml':
+      return { kind: 'refused', refusal: encrypted() };
+    case 'xls_password':
+      return { kind: 'refused', refusal: encryptedXls() };
+    case 'xls':
+      return saveAs('an Excel 97–2003 workbook (.xls)');
+    case 'xls_old':
+      return saveAs('an Excel 5.0/95 workbook (.xls)');
+    case 'word':
+      return notSpreadsheet(fileName, 'a Word 97–2003 document');
+    case 'powerpoint':
+      return notSpreadsheet(fileName, 'a PowerPoint 97–2003 presentation');
+    default:
+      return ext === 'xls'
+        ? { kind: 'refused', refusal: unreadable('it is named .xls but holds no workbook') }
+        : notSpreadsheet(fileName, 'an Office 97–2003 file that is not a workbook');
+  }
+}
+
 export function sniff(buf: Buffer, fileName: string, maxEntries = 10_000): Sniffed {
   const ext = extension(fileName);
   if (buf.length === 0) {
@@ -51,13 +97,7 @@ export function sniff(buf: Buffer, fileName: string, maxEntries = 10_000): Sniff
       ),
     };
   }
-  if (buf.length >= 8 && buf.subarray(0, 8).equals(CFB)) {
-    // An OLE compound file: an Office 97–2003 document, or an encrypted Office 2007+ workbook.
-    if (buf.includes(ENCRYPTED_PACKAGE)) return { kind: 'refused', refusal: encrypted() };
-    return saveAs(
-      ext === 'doc' ? 'a Word 97–2003 document (.doc)' : 'an Excel 97–2003 workbook (.xls)',
-    );
-  }
+  if (buf.length >= 8 && buf.subarray(0, 8).equals(CFB)) return compound(buf, fileName, ext);
   if (isZip(buf)) {
     let entries: ZipEntry[];
     try {

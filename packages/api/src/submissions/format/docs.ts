@@ -48,7 +48,7 @@ const SEVERITIES: { severity: IssueSeverity; title: string; meaning: string }[] 
     severity: 'flag',
     title: 'Data-quality flags',
     meaning:
-      'Clinical data-quality checks (methods.md §7). The row is kept; the practice and the auditor see the flag.',
+      'Clinical data-quality checks (docs/methods.md §7). The row is kept; the practice and the auditor see the flag.',
   },
 ];
 
@@ -135,7 +135,7 @@ export function renderExtractFormatDoc(limits: DocLimits): string {
 
   push('## Care processes', '');
   push(
-    'A care process counts as done in the review window when its date falls in the window and, where the process has a result, the result is given too (methods.md §1–2). A result without a date, or a date without a result, is kept with a warning and not counted.',
+    'A care process counts as done in the review window when its date falls in the window and, where the process has a result, the result is given too (docs/methods.md §1–2). A result without a date, or a date without a result, is kept with a warning and not counted.',
     '',
     ...table(
       ['care process', 'date column', 'result columns'],
@@ -208,7 +208,7 @@ export function renderExtractFormatDoc(limits: DocLimits): string {
 
   push('## Privacy', '');
   push(
-    '- `record_ref` is stored as given so that the practice can find its own people again (recall lists). Everyone outside the practice (regional lead, auditor, reports) sees only a keyed pseudonym of it (HMAC-SHA-256 with a secret held by the Cairn installation; methods.md §9).',
+    '- `record_ref` is stored as given so that the practice can find its own people again (recall lists). Everyone outside the practice (regional lead, auditor, reports) sees only a keyed pseudonym of it (HMAC-SHA-256 with a secret held by the Cairn installation; docs/methods.md §9).',
     '- The uploaded file is not kept once it has been checked.',
     '',
   );

@@ -4,7 +4,8 @@
  * brackets or at the end ("HbA1c value (%)", "cholesterol_value_mg_dl"), and
  * of the aliases in columns.ts. Unknown headings are warnings; identifier-like
  * ones, a missing required column, a repeated column or a unit Cairn does not
- * know refuse the file.
+ * know refuse the file. Every such problem of the heading row is found in one
+ * pass and reported together, so that one corrected file answers them all.
  */
 import {
   COLUMN_BY_KEY,
@@ -124,13 +125,15 @@ export function knownHeadingCount(cells: readonly string[]): number {
 
 export function mapHeader(
   cells: readonly string[],
-): { mapping: HeaderMapping } | { problem: HeaderProblem } {
+): { mapping: HeaderMapping } | { problems: HeaderProblem[] } {
   const identifiers: { heading: string; what: string; column: string }[] = [];
   const columns: MappedColumn[] = [];
   const warnings: HeaderWarning[] = [];
   const ignored: number[] = [];
   const seen = new Map<string, MappedColumn[]>();
-  let unitProblem: HeaderProblem | null = null;
+  /** Columns named by a heading, even one refused for its unit (it is not also missing). */
+  const named = new Set<string>();
+  const unitProblems: HeaderProblem[] = [];
 
   cells.forEach((raw, index) => {
     const heading = (raw ?? '').trim();
@@ -160,19 +163,20 @@ export function mapHeader(
       }
       return;
     }
+    named.add(def.key);
     let headingUnit: UnitDef | null = null;
     if (unitText !== null && unitText !== '') {
       headingUnit = findUnit(def, unitText);
       if (!headingUnit) {
         // A bracketed note that is not a unit on a column without units is harmless ("sex (F/M)").
         if (def.units || def.unitFor) {
-          unitProblem ??= {
+          unitProblems.push({
             code: 'unknown_unit_in_header',
             heading,
             unitText,
             key: def.key,
             allowed: (def.units ?? []).map((u) => u.code),
-          };
+          });
           return;
         }
       }
@@ -182,23 +186,23 @@ export function mapHeader(
     seen.set(def.key, [...(seen.get(def.key) ?? []), mapped]);
   });
 
-  if (identifiers.length > 0)
-    return { problem: { code: 'identifier_column', headings: identifiers } };
-  if (unitProblem) return { problem: unitProblem };
+  // In the order a person would fix them: what must not be sent first, then what is wrong, then what is missing.
+  const problems: HeaderProblem[] = [];
+  if (identifiers.length > 0) problems.push({ code: 'identifier_column', headings: identifiers });
+  problems.push(...unitProblems);
   for (const [key, list] of seen) {
     if (list.length > 1) {
-      return {
-        problem: {
-          code: 'duplicate_column',
-          key,
-          headings: list.map((m) => m.heading),
-          columns: list.map((m) => columnLetter(m.index)),
-        },
-      };
+      problems.push({
+        code: 'duplicate_column',
+        key,
+        headings: list.map((m) => m.heading),
+        columns: list.map((m) => columnLetter(m.index)),
+      });
     }
   }
-  const missing = REQUIRED_COLUMNS.filter((key) => !seen.has(key));
-  if (missing.length > 0) return { problem: { code: 'missing_columns', missing } };
+  const missing = REQUIRED_COLUMNS.filter((key) => !named.has(key));
+  if (missing.length > 0) problems.push({ code: 'missing_columns', missing });
+  if (problems.length > 0) return { problems };
 
   // Unnamed columns at the end of the row are the spreadsheet's padding, not worth a warning.
   const trimmed = warnings.filter(

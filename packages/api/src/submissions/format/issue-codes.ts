@@ -132,13 +132,21 @@ export interface Issue {
   fix: string;
 }
 
-/** A refusal: the file is not accepted, nothing of it is stored. */
-export interface Refusal {
+/** One reason a file is refused, with what to do about it. */
+export interface RefusalProblem {
   code: IssueCodeKey;
   message: string;
   fix: string;
   /** Details for the report (e.g. the missing columns) */
   detail?: Record<string, unknown>;
+}
+
+/**
+ * A refusal: the file is not accepted, nothing of it is stored. `code` is the primary reason;
+ * `problems`, when given, are every reason found at once (the heading row's), the primary first.
+ */
+export interface Refusal extends RefusalProblem {
+  problems?: RefusalProblem[];
 }
 
 export function makeIssue(

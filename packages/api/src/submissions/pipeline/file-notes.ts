@@ -9,7 +9,14 @@
 import type { SourceNotes } from '../files/row-source.js';
 import type { CellRange } from '../files/xlsx-prescan.js';
 import { columnLetter, type HeaderMapping, type HeaderProblem } from '../format/header.js';
-import { type Issue, makeIssue, type Refusal, refusal } from '../format/issue-codes.js';
+import {
+  type Issue,
+  ISSUE_CODES,
+  makeIssue,
+  type Refusal,
+  type RefusalProblem,
+  refusal,
+} from '../format/issue-codes.js';
 
 /** How many rows with values are searched for the heading row */
 export const HEADER_SEARCH_ROWS = 20;
@@ -35,7 +42,29 @@ function joinList(items: string[]): string {
 
 // ───────────────────────────── refusals ─────────────────────────────
 
-export function headerRefusal(problem: HeaderProblem): Refusal {
+/**
+ * The refusal of a heading row: every problem found in it, each with its words and its fix. With
+ * one problem the refusal is that problem; with several, the first is the primary code and the
+ * message names them all, so that one corrected file answers every one of them.
+ */
+export function headerRefusal(problems: readonly HeaderProblem[]): Refusal {
+  const each = problems.map(headerProblem);
+  const [first] = each;
+  if (!first) throw new Error('headerRefusal needs at least one problem');
+  if (each.length === 1) return { ...first, problems: each };
+  const titles = each.map((p) => lowerFirst(ISSUE_CODES[p.code].title));
+  return {
+    code: first.code,
+    message: `The heading row has ${each.length} problems (${titles.join('; ')}), so the file was not accepted and nothing from it was kept.`,
+    fix: 'Fix each of them as its own note says, then upload the file again; or start from Cairn’s template.',
+    detail: { problems: each.map((p) => p.code) },
+    problems: each,
+  };
+}
+
+const lowerFirst = (text: string) => text.charAt(0).toLowerCase() + text.slice(1);
+
+function headerProblem(problem: HeaderProblem): RefusalProblem {
   switch (problem.code) {
     case 'identifier_column': {
       const list = problem.headings.map(

@@ -209,3 +209,97 @@ function columnAfter(n: number): string {
   }
   return letters;
 }
+
+describe('every problem of the heading row in one refusal', () => {
+  /** The headings with `drop` left out, `rename` applied and `extra` added at the end. */
+  const headings = (
+    options: { drop?: string[]; rename?: Record<string, string>; extra?: string[] } = {},
+  ) =>
+    [
+      ...KEYS.filter((k) => !options.drop?.includes(k)).map((k) => options.rename?.[k] ?? k),
+      ...(options.extra ?? []),
+    ].join(',');
+  /** A data row matching `headings`: the example values, blank under the extra columns. */
+  const rowFor = (options: { drop?: string[]; extra?: string[] }) =>
+    [
+      ...COLUMNS.filter((c) => !options.drop?.includes(c.key)).map((c) =>
+        c.key === 'record_ref' ? 'P-1' : c.example,
+      ),
+      ...(options.extra ?? []).map(() => 'x'),
+    ].join(',');
+
+  it.each<
+    [string, { drop?: string[]; rename?: Record<string, string>; extra?: string[] }, IssueCodeKey[]]
+  >([
+    ['a column that identifies people alone', { extra: ['NHS number'] }, ['identifier_column']],
+    ['a missing column alone', { drop: ['sex'] }, ['missing_columns']],
+    [
+      'a column that identifies people and a missing column',
+      { drop: ['sex'], extra: ['Patient name'] },
+      ['identifier_column', 'missing_columns'],
+    ],
+    [
+      'an unknown unit, a repeated column and two missing columns',
+      {
+        drop: ['sex', 'diabetes_type'],
+        rename: { hba1c_value: 'hba1c_value (mg)' },
+        extra: ['bmi_value', 'BMI value'],
+      },
+      ['unknown_unit_in_header', 'duplicate_column', 'missing_columns'],
+    ],
+    [
+      'two unknown units and two repeated columns',
+      {
+        rename: { hba1c_value: 'hba1c_value (mg)', cholesterol_value: 'cholesterol_value (g)' },
+        extra: ['bp systolic', 'BMI value'],
+      },
+      ['unknown_unit_in_header', 'unknown_unit_in_header', 'duplicate_column', 'duplicate_column'],
+    ],
+  ])('%s', async (_name, options, codes) => {
+    const { outcome, records, issues } = await read([headings(options), rowFor(options)]);
+    const refusal = outcome.refusal!;
+    expect(refusal.code).toBe(codes[0]);
+    expect(refusal.problems?.map((p) => p.code)).toEqual(codes);
+    for (const problem of refusal.problems ?? []) {
+      expect(problem.message).not.toBe('');
+      expect(problem.fix).not.toBe('');
+    }
+    if (codes.length === 1) {
+      expect(refusal.message).toBe(refusal.problems![0]!.message);
+    } else {
+      expect(refusal.message).toBe(
+        `The heading row has ${codes.length} problems (${codes
+          .map((c) => ISSUE_CODES[c].title.replace(/^./, (ch) => ch.toLowerCase()))
+          .join('; ')}), so the file was not accepted and nothing from it was kept.`,
+      );
+    }
+    expect(records).toHaveLength(0);
+    expect(issues).toHaveLength(0);
+  });
+
+  it('says what each problem is and how to fix it', async () => {
+    const options = { drop: ['sex', 'bmi_value'], extra: ['Postcode'] };
+    const { outcome } = await read([headings(options), rowFor(options)]);
+    expect(outcome.refusal?.problems).toEqual([
+      {
+        code: 'identifier_column',
+        message: `The file has a column that could identify people: “Postcode” (column ${columnAfter(-2)}, looks like a postcode or ZIP code). Cairn accepts only de-identified data, so the file was not accepted and nothing from it was kept.`,
+        fix: 'Delete that column from the file (Cairn needs only the columns of its template) and upload again.',
+        detail: {
+          headings: [
+            { heading: 'Postcode', what: 'a postcode or ZIP code', column: columnAfter(-2) },
+          ],
+        },
+      },
+      {
+        code: 'missing_columns',
+        message: 'The file has no columns sex and bmi_value, which Cairn needs.',
+        fix: 'Add the columns with those headings (leave cells blank where nothing was recorded), or start from Cairn’s template.',
+        detail: { missing: ['sex', 'bmi_value'] },
+      },
+    ]);
+    expect(outcome.refusal?.fix).toBe(
+      'Fix each of them as its own note says, then upload the file again; or start from Cairn’s template.',
+    );
+  });
+});

@@ -235,7 +235,7 @@ class ExtractRows {
     outcome.headerRow = headerRow;
     outcome.header = headerCells.map((c) => cellText(c).trim());
     const mapped = mapHeader(outcome.header);
-    if ('problem' in mapped) return headerRefusal(mapped.problem);
+    if ('problems' in mapped) return headerRefusal(mapped.problems);
     const mapping = mapped.mapping;
     this.mapping = mapping;
     this.headerWidth = outcome.header.length;

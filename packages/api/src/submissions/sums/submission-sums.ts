@@ -12,7 +12,8 @@
  *   measure-set version never change, so any process may keep them), else
  *   from the table, else — missing (an older database, a measure-set change)
  *   or unreadable (another format, another layout) — computed again from the
- *   records by the same code and stored.
+ *   records by the same code and stored; several missing at once (a quarter
+ *   whose measure set changed) are read in one streamed SELECT.
  * - A full recompute (`recomputeQuarter`): every current record of the quarter
  *   in one streamed read, the sums of every practice at once, all stored.
  *
@@ -171,14 +172,45 @@ export class SubmissionSums {
       }
     }
     const filled: SumsRow[] = [];
+    const computed =
+      missing.length === 1
+        ? new Map([
+            [missing[0]!.submissionId, await this.computeOne(missing[0]!, version, quarter)],
+          ])
+        : await this.computeMany(missing, version, quarter);
     for (const s of missing) {
-      const sums = await this.computeOne(s, version, quarter);
+      const sums = computed.get(s.submissionId)!;
       out.set(s.submissionId, sums);
       this.remember(s.submissionId, version.id, sums);
       filled.push(this.row(s.submissionId, version, sums));
     }
     await this.repository.replaceSums(filled);
     return out;
+  }
+
+  /**
+   * The sums of several submissions from their records in one streamed read (many missing at
+   * once: a measure-set change), by submission id. Practice codes are those of current
+   * submissions of one quarter, so each appears once.
+   */
+  private async computeMany(
+    subjects: readonly SumsSubject[],
+    version: MeasureSetVersion,
+    quarter: AuditQuarter,
+  ): Promise<Map<number, PracticeSums>> {
+    const codeOf = new Map(subjects.map((s) => [s.submissionId, s.practiceCode]));
+    if (new Set(codeOf.values()).size !== subjects.length) {
+      throw new Error('sums of several submissions of one practice cannot be read at once');
+    }
+    const byCode = await this.compute(
+      { submissionIds: subjects.map((s) => s.submissionId) },
+      (submissionId) => codeOf.get(submissionId)!,
+      subjects.map((s) => s.practiceCode),
+      subjects.reduce((n, s) => n + s.records, 0),
+      version,
+      quarter,
+    );
+    return new Map(subjects.map((s) => [s.submissionId, byCode.get(s.practiceCode)!]));
   }
 
   /**

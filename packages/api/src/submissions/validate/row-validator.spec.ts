@@ -49,7 +49,8 @@ interface RowOptions {
 function validatorFor(options: RowOptions = {}) {
   const keys = KEYS.filter((k) => !options.omit?.includes(k));
   const mapped = mapHeader(keys.map((k) => options.headings?.[k] ?? k));
-  if ('problem' in mapped) throw new Error(`heading row refused: ${mapped.problem.code}`);
+  if ('problems' in mapped)
+    throw new Error(`heading row refused: ${mapped.problems.map((p) => p.code).join(', ')}`);
   const validator = new RowValidator(
     mapped.mapping,
     { ...CONTEXT, ...options.context },

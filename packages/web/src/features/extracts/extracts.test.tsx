@@ -11,7 +11,7 @@ import type {
   SubmissionHistory,
   UploadOptions,
 } from '../../lib/api/types';
-import { fillWidths, rowHeightsFor } from './components/IssuesTable';
+import { fillWidths, rowHeightsFor, wrappedLines } from './components/IssuesTable';
 
 const about = {
   product: 'Cairn',
@@ -81,7 +81,7 @@ function submission(over: Partial<Submission> = {}): Submission {
       encoding: null,
       kept: false,
     },
-    uploadedBy: 'priya@x.example',
+    uploadedBy: 'Priya Calloway',
     uploadedAt: '2026-12-01T10:00:00.000Z',
     processingStartedAt: '2026-12-01T10:00:01.000Z',
     processedAt: '2026-12-01T10:00:03.000Z',
@@ -169,6 +169,19 @@ const issuePage: IssuePage = {
     },
   ],
 };
+
+const missingBirthYear = {
+  code: 'missing_columns',
+  title: 'Required columns missing',
+  message: 'The file has no column birth_year.',
+  fix: 'Add the column birth_year, as in Cairn’s template.',
+  detail: null,
+};
+
+/** A refusal as the API sends it: its primary problem, and every problem found. */
+function refusalOf(problems: NonNullable<Submission['refusal']>['problems']) {
+  return { ...problems[0]!, problems };
+}
 
 const current = submission({
   id: 30,
@@ -264,7 +277,8 @@ describe('submission page', () => {
     expect(screen.getByRole('button', { name: 'Cancel submission' })).toBeTruthy();
 
     state = submission();
-    expect(await screen.findByText('Rows read', {}, { timeout: 4000 })).toBeTruthy();
+    const summary = await screen.findByRole('region', { name: 'Summary' }, { timeout: 4000 });
+    expect(within(summary).getByText('Rows read')).toBeTruthy();
     expect(screen.queryByRole('progressbar', { name: 'Rows checked' })).toBeNull();
     expect(screen.getByText('Awaiting confirmation', { selector: '.bp6-tag *' })).toBeTruthy();
   });
@@ -289,9 +303,14 @@ describe('submission page', () => {
     expect(figure('Rows refused')).toBe('3');
     expect(figure('Warnings')).toBe('2');
     expect(figure('Data-quality flags')).toBe('1');
-    const byCode = within(summary).getByRole('table', { name: 'Issues by code' });
-    expect(within(byCode).getByText('unit_converted')).toBeTruthy();
-    expect(within(byCode).getByText('Value converted to Cairn’s unit')).toBeTruthy();
+    // Problems in words; the code only as a tooltip, for support.
+    const byKind = within(summary).getByRole('table', { name: 'Issues by kind' });
+    expect(within(byKind).queryByText('unit_converted')).toBeNull();
+    expect(within(byKind).getByText('Value converted to Cairn’s unit').getAttribute('title')).toBe(
+      'Code: unit_converted',
+    );
+    // The clinical caution once on the page, beside the flags.
+    expect(screen.getAllByText(/not clinical advice/)).toHaveLength(1);
     expect(screen.getByText('Audit and improvement support')).toBeTruthy();
     expect(screen.getByRole('button', { name: /Refused rows \(XLSX\)/ }).getAttribute('href')).toBe(
       '/api/practices/12/submissions/41/rejected-rows.xlsx',
@@ -333,15 +352,19 @@ describe('submission page', () => {
       ),
     );
     await userEvent.click(screen.getByRole('button', { name: 'Clear filters' }));
-    await userEvent.click(screen.getByRole('button', { name: 'Show only out_of_range' }));
+    await userEvent.click(
+      screen.getByRole('button', {
+        name: 'Show only “Value outside the plausible range” in the table',
+      }),
+    );
     await waitFor(() =>
       expect(pathsOf(fetchMock)).toContain(
         '/api/practices/12/submissions/41/issues?code=out_of_range&sort=-row&limit=500',
       ),
     );
-    expect((screen.getByRole('combobox', { name: 'Code' }) as HTMLSelectElement).value).toBe(
-      'out_of_range',
-    );
+    const problem = screen.getByRole('combobox', { name: 'Problem' }) as HTMLSelectElement;
+    expect(problem.value).toBe('out_of_range');
+    expect(problem.selectedOptions[0]?.textContent).toBe('Value outside the plausible range (2)');
   });
 
   it('confirms through an alert that names the submission it replaces', async () => {
@@ -387,6 +410,33 @@ describe('submission page', () => {
     expect(new Headers(post[1]?.headers).get('X-CSRF-Token')).toBe('tok');
   });
 
+  it('compares an extract awaiting confirmation with the current submission it would replace', async () => {
+    const waiting = submission({
+      counts: { ...submission().counts!, rowsRead: 12, rowsAccepted: 5, rowsRejected: 7 },
+    });
+    const current447 = {
+      ...current,
+      counts: { ...current.counts!, rowsRead: 447, rowsAccepted: 447, rowsRejected: 0 },
+    };
+    stubApi(priya, (path) => {
+      if (path === '/api/practices/12/submissions/41') return { body: waiting };
+      if (path === '/api/practices/12/submissions') return { body: history([waiting, current447]) };
+      if (path.startsWith('/api/practices/12/submissions/41/issues')) return { body: issuePage };
+      return undefined;
+    });
+    renderApp('/practices/12/submissions/41');
+    const compare = await screen.findByRole('region', {
+      name: 'Compare with the current submission',
+    });
+    expect(
+      within(compare).getByText(
+        /Confirming submission 41 replaces the 447 records of submission 30 with 5\. That is 442 fewer/,
+      ),
+    ).toBeTruthy();
+    const row = within(compare).getByText('Rows refused (left out)').closest('tr')!;
+    expect([...row.querySelectorAll('td')].map((td) => td.textContent)).toEqual(['7', '0']);
+  });
+
   it('never shows write buttons to an auditor, who can still read and download', async () => {
     const readOnly = submission({
       actions: { confirm: false, cancel: false, retry: false, upload: false },
@@ -424,13 +474,7 @@ describe('submission page', () => {
           count: 1,
         },
       ],
-      refusal: {
-        code: 'missing_columns',
-        title: 'Required columns missing',
-        message: 'The file has no column birth_year.',
-        fix: 'Add the column birth_year, as in Cairn’s template.',
-        detail: null,
-      },
+      refusal: refusalOf([missingBirthYear]),
       actions: { confirm: false, cancel: false, retry: false, upload: true },
     });
     stubApi(priya, (path) => {
@@ -453,6 +497,50 @@ describe('submission page', () => {
         .getByRole('link', { name: /Upload a corrected extract/ })
         .getAttribute('href'),
     ).toBe('/extracts/upload?practice=12&quarter=8');
+    // The code is kept for support, folded away.
+    const support = within(alert).getByText('Details for support').closest('details')!;
+    expect(support.open).toBe(false);
+    expect(within(support as HTMLElement).getByText('missing_columns')).toBeTruthy();
+  });
+
+  it('lists every problem of the heading row, each with its fix, in one refusal', async () => {
+    const identifier = {
+      code: 'identifier_column',
+      title: 'Column that identifies people',
+      message: 'The file has a column that could identify people: “NHS number” (column AI).',
+      fix: 'Delete that column from the file and upload again.',
+      detail: null,
+    };
+    const rejected = submission({
+      status: 'rejected',
+      statusLabel: 'Rejected',
+      counts: null,
+      issuesByCode: [],
+      refusal: {
+        ...refusalOf([identifier, missingBirthYear]),
+        message: 'The heading row has 2 problems.',
+        fix: 'Fix each of them.',
+      },
+      actions: { confirm: false, cancel: false, retry: false, upload: true },
+    });
+    stubApi(priya, (path) => {
+      if (path === '/api/practices/12/submissions/41') return { body: rejected };
+      if (path === '/api/practices/12/submissions') return { body: history([rejected, current]) };
+      return undefined;
+    });
+    renderApp('/practices/12/submissions/41');
+    const alert = await screen.findByRole('alert');
+    expect(
+      within(alert).getByRole('heading', { name: 'This file was refused: 2 problems to fix' }),
+    ).toBeTruthy();
+    const items = within(alert).getAllByRole('listitem');
+    expect(items.map((li) => within(li).getByRole('heading').textContent)).toEqual([
+      'Column that identifies people',
+      'Required columns missing',
+    ]);
+    expect(within(items[0]!).getByText(/Delete that column from the file/)).toBeTruthy();
+    expect(within(items[1]!).getByText(/Add the column birth_year/)).toBeTruthy();
+    expect(within(alert).queryByText('identifier_column', { selector: 'li *' })).toBeNull();
   });
 
   it('offers no new upload where the API allows none (a closed quarter, for a practice lead)', async () => {
@@ -463,13 +551,7 @@ describe('submission page', () => {
       quarter: closedQ2,
       counts: null,
       issuesByCode: [],
-      refusal: {
-        code: 'missing_columns',
-        title: 'Required columns missing',
-        message: 'The file has no column birth_year.',
-        fix: 'Add the column birth_year, as in Cairn’s template.',
-        detail: null,
-      },
+      refusal: refusalOf([missingBirthYear]),
       actions: { confirm: false, cancel: false, retry: false, upload: false },
     });
     stubApi(priya, (path) => {
@@ -521,7 +603,7 @@ describe('issues table', () => {
     const short = {
       column: 'bp_date',
       value: 'x',
-      code: 'invalid_date',
+      title: 'Not a date',
       message: 'Not a date.',
       fix: 'Fix it.',
     };
@@ -530,13 +612,22 @@ describe('issues table', () => {
       message: 'Type 1 diabetes is recorded but on_insulin is “no”. '.repeat(4),
     };
     const [a, b] = rowHeightsFor([short, long], widths);
-    expect(a).toBe(54);
-    expect(b).toBeGreaterThan(54);
+    // One line of text: no taller than a tag needs.
+    expect(a).toBe(28);
+    expect(b).toBeGreaterThan(28);
     // The long message fits: its lines at the column's width, 16 px each.
-    const perLine = Math.floor((widths[5]! - 22) / 6.6);
+    const perLine = Math.floor((widths[5]! - 20) / 6.1);
     expect(b).toBeGreaterThanOrEqual(Math.ceil(long.message.length / perLine) * 16);
+    expect(b).toBe(wrappedLines(long.message, perLine) * 16 + 10);
     const huge = { ...short, fix: 'x'.repeat(5000) };
     expect(rowHeightsFor([huge], widths)[0]).toBe(8 * 16 + 10);
+  });
+
+  it('counts wrapped lines at word boundaries', () => {
+    expect(wrappedLines('', 10)).toBe(1);
+    expect(wrappedLines('one two', 10)).toBe(1);
+    expect(wrappedLines('one two three', 10)).toBe(2);
+    expect(wrappedLines('x'.repeat(25), 10)).toBe(3);
   });
 });
 
@@ -748,7 +839,14 @@ describe('upload page', () => {
 describe('coverage', () => {
   const coverage: Coverage = {
     quarter: q3,
-    totals: { practices: 3, current: 1, awaitingConfirmation: 2, none: 1, records: 447 },
+    totals: {
+      practices: 3,
+      current: 1,
+      currentWithWaiting: 1,
+      awaitingConfirmation: 1,
+      none: 1,
+      records: 447,
+    },
     practices: [
       {
         practice: {
@@ -762,7 +860,7 @@ describe('coverage', () => {
           submissionId: 30,
           records: 447,
           confirmedAt: '2026-11-02T10:00:00.000Z',
-          confirmedBy: 'a@x.example',
+          confirmedBy: 'Imogen Varley',
         },
         // A new extract waiting to replace the current one.
         waiting: [
@@ -806,6 +904,7 @@ describe('coverage', () => {
           submissionId: 39,
           status: 'rejected',
           code: 'missing_columns',
+          reason: 'Required columns missing',
           uploadedAt: '2026-11-30T10:00:00.000Z',
         },
       },
@@ -822,18 +921,33 @@ describe('coverage', () => {
     expect(await screen.findByText('OV101 · Wrenfield Health Centre')).toBeTruthy();
     expect(pathsOf(fetchMock)).toContain('/api/quarters/8/coverage');
     expect(screen.getByText('3 practices')).toBeTruthy();
+    // The states add up to the practices, and say how many current ones have another waiting.
+    expect(
+      screen.getByText(
+        '3 practices: 1 with a current submission, 1 awaiting confirmation of their first, 1 with neither.',
+      ),
+    ).toBeTruthy();
+    expect(screen.getByText('1 with another extract waiting')).toBeTruthy();
     await userEvent.click(screen.getByRole('radio', { name: 'No submission (1)' }));
     expect(await screen.findByText('1 practice')).toBeTruthy();
     expect(screen.queryByText('OV101 · Wrenfield Health Centre')).toBeNull();
     const row = document.querySelector('tr[data-practice="OV103"]') as HTMLElement;
     expect(within(row).getByText('Rejected').closest('.bp6-tag')).toBeTruthy();
-    expect(within(row).getByText('missing_columns')).toBeTruthy();
-    // Awaiting confirmation: every practice with an extract waiting, also one with a current one.
-    await userEvent.click(screen.getByRole('radio', { name: 'Awaiting confirmation (2)' }));
-    expect(await screen.findByText('2 practices')).toBeTruthy();
-    expect(screen.getByText('OV101 · Wrenfield Health Centre')).toBeTruthy();
+    // The reason in words; its code only as a tooltip.
+    expect(within(row).queryByText('missing_columns')).toBeNull();
+    expect(within(row).getByText('Required columns missing').getAttribute('title')).toBe(
+      'Code: missing_columns',
+    );
+    // Awaiting confirmation: practices with no current submission yet (each practice counted once).
+    await userEvent.click(screen.getByRole('radio', { name: 'Awaiting confirmation (1)' }));
+    expect(await screen.findByText('1 practice')).toBeTruthy();
+    expect(screen.queryByText('OV101 · Wrenfield Health Centre')).toBeNull();
     expect(screen.getByText('OV102 · Quarrybank Surgery')).toBeTruthy();
-    expect(screen.queryByText('OV103 · Harnleigh Old Mill Practice')).toBeNull();
+    await userEvent.click(screen.getByRole('radio', { name: 'Current submission (1)' }));
+    const ov101 = (await screen.findByText('OV101 · Wrenfield Health Centre')).closest('tr')!;
+    // Its waiting extract: one line, the link and its tag together.
+    const line = within(ov101).getByRole('link', { name: 'Submission 44' }).closest('li')!;
+    expect(within(line).getByText('Awaiting confirmation')).toBeTruthy();
     await userEvent.click(screen.getByRole('radio', { name: /^All/ }));
     await userEvent.type(screen.getByRole('textbox', { name: /Search practice/ }), 'quarry');
     expect(await screen.findByText('1 practice')).toBeTruthy();
@@ -848,7 +962,14 @@ describe('coverage', () => {
 });
 
 describe('home page', () => {
-  const totals = { practices: 30, current: 24, awaitingConfirmation: 3, none: 5, records: 14_210 };
+  const totals = {
+    practices: 30,
+    current: 24,
+    currentWithWaiting: 2,
+    awaitingConfirmation: 1,
+    none: 5,
+    records: 14_210,
+  };
   const regionCoverage: Coverage = { quarter: q3, totals, practices: [] };
 
   it('shows a practice lead where each practice stands this quarter and the next step', async () => {
@@ -874,24 +995,30 @@ describe('home page', () => {
     renderApp('/');
     expect(await screen.findByRole('heading', { name: 'Welcome, Priya Calloway' })).toBeTruthy();
     expect(await screen.findByText('Extracts for 2026 Q3 are due by 16 Dec 2026.')).toBeTruthy();
-    const row = (code: string) =>
-      document.querySelector(`tr[data-practice="${code}"]`) as HTMLElement;
-    await waitFor(() => expect(within(row('OV102')).getByText('Submission 41')).toBeTruthy());
-    expect(within(row('OV102')).getByText('Awaiting confirmation')).toBeTruthy();
+    const practice = (code: string) =>
+      document.querySelector(`section[data-practice="${code}"]`) as HTMLElement;
+    await waitFor(() => expect(within(practice('OV102')).getByText('Submission 41')).toBeTruthy());
+    const row = within(practice('OV102')).getByText('Submission 41').closest('tr')!;
+    expect(within(row).getByText('Awaiting confirmation')).toBeTruthy();
     expect(
-      within(row('OV102'))
-        .getByRole('link', { name: /Read the report and confirm/ })
+      within(row)
+        .getByRole('link', { name: /Read the report and decide/ })
         .getAttribute('href'),
     ).toBe('/practices/12/submissions/41');
-    await waitFor(() => expect(within(row('OV104')).getByText('No submission')).toBeTruthy());
+    expect(within(practice('OV102')).getByText(/1 extract waits for a decision/)).toBeTruthy();
+    await waitFor(() =>
+      expect(
+        within(practice('OV104')).getByText(/No current submission for 2026 Q3 yet/),
+      ).toBeTruthy(),
+    );
     expect(
-      within(row('OV104'))
+      within(practice('OV104'))
         .getByRole('link', { name: /Upload extract/ })
         .getAttribute('href'),
     ).toBe('/extracts/upload?practice=14&quarter=8');
     expect(
-      within(row('OV104'))
-        .getByRole('link', { name: /Submissions/ })
+      within(practice('OV104'))
+        .getByRole('link', { name: /All submissions/ })
         .getAttribute('href'),
     ).toBe('/practices/14/submissions');
   });
@@ -909,10 +1036,68 @@ describe('home page', () => {
       return undefined;
     });
     renderApp('/');
-    const cell = await screen.findByText('Current submission');
-    const row = cell.closest('tr') as HTMLElement;
-    expect(within(row).getByRole('link', { name: /Send a corrected extract/ })).toBeTruthy();
-    expect(within(row).queryByRole('link', { name: /^Upload extract/ })).toBeNull();
+    const cell = await screen.findByText('Submission 30');
+    const section = cell.closest('section') as HTMLElement;
+    expect(within(section).getByText(/Current submission for 2026 Q3: submission 30/)).toBeTruthy();
+    expect(within(section).getByRole('link', { name: /Send a corrected extract/ })).toBeTruthy();
+    expect(within(section).queryByRole('link', { name: /^Upload extract/ })).toBeNull();
+  });
+
+  it('keeps the whole picture: the current submission and every waiting extract, with their figures', async () => {
+    const older = submission({
+      id: 40,
+      uploadedAt: '2026-12-01T09:00:00.000Z',
+      counts: { ...submission().counts!, rowsRead: 12, rowsAccepted: 5, rowsRejected: 7 },
+    });
+    const newer = submission({ id: 41 });
+    let cancelled: number[] = [];
+    const fetchMock = stubApi(priya, (path, init) => {
+      if (path === '/api/quarters') return { body: [q3] };
+      const cancel = /^\/api\/practices\/12\/submissions\/(\d+)\/cancel$/.exec(path);
+      if (cancel && init?.method === 'POST') {
+        cancelled = [...cancelled, Number(cancel[1])];
+        return { body: submission({ id: Number(cancel[1]), status: 'cancelled' }) };
+      }
+      if (path === '/api/practices/12/submissions')
+        return {
+          body: history(
+            [newer, older, current].filter((s) => !cancelled.includes(s.id)),
+            30,
+          ),
+        };
+      return undefined;
+    });
+    renderApp('/');
+    const section = (await screen.findAllByText('Submission 40'))[0]!.closest(
+      'section',
+    ) as HTMLElement;
+    const rowOf = (id: number) =>
+      section.querySelector(`tr[data-submission="${id}"]`) as HTMLElement;
+    // The current one first, then each waiting extract, every one with its figures.
+    expect(
+      [...section.querySelectorAll('tbody tr')].map((r) => r.getAttribute('data-submission')),
+    ).toEqual(['30', '41', '40']);
+    expect(within(rowOf(30)).getByText('Current')).toBeTruthy();
+    expect(within(rowOf(40)).getByText('7 of 12')).toBeTruthy();
+    expect(within(section).getByText(/2 extracts wait for a decision/)).toBeTruthy();
+    // A choice to make, not a button that confirms: compare first.
+    expect(within(section).queryByRole('button', { name: /Confirm/ })).toBeNull();
+    const compare = within(rowOf(41)).getByRole('link', { name: /Compare and decide/ });
+    expect(compare.getAttribute('href')).toBe('/practices/12/submissions/41');
+    // The older one is offered for cancelling.
+    expect(within(section).getByText(/1 older extract for 2026 Q3 still waits/)).toBeTruthy();
+    await userEvent.click(
+      within(section).getByRole('button', { name: 'Cancel the older extract' }),
+    );
+    const alert = await screen.findByRole('alertdialog');
+    expect(within(alert).getByText('Cancel submission 40?')).toBeTruthy();
+    await userEvent.click(within(alert).getByRole('button', { name: 'Cancel it' }));
+    await waitFor(() => expect(cancelled).toEqual([40]));
+    await waitFor(() => expect(section.querySelector('tr[data-submission="40"]')).toBeNull());
+    const post = (fetchMock.mock.calls as unknown as [string, RequestInit | undefined][]).find(
+      (c) => c[1]?.method === 'POST',
+    )!;
+    expect(new Headers(post[1]?.headers).get('X-CSRF-Token')).toBe('tok');
   });
 
   it('gives a regional lead the quarter’s coverage at a glance, each count leading to its practices', async () => {
@@ -926,11 +1111,14 @@ describe('home page', () => {
     renderApp('/');
     expect(await screen.findByRole('heading', { name: 'The region in 2026 Q3' })).toBeTruthy();
     expect(
-      await screen.findByText(/5 of 30 practices have no current submission yet\./),
+      await screen.findByText(
+        /5 of 30 practices have neither a current submission nor an extract waiting\./,
+      ),
     ).toBeTruthy();
     const figures = screen.getByRole('list', { name: 'Coverage' });
     const none = within(figures).getByText('No submission').closest('a')!;
     expect(none.getAttribute('href')).toBe('/coverage?quarter=8&state=none');
+    expect(within(figures).getByText('2 with another extract waiting')).toBeTruthy();
     expect(screen.getByRole('link', { name: /Open coverage/ }).getAttribute('href')).toBe(
       '/coverage?quarter=8',
     );

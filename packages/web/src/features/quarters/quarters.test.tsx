@@ -41,7 +41,14 @@ const q3: AuditQuarter = {
     closedAt: null,
   },
   measureSet: { id: 'cairn-default-2026.1', label: 'Cairn default measure set 2026.1' },
-  coverage: { practices: 30, current: 27, awaitingConfirmation: 2, none: 2, records: 9000 },
+  coverage: {
+    practices: 30,
+    current: 27,
+    currentWithWaiting: 1,
+    awaitingConfirmation: 1,
+    none: 2,
+    records: 9000,
+  },
   reports: [],
   actions: { close: true, reopen: false, changeDeadline: true, changeMeasureSet: true },
 };
@@ -116,7 +123,7 @@ describe('the audit quarters page', () => {
     expect(within(row).getByText('No report published yet')).toBeTruthy();
     expect(
       within(row).getByRole('link', {
-        name: 'Coverage of 2026 Q3: 27 of 30 practices with a current submission, 2 awaiting confirmation, 2 with none',
+        name: 'Coverage of 2026 Q3: 27 of 30 practices with a current submission, 1 awaiting confirmation, 2 with none',
       }),
     ).toBeTruthy();
     expect(within(row).getByRole('button', { name: 'Close 2026 Q3' })).toBeTruthy();

@@ -37,7 +37,9 @@ describe('sign-in page', () => {
     renderApp('/sign-in?refused=deactivated');
     expect(await screen.findByText('Your Cairn account has been deactivated')).toBeTruthy();
     expect(screen.getByText(/ask your regional lead to reactivate/)).toBeTruthy();
-    expect(screen.getByText('Reference: deactivated')).toBeTruthy();
+    // The reference is kept for support, folded away.
+    const support = screen.getByText('Details for support').closest('details')!;
+    expect(support.textContent).toBe('Details for supportReference: deactivated');
     expect(screen.getByRole('button', { name: 'Sign in again' })).toBeTruthy();
   });
 

@@ -1316,8 +1316,16 @@ export interface components {
       id: number;
       /** @description ISO 8601 */
       occurredAt: string;
-      /** @example auth.sign_in */
+      /**
+       * @description For support and filters
+       * @example auth.sign_in
+       */
       action: string;
+      /**
+       * @description The action in words
+       * @example Signed in
+       */
+      actionLabel: string;
       outcome: components['schemas']['AuditOutcome'];
       actorUserId: number | null;
       /** @example imogen.varley@ostrevale.example */
@@ -1343,6 +1351,21 @@ export interface components {
     AuditActionDto: {
       /** @example auth.sign_in */
       action: string;
+      /**
+       * @description The action in words
+       * @example Signed in
+       */
+      label: string;
+      /**
+       * @description The group it belongs to, as a filter prefix
+       * @example auth.
+       */
+      group: string;
+      /**
+       * @description The group in words
+       * @example Sign-ins and sign-outs
+       */
+      groupLabel: string;
       count: number;
     };
     MeDto: {
@@ -2028,9 +2051,13 @@ export interface components {
       title: string;
       count: number;
     };
-    SubmissionRefusalDto: {
-      /** @example missing_columns */
+    SubmissionRefusalProblemDto: {
+      /**
+       * @description For support; not shown
+       * @example missing_columns
+       */
       code: string;
+      /** @example Required columns missing */
       title: string;
       message: string;
       fix: string;
@@ -2038,6 +2065,23 @@ export interface components {
       detail: {
         [key: string]: unknown;
       } | null;
+    };
+    SubmissionRefusalDto: {
+      /**
+       * @description For support; not shown
+       * @example missing_columns
+       */
+      code: string;
+      /** @example Required columns missing */
+      title: string;
+      message: string;
+      fix: string;
+      /** @description Facts behind the refusal (which columns, which limit); keys depend on the code */
+      detail: {
+        [key: string]: unknown;
+      } | null;
+      /** @description Every reason found, the primary one (code, title…) first: all the problems of the heading row (columns that identify people, units not recognised, repeated and missing columns) are reported together */
+      problems: components['schemas']['SubmissionRefusalProblemDto'][];
     };
     SubmissionFailureDto: {
       message: string;
@@ -2068,7 +2112,7 @@ export interface components {
       quarter: components['schemas']['QuarterDto'];
       /** @description The file itself is not kept once checked */
       file: components['schemas']['SubmissionFileDto'];
-      /** @description Who uploaded it (e-mail address, or what Cairn did) */
+      /** @description Who uploaded it: the person's name (or what Cairn did, e.g. demo seeding) */
       uploadedBy: string;
       /** @description ISO 8601 */
       uploadedAt: string;
@@ -2193,9 +2237,13 @@ export interface components {
     };
     CoverageTotalsDto: {
       practices: number;
+      /** @description Practices with a current submission */
       current: number;
-      /** @description Practices with an extract waiting (some also have a current one) */
+      /** @description Of the practices with a current submission, those with another extract waiting */
+      currentWithWaiting: number;
+      /** @description Practices with no current submission yet but an extract waiting */
       awaitingConfirmation: number;
+      /** @description Practices with neither */
       none: number;
       /** @description Records in current submissions */
       records: number;
@@ -2216,8 +2264,13 @@ export interface components {
     CoverageProblemDto: {
       submissionId: number;
       status: components['schemas']['SubmissionStatus'];
-      /** @description The refusal code, if refused */
+      /** @description The refusal code, if refused (for support) */
       code: string | null;
+      /**
+       * @description Why, in words
+       * @example Required columns missing
+       */
+      reason: string;
       uploadedAt: string;
     };
     CoveragePracticeDto: {

@@ -1,18 +1,21 @@
 import {
   Button,
-  H2,
+  H1,
   HTMLSelect,
   HTMLTable,
   InputGroup,
   Intent,
-  NonIdealState,
   Spinner,
   Tag,
 } from '@blueprintjs/core';
 import { Fragment, useDeferredValue, useState } from 'react';
 import { useSearchParams } from 'react-router-dom';
-import { formatDateTime } from '../../../lib/format';
+import { DateFilter } from '../../../components/DateFilter';
+import { EmptyState } from '../../../components/Notice';
 import { ProblemCallout } from '../../../components/ProblemCallout';
+import { SupportCodes } from '../../../components/SupportCodes';
+import { formatDateTime } from '../../../lib/format';
+import { usePageTitle } from '../../../lib/page-title';
 import { RequireRole } from '../../../components/RequireRole';
 import type { AuditEvent, AuditOutcome } from '../../../lib/api/types';
 import { type AuditFilters, useAuditActions, useAuditEvents } from '../api/audit-events';
@@ -20,18 +23,13 @@ import './AuditTrail.css';
 
 /** `/audit-trail`: the regional lead browses what happened, who did it, and refused sign-ins. */
 export function AuditTrail() {
+  usePageTitle('Audit trail');
   return (
     <RequireRole roles={['regional_lead', 'auditor']}>
       <AuditTrailScreen />
     </RequireRole>
   );
 }
-
-const groups = [
-  { value: 'auth.', label: 'All sign-in events' },
-  { value: 'user.', label: 'All changes to people' },
-  { value: 'membership.', label: 'All practice assignments' },
-];
 
 const outcomeTag: Record<
   AuditOutcome,
@@ -64,21 +62,26 @@ function AuditTrailScreen() {
     setParams(next, { replace: true });
   };
   const rows: AuditEvent[] = events.data?.pages.flatMap((p) => p.events) ?? [];
+  // The groups of actions recorded so far, in the API's words (each a filter prefix).
+  const groups = [
+    ...new Map((actions.data ?? []).map((a) => [a.group, a.groupLabel])).entries(),
+  ].map(([value, label]) => ({ value, label: `${label} (all)` }));
 
   return (
     <div className="cairn-audit">
       <div className="cairn-page-head">
         <div>
-          <H2>Audit trail</H2>
+          <H1 className="cairn-page-title">Audit trail</H1>
           <p className="cairn-muted">
-            Every sign-in, refused sign-in and change to people and their practices, newest first.
-            Entries cannot be changed or deleted.
+            What happened in the region, newest first: sign-ins and refused sign-ins, changes to
+            people and their practices, audit quarters, and every extract and submission (uploaded,
+            checked, refused, confirmed, cancelled). Entries cannot be changed or deleted.
           </p>
         </div>
       </div>
       <div className="cairn-filters" role="search">
         <HTMLSelect
-          aria-label="Action"
+          aria-label="Code"
           value={filters.action}
           onChange={(e) => setFilter('action', e.currentTarget.value)}
         >
@@ -93,7 +96,7 @@ function AuditTrailScreen() {
           <optgroup label="Actions">
             {(actions.data ?? []).map((a) => (
               <option key={a.action} value={a.action}>
-                {a.action} ({a.count})
+                {a.label} ({a.count})
               </option>
             ))}
           </optgroup>
@@ -118,30 +121,18 @@ function AuditTrailScreen() {
             setFilter('search', value.trim());
           }}
         />
-        <label className="cairn-date">
-          From{' '}
-          <input
-            className="bp6-input"
-            type="date"
-            value={filters.from}
-            onChange={(e) => setFilter('from', e.currentTarget.value)}
-          />
-        </label>
-        <label className="cairn-date">
-          To{' '}
-          <input
-            className="bp6-input"
-            type="date"
-            value={filters.to}
-            onChange={(e) => setFilter('to', e.currentTarget.value)}
-          />
-        </label>
+        <DateFilter
+          label="From"
+          value={filters.from ?? ''}
+          onChange={(iso) => setFilter('from', iso)}
+        />
+        <DateFilter label="To" value={filters.to ?? ''} onChange={(iso) => setFilter('to', iso)} />
       </div>
       <ProblemCallout error={events.error} />
       {events.isPending ? (
         <Spinner aria-label="Loading the audit trail" />
       ) : rows.length === 0 ? (
-        <NonIdealState
+        <EmptyState
           icon="history"
           title="No entries match"
           description="Change or clear the filters."
@@ -174,9 +165,7 @@ function AuditTrailScreen() {
                         {tag.label}
                       </Tag>
                     </td>
-                    <td>
-                      <code>{event.action}</code>
-                    </td>
+                    <td title={`Action: ${event.action}`}>{event.actionLabel}</td>
                     <td>{event.actorLabel}</td>
                     <td>{event.summary}</td>
                     <td>{event.practice?.code ?? ''}</td>
@@ -195,14 +184,6 @@ function AuditTrailScreen() {
                     <tr className="cairn-audit-detail">
                       <td colSpan={7}>
                         <dl>
-                          {event.detail?.reason ? (
-                            <>
-                              <dt>Reason</dt>
-                              <dd>
-                                <code>{String(event.detail.reason)}</code>
-                              </dd>
-                            </>
-                          ) : null}
                           {event.subjectType ? (
                             <>
                               <dt>About</dt>
@@ -218,6 +199,13 @@ function AuditTrailScreen() {
                             <code>{event.requestId ?? '—'}</code>
                           </dd>
                         </dl>
+                        <SupportCodes
+                          label="Code"
+                          codes={[
+                            event.action,
+                            ...(event.detail?.reason ? [String(event.detail.reason)] : []),
+                          ]}
+                        />
                         {event.detail ? <pre>{JSON.stringify(event.detail, null, 2)}</pre> : null}
                       </td>
                     </tr>

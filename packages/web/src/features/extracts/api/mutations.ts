@@ -80,3 +80,24 @@ export function useSubmissionDecision(practiceId: number, submissionId: number) 
 export function uploadProblemOf(error: unknown): UploadProblem | null {
   return error instanceof ApiError ? (error.problem as UploadProblem) : null;
 }
+
+/** Cancels several submissions of a practice, one after the other (older extracts left waiting). */
+export function useCancelSubmissions(practiceId: number) {
+  const client = useQueryClient();
+  return useMutation({
+    mutationFn: async (submissionIds: readonly number[]) => {
+      const cancelled: Submission[] = [];
+      for (const id of submissionIds) {
+        cancelled.push(
+          await apiFetch<Submission>(`/api/practices/${practiceId}/submissions/${id}/cancel`, {
+            method: 'POST',
+          }),
+        );
+      }
+      return cancelled;
+    },
+    onSettled: async () => {
+      await refreshAfterChange(client, practiceId);
+    },
+  });
+}

@@ -1,14 +1,7 @@
-import {
-  Button,
-  ButtonGroup,
-  Callout,
-  Classes,
-  HTMLSelect,
-  NonIdealState,
-  Spinner,
-} from '@blueprintjs/core';
+import { Button, ButtonGroup, HTMLSelect, Spinner } from '@blueprintjs/core';
 import { Cell, Column, Table2 } from '@blueprintjs/table';
 import { useEffect, useMemo, useState } from 'react';
+import { EmptyState, Notice } from '../../../components/Notice';
 import { ProblemCallout } from '../../../components/ProblemCallout';
 import type { Issue, IssueSort, Submission } from '../../../lib/api/types';
 import { formatCount } from '../../../lib/format';
@@ -16,7 +9,8 @@ import { type IssueFilters, useIssues } from '../api/extracts';
 import { SeverityTag, severityLook } from './StatusTag';
 
 export const ISSUE_PAGE = 500;
-const ROW_HEIGHT = 54;
+/** One line of text, or a tag, with the cell's padding */
+const ROW_HEIGHT = 28;
 /** Column widths at their narrowest; stretched to fill the page's width. */
 const BASE_WIDTHS = [56, 140, 140, 120, 160, 255, 255];
 
@@ -30,29 +24,53 @@ export function fillWidths(width: number, base: number[] = BASE_WIDTHS): number[
 }
 
 const LINE_HEIGHT = 16;
-/** Average width of a character of the table's 12 px text, and a cell's side padding. */
-const CHAR_WIDTH = 6.6;
-const CELL_PADDING = 22;
-const MAX_ROW_HEIGHT = 8 * LINE_HEIGHT + 10;
+/** Average width of a character of the table's 12 px Lato text, and a cell's side padding. */
+const CHAR_WIDTH = 6.1;
+const CELL_PADDING = 20;
+/** The cell's padding above and below its lines */
+const ROW_PADDING = 10;
+const MAX_ROW_HEIGHT = 8 * LINE_HEIGHT + ROW_PADDING;
+
+/** Lines a text takes when wrapped at word boundaries in `perLine` characters. */
+export function wrappedLines(text: string, perLine: number): number {
+  let lines = 1;
+  let used = 0;
+  for (const word of text.split(/\s+/).filter(Boolean)) {
+    const length = word.length;
+    if (used === 0) used = length;
+    else if (used + 1 + length <= perLine) used += 1 + length;
+    else {
+      lines++;
+      used = length;
+    }
+    // A word longer than a line breaks where it must.
+    while (used > perLine) {
+      lines++;
+      used -= perLine;
+    }
+  }
+  return lines;
+}
 
 /**
  * Row heights that fit each issue's longest wrapped text (message, fix, value…) in the
- * column widths, so that no message is cut off; at least ROW_HEIGHT, at most eight lines.
+ * column widths, so that no message is cut off and no row is taller than its text needs;
+ * at least one line, at most eight.
  */
 export function rowHeightsFor(
-  items: readonly Pick<Issue, 'column' | 'value' | 'code' | 'message' | 'fix'>[],
+  items: readonly Pick<Issue, 'column' | 'value' | 'title' | 'message' | 'fix'>[],
   widths: readonly number[],
 ): number[] {
-  // Columns 2 to 6 hold wrapped text: column, value as given, code, message, fix.
-  const texts = (i: (typeof items)[number]) => [i.column, i.value, i.code, i.message, i.fix];
+  // Columns 2 to 6 hold wrapped text: column, value as given, problem, message, fix.
+  const texts = (i: (typeof items)[number]) => [i.column, i.value, i.title, i.message, i.fix];
   return items.map((item) => {
     let lines = 1;
     texts(item).forEach((text, k) => {
       const width = Math.max(20, (widths[k + 2] ?? 120) - CELL_PADDING);
       const perLine = Math.max(1, Math.floor(width / CHAR_WIDTH));
-      lines = Math.max(lines, Math.ceil((text ?? '').length / perLine));
+      lines = Math.max(lines, wrappedLines(text ?? '', perLine));
     });
-    return Math.min(MAX_ROW_HEIGHT, Math.max(ROW_HEIGHT, lines * LINE_HEIGHT + 10));
+    return Math.min(MAX_ROW_HEIGHT, Math.max(ROW_HEIGHT, lines * LINE_HEIGHT + ROW_PADDING));
   });
 }
 
@@ -76,8 +94,8 @@ const sorts: { value: IssueSort; label: string }[] = [
   { value: '-row', label: 'Row, last to first' },
   { value: 'severity', label: 'Kind, row errors first' },
   { value: '-severity', label: 'Kind, warnings first' },
-  { value: 'code', label: 'Code, A to Z' },
-  { value: '-code', label: 'Code, Z to A' },
+  { value: 'code', label: 'Problem, grouped' },
+  { value: '-code', label: 'Problem, grouped, reversed' },
   { value: 'column', label: 'Column, A to Z' },
   { value: '-column', label: 'Column, Z to A' },
 ];
@@ -104,10 +122,15 @@ export function IssuesTable({ submission, filters, onChange }: Props) {
   const widths = useMemo(() => fillWidths(boxWidth), [boxWidth]);
   const rowHeights = useMemo(() => rowHeightsFor(items, widths), [items, widths]);
 
-  const text = (row: number, value: (i: Issue) => string | null) => {
-    const content = items[row] ? (value(items[row]) ?? '') : '';
+  const text = (
+    row: number,
+    value: (i: Issue) => string | null,
+    tooltip?: (i: Issue) => string,
+  ) => {
+    const item = items[row];
+    const content = item ? (value(item) ?? '') : '';
     return (
-      <Cell wrapText tooltip={content || undefined}>
+      <Cell wrapText tooltip={(item && tooltip?.(item)) || content || undefined}>
         {content}
       </Cell>
     );
@@ -115,9 +138,9 @@ export function IssuesTable({ submission, filters, onChange }: Props) {
 
   return (
     <section className="cairn-issues" aria-labelledby="cairn-issues-heading">
-      <h3 id="cairn-issues-heading" className={Classes.HEADING}>
+      <h2 id="cairn-issues-heading" className="bp6-heading">
         Issues, row by row
-      </h3>
+      </h2>
       <div className="cairn-filters" role="search" aria-label="Filter the issues">
         <HTMLSelect
           aria-label="Kind of issue"
@@ -132,14 +155,14 @@ export function IssuesTable({ submission, filters, onChange }: Props) {
           <option value="flag">{severityLook.flag.plural} (row kept)</option>
         </HTMLSelect>
         <HTMLSelect
-          aria-label="Code"
+          aria-label="Problem"
           value={filters.code ?? ''}
           onChange={(e) => set({ code: e.currentTarget.value })}
         >
-          <option value="">Every code</option>
+          <option value="">Every problem</option>
           {codes.map((c) => (
             <option key={c.code} value={c.code}>
-              {c.code} · {c.title} ({formatCount(c.count)})
+              {c.title} ({formatCount(c.count)})
             </option>
           ))}
         </HTMLSelect>
@@ -184,16 +207,16 @@ export function IssuesTable({ submission, filters, onChange }: Props) {
         </span>
       </div>
       {page && !page.recordRefsShown ? (
-        <Callout icon="eye-off" compact className="cairn-note">
+        <Notice icon="eye-off" compact className="cairn-note">
           Record references are shown as pseudonyms: only the practice&apos;s own leads see them as
           given.
-        </Callout>
+        </Notice>
       ) : null}
       <ProblemCallout error={issues.error} />
       {issues.isPending ? (
         <Spinner aria-label="Loading the issues" />
       ) : items.length === 0 ? (
-        <NonIdealState
+        <EmptyState
           icon={filtered ? 'filter' : 'tick-circle'}
           title={filtered ? 'No issues match' : 'No issues'}
           description={filtered ? 'Change or clear the filters.' : 'Every row was read cleanly.'}
@@ -226,7 +249,17 @@ export function IssuesTable({ submission, filters, onChange }: Props) {
             />
             <Column name="Column" cellRenderer={(row) => text(row, (i) => i.column)} />
             <Column name="Value as given" cellRenderer={(row) => text(row, (i) => i.value)} />
-            <Column name="Code" cellRenderer={(row) => text(row, (i) => i.code)} />
+            <Column
+              name="Problem"
+              cellRenderer={(row) =>
+                text(
+                  row,
+                  (i) => i.title,
+                  // The code stays available for support, as the cell's tooltip.
+                  (i) => `${i.title} (code: ${i.code})`,
+                )
+              }
+            />
             <Column name="What is wrong" cellRenderer={(row) => text(row, (i) => i.message)} />
             <Column name="How to fix it" cellRenderer={(row) => text(row, (i) => i.fix)} />
           </Table2>

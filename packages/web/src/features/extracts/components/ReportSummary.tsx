@@ -1,4 +1,4 @@
-import { Button, Classes, HTMLTable } from '@blueprintjs/core';
+import { Button, HTMLTable } from '@blueprintjs/core';
 import { formatCount } from '../../../lib/format';
 import type { IssueCount, Submission } from '../../../lib/api/types';
 import { Figure } from './Figure';
@@ -18,9 +18,9 @@ export function ReportSummary({ submission, activeCode, onPickCode }: Props) {
   const byCode = submission.issuesByCode.filter((c) => c.severity !== 'refusal');
   return (
     <section className="cairn-report-summary" aria-labelledby="cairn-summary-heading">
-      <h3 id="cairn-summary-heading" className={Classes.HEADING}>
+      <h2 id="cairn-summary-heading" className="bp6-heading">
         Summary
-      </h3>
+      </h2>
       <div className="cairn-figures" role="list">
         <div role="listitem">
           <Figure label="Rows read" value={counts.rowsRead} />
@@ -49,12 +49,11 @@ export function ReportSummary({ submission, activeCode, onPickCode }: Props) {
         </p>
       ) : null}
       {byCode.length > 0 ? (
-        <HTMLTable compact className="cairn-by-code" aria-label="Issues by code">
+        <HTMLTable compact className="cairn-by-code" aria-label="Issues by kind">
           <thead>
             <tr>
               <th>Kind</th>
               <th>What Cairn found</th>
-              <th>Code</th>
               <th className="cairn-number">Times</th>
               {onPickCode ? (
                 <th>
@@ -69,10 +68,8 @@ export function ReportSummary({ submission, activeCode, onPickCode }: Props) {
                 <td>
                   <SeverityTag severity={c.severity} />
                 </td>
-                <td>{c.title}</td>
-                <td>
-                  <code>{c.code}</code>
-                </td>
+                {/* The code stays available for support, as a tooltip. */}
+                <td title={`Code: ${c.code}`}>{c.title}</td>
                 <td className="cairn-number">{formatCount(c.count)}</td>
                 {onPickCode ? (
                   <td>
@@ -80,7 +77,7 @@ export function ReportSummary({ submission, activeCode, onPickCode }: Props) {
                       size="small"
                       variant="minimal"
                       icon="filter"
-                      aria-label={`Show only ${c.code}`}
+                      aria-label={`Show only “${c.title}” in the table`}
                       onClick={() => onPickCode(c.code)}
                     >
                       Show

@@ -1,18 +1,19 @@
 import {
-  H2,
+  H1,
   HTMLSelect,
   HTMLTable,
   InputGroup,
-  NonIdealState,
   SegmentedControl,
   Spinner,
 } from '@blueprintjs/core';
 import { useDeferredValue, useState } from 'react';
 import { Link, useSearchParams } from 'react-router-dom';
+import { EmptyState } from '../../../components/Notice';
 import { ProblemCallout } from '../../../components/ProblemCallout';
 import { RequireRole } from '../../../components/RequireRole';
 import type { CoverageState } from '../../../lib/api/types';
 import { formatCount, formatDateTime } from '../../../lib/format';
+import { usePageTitle } from '../../../lib/page-title';
 import { useCoverage, useQuarters } from '../api/extracts';
 import { formatDate, formatMonth } from '../components/format';
 import { CoverageTag, coverageLook, StatusTag } from '../components/StatusTag';
@@ -21,6 +22,7 @@ import './Extracts.css';
 
 /** `/coverage`: which practices have a current submission for an audit quarter. */
 export function Coverage() {
+  usePageTitle('Coverage');
   return (
     <RequireRole roles={['regional_lead', 'auditor']}>
       <CoverageScreen />
@@ -50,11 +52,10 @@ function CoverageScreen() {
   };
 
   const data = coverage.data;
+  // The states are a partition: each practice is in exactly one of them.
   const rows = (data?.practices ?? []).filter(
     (p) =>
-      (state === 'all' ||
-        // Awaiting confirmation: any practice with an extract waiting, current or not.
-        (state === 'awaiting_confirmation' ? p.waiting.length > 0 : p.state === state)) &&
+      (state === 'all' || p.state === state) &&
       (!deferred ||
         `${p.practice.code} ${p.practice.name} ${p.practice.localityName ?? ''}`
           .toLowerCase()
@@ -66,10 +67,10 @@ function CoverageScreen() {
     <div className="cairn-extracts cairn-coverage">
       <div className="cairn-page-head">
         <div>
-          <H2>Coverage</H2>
+          <H1 className="cairn-page-title">Coverage</H1>
           <p className="cairn-muted">
-            Which practices have a confirmed, current submission for an audit quarter, which are
-            awaiting confirmation, and which have sent nothing yet.
+            Each practice once: with a confirmed, current submission for the audit quarter; with
+            none yet but an extract awaiting confirmation; or with neither.
           </p>
         </div>
         <div className="cairn-head-actions">
@@ -100,28 +101,46 @@ function CoverageScreen() {
       ) : null}
 
       {!quarters.isPending && list.length === 0 ? (
-        <NonIdealState icon="calendar" title="No audit quarters yet" />
+        <EmptyState icon="calendar" title="No audit quarters yet" />
       ) : null}
 
       {totals ? (
-        <div className="cairn-figures cairn-coverage-totals" role="list">
-          {(
-            [
-              ['Practices', totals.practices],
-              [<CoverageTag key="current" state="current" />, totals.current],
+        <>
+          <div
+            className="cairn-figures cairn-coverage-totals"
+            role="list"
+            aria-label="Practices by state"
+          >
+            {(
               [
-                <CoverageTag key="awaiting" state="awaiting_confirmation" />,
-                totals.awaitingConfirmation,
-              ],
-              [<CoverageTag key="none" state="none" />, totals.none],
-              ['Records in current submissions', totals.records],
-            ] as const
-          ).map(([label, value], i) => (
-            <div role="listitem" key={i}>
-              <Figure label={label} value={value} />
-            </div>
-          ))}
-        </div>
+                ['Practices', totals.practices, undefined],
+                [
+                  <CoverageTag key="current" state="current" />,
+                  totals.current,
+                  totals.currentWithWaiting > 0
+                    ? `${formatCount(totals.currentWithWaiting)} with another extract waiting`
+                    : undefined,
+                ],
+                [
+                  <CoverageTag key="awaiting" state="awaiting_confirmation" />,
+                  totals.awaitingConfirmation,
+                  'no current one yet',
+                ],
+                [<CoverageTag key="none" state="none" />, totals.none, undefined],
+                ['Records in current submissions', totals.records, undefined],
+              ] as const
+            ).map(([label, value, note], i) => (
+              <div role="listitem" key={i}>
+                <Figure label={label} value={value} note={note} />
+              </div>
+            ))}
+          </div>
+          <p className="cairn-muted cairn-coverage-sum">
+            {formatCount(totals.practices)} practices: {formatCount(totals.current)} with a current
+            submission, {formatCount(totals.awaitingConfirmation)} awaiting confirmation of their
+            first, {formatCount(totals.none)} with neither.
+          </p>
+        </>
       ) : null}
 
       {totals ? (
@@ -158,7 +177,7 @@ function CoverageScreen() {
 
       {coverage.isPending && quarter ? <Spinner aria-label="Loading coverage" /> : null}
       {data && rows.length === 0 ? (
-        <NonIdealState icon="filter" title="No practice matches" description="Change the filter." />
+        <EmptyState icon="filter" title="No practice matches" description="Change the filter." />
       ) : null}
       {data && rows.length > 0 ? (
         <HTMLTable compact striped className="cairn-coverage-table">
@@ -208,26 +227,33 @@ function CoverageScreen() {
                   {p.waiting.length === 0 ? (
                     <span className="cairn-muted">—</span>
                   ) : (
-                    p.waiting.map((w) => (
-                      <div key={w.submissionId} className="cairn-tags">
-                        <StatusTag status={w.status} />
-                        <Link to={`/practices/${p.practice.id}/submissions/${w.submissionId}`}>
-                          Submission {w.submissionId}
-                        </Link>
-                      </div>
-                    ))
+                    <ul className="cairn-line-list">
+                      {p.waiting.map((w) => (
+                        <li key={w.submissionId} className="cairn-waiting-line">
+                          <Link to={`/practices/${p.practice.id}/submissions/${w.submissionId}`}>
+                            Submission {w.submissionId}
+                          </Link>{' '}
+                          <StatusTag status={w.status} />
+                        </li>
+                      ))}
+                    </ul>
                   )}
                 </td>
                 <td>
                   {p.lastProblem ? (
-                    <div className="cairn-tags">
-                      <StatusTag status={p.lastProblem.status} />
+                    <div className="cairn-problem-line">
                       <Link
                         to={`/practices/${p.practice.id}/submissions/${p.lastProblem.submissionId}`}
                       >
                         Submission {p.lastProblem.submissionId}
-                      </Link>
-                      {p.lastProblem.code ? <code>{p.lastProblem.code}</code> : null}
+                      </Link>{' '}
+                      <StatusTag status={p.lastProblem.status} />
+                      <div
+                        className="cairn-small"
+                        title={p.lastProblem.code ? `Code: ${p.lastProblem.code}` : undefined}
+                      >
+                        {p.lastProblem.reason}
+                      </div>
                     </div>
                   ) : (
                     <span className="cairn-muted">—</span>

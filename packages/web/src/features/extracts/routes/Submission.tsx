@@ -1,18 +1,12 @@
-import {
-  AnchorButton,
-  Callout,
-  Classes,
-  H2,
-  Intent,
-  NonIdealState,
-  Spinner,
-} from '@blueprintjs/core';
+import { AnchorButton, H1, Intent, Spinner } from '@blueprintjs/core';
 import { Link, useParams, useSearchParams } from 'react-router-dom';
 import { ClinicalCaution } from '../../../components/ClinicalCaution';
+import { EmptyState, Notice } from '../../../components/Notice';
 import { ProblemCallout } from '../../../components/ProblemCallout';
 import { RequireRole } from '../../../components/RequireRole';
 import type { IssueSort, Submission as SubmissionView } from '../../../lib/api/types';
 import { formatCount, formatDateTime } from '../../../lib/format';
+import { usePageTitle } from '../../../lib/page-title';
 import { downloadLinks, type IssueFilters, useHistory, useSubmission } from '../api/extracts';
 import { uploadLink } from '../components/upload-link';
 import { formatBytes, formatMonth } from '../components/format';
@@ -20,13 +14,18 @@ import { ISSUE_PAGE, IssuesTable } from '../components/IssuesTable';
 import { LinkButton } from '../components/LinkButton';
 import { RefusalCallout } from '../components/RefusalCallout';
 import { ReportSummary } from '../components/ReportSummary';
+import { CompareWithCurrent } from '../components/CompareWithCurrent';
+import { OlderWaiting } from '../components/OlderWaiting';
 import { CurrentTag, StatusTag } from '../components/StatusTag';
+import { quarterState } from '../components/waiting';
 import { SubmissionDecisions } from '../components/SubmissionDecisions';
 import { SubmissionProgress } from '../components/SubmissionProgress';
 import './Extracts.css';
 
 /** `/practices/:practiceId/submissions/:submissionId`: progress, then the validation report. */
 export function Submission() {
+  const { submissionId } = useParams();
+  usePageTitle(`Submission ${submissionId ?? ''}`.trim());
   return (
     <RequireRole roles={['practice_lead', 'regional_lead', 'auditor']}>
       <SubmissionScreen />
@@ -48,13 +47,13 @@ function SubmissionScreen() {
   const [search, setSearch] = useSearchParams();
 
   if (!Number.isSafeInteger(practiceId) || !Number.isSafeInteger(submissionId)) {
-    return <NonIdealState icon="path-search" title="This page does not exist" />;
+    return <EmptyState icon="path-search" title="This page does not exist" headingLevel={1} />;
   }
   if (submission.isPending) return <Spinner aria-label="Loading the submission" />;
   if (submission.isError) {
     return (
       <div className="cairn-extracts">
-        <H2>Submission {submissionId}</H2>
+        <H1 className="cairn-page-title">Submission {submissionId}</H1>
         <ProblemCallout error={submission.error} />
         <Link to={`/practices/${practiceId}/submissions`}>See the practice&apos;s submissions</Link>
       </div>
@@ -81,11 +80,15 @@ function SubmissionScreen() {
   };
 
   const quarterEntry = history.data?.quarters.find((q) => q.quarter.id === s.quarter.id);
-  const currentId = quarterEntry?.currentSubmissionId ?? null;
+  const state = quarterState(quarterEntry);
   const current: SubmissionView | null =
-    currentId !== null && currentId !== s.id
-      ? (quarterEntry?.submissions.find((x) => x.id === currentId) ?? null)
-      : null;
+    state.current && state.current.id !== s.id ? state.current : null;
+  // Extracts waiting behind this one (newer, or now current), offered for cancelling.
+  const olderThanThis = state.older.filter((x) => x.id < s.id && x.id !== s.id);
+  const offerOlder =
+    (s.status === 'awaiting_confirmation' && state.newest?.id === s.id) || s.isCurrent
+      ? olderThanThis
+      : [];
   // The API's upload action: a new extract for the same practice and audit quarter.
   const mayUpload = s.actions.upload;
   const uploadTo = mayUpload ? uploadLink(s.practice.id, s.quarter.id) : null;
@@ -103,10 +106,10 @@ function SubmissionScreen() {
       </nav>
       <div className="cairn-page-head">
         <div>
-          <H2 className="cairn-title-with-tags">
+          <H1 className="cairn-page-title cairn-title-with-tags">
             Submission {s.id} <StatusTag status={s.status} large />
             {s.isCurrent ? <CurrentTag /> : null}
-          </H2>
+          </H1>
           <p className="cairn-muted">
             {s.practice.name} ({s.practice.code}) · audit quarter {s.quarter.label} · review window{' '}
             {formatMonth(s.quarter.windowStart)} to {formatMonth(s.quarter.windowEnd)}
@@ -160,7 +163,7 @@ function SubmissionScreen() {
       {s.status === 'rejected' ? <RefusalCallout submission={s} uploadTo={uploadTo} /> : null}
 
       {s.status === 'failed' && s.failure ? (
-        <Callout
+        <Notice
           intent={Intent.WARNING}
           icon="error"
           title="Cairn could not finish checking this extract"
@@ -181,11 +184,11 @@ function SubmissionScreen() {
               Upload the file again
             </LinkButton>
           ) : null}
-        </Callout>
+        </Notice>
       ) : null}
 
       {s.status === 'awaiting_confirmation' ? (
-        <Callout
+        <Notice
           intent={Intent.WARNING}
           icon="time"
           title="Checked: read the report, then confirm"
@@ -198,11 +201,11 @@ function SubmissionScreen() {
           {s.counts && s.counts.rowsRejected > 0
             ? ` Its ${formatCount(s.counts.rowsRejected)} refused ${s.counts.rowsRejected === 1 ? 'row is' : 'rows are'} left out${mayUpload ? '; you can fix them and upload the whole extract again instead' : ''}.`
             : ''}
-        </Callout>
+        </Notice>
       ) : null}
 
       {s.status === 'accepted' ? (
-        <Callout
+        <Notice
           intent={Intent.SUCCESS}
           icon="tick-circle"
           title={`Current submission for ${s.quarter.label}`}
@@ -211,11 +214,16 @@ function SubmissionScreen() {
           Its {formatCount(s.counts?.rowsAccepted ?? 0)} accepted rows are the practice&apos;s care
           records for this audit quarter.
           {mayUpload ? ' To change them, upload a new extract and confirm it.' : ''}
-        </Callout>
+          <p>
+            <Link to={`/practices/${s.practice.id}/results?quarter=${s.quarter.id}`}>
+              Read the practice&apos;s results for {s.quarter.label}
+            </Link>
+          </p>
+        </Notice>
       ) : null}
 
       {s.status === 'superseded' ? (
-        <Callout icon="history" title="Superseded" className="cairn-state-callout">
+        <Notice icon="history" title="Superseded" className="cairn-state-callout">
           Replaced {s.supersededAt ? `on ${formatDateTime(s.supersededAt)} ` : ''}
           {s.supersededBySubmissionId ? (
             <>
@@ -226,17 +234,28 @@ function SubmissionScreen() {
             </>
           ) : null}
           ; it is no longer used.
-        </Callout>
+        </Notice>
       ) : null}
 
       {s.status === 'cancelled' ? (
-        <Callout icon="disable" title="Cancelled" className="cairn-state-callout">
+        <Notice icon="disable" title="Cancelled" className="cairn-state-callout">
           Cancelled {s.cancelledAt ? `on ${formatDateTime(s.cancelledAt)}` : ''}
           {s.cancelledBy ? ` by ${s.cancelledBy}` : ''}. Nothing from this file is used.
-        </Callout>
+        </Notice>
+      ) : null}
+
+      {s.status === 'awaiting_confirmation' && current ? (
+        <CompareWithCurrent candidate={s} current={current} />
       ) : null}
 
       <SubmissionDecisions submission={s} current={current} />
+
+      <OlderWaiting
+        practiceId={s.practice.id}
+        quarterLabel={s.quarter.label}
+        older={offerOlder}
+        newer={s}
+      />
 
       {reported && hasRows ? (
         <ReportSummary
@@ -264,7 +283,7 @@ function SubmissionScreen() {
 
       {reported ? (
         <div className="cairn-downloads">
-          <h3 className={Classes.HEADING}>Downloads</h3>
+          <h2 className="bp6-heading">Downloads</h2>
           <div className="cairn-button-row">
             {(s.counts?.rowsRejected ?? 0) > 0 ? (
               <AnchorButton href={links.rejectedRowsXlsx} download icon="th-disconnect">

@@ -1,20 +1,22 @@
 import {
   Classes,
+  H1,
   H2,
   HTMLSelect,
   HTMLTable,
   Intent,
-  NonIdealState,
   Section,
   SectionCard,
   Spinner,
   Tag,
 } from '@blueprintjs/core';
 import { Link, Navigate, useNavigate, useParams } from 'react-router-dom';
+import { EmptyState } from '../../../components/Notice';
 import { ProblemCallout } from '../../../components/ProblemCallout';
 import { RequireRole } from '../../../components/RequireRole';
 import type { SubmissionHistory } from '../../../lib/api/types';
 import { formatCount, formatDateTime } from '../../../lib/format';
+import { usePageTitle } from '../../../lib/page-title';
 import { useMe } from '../../../lib/session';
 import { useHistory } from '../api/extracts';
 import { practiceLabel, usePracticeChoices } from '../api/practices';
@@ -29,6 +31,7 @@ import './Extracts.css';
  * submissions by audit quarter, latest first.
  */
 export function Submissions() {
+  usePageTitle('Submissions');
   return (
     <RequireRole roles={['practice_lead', 'regional_lead', 'auditor']}>
       <SubmissionsScreen />
@@ -81,7 +84,7 @@ function SubmissionsScreen() {
     <div className="cairn-extracts cairn-history">
       <div className="cairn-page-head">
         <div>
-          <H2>Submissions</H2>
+          <H1 className="cairn-page-title">Submissions</H1>
           <p className="cairn-muted">
             {data
               ? `Every extract sent for ${data.practice.name} (${data.practice.code}), by audit quarter, latest first.`
@@ -102,7 +105,7 @@ function SubmissionsScreen() {
         choices.isPending ? (
           <Spinner aria-label="Loading practices" />
         ) : (
-          <NonIdealState
+          <EmptyState
             icon="office"
             title="Choose a practice"
             description={
@@ -141,7 +144,7 @@ function HistoryList({ history }: { history: SubmissionHistory }) {
   );
   if (history.quarters.length === 0) {
     return (
-      <NonIdealState
+      <EmptyState
         icon="calendar"
         title="No audit quarters yet"
         description="Your regional lead opens each audit quarter for extracts."
@@ -155,6 +158,7 @@ function HistoryList({ history }: { history: SubmissionHistory }) {
           key={quarter.id}
           className="cairn-quarter-section"
           title={`Audit quarter ${quarter.label}`}
+          titleRenderer={H2}
           subtitle={`Review window ${formatMonth(quarter.windowStart)} to ${formatMonth(quarter.windowEnd)}`}
           rightElement={
             quarter.status === 'open' ? (

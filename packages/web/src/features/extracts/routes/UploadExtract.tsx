@@ -1,12 +1,11 @@
 import {
   AnchorButton,
   Button,
-  Callout,
   Card,
-  Classes,
-  Collapse,
+  Dialog,
+  DialogBody,
   FormGroup,
-  H2,
+  H1,
   HTMLSelect,
   HTMLTable,
   Intent,
@@ -16,10 +15,12 @@ import {
 } from '@blueprintjs/core';
 import { type FormEvent, useState } from 'react';
 import { Link, useNavigate, useSearchParams } from 'react-router-dom';
+import { Notice } from '../../../components/Notice';
 import { ProblemCallout } from '../../../components/ProblemCallout';
 import { RequireRole } from '../../../components/RequireRole';
 import type { DateConvention, ExtractFormat, Quarter } from '../../../lib/api/types';
 import { formatCount, formatDateTime } from '../../../lib/format';
+import { usePageTitle } from '../../../lib/page-title';
 import { useMe } from '../../../lib/session';
 import { TEMPLATE_CSV, TEMPLATE_XLSX, useExtractFormat, useHistory } from '../api/extracts';
 import { uploadProblemOf, useUploadExtract } from '../api/mutations';
@@ -31,6 +32,7 @@ import './Extracts.css';
 
 /** `/extracts/upload`: a practice lead (or regional lead) sends a practice's extract for an audit quarter. */
 export function UploadExtract() {
+  usePageTitle('Upload extract');
   return (
     <RequireRole roles={['practice_lead', 'regional_lead']}>
       <UploadScreen />
@@ -122,9 +124,11 @@ function UploadScreen() {
     <div className="cairn-extracts cairn-upload">
       <div className="cairn-page-head">
         <div>
-          <H2>Upload extract</H2>
+          <H1 className="cairn-page-title">Upload extract</H1>
           <p className="cairn-muted">
-            Send your practice&apos;s de-identified annual-review extract for an audit quarter.
+            {regional
+              ? "Send a practice's de-identified annual-review extract for an audit quarter, on the practice's behalf."
+              : "Send your practice's de-identified annual-review extract for an audit quarter."}{' '}
             Cairn checks every row and shows you what it accepted, what it refused and why, before
             anything is used.
           </p>
@@ -144,10 +148,10 @@ function UploadScreen() {
               {choices.isPending ? (
                 <Spinner size={20} aria-label="Loading practices" />
               ) : practices.length === 0 ? (
-                <Callout intent={Intent.WARNING} icon="info-sign" compact>
+                <Notice intent={Intent.WARNING} icon="info-sign" compact>
                   You are not assigned to a practice yet. Ask your regional lead to add your
                   practice to your account.
-                </Callout>
+                </Notice>
               ) : practices.length === 1 && !regional ? (
                 <p className="cairn-fixed-choice" id="cairn-upload-practice">
                   {practiceLabel(practices[0]!)}
@@ -193,9 +197,9 @@ function UploadScreen() {
               {choices.isPending ? (
                 <Spinner size={20} aria-label="Loading audit quarters" />
               ) : selectable.length === 0 ? (
-                <Callout intent={Intent.WARNING} icon="time" compact>
+                <Notice intent={Intent.WARNING} icon="time" compact>
                   No audit quarter is open for extracts. Your regional lead opens each quarter.
-                </Callout>
+                </Notice>
               ) : (
                 <HTMLSelect
                   id="cairn-upload-quarter"
@@ -264,7 +268,7 @@ function UploadScreen() {
               />
             </FormGroup>
             {tooLarge && maxBytes !== undefined ? (
-              <Callout
+              <Notice
                 intent={Intent.DANGER}
                 icon="error"
                 title="This file is too large"
@@ -273,7 +277,7 @@ function UploadScreen() {
                 It is {formatBytes(file.size)}; Cairn accepts at most {formatBytes(maxBytes)} for
                 one extract. Check that it holds only the extract (one sheet, no pictures), or save
                 it as CSV UTF-8, which is much smaller.
-              </Callout>
+              </Notice>
             ) : null}
 
             <FormGroup
@@ -297,7 +301,7 @@ function UploadScreen() {
             </FormGroup>
 
             {problem?.code === 'identical_extract' ? (
-              <Callout
+              <Notice
                 intent={Intent.WARNING}
                 icon="duplicate"
                 title="This file was already uploaded"
@@ -310,9 +314,9 @@ function UploadScreen() {
                     Open submission {problem.submissionId}
                   </Link>
                 ) : null}
-              </Callout>
+              </Notice>
             ) : problem?.code === 'file_too_large' ? (
-              <Callout
+              <Notice
                 intent={Intent.DANGER}
                 icon="ban-circle"
                 title="The file is too large"
@@ -330,7 +334,7 @@ function UploadScreen() {
                     See submission {problem.submissionId} in the history
                   </Link>
                 ) : null}
-              </Callout>
+              </Notice>
             ) : (
               <ProblemCallout error={upload.error} />
             )}
@@ -359,7 +363,7 @@ function UploadScreen() {
 
         <aside className="cairn-upload-aside" aria-label="Extract template">
           <Card>
-            <h3 className={Classes.HEADING}>Start from Cairn&apos;s template</h3>
+            <h2 className="bp6-heading cairn-aside-heading">Start from Cairn&apos;s template</h2>
             <p>
               The XLSX template has drop-down lists for coded values, a data dictionary and
               instructions. The CSV template has the headings only.
@@ -380,41 +384,79 @@ function UploadScreen() {
                   {formatCount(format.data.limits.maxRows)} rows.
                 </p>
                 <Button
-                  variant="minimal"
-                  icon={showColumns ? 'chevron-up' : 'chevron-down'}
-                  aria-expanded={showColumns}
-                  onClick={() => setShowColumns(!showColumns)}
+                  variant="outlined"
+                  icon="th-list"
+                  aria-haspopup="dialog"
+                  onClick={() => setShowColumns(true)}
                 >
-                  {showColumns ? 'Hide' : 'Show'} the {format.data.columns.length} columns Cairn
-                  reads
+                  See the {format.data.columns.length} columns Cairn reads
                 </Button>
-                <Collapse isOpen={showColumns}>
-                  <HTMLTable compact className="cairn-format-table">
-                    <thead>
-                      <tr>
-                        <th>Heading</th>
-                        <th>Needed</th>
-                        <th>What it holds</th>
-                      </tr>
-                    </thead>
-                    <tbody>
-                      {format.data.columns.map((c) => (
-                        <tr key={c.key}>
-                          <td>
-                            <code>{c.key}</code>
-                          </td>
-                          <td>{c.required}</td>
-                          <td>{c.meaning}</td>
-                        </tr>
-                      ))}
-                    </tbody>
-                  </HTMLTable>
-                </Collapse>
+                <FormatColumnsDialog
+                  columns={format.data.columns}
+                  isOpen={showColumns}
+                  onClose={() => setShowColumns(false)}
+                />
               </>
             ) : null}
           </Card>
         </aside>
       </div>
     </div>
+  );
+}
+
+/** The extract's columns, in a dialog wide enough to read them (not squeezed into the side panel). */
+function FormatColumnsDialog({
+  columns,
+  isOpen,
+  onClose,
+}: {
+  columns: ExtractFormat['columns'];
+  isOpen: boolean;
+  onClose: () => void;
+}) {
+  return (
+    <Dialog
+      isOpen={isOpen}
+      onClose={onClose}
+      className="cairn-format-dialog"
+      aria-labelledby="cairn-format-dialog-title"
+    >
+      <div className="cairn-dialog-head">
+        <h2 id="cairn-format-dialog-title" className="bp6-heading">
+          The {columns.length} columns Cairn reads
+        </h2>
+        <Button variant="minimal" icon="cross" aria-label="Close" onClick={onClose} />
+      </div>
+      <DialogBody>
+        <p>
+          One row per person with diabetes, under these headings (the template has them all, with a
+          data dictionary). Columns marked as needed must be present; a cell may be blank where
+          nothing was recorded unless its value is needed too.
+        </p>
+        <HTMLTable compact striped className="cairn-format-table">
+          <thead>
+            <tr>
+              <th scope="col">Heading</th>
+              <th scope="col">Needed</th>
+              <th scope="col">What it holds</th>
+              <th scope="col">Values</th>
+            </tr>
+          </thead>
+          <tbody>
+            {columns.map((c) => (
+              <tr key={c.key}>
+                <td>
+                  <code>{c.key}</code>
+                </td>
+                <td>{c.required}</td>
+                <td>{c.meaning}</td>
+                <td>{c.allowed}</td>
+              </tr>
+            ))}
+          </tbody>
+        </HTMLTable>
+      </DialogBody>
+    </Dialog>
   );
 }

@@ -1,4 +1,4 @@
-import { AnchorButton, Card, H1, H3, Intent } from '@blueprintjs/core';
+import { AnchorButton, Card, H1, H2, Intent } from '@blueprintjs/core';
 import { CairnMark } from '../../../components/CairnMark';
 import { ClinicalCaution } from '../../../components/ClinicalCaution';
 import { formatCount } from '../../../lib/format';
@@ -51,7 +51,7 @@ export function Landing() {
       <section className="cairn-roles" aria-label="Who Cairn is for">
         {roles.map((role) => (
           <Card key={role.title} className="cairn-role-card">
-            <H3>{role.title}</H3>
+            <H2 className="cairn-role-title">{role.title}</H2>
             <p>{role.text}</p>
           </Card>
         ))}

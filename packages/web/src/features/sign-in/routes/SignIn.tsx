@@ -1,6 +1,9 @@
-import { AnchorButton, Callout, Card, H2, Intent } from '@blueprintjs/core';
+import { AnchorButton, Card, H1, Intent } from '@blueprintjs/core';
 import { useSearchParams } from 'react-router-dom';
 import { CairnMark } from '../../../components/CairnMark';
+import { Notice } from '../../../components/Notice';
+import { SupportCodes } from '../../../components/SupportCodes';
+import { usePageTitle } from '../../../lib/page-title';
 import { roleLabels } from '../../../lib/roles';
 import { useSession } from '../../../lib/session';
 import { refusalText } from '../refusal-texts';
@@ -23,44 +26,45 @@ export function SignIn() {
   const loginHref = `/api/auth/saml/login?returnTo=${encodeURIComponent(returnTo)}`;
   const user = session.data?.user;
   const refusal = refused ? refusalText(refused) : null;
+  usePageTitle('Sign in');
 
   return (
     <div className="cairn-sign-in">
       <Card className="cairn-sign-in-card" elevation={1}>
         <div className="cairn-sign-in-head">
           <CairnMark size={44} title="Cairn mark" />
-          <H2>Sign in to Cairn</H2>
+          <H1 className="cairn-sign-in-title">Sign in to Cairn</H1>
         </div>
         {refusal ? (
-          <Callout
+          <Notice
             intent={Intent.DANGER}
             icon="blocked-person"
             title={refusal.title}
             className="cairn-sign-in-callout"
           >
             <p>{refusal.detail}</p>
-            <p className="cairn-sign-in-ref">Reference: {refused}</p>
-          </Callout>
+            <SupportCodes label="Reference" codes={[refused ?? '']} />
+          </Notice>
         ) : null}
         {params.get('signedOut') ? (
-          <Callout
+          <Notice
             intent={Intent.SUCCESS}
             icon="tick-circle"
             title="You have signed out of Cairn"
             className="cairn-sign-in-callout"
           >
             Close the browser too if others use this computer.
-          </Callout>
+          </Notice>
         ) : null}
         {ended && endedTexts[ended] && !refusal ? (
-          <Callout
+          <Notice
             intent={Intent.WARNING}
             icon="time"
             title="Signed out"
             className="cairn-sign-in-callout"
           >
             {endedTexts[ended]}
-          </Callout>
+          </Notice>
         ) : null}
         {user ? (
           <>
@@ -92,10 +96,10 @@ export function SignIn() {
               </AnchorButton>
             </div>
             {session.data?.localSignIn ? (
-              <Callout icon="lab-test" className="cairn-sign-in-local" title="Local setup">
+              <Notice icon="lab-test" className="cairn-sign-in-local" title="Local setup">
                 This Cairn runs on this machine: the next page is its local test sign-in with demo
                 people, standing in for your organisation&apos;s single sign-on.
-              </Callout>
+              </Notice>
             ) : null}
           </>
         )}

@@ -1,8 +1,10 @@
-import { NonIdealState, Spinner } from '@blueprintjs/core';
+import { Spinner } from '@blueprintjs/core';
 import { useQueryClient } from '@tanstack/react-query';
 import { useEffect, useRef, useState } from 'react';
 import { apiFetch, ApiError } from '../../../lib/api-client';
 import type { SignOut } from '../../../lib/api/types';
+import { EmptyState } from '../../../components/Notice';
+import { usePageTitle } from '../../../lib/page-title';
 import { fetchSession } from '../../../lib/session';
 
 /**
@@ -14,6 +16,7 @@ export function SignOut() {
   const client = useQueryClient();
   const started = useRef(false);
   const [problem, setProblem] = useState<string | null>(null);
+  usePageTitle('Sign out');
 
   useEffect(() => {
     if (started.current) return;
@@ -38,12 +41,13 @@ export function SignOut() {
 
   if (problem) {
     return (
-      <NonIdealState
+      <EmptyState
         icon="warning-sign"
         title="Signing out did not finish"
+        headingLevel={1}
         description={`${problem} Reload this page to try again.`}
       />
     );
   }
-  return <NonIdealState icon={<Spinner size={32} />} title="Signing you out…" />;
+  return <EmptyState icon={<Spinner size={32} />} title="Signing you out…" headingLevel={1} />;
 }

@@ -1,11 +1,10 @@
 import {
   Alert,
   Button,
-  Callout,
   ControlGroup,
   Drawer,
   FormGroup,
-  H4,
+  H3,
   HTMLSelect,
   InputGroup,
   Intent,
@@ -18,6 +17,7 @@ import { roleLabels } from '../../../lib/roles';
 import type { Practice, User } from '../../../lib/api/types';
 import { type UserChange, useChangeUser } from '../api/users';
 import { PracticePicker } from './PracticePicker';
+import { Notice } from '../../../components/Notice';
 import { ProblemCallout } from '../../../components/ProblemCallout';
 
 interface Props {
@@ -71,20 +71,20 @@ export function UserDrawer({ user, practices, selfId, trustIdpRoles, onClose }: 
           Last sign-in: {user.lastSignInAt ? formatDateTime(user.lastSignInAt) : 'never'}
         </p>
         {trustIdpRoles ? (
-          <Callout intent={Intent.WARNING} icon="info-sign">
+          <Notice intent={Intent.WARNING} icon="info-sign">
             Roles and practices come from your organisation&apos;s sign-in: changes here last until
             this person next signs in.
-          </Callout>
+          </Notice>
         ) : null}
         {done ? (
-          <Callout intent={Intent.SUCCESS} icon="tick">
+          <Notice intent={Intent.SUCCESS} icon="tick">
             {done}
-          </Callout>
+          </Notice>
         ) : null}
         <ProblemCallout error={change.error} />
 
         <section aria-labelledby="drawer-name">
-          <H4 id="drawer-name">Name</H4>
+          <H3 id="drawer-name">Name</H3>
           <ControlGroup fill>
             <InputGroup aria-label="Name" value={name} onValueChange={setName} />
             <Button
@@ -102,7 +102,7 @@ export function UserDrawer({ user, practices, selfId, trustIdpRoles, onClose }: 
         </section>
 
         <section aria-labelledby="drawer-role">
-          <H4 id="drawer-role">Role</H4>
+          <H3 id="drawer-role">Role</H3>
           <FormGroup
             helperText={
               self
@@ -137,7 +137,7 @@ export function UserDrawer({ user, practices, selfId, trustIdpRoles, onClose }: 
 
         {user.role === 'practice_lead' ? (
           <section aria-labelledby="drawer-practices">
-            <H4 id="drawer-practices">Practices</H4>
+            <H3 id="drawer-practices">Practices</H3>
             <PracticePicker
               label="Practice to add"
               value={user.practices}
@@ -162,7 +162,7 @@ export function UserDrawer({ user, practices, selfId, trustIdpRoles, onClose }: 
         ) : null}
 
         <section aria-labelledby="drawer-access">
-          <H4 id="drawer-access">Access</H4>
+          <H3 id="drawer-access">Access</H3>
           <p>
             {user.status === 'active' ? (
               <Tag intent={Intent.SUCCESS} icon="tick" minimal>

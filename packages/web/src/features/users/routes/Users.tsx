@@ -1,18 +1,10 @@
-import {
-  Button,
-  Callout,
-  H2,
-  HTMLSelect,
-  InputGroup,
-  Intent,
-  NonIdealState,
-  Spinner,
-  Tag,
-} from '@blueprintjs/core';
+import { Button, H1, HTMLSelect, InputGroup, Intent, Spinner, Tag } from '@blueprintjs/core';
 import { Cell, Column, Table2 } from '@blueprintjs/table';
 import { useDeferredValue, useState } from 'react';
 import { useSearchParams } from 'react-router-dom';
+import { EmptyState, Notice } from '../../../components/Notice';
 import { formatDateTime } from '../../../lib/format';
+import { usePageTitle } from '../../../lib/page-title';
 import { RequireRole } from '../../../components/RequireRole';
 import { type Role, roleValues, type UserStatus } from '../../../lib/api/types';
 import { roleLabels } from '../../../lib/roles';
@@ -26,6 +18,7 @@ import './Users.css';
 
 /** `/users`: the regional lead's list of people, their roles and practices. */
 export function Users() {
+  usePageTitle('Users');
   return (
     <RequireRole roles={['regional_lead']}>
       <UsersScreen />
@@ -70,7 +63,7 @@ function UsersScreen() {
     <div className="cairn-users">
       <div className="cairn-page-head">
         <div>
-          <H2>Users</H2>
+          <H1 className="cairn-page-title">Users</H1>
           <p className="cairn-muted">
             Who can sign in to Cairn, in which role, and which practices each practice lead leads.
           </p>
@@ -81,11 +74,11 @@ function UsersScreen() {
       </div>
 
       {users.data?.trustIdpRoles ? (
-        <Callout intent={Intent.WARNING} icon="info-sign" className="cairn-users-callout">
+        <Notice intent={Intent.WARNING} icon="info-sign" className="cairn-users-callout">
           Cairn takes roles and practices from your organisation&apos;s sign-in. Changes made here
           last until the person next signs in; make lasting changes in your organisation&apos;s
           directory.
-        </Callout>
+        </Notice>
       ) : null}
 
       <div className="cairn-filters" role="search">
@@ -141,7 +134,7 @@ function UsersScreen() {
       {users.isPending ? (
         <Spinner aria-label="Loading people" />
       ) : list.length === 0 ? (
-        <NonIdealState
+        <EmptyState
           icon="people"
           title="Nobody matches"
           description="Change the search or the filters."

@@ -1,0 +1,80 @@
+/**
+ * A practice's results for an audit quarter (GET
+ * /api/practices/:practiceId/quarters/:quarterId/results), its recall list,
+ * and the audit quarters to choose from.
+ */
+import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
+import { apiFetch } from '../../../lib/api-client';
+import type { PracticeResults, Quarter, RecallList, TypeSplit } from '../../../lib/api/types';
+
+export const resultsKeys = {
+  quarters: () => ['results', 'quarters'] as const,
+  results: (practiceId: number, quarterId: number) =>
+    ['results', 'practice', practiceId, quarterId] as const,
+  recall: (
+    practiceId: number,
+    quarterId: number,
+    measure: string,
+    split: TypeSplit,
+    offset: number,
+  ) => ['results', 'recall', practiceId, quarterId, measure, split, offset] as const,
+};
+
+export const resultsQuartersQueryOptions = () =>
+  queryOptions({
+    queryKey: resultsKeys.quarters(),
+    queryFn: () => apiFetch<Quarter[]>('/api/quarters'),
+    staleTime: 5 * 60_000,
+  });
+
+export function useResultsQuarters() {
+  return useQuery(resultsQuartersQueryOptions());
+}
+
+export const practiceResultsQueryOptions = (practiceId: number, quarterId: number) =>
+  queryOptions({
+    queryKey: resultsKeys.results(practiceId, quarterId),
+    queryFn: () =>
+      apiFetch<PracticeResults>(`/api/practices/${practiceId}/quarters/${quarterId}/results`),
+  });
+
+export function usePracticeResults(practiceId: number | null, quarterId: number | null) {
+  return useQuery({
+    ...practiceResultsQueryOptions(practiceId ?? 0, quarterId ?? 0),
+    enabled: practiceId != null && quarterId != null,
+  });
+}
+
+export const RECALL_PAGE = 50;
+
+export function recallPath(
+  practiceId: number,
+  quarterId: number,
+  measure: string,
+  split: TypeSplit,
+  format: '' | '.csv' | '.xlsx' = '',
+  offset = 0,
+): string {
+  const query = new URLSearchParams({ measure, split });
+  if (format === '') {
+    query.set('offset', String(offset));
+    query.set('limit', String(RECALL_PAGE));
+  }
+  return `/api/practices/${practiceId}/quarters/${quarterId}/recall-list${format}?${query.toString()}`;
+}
+
+export function useRecallList(
+  practiceId: number,
+  quarterId: number,
+  measure: string | null,
+  split: TypeSplit,
+  offset: number,
+) {
+  return useQuery({
+    queryKey: resultsKeys.recall(practiceId, quarterId, measure ?? '', split, offset),
+    queryFn: () =>
+      apiFetch<RecallList>(recallPath(practiceId, quarterId, measure ?? '', split, '', offset)),
+    enabled: measure != null,
+    placeholderData: keepPreviousData,
+  });
+}
