@@ -81,6 +81,8 @@ export const tableOwners = {
   review_case_entries: ['review-cases'],
   review_case_files: ['review-cases'],
   review_case_file_chunks: ['review-cases'],
+  // ── digests ──
+  digest_schedules: ['digests'],
 };
 
 const sqlTouching = (tables) =>

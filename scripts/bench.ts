@@ -6,6 +6,7 @@
  *   - @cairn/api: 500 mails with attachments through the outbox vs nodemailer's pool alone
  *   - @cairn/api: publishing the demo quarter with its region pack, a practice's PDF, and the
  *     region pack of 7,000 synthetic practices vs a bare exceljs write of the same cells
+ *   - @cairn/api: composing a practice's digest, and 500 digests with their workbooks through the outbox
  *   - @cairn/web: region benchmark page, funnel points visible after navigation; initial JS
  * The ingest benchmark uses the disposable test MariaDB (never the demo data).
  * Exit code 1 when any benchmark misses a target.
@@ -66,6 +67,14 @@ async function main(): Promise<void> {
       outcomes.push([
         'reports',
         await runInherit('npm', ['run', 'bench:reports', '-w', '@cairn/api'], {
+          cwd: ctx.root,
+          env: ctx.childEnv,
+        }),
+      ]);
+      log.step('── @cairn/api digest benchmark ──');
+      outcomes.push([
+        'digests',
+        await runInherit('npm', ['run', 'bench:digests', '-w', '@cairn/api'], {
           cwd: ctx.root,
           env: ctx.childEnv,
         }),

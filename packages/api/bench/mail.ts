@@ -102,6 +102,7 @@ async function main(): Promise<void> {
       port: server.port,
       outbox: { ...config.mail.outbox, concurrency: 5 },
       reminders: { ...config.mail.reminders, checkCron: '0 0 0 1 1 *' },
+      digests: { ...config.mail.digests, checkCron: '0 0 0 1 1 *' },
     },
   }));
   let missed = false;

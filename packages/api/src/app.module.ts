@@ -5,6 +5,7 @@ import { BenchmarksModule } from './benchmarks/benchmarks.module.js';
 import type { CairnConfig, CairnSecrets } from './config/config.schema.js';
 import { CairnConfigModule } from './config/config.module.js';
 import { DatabaseModule } from './database/database.module.js';
+import { DigestsModule } from './digests/digests.module.js';
 import { HealthModule } from './health/health.module.js';
 import { MailModule } from './mail/mail.module.js';
 import { MeasureSetsModule } from './measure-sets/measure-sets.module.js';
@@ -39,6 +40,7 @@ export const featureModules = [
   ReportsModule,
   MailModule,
   ReviewCasesModule,
+  DigestsModule,
 ];
 
 @Module({})

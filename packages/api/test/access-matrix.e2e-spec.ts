@@ -274,6 +274,29 @@ const handWritten: Record<string, Record<Caller, string>> = {
       },
     ]),
   ),
+  // ── digests: the regional lead only ──
+  ...Object.fromEntries(
+    [
+      'GET /api/digests',
+      'GET /api/digests/:reportId/practices/:practiceId/preview',
+      'GET /api/digests/:reportId/practices/:practiceId/preview.html',
+      'POST /api/digests/:reportId/practices/:practiceId/test',
+      'POST /api/digests/:reportId/send',
+      'GET /api/digests/:reportId/schedule',
+      'PUT /api/digests/:reportId/schedule',
+      'DELETE /api/digests/:reportId/schedule',
+    ].map((route) => [
+      route,
+      {
+        anonymous: U,
+        'lead of practice': R,
+        'lead of another': R,
+        'regional lead': A,
+        auditor: R,
+        deactivated: U,
+      },
+    ]),
+  ),
   ...Object.fromEntries(
     ['GET /api/me/mail-preferences', 'PUT /api/me/mail-preferences'].map((route) => [
       route,

@@ -73,6 +73,7 @@ describe('mail: opening message, reminders, recipients, deliveries', () => {
         'quarter_opened',
         'deadline_reminder',
         'review_case_question',
+        'digest',
       ]);
       for (const p of res.body.preferences) {
         expect(p).toMatchObject({ receive: true, appliesToYou: true, sentTo: ['practice_lead'] });
@@ -109,6 +110,7 @@ describe('mail: opening message, reminders, recipients, deliveries', () => {
         ['quarter_opened', false],
         ['deadline_reminder', true],
         ['review_case_question', true],
+        ['digest', true],
       ]);
       // The same choice again changes nothing and records nothing.
       await daniel

@@ -272,6 +272,24 @@ export const configSchema = z
               ),
           })
           .strict(),
+        digests: z
+          .object({
+            checkCron: z
+              .string()
+              .regex(/^\S+( \S+){4,5}$/)
+              .describe(
+                "a cron expression (5 or 6 fields, seconds first when 6) saying when Cairn sends scheduled digests and schedules those of newly published reports, e.g. '0 * * * * *'",
+              ),
+            afterPublicationMinutes: z
+              .number()
+              .int()
+              .min(0)
+              .max(10080)
+              .describe(
+                "a whole number from 0 to 10080: minutes after a report's publication that its digests are sent, unless the regional lead moves or cancels the sending",
+              ),
+          })
+          .strict(),
       })
       .strict(),
     extracts: z

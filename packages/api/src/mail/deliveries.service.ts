@@ -56,6 +56,7 @@ export class DeliveriesService {
     const dtos = await Promise.all(
       sources.map((s) =>
         this.sourceDto(
+          actor.regionId,
           s.kind,
           s.sourceId,
           byKey.get(key(s.kind, s.sourceId)) ?? null,
@@ -79,7 +80,7 @@ export class DeliveriesService {
     ]);
     if (!counts && !batch) this.notFound(kind, sourceId);
     const [source, rows, without] = await Promise.all([
-      this.sourceDto(kind, sourceId, counts ?? null, batch ?? null),
+      this.sourceDto(actor.regionId, kind, sourceId, counts ?? null, batch ?? null),
       this.outbox.messagesOf(actor.regionId, kind, sourceId),
       this.outbox.practicesWithoutRecipients(actor.regionId, kind, sourceId),
     ]);
@@ -146,7 +147,7 @@ export class DeliveriesService {
         `There is no message ${id} in your region's outbox.`,
       );
     }
-    const label = await this.composers.get(row.kind).sourceLabel(row.source_id);
+    const label = await this.composers.get(row.kind).sourceLabel(row.source_id, row.region_id);
     const resent = await this.outbox.transaction(async (transaction) => {
       const n = await this.outbox.resendFailed({ regionId: actor.regionId, id }, transaction);
       if (n > 0) {
@@ -191,6 +192,7 @@ export class DeliveriesService {
   }
 
   private async sourceDto(
+    regionId: number,
     kind: MailKind,
     sourceId: number,
     counts: SourceCounts | null,
@@ -201,7 +203,7 @@ export class DeliveriesService {
     return {
       kind,
       sourceId,
-      label: await this.composers.get(kind).sourceLabel(sourceId),
+      label: await this.composers.get(kind).sourceLabel(sourceId, regionId),
       firstQueuedAt: new Date(first).toISOString(),
       lastActivityAt: new Date(counts?.last_activity_at ?? first).toISOString(),
       practices: batch?.practices ?? 0,

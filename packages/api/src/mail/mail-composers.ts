@@ -18,7 +18,7 @@ export interface ComposedMail {
 
 export interface MailComposer {
   /** How the delivery page names the source's messages */
-  sourceLabel(sourceId: number): Promise<string>;
+  sourceLabel(sourceId: number, regionId: number): Promise<string>;
   compose(message: OutboxMessageRow): Promise<ComposedMail>;
 }
 

@@ -5,7 +5,12 @@
  */
 import type { Role } from '../users/roles.js';
 
-export const MAIL_KINDS = ['quarter_opened', 'deadline_reminder', 'review_case_question'] as const;
+export const MAIL_KINDS = [
+  'quarter_opened',
+  'deadline_reminder',
+  'review_case_question',
+  'digest',
+] as const;
 export type MailKind = (typeof MAIL_KINDS)[number];
 
 export interface MailKindInfo {
@@ -40,6 +45,13 @@ export const MAIL_KIND_INFO: Record<MailKind, MailKindInfo> = {
       'When an auditor asks your practice a question in a review case. The message says where to answer in Cairn.',
     sentTo: ['practice_lead'],
     sourceNoun: 'question',
+  },
+  digest: {
+    label: 'Quarterly digests',
+    description:
+      "When the regional lead sends a quarter's report: where your practice stands against the region, what changed, where improvement would matter most, with the practice's figures attached.",
+    sentTo: ['practice_lead'],
+    sourceNoun: 'digests',
   },
 };
 

@@ -9,7 +9,24 @@ export type MailBlock =
   | { type: 'paragraph'; text: string }
   | { type: 'facts'; rows: { label: string; value: string }[] }
   | { type: 'action'; label: string; url: string; note?: string }
-  | { type: 'caution'; title: string; text: string };
+  | { type: 'caution'; title: string; text: string }
+  | { type: 'heading'; text: string }
+  | { type: 'list'; items: string[] }
+  | { type: 'bars'; caption: string; legend: string; rows: BarRow[] };
+
+/**
+ * One measure drawn as a bar of table cells (no image): the practice's rate filled from the
+ * left, a narrow mark at the reference (the region median), both as whole percentages 0–100.
+ */
+export interface BarRow {
+  label: string;
+  /** The practice's rate, 0–100; null draws no fill */
+  value: number | null;
+  /** Where the mark goes, 0–100; null draws none */
+  mark: number | null;
+  /** Written under the label: "78% (41 of 52) · region median 81% · within the limits" */
+  note: string;
+}
 
 export interface MailContent {
   subject: string;
@@ -61,6 +78,59 @@ function safeUrl(url: string): string {
   return parsed.href;
 }
 
+const clampPercent = (v: number) => Math.min(100, Math.max(0, Math.round(v)));
+
+/** The bar's cells, left to right: [width %, colour]. The mark is 1 % wide. */
+export function barSegments(value: number | null, mark: number | null): [number, string][] {
+  const v = value === null ? 0 : clampPercent(value);
+  const m = mark === null ? null : Math.min(99, clampPercent(mark));
+  const cuts = [...new Set([0, v, ...(m === null ? [] : [m, m + 1]), 100])].sort((a, b) => a - b);
+  const segments: [number, string][] = [];
+  for (let i = 0; i + 1 < cuts.length; i++) {
+    const from = cuts[i]!;
+    const colour = m !== null && from === m ? C.ochre : from < v ? C.brand900 : C.sand;
+    const last = segments[segments.length - 1];
+    if (last && last[1] === colour) last[0] += cuts[i + 1]! - from;
+    else segments.push([cuts[i + 1]! - from, colour]);
+  }
+  return segments;
+}
+
+/** The same bar in plain text, 40 characters: '#' the rate, '|' the mark, '.' the rest. */
+export function barText(value: number | null, mark: number | null, width = 40): string {
+  const v = value === null ? 0 : Math.round((clampPercent(value) / 100) * width);
+  const m =
+    mark === null ? -1 : Math.min(width - 1, Math.round((clampPercent(mark) / 100) * width));
+  let bar = '';
+  for (let i = 0; i < width; i++) bar += i === m ? '|' : i < v ? '#' : '.';
+  return `[${bar}]`;
+}
+
+function barsHtml(block: Extract<MailBlock, { type: 'bars' }>): string {
+  const rows = block.rows
+    .map((row) => {
+      const cells = barSegments(row.value, row.mark)
+        .map(
+          ([width, colour]) =>
+            `<td width="${width}%" height="12" bgcolor="${colour}" style="width:${width}%;height:12px;background:${colour};font-size:0;line-height:0">&nbsp;</td>`,
+        )
+        .join('');
+      return (
+        `<tr><td style="padding:10px 0 2px;${FONT};font-size:14px;line-height:18px;font-weight:bold;color:${C.text}">${escapeHtml(row.label)}</td></tr>` +
+        `<tr><td style="padding:0"><table role="presentation" width="100%" cellpadding="0" cellspacing="0" border="0" style="border-collapse:collapse;border:1px solid ${C.border}"><tr>${cells}</tr></table></td></tr>` +
+        `<tr><td style="padding:2px 0 0;${FONT};font-size:13px;line-height:18px;color:${C.muted}">${escapeHtml(row.note)}</td></tr>`
+      );
+    })
+    .join('');
+  return (
+    `<table role="presentation" width="100%" cellpadding="0" cellspacing="0" border="0" style="margin:0 0 16px;border-collapse:collapse">` +
+    `<caption align="top" style="text-align:left;padding:0 0 4px;${FONT};font-size:13px;line-height:18px;color:${C.muted}">${escapeHtml(block.caption)}</caption>` +
+    rows +
+    '</table>' +
+    `<p style="margin:0 0 16px;${FONT};font-size:13px;line-height:18px;color:${C.muted}">${escapeHtml(block.legend)}</p>`
+  );
+}
+
 function blockHtml(block: MailBlock): string {
   switch (block.type) {
     case 'paragraph':
@@ -95,6 +165,22 @@ function blockHtml(block: MailBlock): string {
         `<td bgcolor="${C.surface}" style="background:${C.surface};border-left:4px solid ${C.ochre};padding:10px 14px;${FONT};font-size:14px;line-height:20px;color:${C.text}">` +
         `<strong>${escapeHtml(block.title)}.</strong> ${escapeHtml(block.text)}</td></tr></table>`
       );
+    case 'heading':
+      return `<h2 style="margin:24px 0 8px;${FONT};font-size:18px;line-height:24px;font-weight:bold;color:${C.brand900}">${escapeHtml(block.text)}</h2>`;
+    case 'list':
+      return (
+        `<table role="presentation" width="100%" cellpadding="0" cellspacing="0" border="0" style="margin:0 0 16px">` +
+        block.items
+          .map(
+            (item) =>
+              `<tr><td valign="top" width="18" style="width:18px;padding:0 0 8px;${FONT};font-size:15px;line-height:22px;color:${C.brand900}">&bull;</td>` +
+              `<td valign="top" style="padding:0 0 8px;${FONT};font-size:15px;line-height:22px;color:${C.text}">${escapeHtml(item)}</td></tr>`,
+          )
+          .join('') +
+        '</table>'
+      );
+    case 'bars':
+      return barsHtml(block);
   }
 }
 
@@ -110,6 +196,18 @@ function blockText(block: MailBlock): string {
       return `${block.label}:\n${safeUrl(block.url)}${block.note ? `\n${wrap(block.note)}` : ''}`;
     case 'caution':
       return wrap(`${block.title}. ${block.text}`);
+    case 'heading':
+      return `${block.text}\n${'='.repeat(Math.min(72, block.text.length))}`;
+    case 'list':
+      return block.items.map((item) => wrap(`- ${item}`).replace(/\n/g, '\n  ')).join('\n');
+    case 'bars':
+      return [
+        wrap(block.caption),
+        ...block.rows.map(
+          (row) => `${row.label}\n${barText(row.value, row.mark)}\n${wrap(row.note)}`,
+        ),
+        wrap(block.legend),
+      ].join('\n\n');
   }
 }
 

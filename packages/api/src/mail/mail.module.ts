@@ -48,6 +48,13 @@ import { RecipientsService } from './recipients.service.js';
     DeliveriesService,
     MailPreferencesService,
   ],
-  exports: [MailComposers, OutboxService, OutboxWorker, RecipientsService, QuarterMailService],
+  exports: [
+    MailComposers,
+    OutboxService,
+    OutboxWorker,
+    RecipientsService,
+    QuarterMailService,
+    MailTransport,
+  ],
 })
 export class MailModule {}

@@ -36,7 +36,7 @@ import { OutboxRepository, type OutboxMessageRow } from './outbox.repository.js'
 
 /** The headers and parts of one outbox message as handed to nodemailer. */
 export function mailOptions(
-  row: OutboxMessageRow,
+  row: Pick<OutboxMessageRow, 'recipient_address' | 'recipient_name' | 'message_id'>,
   composed: ComposedMail,
   settings: { from: string; publicUrl: string },
   now = new Date(),

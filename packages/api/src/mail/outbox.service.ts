@@ -8,10 +8,11 @@
 import { Inject, Injectable } from '@nestjs/common';
 import type { Transaction } from 'sequelize';
 import { MailComposers } from './mail-composers.js';
+import { MailTablesRepository } from './mail-tables.repository.js';
 import { OutboxRepository, type QueueRequest } from './outbox.repository.js';
 import { OutboxWorker } from './outbox-worker.service.js';
 
-export type { QueueRequest, Recipient } from './outbox.repository.js';
+export type { OutboxMessageRow, QueueRequest, Recipient } from './outbox.repository.js';
 
 @Injectable()
 export class OutboxService {
@@ -19,7 +20,33 @@ export class OutboxService {
     @Inject(OutboxRepository) private readonly outbox: OutboxRepository,
     @Inject(MailComposers) private readonly composers: MailComposers,
     @Inject(OutboxWorker) private readonly worker: OutboxWorker,
+    @Inject(MailTablesRepository) private readonly tables: MailTablesRepository,
   ) {}
+
+  /**
+   * Runs a scheduled mail job unless another process is running it (the mail_schedule lease,
+   * `leaseSeconds` long); null when it did not run. `describe` words the outcome it records.
+   */
+  async exclusive<T>(
+    job: string,
+    owner: string,
+    leaseSeconds: number,
+    work: () => Promise<T>,
+    describe: (result: T) => string,
+  ): Promise<T | null> {
+    if (!(await this.tables.claimJob(job, owner, leaseSeconds))) return null;
+    let outcome = 'failed';
+    try {
+      const result = await work();
+      outcome = describe(result);
+      return result;
+    } catch (error) {
+      outcome = `failed: ${(error as Error).message}`;
+      throw error;
+    } finally {
+      await this.tables.releaseJob(job, owner, outcome).catch(() => undefined);
+    }
+  }
 
   /**
    * Queues one practice's messages of a kind for a source; the number queued, or null when

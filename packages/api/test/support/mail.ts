@@ -90,6 +90,7 @@ export function withMail(port: number, outbox: Partial<CairnConfig['mail']['outb
       },
       // Reminders run when a test asks (QuarterMailService.runReminderCheck), not on the clock.
       reminders: { ...config.mail.reminders, checkCron: '0 0 0 1 1 *' },
+      digests: { ...config.mail.digests, checkCron: '0 0 0 1 1 *' },
     },
   });
 }

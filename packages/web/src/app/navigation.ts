@@ -69,7 +69,7 @@ export const navItems: NavItem[] = [
     to: '/deliveries',
     icon: 'envelope',
     roles: ['regional_lead'],
-    activeFor: /^\/(deliveries|mail-recipients)(\/|$)/,
+    activeFor: /^\/(deliveries|mail-recipients|digests)(\/|$)/,
   },
   {
     label: 'Outliers',

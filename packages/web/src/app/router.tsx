@@ -128,6 +128,12 @@ export const routes: RouteObject[] = [
             Component: m.MailRecipients,
           })),
       },
+      // ── digests ──
+      {
+        path: 'digests',
+        lazy: () =>
+          import('../features/deliveries/routes/Digests').then((m) => ({ Component: m.Digests })),
+      },
       // ── results and benchmarks ──
       {
         path: 'results',

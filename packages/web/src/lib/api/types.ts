@@ -121,6 +121,12 @@ export type NewExtraRecipient = Schemas['AddExtraRecipientDto'];
 export type MailPreferences = Schemas['MailPreferencesDto'];
 export type MailPreference = Schemas['MailPreferenceDto'];
 export type MailPreferencesChange = Schemas['UpdateMailPreferencesDto'];
+// ── digests ──
+export type DigestReportRef = Schemas['DigestReportRefDto'];
+export type DigestPreview = Schemas['DigestPreviewDto'];
+export type DigestTestSend = Schemas['DigestTestSendDto'];
+export type DigestSendResult = Schemas['DigestSendResultDto'];
+export type DigestSchedule = Schemas['DigestScheduleDto'];
 // ── results and benchmarks ──
 export type TypeSplit = Schemas['TypeSplit'];
 export type BuiltFrom = Schemas['BuiltFromDto'];

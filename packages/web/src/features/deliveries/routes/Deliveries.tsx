@@ -33,10 +33,16 @@ function DeliveriesScreen() {
             waiting or failed, and why a failed one failed. Open a source to see each message.
           </p>
         </div>
-        <Link to="/mail-recipients" className={Classes.BUTTON}>
-          <Icon icon="people" />
-          <span className={Classes.BUTTON_TEXT}>Mail recipients</span>
-        </Link>
+        <div className="cairn-mail-links">
+          <Link to="/digests" className={Classes.BUTTON}>
+            <Icon icon="envelope" />
+            <span className={Classes.BUTTON_TEXT}>Digests</span>
+          </Link>
+          <Link to="/mail-recipients" className={Classes.BUTTON}>
+            <Icon icon="people" />
+            <span className={Classes.BUTTON_TEXT}>Mail recipients</span>
+          </Link>
+        </div>
       </div>
       <ProblemCallout error={deliveries.error} />
       {deliveries.isPending ? (

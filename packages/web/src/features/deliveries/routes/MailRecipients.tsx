@@ -31,6 +31,7 @@ const kindLabels: Record<string, string> = {
   quarter_opened: 'opening messages',
   deadline_reminder: 'reminders',
   review_case_question: 'review case questions',
+  digest: 'digests',
 };
 
 function MailRecipientsScreen() {
