@@ -91,7 +91,7 @@ describe('digests', () => {
     expect(text).toContain('No review case is waiting');
     expect(text).toContain('follow local guidelines');
     expect(text).toContain('NICE NG28');
-    expect(res.body.reviewCasesCounted).toBe(false);
+    expect(res.body.reviewCasesCounted).toBe(true); // the review-case module counts them
     expect(res.body.attachment).toMatchObject({
       filename: `cairn-OV102-2026-Q3-report-${r3}-figures.xlsx`,
       contentType: 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet',

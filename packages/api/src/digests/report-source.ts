@@ -65,12 +65,7 @@ export class ReportDigestSource implements DigestSource {
     report: DigestReport,
     practiceId: number,
   ): Promise<PracticeResultsDto | null> {
-    const part = await this.reports.practicePart(
-      reader(report.regionId),
-      report.id,
-      practiceId,
-      'practice-lead',
-    );
+    const part = await this.reports.practicePart(reader(report.regionId), report.id, practiceId);
     return part.state === 'results' ? part.results : null;
   }
 

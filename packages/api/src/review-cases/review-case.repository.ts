@@ -116,6 +116,16 @@ export class ReviewCaseRepository {
     return this.sequelize.transaction(work);
   }
 
+  /** How many of a practice's cases wait for its answer (the practice's digest says so). */
+  async countAwaitingPractice(practiceId: number, regionId: number): Promise<number> {
+    const rows = await this.sequelize.query<{ n: number | string }>(
+      `SELECT COUNT(*) AS n FROM review_cases
+        WHERE practice_id = ? AND region_id = ? AND status = 'awaiting_practice'`,
+      { replacements: [practiceId, regionId], type: QueryTypes.SELECT },
+    );
+    return Number(rows[0]?.n ?? 0);
+  }
+
   async insertCase(c: NewCase, transaction: Transaction): Promise<number> {
     const [id] = await this.sequelize.query(
       `INSERT INTO review_cases (region_id, practice_id, quarter_id, measure_key, split, status, version, title, evidence,

@@ -1,11 +1,13 @@
 import { Module } from '@nestjs/common';
 import { AuditTrailModule } from '../audit-trail/audit-trail.module.js';
 import { BenchmarksModule } from '../benchmarks/benchmarks.module.js';
+import { DigestsModule } from '../digests/digests.module.js';
 import { MailModule } from '../mail/mail.module.js';
 import { MeasureSetsModule } from '../measure-sets/measure-sets.module.js';
 import { OrganisationsModule } from '../organisations/organisations.module.js';
 import { QuartersModule } from '../quarters/quarters.module.js';
 import { SubmissionsModule } from '../submissions/submissions.module.js';
+import { DigestCaseCount } from './digest-case-count.js';
 import { DraftBenchmarkSource, OUTLIER_SOURCE } from './outliers/outlier-source.js';
 import { OutliersController } from './outliers/outliers.controller.js';
 import { OutliersService } from './outliers/outliers.service.js';
@@ -25,6 +27,7 @@ import { ReviewCasesService } from './review-cases.service.js';
   imports: [
     AuditTrailModule,
     BenchmarksModule,
+    DigestsModule,
     MailModule,
     MeasureSetsModule,
     OrganisationsModule,
@@ -36,6 +39,7 @@ import { ReviewCasesService } from './review-cases.service.js';
     ReviewCaseRepository,
     ReviewCasesService,
     ReviewCaseMail,
+    DigestCaseCount,
     OutliersService,
     { provide: OUTLIER_SOURCE, useClass: DraftBenchmarkSource },
   ],

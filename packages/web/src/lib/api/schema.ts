@@ -1344,6 +1344,113 @@ export interface paths {
     patch?: never;
     trace?: never;
   };
+  '/api/digests': {
+    parameters: {
+      query?: never;
+      header?: never;
+      path?: never;
+      cookie?: never;
+    };
+    /** The reports digests can be made from, latest first */
+    get: operations['DigestsController_list'];
+    put?: never;
+    post?: never;
+    delete?: never;
+    options?: never;
+    head?: never;
+    patch?: never;
+    trace?: never;
+  };
+  '/api/digests/{reportId}/practices/{practiceId}/preview': {
+    parameters: {
+      query?: never;
+      header?: never;
+      path?: never;
+      cookie?: never;
+    };
+    /**
+     * A practice's digest as it will be sent: subject, recipients, text part, attachment
+     * @description The HTML part is served alone at htmlPath, for a sandboxed frame.
+     */
+    get: operations['DigestsController_preview'];
+    put?: never;
+    post?: never;
+    delete?: never;
+    options?: never;
+    head?: never;
+    patch?: never;
+    trace?: never;
+  };
+  '/api/digests/{reportId}/practices/{practiceId}/preview.html': {
+    parameters: {
+      query?: never;
+      header?: never;
+      path?: never;
+      cookie?: never;
+    };
+    /** A practice's digest: the HTML part alone, exactly as sent */
+    get: operations['DigestsController_previewHtml'];
+    put?: never;
+    post?: never;
+    delete?: never;
+    options?: never;
+    head?: never;
+    patch?: never;
+    trace?: never;
+  };
+  '/api/digests/{reportId}/practices/{practiceId}/test': {
+    parameters: {
+      query?: never;
+      header?: never;
+      path?: never;
+      cookie?: never;
+    };
+    get?: never;
+    put?: never;
+    /** Sends a practice's digest to the signed-in regional lead alone, now */
+    post: operations['DigestsController_sendTest'];
+    delete?: never;
+    options?: never;
+    head?: never;
+    patch?: never;
+    trace?: never;
+  };
+  '/api/digests/{reportId}/send': {
+    parameters: {
+      query?: never;
+      header?: never;
+      path?: never;
+      cookie?: never;
+    };
+    get?: never;
+    put?: never;
+    /** Queues every practice's digests (practices queued before are left alone) */
+    post: operations['DigestsController_sendAll'];
+    delete?: never;
+    options?: never;
+    head?: never;
+    patch?: never;
+    trace?: never;
+  };
+  '/api/digests/{reportId}/schedule': {
+    parameters: {
+      query?: never;
+      header?: never;
+      path?: never;
+      cookie?: never;
+    };
+    /** When the digests are to be sent, or were */
+    get: operations['DigestsController_scheduleOf'];
+    /** Sends the digests at a time (sets or moves it) */
+    put: operations['DigestsController_schedule'];
+    post?: never;
+    /** Cancels the scheduled sending */
+    delete: operations['DigestsController_cancel'];
+    options?: never;
+    head?: never;
+    patch?: never;
+    trace?: never;
+  };
 }
 export type webhooks = Record<string, never>;
 export interface components {
@@ -3326,7 +3433,7 @@ export interface components {
       reason: string;
     };
     /** @enum {string} */
-    MailKind: 'quarter_opened' | 'deadline_reminder' | 'review_case_question';
+    MailKind: 'quarter_opened' | 'deadline_reminder' | 'review_case_question' | 'digest';
     OutboxCountsDto: {
       queued: number;
       sending: number;
@@ -3774,6 +3881,83 @@ export interface components {
       expectedVersion: number;
       /** @description Up to 5 files (PDF, XLSX, CSV, PNG, JPEG), 10 MB each, in parts named "files" */
       files?: string[];
+    };
+    DigestReportRefDto: {
+      /** @description The source id of its digests */
+      id: number;
+      /** @example 2026 Q3 results */
+      label: string;
+      quarterId: number;
+      quarterLabel: string;
+      /** Format: date-time */
+      publishedAt: string;
+      /** @description Practices with a part in it */
+      practices: number;
+    };
+    DigestRecipientDto: {
+      address: string;
+      name: string | null;
+      /** @description A practice lead (false: an extra address) */
+      isUser: boolean;
+    };
+    DigestAttachmentDto: {
+      /** @example cairn-OV102-2026-Q3-figures.xlsx */
+      filename: string;
+      contentType: string;
+      bytes: number;
+    };
+    DigestPreviewDto: {
+      report: components['schemas']['DigestReportRefDto'];
+      practice: components['schemas']['PracticeDto'];
+      /** @description Whom the preview is addressed to (the first recipient); null when none */
+      addressedTo: components['schemas']['DigestRecipientDto'] | null;
+      /** @description Everyone who will receive it */
+      recipients: components['schemas']['DigestRecipientDto'][];
+      from: string;
+      subject: string;
+      /** @description The plain-text part, as sent */
+      text: string;
+      /** @description Where the HTML part is served alone, as sent (for a sandboxed frame) */
+      htmlPath: string;
+      /** @description The practice’s figures workbook; null when it has no figures in the report */
+      attachment: components['schemas']['DigestAttachmentDto'] | null;
+      /** @description False until a module that runs review cases counts them: every count is 0 */
+      reviewCasesCounted: boolean;
+    };
+    DigestTestSendDto: {
+      to: string;
+      messageId: string;
+      /** @description The mail server's reply */
+      reply: string;
+    };
+    DigestSendResultDto: {
+      report: components['schemas']['DigestReportRefDto'];
+      /** @description Practices whose digests were queued now */
+      practices: number;
+      /** @description Messages queued now */
+      messages: number;
+      /** @description Practices whose digests were queued before (never queued twice) */
+      alreadyQueued: number;
+    };
+    /** @enum {string} */
+    DigestScheduleState: 'none' | 'scheduled' | 'sent' | 'cancelled';
+    DigestScheduleDto: {
+      report: components['schemas']['DigestReportRefDto'];
+      state: components['schemas']['DigestScheduleState'];
+      /** Format: date-time */
+      sendAt: string | null;
+      scheduledBy: string | null;
+      /** Format: date-time */
+      ranAt: string | null;
+      outcome: string | null;
+    };
+    ScheduleDigestsDto: {
+      /**
+       * Format: date-time
+       * @description When to send (in the future, at most a year ahead)
+       * @example 2026-12-10T08:00:00Z
+       */
+      sendAt: string;
     };
   };
   responses: never;
@@ -6477,6 +6661,252 @@ export interface operations {
       };
     };
   };
+  DigestsController_list: {
+    parameters: {
+      query?: never;
+      header?: never;
+      path?: never;
+      cookie?: never;
+    };
+    requestBody?: never;
+    responses: {
+      200: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['DigestReportRefDto'][];
+        };
+      };
+      /** @description RFC 9457 problem details */
+      default: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['ProblemDto'];
+        };
+      };
+    };
+  };
+  DigestsController_preview: {
+    parameters: {
+      query?: never;
+      header?: never;
+      path: {
+        reportId: number;
+        practiceId: number;
+      };
+      cookie?: never;
+    };
+    requestBody?: never;
+    responses: {
+      200: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['DigestPreviewDto'];
+        };
+      };
+      /** @description RFC 9457 problem details */
+      default: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['ProblemDto'];
+        };
+      };
+    };
+  };
+  DigestsController_previewHtml: {
+    parameters: {
+      query?: never;
+      header?: never;
+      path: {
+        reportId: number;
+        practiceId: number;
+      };
+      cookie?: never;
+    };
+    requestBody?: never;
+    responses: {
+      /** @description The HTML part */
+      200: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'text/html': string;
+        };
+      };
+      /** @description RFC 9457 problem details */
+      default: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['ProblemDto'];
+        };
+      };
+    };
+  };
+  DigestsController_sendTest: {
+    parameters: {
+      query?: never;
+      header?: never;
+      path: {
+        reportId: number;
+        practiceId: number;
+      };
+      cookie?: never;
+    };
+    requestBody?: never;
+    responses: {
+      200: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['DigestTestSendDto'];
+        };
+      };
+      /** @description RFC 9457 problem details */
+      default: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['ProblemDto'];
+        };
+      };
+    };
+  };
+  DigestsController_sendAll: {
+    parameters: {
+      query?: never;
+      header?: never;
+      path: {
+        reportId: number;
+      };
+      cookie?: never;
+    };
+    requestBody?: never;
+    responses: {
+      200: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['DigestSendResultDto'];
+        };
+      };
+      /** @description RFC 9457 problem details */
+      default: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['ProblemDto'];
+        };
+      };
+    };
+  };
+  DigestsController_scheduleOf: {
+    parameters: {
+      query?: never;
+      header?: never;
+      path: {
+        reportId: number;
+      };
+      cookie?: never;
+    };
+    requestBody?: never;
+    responses: {
+      200: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['DigestScheduleDto'];
+        };
+      };
+      /** @description RFC 9457 problem details */
+      default: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['ProblemDto'];
+        };
+      };
+    };
+  };
+  DigestsController_schedule: {
+    parameters: {
+      query?: never;
+      header?: never;
+      path: {
+        reportId: number;
+      };
+      cookie?: never;
+    };
+    requestBody: {
+      content: {
+        'application/json': components['schemas']['ScheduleDigestsDto'];
+      };
+    };
+    responses: {
+      200: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['DigestScheduleDto'];
+        };
+      };
+      /** @description RFC 9457 problem details */
+      default: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['ProblemDto'];
+        };
+      };
+    };
+  };
+  DigestsController_cancel: {
+    parameters: {
+      query?: never;
+      header?: never;
+      path: {
+        reportId: number;
+      };
+      cookie?: never;
+    };
+    requestBody?: never;
+    responses: {
+      200: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['DigestScheduleDto'];
+        };
+      };
+      /** @description RFC 9457 problem details */
+      default: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['ProblemDto'];
+        };
+      };
+    };
+  };
 }
 type FlattenedDeepRequired<T> = {
   [K in keyof T]-?: FlattenedDeepRequired<
@@ -6701,7 +7131,7 @@ export const reportPracticeStateValues: ReadonlyArray<
 > = ['results', 'not-in-report'];
 export const mailKindValues: ReadonlyArray<
   FlattenedDeepRequired<components>['schemas']['MailKind']
-> = ['quarter_opened', 'deadline_reminder', 'review_case_question'];
+> = ['quarter_opened', 'deadline_reminder', 'review_case_question', 'digest'];
 export const outboxStateValues: ReadonlyArray<
   FlattenedDeepRequired<components>['schemas']['OutboxState']
 > = ['queued', 'sending', 'sent', 'failed'];
@@ -6750,3 +7180,6 @@ export const caseEntryVisibilityValues: ReadonlyArray<
 export const caseTransitionValues: ReadonlyArray<
   FlattenedDeepRequired<components>['schemas']['CaseTransition']
 > = ['ask', 'close', 'reopen'];
+export const digestScheduleStateValues: ReadonlyArray<
+  FlattenedDeepRequired<components>['schemas']['DigestScheduleState']
+> = ['none', 'scheduled', 'sent', 'cancelled'];
