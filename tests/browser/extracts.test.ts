@@ -297,6 +297,8 @@ describe('extracts in the browser', () => {
       'Quarters',
       'Reports',
       'Measure sets',
+      'Outliers',
+      'Review cases',
       'Audit trail',
     ]);
     await nav(page, 'Coverage').click();

@@ -45,7 +45,7 @@ describe('session', () => {
     expect(new Headers(callsOf(fetchMock)[1]![1]?.headers).get('X-CSRF-Token')).toBeNull();
   });
 
-  it('shows each role its own navigation: extracts for practice and regional leads, results for practice leads, benchmark and coverage for regional lead and auditor, quarters and measure sets to everyone, Users and Mail to the regional lead only', () => {
+  it('shows each role its own navigation: extracts for practice and regional leads, results for practice leads, benchmark and coverage for regional lead and auditor, quarters and measure sets to everyone, reports to practice leads and auditors, outliers to the regional lead and auditor, review cases to everyone, Users and Mail to the regional lead only', () => {
     expect(navigationFor(lead).map((i) => i.label)).toEqual([
       'Home',
       'Upload extract',
@@ -65,6 +65,7 @@ describe('session', () => {
       'Benchmark',
       'Coverage',
       'Quarters',
+      'Reports',
       'Measure sets',
       'Outliers',
       'Review cases',
@@ -76,6 +77,7 @@ describe('session', () => {
       'Submissions',
       'Results',
       'Quarters',
+      'Reports',
       'Measure sets',
       'Review cases',
     ]);

@@ -17,13 +17,17 @@ function sourceFiles(dir: string): string[] {
   });
 }
 
-const ACTION = /['`]((?:auth|user|membership|region|quarter|submission|demo)\.[a-z_]+)['`]/g;
+const ACTION =
+  /['`]((?:auth|user|membership|region|quarter|submission|demo|measure_set|report|review_case|mail|mail_recipient)\.[a-z_]+)['`]/g;
 
 describe('audit trail action labels', () => {
   const written = new Set<string>();
   for (const file of sourceFiles(SRC)) {
     if (file.endsWith('action-labels.ts')) continue;
-    for (const match of readFileSync(file, 'utf8').matchAll(ACTION)) written.add(match[1]!);
+    for (const match of readFileSync(file, 'utf8').matchAll(ACTION)) {
+      // a download's file name, not an action
+      if (!match[1]!.endsWith('.json')) written.add(match[1]!);
+    }
   }
 
   it('finds the actions the source writes', () => {

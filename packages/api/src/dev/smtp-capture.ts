@@ -205,6 +205,12 @@ export function startSmtpCapture(
   });
   return new Promise((resolve, reject) => {
     server.once('error', reject);
-    server.listen(port, host, () => resolve(server));
+    server.listen(port, host, () => {
+      server.off('error', reject);
+      // Once listening, a client that vanishes mid-conversation (ECONNRESET when a sending
+      // process is killed) ends only its own connection; the capture keeps serving the others.
+      server.on('error', () => undefined);
+      resolve(server);
+    });
   });
 }
