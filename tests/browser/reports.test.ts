@@ -81,6 +81,11 @@ describe('reports in the browser', () => {
       .getByText(/release ?note/i)
       .first()
       .waitFor();
+    // The browser logs the refusal (400) it was asked for, and nothing else.
+    expect(browser.errors).toEqual([
+      'console: Failed to load resource: the server responded with a status of 400 (Bad Request)',
+    ]);
+    browser.errors.length = 0;
     await page.locator('#release-note').fill('First report of 2026 Q3; OV303 had not submitted.');
     await browser.screenshot('reports-publish');
     await page.getByRole('button', { name: 'Publish report' }).click();

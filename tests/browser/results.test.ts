@@ -67,7 +67,9 @@ describe('results and benchmarks in the browser', () => {
     const table = page.getByRole('region', { name: 'Practices by measure' });
     await table.getByText('OV303').scrollIntoViewIfNeeded();
     await page.getByLabel('Sort by').selectOption({ label: 'HbA1c recorded' });
+    // The table re-renders in its new order: wait for it rather than read it at once.
     const first = table.locator('.cairn-bench-practice').first();
+    await first.filter({ hasText: 'OV201' }).waitFor();
     await expect(first.textContent()).resolves.toContain('OV201');
     const [download] = await Promise.all([
       page.waitForEvent('download'),
@@ -177,6 +179,8 @@ describe('results and benchmarks in the browser', () => {
     const { page } = browser;
     await signIn('Daniel Oyelaran');
     await nav(page, 'Results').click();
+    // (the home page, left behind, heads each of the lead's practices too)
+    await page.waitForURL(/\/practices\/\d+\/results/);
     await page.getByRole('heading', { name: /\(OV10[13]\)$/ }).waitFor();
     const other = (await page.getByRole('heading', { name: /\(OV101\)$/ }).count())
       ? 'OV103'

@@ -121,7 +121,9 @@ describe('sign-in in the browser', () => {
       expect(nav).toEqual(persona.nav);
       expect(await page.locator('.cairn-user').textContent()).toContain(persona.role);
       for (const practice of persona.practices ?? []) {
-        expect(await page.getByRole('cell', { name: practice }).count()).toBe(1);
+        // each practice of the lead has its own section on the home page, headed by its name
+        await page.getByRole('heading', { name: practice }).first().waitFor();
+        expect(await page.getByRole('heading', { name: practice }).count()).toBe(1);
       }
       await browser.screenshot(persona.shot);
       expect(browser.errors).toEqual([]);

@@ -155,14 +155,12 @@ function Timeline({ c }: { c: Case }) {
 
 function Actions({ c }: { c: Case }) {
   const a = c.actions;
+  const closed = c.status === 'closed' ? <p className="cairn-muted">This case is closed.</p> : null;
   if (!Object.values(a).some(Boolean))
-    return (
-      <p className="cairn-muted">
-        {c.status === 'closed' ? 'This case is closed.' : 'There is nothing for you to do here.'}
-      </p>
-    );
+    return closed ?? <p className="cairn-muted">There is nothing for you to do here.</p>;
   return (
     <section className="cairn-review-section">
+      {closed}
       <h3>Next step</h3>
       {a.answer ? <AnswerForm c={c} /> : null}
       {a.ask ? <AskForm c={c} /> : null}
