@@ -4,7 +4,7 @@
  */
 import { Injectable } from '@nestjs/common';
 import { InjectModel } from '@nestjs/sequelize';
-import { Op, type Transaction } from 'sequelize';
+import { Op, QueryTypes, type Transaction } from 'sequelize';
 import { version } from '../version.js';
 import type { AboutDto } from './dto/about.dto.js';
 import type { PracticeDto, PracticeRefDto } from './dto/practice.dto.js';
@@ -126,6 +126,25 @@ export class OrganisationsService {
       transaction: options.transaction,
     });
     return rows.map(info);
+  }
+
+  /**
+   * A fingerprint of a region's practices and localities as they are now (their count, latest
+   * change and a checksum of what other modules show of them), read in one SELECT: answers
+   * built from them are keyed by it, so a renamed, moved or deactivated practice is a new key.
+   */
+  async regionFingerprint(regionId: number): Promise<string> {
+    const [row] = await this.practices.sequelize!.query<{ practices: string; localities: string }>(
+      `SELECT
+         (SELECT CONCAT(COUNT(*), '/', COALESCE(MAX(updated_at), ''), '/',
+                        COALESCE(SUM(CRC32(CONCAT_WS('|', id, code, name, active, COALESCE(locality_id, '')))), 0))
+            FROM practices WHERE region_id = ?) AS practices,
+         (SELECT CONCAT(COUNT(*), '/', COALESCE(MAX(updated_at), ''), '/',
+                        COALESCE(SUM(CRC32(CONCAT_WS('|', id, code, name))), 0))
+            FROM localities WHERE region_id = ?) AS localities`,
+      { replacements: [regionId, regionId], type: QueryTypes.SELECT },
+    );
+    return `${row?.practices ?? ''};${row?.localities ?? ''}`;
   }
 
   /** A region's localities, by code. */
