@@ -115,17 +115,36 @@ export class OrganisationsService {
     regionId: number,
     options: { activeOnly?: boolean; ids?: readonly number[]; transaction?: Transaction } = {},
   ): Promise<PracticeInfo[]> {
-    const rows = await this.practices.findAll({
-      where: {
-        regionId,
-        ...(options.activeOnly ? { active: true } : {}),
-        ...(options.ids ? { id: [...new Set(options.ids)] } : {}),
+    if (options.ids && options.ids.length === 0) return [];
+    // Plain rows, not model instances: a national region has thousands of practices.
+    const rows = await this.practices.sequelize!.query<{
+      id: number;
+      code: string;
+      name: string;
+      region_id: number;
+      active: number | boolean;
+      locality_name: string | null;
+      locality_code: string | null;
+    }>(
+      `SELECT p.id, p.code, p.name, p.region_id, p.active, l.name AS locality_name, l.code AS locality_code
+         FROM practices p LEFT JOIN localities l ON l.id = p.locality_id
+        WHERE p.region_id = ?${options.activeOnly ? ' AND p.active = 1' : ''}${options.ids ? ' AND p.id IN (?)' : ''}
+        ORDER BY p.code ASC`,
+      {
+        replacements: options.ids ? [regionId, [...new Set(options.ids)]] : [regionId],
+        type: QueryTypes.SELECT,
+        transaction: options.transaction,
       },
-      include: [Locality],
-      order: [['code', 'ASC']],
-      transaction: options.transaction,
-    });
-    return rows.map(info);
+    );
+    return rows.map((r) => ({
+      id: Number(r.id),
+      code: r.code,
+      name: r.name,
+      localityName: r.locality_name,
+      localityCode: r.locality_code,
+      regionId: Number(r.region_id),
+      active: Boolean(Number(r.active)),
+    }));
   }
 
   /**

@@ -20,7 +20,7 @@ import type { Issue } from './format/issue-codes.js';
 import { CARE_RECORD_SELECT, type CareRecordRow } from '../database/bulk-load/care-record-row.js';
 import type { RejectedRow } from './pipeline/process-extract.js';
 import { CANCELLABLE, RETRYABLE } from './submission-policy.js';
-import { SUMS_COLUMNS } from './sums/sums-rows.js';
+import { SUMS_SELECT } from './sums/sums-rows.js';
 import { submissionsKey } from './current-set-key.js';
 
 /** A row of `submissions`, with the practice-quarter's current submission. */
@@ -115,8 +115,6 @@ export interface CurrentSetRow {
 
 export type RecordScope =
   { submissionId: number } | { submissionIds: readonly number[] } | { quarterId: number };
-
-const SUMS_SELECT = SUMS_COLUMNS.map((c) => `r.${c}`).join(', ');
 
 /** What a check found, for the row that ends it. */
 export interface CheckedFields {
@@ -431,6 +429,17 @@ export class SubmissionRepository {
       [submissionsKey(ids), ids.length, quarterId],
       transaction,
     );
+  }
+
+  /** How many records the quarter's current submissions hold (their accepted rows). */
+  async currentRecordCount(quarterId: number): Promise<number> {
+    const [row] = await this.select<{ n: number | null }>(
+      `SELECT SUM(s.rows_accepted) AS n FROM practice_quarters pq
+         JOIN submissions s ON s.id = pq.current_submission_id
+        WHERE pq.quarter_id = ?`,
+      [quarterId],
+    );
+    return Number(row?.n ?? 0);
   }
 
   /** Facts of confirmed submissions that never change: records, when confirmed, issue counts. */

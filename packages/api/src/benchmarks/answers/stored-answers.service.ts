@@ -95,7 +95,7 @@ export class StoredAnswers {
       if (plain) return this.remember({ key, etag: `"${key}"`, plain, gzip: stored });
     }
     const plain = Buffer.from(JSON.stringify(await build()), 'utf8');
-    const gzip = gzipSync(plain, { level: 6 });
+    const gzip = gzipSync(plain, { level: 1 });
     await this.repository.insert({
       answerKey: key,
       kind,
