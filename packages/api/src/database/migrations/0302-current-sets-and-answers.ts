@@ -38,7 +38,7 @@ export const up: Migration = async ({ context: { exec } }) => {
       kind VARCHAR(32) CHARACTER SET ascii NOT NULL,
       quarter_id INT UNSIGNED NOT NULL,
       plain_bytes INT UNSIGNED NOT NULL,
-      body MEDIUMBLOB NOT NULL,
+      body LONGBLOB NOT NULL,
       built_at DATETIME(3) NOT NULL,
       KEY benchmark_answers_quarter (quarter_id),
       CONSTRAINT benchmark_answers_quarter FOREIGN KEY (quarter_id) REFERENCES audit_quarters (id)
