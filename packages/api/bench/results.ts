@@ -47,7 +47,7 @@ export interface ResultsFigures {
 }
 
 /** Stages a copy of the practice's current submission (same records), awaiting confirmation. */
-async function stageCopy(data: BenchData, submissionId: number): Promise<number> {
+export async function stageCopy(data: BenchData, submissionId: number): Promise<number> {
   const db = data.db;
   const [inserted] = await db.query(
     `INSERT INTO submissions (practice_id, quarter_id, status, file_name, file_size_bytes, file_kind,

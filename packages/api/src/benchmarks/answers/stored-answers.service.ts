@@ -17,9 +17,13 @@
  * The ETag is the key's hash, so an unchanged answer is a 304.
  */
 import { createHash } from 'node:crypto';
-import { gunzipSync, gzipSync } from 'node:zlib';
+import { promisify } from 'node:util';
+import { gunzip, gzip } from 'node:zlib';
 import { Inject, Injectable } from '@nestjs/common';
 import { BenchmarkAnswersRepository } from './benchmark-answers.repository.js';
+
+const gzipAsync = promisify(gzip);
+const gunzipAsync = promisify(gunzip);
 
 /** Change when a stored answer's bytes would change for the same inputs (a DTO change). */
 export const ANSWER_FORMAT = 1;
@@ -88,14 +92,15 @@ export class StoredAnswers {
     if (stored) {
       let plain: Buffer | null = null;
       try {
-        plain = gunzipSync(stored);
+        plain = await gunzipAsync(stored);
       } catch {
         // Damaged bytes: built again below (the row keeps them; INSERT IGNORE).
       }
       if (plain) return this.remember({ key, etag: `"${key}"`, plain, gzip: stored });
     }
     const plain = Buffer.from(JSON.stringify(await build()), 'utf8');
-    const gzip = gzipSync(plain, { level: 1 });
+    // Compressed on libuv's threads, not this one (a national answer is tens of megabytes).
+    const gzip = await gzipAsync(plain, { level: 1 });
     await this.repository.insert({
       answerKey: key,
       kind,
