@@ -19,7 +19,7 @@
 import { createHash } from 'node:crypto';
 import { promisify } from 'node:util';
 import { gunzip, gzip } from 'node:zlib';
-import { Inject, Injectable } from '@nestjs/common';
+import { Inject, Injectable, Logger } from '@nestjs/common';
 import { BenchmarkAnswersRepository } from './benchmark-answers.repository.js';
 
 const gzipAsync = promisify(gzip);
@@ -43,6 +43,7 @@ const MEMO_BYTES = 64 * 1024 * 1024;
 
 @Injectable()
 export class StoredAnswers {
+  private readonly logger = new Logger('StoredAnswers');
   private readonly memo = new Map<string, StoredAnswer>();
   private memoBytes = 0;
   private readonly building = new Map<string, Promise<StoredAnswer>>();
@@ -101,13 +102,21 @@ export class StoredAnswers {
     const plain = Buffer.from(JSON.stringify(await build()), 'utf8');
     // Compressed on libuv's threads, not this one (a national answer is tens of megabytes).
     const gzip = await gzipAsync(plain, { level: 1 });
-    await this.repository.insert({
-      answerKey: key,
-      kind,
-      quarterId,
-      plainBytes: plain.length,
-      gzip,
-    });
+    try {
+      await this.repository.insert({
+        answerKey: key,
+        kind,
+        quarterId,
+        plainBytes: plain.length,
+        gzip,
+      });
+    } catch (error) {
+      // Served all the same: another process finds no row and builds the same bytes (e.g. an
+      // answer larger than the server's max_allowed_packet).
+      this.logger.warn(
+        `the ${kind} answer of quarter ${quarterId} (${gzip.length} bytes) was not stored: ${(error as Error).message}`,
+      );
+    }
     return this.remember({ key, etag: `"${key}"`, plain, gzip });
   }
 
