@@ -181,7 +181,7 @@ export class DigestsService implements OnModuleInit, OnApplicationBootstrap {
         profile: this.link('/profile'),
       },
     };
-    return { input, dataPack: results ? await this.source.dataPack(report, results) : null };
+    return { input, dataPack: results ? await this.source.dataPack(report, practice.id) : null };
   }
 
   private async compose(
