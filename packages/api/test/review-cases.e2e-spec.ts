@@ -340,6 +340,22 @@ describe('review cases', () => {
       .send({ action: 'reopen', expectedVersion: c.version, message: 'New figures arrived.' })
       .expect(200);
     expect(reopened.body).toMatchObject({ status: 'open', finding: null, closedAt: null });
+    // The close it undid stays on the case, for the auditor and the practice lead alike.
+    const undone = {
+      by: auditor.user.displayName,
+      previousFinding: 'data_quality_issue',
+      previousFindingLabel: 'Data quality issue',
+      previousClosedAt: c.closedAt,
+    };
+    expect(c.closedAt).toEqual(expect.any(String));
+    expect(reopened.body.reopened).toMatchObject(undone);
+    expect(Date.parse(reopened.body.reopened.at)).toBeGreaterThanOrEqual(Date.parse(c.closedAt));
+    const seenByLead = (await lead.get(`/api/review-cases/${caseId}`).expect(200)).body;
+    expect(seenByLead.reopened).toEqual(reopened.body.reopened);
+    const listed = (await lead.get('/api/review-cases').expect(200)).body.cases.find(
+      (x: { id: number }) => x.id === caseId,
+    );
+    expect(listed.reopened).toEqual(reopened.body.reopened);
   });
 
   it('answers every case route × role × own/other practice as the policy says (a real case)', async () => {

@@ -3745,6 +3745,17 @@ export interface components {
       | 'genuine_variation_improving'
       | 'genuine_variation_action_agreed'
       | 'no_concern';
+    CaseReopenedDto: {
+      /** @description When it was last reopened */
+      at: string;
+      /** @description Who reopened it (a name) */
+      by: string;
+      /** @description The finding it was closed with before that reopen */
+      previousFinding: components['schemas']['CaseFinding'] | null;
+      previousFindingLabel: string | null;
+      /** @description When it was closed before that */
+      previousClosedAt: string | null;
+    };
     ReviewCaseSummaryDto: {
       id: number;
       title: string;
@@ -3763,6 +3774,8 @@ export interface components {
       openedAt: string;
       updatedAt: string;
       closedAt: string | null;
+      /** @description Set once the case has been reopened: the close it undid */
+      reopened: components['schemas']['CaseReopenedDto'] | null;
     };
     FindingOptionDto: {
       key: components['schemas']['CaseFinding'];
@@ -3851,6 +3864,8 @@ export interface components {
       openedAt: string;
       updatedAt: string;
       closedAt: string | null;
+      /** @description Set once the case has been reopened: the close it undid */
+      reopened: components['schemas']['CaseReopenedDto'] | null;
       /** @description The figures that prompted it, frozen */
       evidence: components['schemas']['CaseEvidenceDto'];
       actions: components['schemas']['CaseActionsDto'];
