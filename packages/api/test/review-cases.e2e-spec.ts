@@ -9,6 +9,8 @@
  */
 import ExcelJS from 'exceljs';
 import { QueryTypes } from 'sequelize';
+import { submissionsKey } from '../src/benchmarks/benchmark-store.service.js';
+import { SubmissionsService } from '../src/submissions/submissions.service.js';
 import { arrange, type ExtractsWorld, uploadAndWait } from './extracts-fixtures/api.js';
 import { csvOf, goodRows } from './extracts-fixtures/rows.js';
 import { signInAs, type SignedInAgent } from './support/auth.js';
@@ -101,6 +103,40 @@ describe('review cases', () => {
     ]);
     expect(drill.body.breakdowns.length).toBeGreaterThan(0);
     expect(drill.body.evidence.n).toBeGreaterThan(0);
+    // The drill-down reads only its measure from the stored results, and shows what the
+    // practice's results page shows the region's side for that measure.
+    const page = (
+      await auditor.get(`/api/practices/${practiceId}/quarters/${quarterId}/results`).expect(200)
+    ).body;
+    const own = page.measures.find(
+      (m: { measure: { key: string } }) => m.measure.key === measureKey,
+    );
+    const withoutPeers = (x: Record<string, unknown>) =>
+      Object.fromEntries(Object.entries(x).filter(([k]) => k !== 'peers'));
+    expect(drill.body.splits).toEqual(own.splits.map(withoutPeers));
+    expect(drill.body.trendQuarters).toEqual(
+      page.quarters.map((q: { quarterLabel: string }) => q.quarterLabel),
+    );
+    expect(drill.body.dataQuality).toEqual(page.dataQuality);
+    const cells = page.detail.measures
+      .find((m: { measure: string }) => m.measure === measureKey)
+      .splits.find((x: { split: string }) => x.split === 'all');
+    expect(drill.body.everyone).toEqual(cells.everyone);
+    expect(drill.body.breakdowns.map((b: { cells: unknown }) => b.cells)).toEqual(cells.breakdowns);
+    expect(page.detail.values).toContainEqual(drill.body.histogram);
+    // Asked again, the answer kept by what it was built from is the same.
+    const again = await auditor
+      .get(`/api/quarters/${quarterId}/outliers/practices/${practiceId}/measures/${measureKey}`)
+      .expect(200);
+    expect(again.body).toEqual(drill.body);
+    // The key MariaDB makes of the quarter's current set is the benchmark store's.
+    const submissions = t.app.get(SubmissionsService);
+    const ids = (await submissions.currentSet(quarterId)).map(
+      (p: { submissionId: number }) => p.submissionId,
+    );
+    expect(await submissions.currentSetKeys([quarterId, 999_999])).toEqual(
+      new Map([[quarterId, submissionsKey(ids)]]),
+    );
   });
 
   it('pages the records behind a result under pseudonyms, and exports the evidence as XLSX', async () => {
