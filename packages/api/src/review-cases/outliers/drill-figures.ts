@@ -160,7 +160,7 @@ export function drillDetail(
   version: MeasureSetVersion,
   measureKey: string,
   split: TypeSplit,
-  histogramKey: string,
+  histogramKey: string | null,
 ): {
   everyone: DetailCellDto | null;
   breakdowns: DrillBreakdownDto[];
@@ -168,7 +168,7 @@ export function drillDetail(
 } {
   const d = practiceDetail(practice, region, version.compiled);
   const s = d.measures.find((m) => m.key === measureKey)?.splits.find((x) => x.split === split);
-  const v = d.values.find((x) => x.key === histogramKey);
+  const v = histogramKey === null ? undefined : d.values.find((x) => x.key === histogramKey);
   return {
     everyone: s ? cellOf('everyone', s.everyone) : null,
     breakdowns: s

@@ -54,7 +54,7 @@ import {
 } from './outlier-rule.js';
 import { OUTLIER_SOURCE, type OutlierBasis, type OutlierSource } from './outlier-source.js';
 
-/** The value histogram shown for a measure: by words in its key, HbA1c otherwise. */
+/** The value histogram shown for a measure: by words in its key (none when no value fits). */
 const HISTOGRAM_OF: [RegExp, string][] = [
   [/hba1c/, 'hba1c'],
   [/blood_pressure|bp_|systolic/, 'systolic'],
@@ -510,7 +510,8 @@ export class OutliersService {
         at,
       )
     ).get(submissionId);
-    const histogramKey = HISTOGRAM_OF.find(([re]) => re.test(measure.key))?.[1] ?? 'hba1c';
+    // The values the measure reads; none for a measure without a value of its own (smoking).
+    const histogramKey = HISTOGRAM_OF.find(([re]) => re.test(measure.key))?.[1] ?? null;
     const detail =
       sums && basis.regionSums
         ? drillDetail(sums, basis.regionSums, version, measure.key, split, histogramKey)

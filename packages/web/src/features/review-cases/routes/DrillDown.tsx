@@ -106,6 +106,13 @@ function DrillDownScreen() {
   );
 }
 
+const TYPE_WORDS: Record<string, string> = {
+  type1: 'Type 1',
+  type2: 'Type 2',
+  other: 'Other',
+  unknown: 'Not recorded',
+};
+
 const OUTCOME_WORDS: Record<string, string> = {
   met: 'met',
   not_met: 'not met',
@@ -156,7 +163,7 @@ function Records({ d }: { d: DrillDownData }) {
                   <th scope="row">{x.pseudonym}</th>
                   <td>{x.age}</td>
                   <td>{x.sex}</td>
-                  <td>{x.diabetesType}</td>
+                  <td>{TYPE_WORDS[x.diabetesType] ?? x.diabetesType}</td>
                   <td>{x.deprivationQuintile ?? '—'}</td>
                   <td>{OUTCOME_WORDS[x.outcome] ?? x.outcome}</td>
                   <td className="cairn-small">{x.readings}</td>
