@@ -11,7 +11,14 @@
  */
 import type { Writable } from 'node:stream';
 import { HttpStatus, Inject, Injectable } from '@nestjs/common';
-import { benchmarkMeasure, benchmarkTable, type TypeSplit, type UnitResult } from '@cairn/metrics';
+import {
+  bandOfCode,
+  benchmarkMeasure,
+  benchmarkPractice,
+  benchmarkTable,
+  type TypeSplit,
+  type UnitResult,
+} from '@cairn/metrics';
 import ExcelJS from 'exceljs';
 import { neutralise } from '../../common/neutralise.js';
 import { SubmissionsService } from '../../submissions/submissions.service.js';
@@ -144,10 +151,38 @@ export class OutliersService {
     const measures = version.measures.filter(
       (m) => query.measure === undefined || m.key === query.measure,
     );
+    // Without case mix the stored flags (adjusted limits) say which units can be listed: only
+    // those are read in full (a practice's every measure at once), when they are few enough for
+    // that to be cheaper than reading each measure's every unit. With case mix every unit's
+    // adjusted rate is judged.
+    const flagged = caseMix ? null : benchmarkTable(b, split);
+    const few =
+      flagged !== null &&
+      new Set(
+        flagged.units
+          .filter((t) => t.adjusted.some((code) => mayBeListed(code, level)))
+          .map((t) => t.code),
+      ).size *
+        b.measures.length *
+        3 <
+        measures.length * b.practices.length;
+    const table = few ? flagged : null;
+    const views = new Map<string, ReturnType<typeof benchmarkPractice>>();
+    const unitOf = (code: string, key: string): UnitResult => {
+      let view = views.get(code);
+      if (!view) views.set(code, (view = benchmarkPractice(b, code)));
+      return view.results.find((r) => r.measure.key === key && r.split === split)!.unit;
+    };
     for (const m of measures) {
       if (!b.measures.some((x) => x.key === m.key)) continue;
       const context = measureContext(b, m.key, split);
-      for (const u of benchmarkMeasure(b, m.key, split).units) {
+      const mi = table ? table.measures.indexOf(m.key) : -1;
+      const units = table
+        ? table.units
+            .filter((t) => mayBeListed(t.adjusted[mi] ?? 0, level))
+            .map((t) => unitOf(t.code, m.key))
+        : benchmarkMeasure(b, m.key, split).units;
+      for (const u of units) {
         const j = judge(u, context, choice);
         if (!j) continue;
         if (query.assessment !== undefined && j.assessment !== query.assessment) continue;
@@ -537,6 +572,13 @@ export class OutliersService {
       },
     };
   }
+}
+
+/** Whether a stored flag code (adjusted limits) lies beyond the chosen level on either side. */
+function mayBeListed(code: number, level: 'outer' | 'inner'): boolean {
+  if (code < 2) return false;
+  const { band } = bandOfCode(code as 2 | 3 | 4 | 5);
+  return band === 'outlier' || level === 'inner';
 }
 
 /** The part of a drill-down kept by what it was built from. */
