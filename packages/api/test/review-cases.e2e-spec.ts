@@ -129,6 +129,18 @@ describe('review cases', () => {
       .get(`/api/quarters/${quarterId}/outliers/practices/${practiceId}/measures/${measureKey}`)
       .expect(200);
     expect(again.body).toEqual(drill.body);
+    // A confirm of another practice changes the set: the next drill-down is built from it.
+    const ov201 = w.practice('OV201');
+    const replaced = await uploadAndWait(regional, ov201, quarterId, csvOf(goodRows(11)), {
+      name: 'OV201-again.csv',
+    });
+    await regional.post(`/api/practices/${ov201}/submissions/${replaced.id}/confirm`).expect(200);
+    const after = await auditor
+      .get(`/api/quarters/${quarterId}/outliers/practices/${practiceId}/measures/${measureKey}`)
+      .expect(200);
+    expect(after.body.basis.key).not.toBe(drill.body.basis.key);
+    expect(after.body.basis.resultId).not.toBe(drill.body.basis.resultId);
+    expect(after.body.splits[0].region.n.value).not.toBe(drill.body.splits[0].region.n.value);
     // The key MariaDB makes of the quarter's current set is the benchmark store's.
     const submissions = t.app.get(SubmissionsService);
     const ids = (await submissions.currentSet(quarterId)).map(
