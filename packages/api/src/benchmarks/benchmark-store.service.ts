@@ -136,7 +136,7 @@ export class BenchmarkStore {
 
   /** The quarter's result for its current submissions now; null when it has none. */
   async resultOf(quarter: QuarterDto): Promise<QuarterResult | null> {
-    const sets = await this.submissions.currentSetKeys([quarter.id]);
+    const sets = await this.submissions.currentSetRows([quarter.id]);
     return this.resultFor(quarter, sets.get(quarter.id) ?? null);
   }
 
@@ -147,7 +147,7 @@ export class BenchmarkStore {
 
   /** The current set of each quarter as its row names it (one SELECT); null: none. */
   async currentSets(quarters: readonly QuarterDto[]): Promise<Map<number, CurrentSetRow | null>> {
-    const sets = await this.submissions.currentSetKeys(quarters.map((q) => q.id));
+    const sets = await this.submissions.currentSetRows(quarters.map((q) => q.id));
     return new Map(
       quarters.map((q) => {
         const set = sets.get(q.id);

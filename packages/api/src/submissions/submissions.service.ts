@@ -332,7 +332,7 @@ export class SubmissionsService {
    * row a quarter; a quarter without a row gets one made from its pointers first). Changed in
    * the confirm's transaction, so it always names the set the pointers make.
    */
-  async currentSetKeys(quarterIds: readonly number[]): Promise<Map<number, CurrentSetRow>> {
+  async currentSetRows(quarterIds: readonly number[]): Promise<Map<number, CurrentSetRow>> {
     let rows = await this.submissions.currentSetRows(quarterIds);
     const missing = quarterIds.filter(
       (id) => !rows.some((r) => r.quarterId === id && r.version > 0),
@@ -347,6 +347,15 @@ export class SubmissionsService {
   /** The current pointers of several quarters, read in one SELECT. */
   currentSets(quarterIds: readonly number[]): Promise<(CurrentPointer & { quarterId: number })[]> {
     return this.submissions.currentPointersOf(quarterIds);
+  }
+
+  /**
+   * The key of each quarter's current set (what `currentSets` would give, as the benchmark store
+   * keys it: SHA-256 hex of the sorted ids), without sending the pointers; null for a quarter
+   * whose key MariaDB cannot make, absent for one without current submissions.
+   */
+  currentSetKeys(quarterIds: readonly number[]): Promise<Map<number, string | null>> {
+    return this.submissions.currentSetKeys(quarterIds);
   }
 
   /**
