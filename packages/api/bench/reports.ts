@@ -16,6 +16,7 @@
  * Exit code 1 when a target is missed.
  */
 import { spawnSync } from 'node:child_process';
+import { loadavg } from 'node:os';
 import { join } from 'node:path';
 import { Writable } from 'node:stream';
 import { fileURLToPath } from 'node:url';
@@ -56,29 +57,48 @@ function sink(): Writable & { bytes: number } {
   return out;
 }
 
+const loadAverage = () =>
+  loadavg()
+    .map((x) => x.toFixed(2))
+    .join(', ');
 const median = (xs: number[]) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)]!;
 const seconds = (ms: number) => (ms / 1000).toFixed(2);
 
 async function main(): Promise<number> {
   const root = join(fileURLToPath(import.meta.url), '..', '..', '..', '..');
-  const app = await benchApp();
+  // BENCH_KEEP_DATABASE=<name> keeps the loaded demo region between runs (for profiling).
+  const bench = await benchApp(undefined, process.env.BENCH_KEEP_DATABASE || undefined);
+  let app = bench.app;
   let missed = 0;
+  console.log(`load average before: ${loadAverage()}`);
   try {
-    const { ingestDemoExtracts } = await fromDist('submissions/demo-ingest.js');
-    const t0 = performance.now();
-    const loaded = await ingestDemoExtracts(
-      join(root, 'seed-data', 'out'),
-      app.config,
-      app.secrets,
-    );
-    if (!loaded)
-      throw new Error(
-        'no demo extracts in seed-data/out (run npm start once, or seed-data/generate.ts)',
+    if (bench.fresh || !process.env.BENCH_KEEP_DATABASE) {
+      const { ingestDemoExtracts } = await fromDist('submissions/demo-ingest.js');
+      const t0 = performance.now();
+      const loaded = await ingestDemoExtracts(
+        join(root, 'seed-data', 'out'),
+        bench.config,
+        bench.secrets,
       );
-    console.log(
-      `demo region loaded: ${loaded.extracts} extracts, ${loaded.records} records (${seconds(performance.now() - t0)} s)`,
-    );
-    const [quarter] = await app.db.query<{ id: number; region_id: number }>(
+      if (!loaded)
+        throw new Error(
+          'no demo extracts in seed-data/out (run npm start once, or seed-data/generate.ts)',
+        );
+      console.log(
+        `demo region loaded: ${loaded.extracts} extracts, ${loaded.records} records (${seconds(performance.now() - t0)} s)`,
+      );
+    }
+    // The loading closed the connection the models were bound to: a fresh API process's app.
+    await app.close();
+    const { createApp } = await fromDist('app.factory.js');
+    const { createRootLogger } = await fromDist('common/logger.js');
+    app = await createApp({
+      config: bench.config,
+      secrets: bench.secrets,
+      logger: createRootLogger('silent'),
+    });
+    await app.init();
+    const [quarter] = await bench.db.query<{ id: number; region_id: number }>(
       "SELECT id, region_id FROM audit_quarters WHERE status = 'open' ORDER BY year DESC, quarter DESC LIMIT 1",
       { type: QueryTypes.SELECT },
     );
@@ -92,7 +112,7 @@ async function main(): Promise<number> {
       requestId: null,
       ipAddress: null,
     };
-    const reports = await app.get('reports/reports.service.js', 'ReportsService');
+    const reports = app.get((await fromDist('reports/reports.service.js')).ReportsService);
 
     // 1. publish + region pack
     const publishOnce = async () => {
@@ -188,7 +208,13 @@ async function main(): Promise<number> {
     );
   } finally {
     await app.close();
+    await bench.db.close();
+    if (!process.env.BENCH_KEEP_DATABASE) {
+      const { dropTestDatabase } = await fromDist('database/connect.js');
+      await dropTestDatabase(bench.config, bench.secrets);
+    }
   }
+  console.log(`load average after: ${loadAverage()}`);
   return missed;
 }
 

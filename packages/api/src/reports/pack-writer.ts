@@ -77,13 +77,18 @@ export async function writePack(
     if (table) {
       ws.autoFilter = `A1:${columnLetter(sheet.columns.length)}1`;
     }
+    // One style object per column, shared by its cells: exceljs keeps a style's id by the
+    // object, so a shared one is looked up once (a cell's own copy would be serialised per cell).
+    const styles = sheet.columns.map((c) => (c.format ? { numFmt: c.format } : {}));
     let r = 2;
     for (const values of sheet.rows) {
       const row = ws.getRow(r++);
       for (let i = 0; i < values.length; i++) {
         const v = values[i];
         if (v === null || v === undefined) continue;
-        row.getCell(i + 1).value = cellValue(v);
+        const target = row.getCell(i + 1);
+        target.style = styles[i] ?? {};
+        target.value = cellValue(v);
       }
       row.commit();
     }

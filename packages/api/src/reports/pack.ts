@@ -149,8 +149,7 @@ const FUNNEL_COLUMNS = [
 ];
 
 /** Whether a practice's point may be shown: its met and n shown in the peer table, n ≥ 10. */
-function pointShown(table: PeerTableDto | undefined, code: string): boolean {
-  const r = table?.rows.find((x) => x.practice.code === code);
+function pointShown(r: PeerTableDto['rows'][number] | undefined): boolean {
   if (!r) return false;
   if (r.own) return true;
   return (
@@ -159,12 +158,14 @@ function pointShown(table: PeerTableDto | undefined, code: string): boolean {
 }
 
 function* funnelRows(snapshot: ReportSnapshot, tables: readonly PeerTableDto[], only?: string) {
-  const byMeasure = new Map(tables.map((t) => [t.measure, t]));
+  const byMeasure = new Map(
+    tables.map((t) => [t.measure, new Map(t.rows.map((r) => [r.practice.code, r]))]),
+  );
   for (const f of snapshot.region.funnels) {
-    const table = byMeasure.get(f.measure.key);
+    const rows = byMeasure.get(f.measure.key);
     for (const p of f.points) {
       if (only !== undefined && p.practice.code !== only) continue;
-      if (!pointShown(table, p.practice.code)) {
+      if (!pointShown(rows?.get(p.practice.code))) {
         yield [
           f.measure.key,
           p.practice.code,
