@@ -12,7 +12,7 @@ import type { PracticeResultsDto } from '../benchmarks/dto/practice-results.dto.
 import type { DisclosedCellDto, PeerTableDto } from './dto/report.dto.js';
 import { DECIMAL, INTEGER, type PackSheet, type PackValue, PERCENT } from './pack-writer.js';
 import type { ReportRow } from './report.repository.js';
-import type { ReportSnapshot } from './snapshot.js';
+import { practicePeers, type ReportSnapshot } from './snapshot.js';
 
 export type PackScope = { kind: 'region' } | { kind: 'practice'; practiceId: number };
 
@@ -460,6 +460,7 @@ export function packSheets(
   const part = snapshot.practices.find((p) => p.practice.id === scope.practiceId);
   if (!part) throw new Error(`practice ${scope.practiceId} has no results in this report`);
   const results = part.results;
+  const peers = practicePeers(snapshot, part.practice.id);
   return [
     aboutSheet(
       row,
@@ -471,12 +472,12 @@ export function packSheets(
     {
       name: 'Measures by practice',
       columns: BY_PRACTICE_COLUMNS,
-      rows: byPracticeRows(part.peers, labels),
+      rows: byPracticeRows(peers, labels),
     },
     {
       name: 'Funnel data',
       columns: FUNNEL_COLUMNS,
-      rows: funnelRows(snapshot, part.peers, part.practice.code),
+      rows: funnelRows(snapshot, peers, part.practice.code),
     },
     {
       name: 'Breakdowns',

@@ -38,13 +38,20 @@ import type {
 import { type PackScope, packSheets } from './pack.js';
 import { writePack } from './pack-writer.js';
 import { writeReportPdf } from './pdf.js';
-import { type PeerCounts, practicePeerTable, protectedPeerTable } from './peer-table.js';
+import { type PeerCounts, protectedPeerTable } from './peer-table.js';
 import { regionBreakdowns } from './region-breakdowns.js';
+import {
+  assertMayPublish,
+  mayReadRegion,
+  reportActions,
+  reportListActions,
+} from './report-policy.js';
 import { ReportRepository, type ReportRow } from './report.repository.js';
 import {
   canonicalBytes,
   decodeSnapshot,
   encodeSnapshot,
+  practicePeers,
   type ReportSnapshot,
   SNAPSHOT_FORMAT,
   type SnapshotPractice,
@@ -89,6 +96,7 @@ export class ReportsService {
 
   /** Freezes the quarter's benchmark of its current submissions into a new report. */
   async publish(actor: Actor, quarterId: number, releaseNote: string): Promise<ReportDto> {
+    assertMayPublish(actor);
     const note = releaseNote.trim();
     if (note.length === 0) {
       throw new ProblemException(
@@ -206,17 +214,7 @@ export class ReportsService {
           quarterId,
         ),
       );
-      const peers = all.measures.map((m, i) => {
-        const counts = countsOf(i);
-        const own = counts.find((c) => c.practice.id === p.practice.id)!;
-        return practicePeerTable(
-          m.key,
-          'all',
-          own,
-          counts.filter((c) => c !== own),
-        );
-      });
-      return { practice: p.practice, submissionId: p.submissionId, results, peers };
+      return { practice: p.practice, submissionId: p.submissionId, results };
     };
     const practices: SnapshotPractice[] = [];
     // A few at a time: their reads of the database overlap.
@@ -280,7 +278,7 @@ export class ReportsService {
     for (const row of rows) reports.push(await this.dto(actor, row));
     return {
       reports,
-      actions: { publish: quarterId !== undefined && actor.role === 'regional_lead' },
+      actions: reportListActions(actor, quarterId ?? null),
     };
   }
 
@@ -364,7 +362,7 @@ export class ReportsService {
       state: 'results',
       message: null,
       results: found.results,
-      peers: found.peers,
+      peers: practicePeers(snapshot, practiceId),
       caution: snapshot.caution,
     };
   }
@@ -518,7 +516,7 @@ export class ReportsService {
 
   private async dto(actor: Actor, row: ReportRow): Promise<ReportDto> {
     const quarterLabel = await this.quarterLabel(actor, row);
-    const region = actor.role === 'regional_lead' || actor.role === 'auditor';
+    const region = mayReadRegion(actor);
     let practices: PracticeDto[] = [];
     if (row.status !== 'withdrawn') {
       const { snapshot } = await this.snapshot(row);
@@ -551,10 +549,7 @@ export class ReportsService {
           : null,
       permalink: `/reports/${row.id}`,
       practices,
-      actions: {
-        withdraw: actor.role === 'regional_lead' && row.status !== 'withdrawn',
-        region: region && row.status !== 'withdrawn',
-      },
+      actions: reportActions(actor, row.status),
     };
   }
 
@@ -612,9 +607,20 @@ const notFound = (id: number) =>
     `Your region has no report ${id}.`,
   );
 
-/** A practice's results as frozen in a report: nothing to act on. */
+/**
+ * A practice's results as frozen in a report: nothing to act on; its breakdowns, kidney grid and
+ * value histograms in the split the report shows (everyone).
+ */
 function frozen(results: PracticeResultsDto): PracticeResultsDto {
-  return { ...results, actions: { upload: false, uploadPath: null } };
+  const everyone = <T extends { split: string }>(splits: T[]) =>
+    splits.filter((s) => s.split === 'all');
+  const detail = results.detail && {
+    ...results.detail,
+    measures: results.detail.measures.map((m) => ({ ...m, splits: everyone(m.splits) })),
+    kidney: { ...results.detail.kidney, splits: everyone(results.detail.kidney.splits) },
+    values: results.detail.values.map((v) => ({ ...v, splits: everyone(v.splits) })),
+  };
+  return { ...results, detail, actions: { upload: false, uploadPath: null } };
 }
 
 /** How a lead of this practice (and no other) reads its results: under disclosure control. */

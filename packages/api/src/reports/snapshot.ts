@@ -5,6 +5,13 @@
  * gzip; its identity is the SHA-256 of the canonical bytes, which include who
  * published it, when and the release note. Readers get the figures from these
  * bytes only, never from the quarter's current submissions.
+ *
+ * What is the same for every practice is stored once: a practice's peer
+ * tables (its own row in full, the others protected) are made on reading
+ * from the region's counts of every practice (`practicePeers`, by the same
+ * disclosure rule as at publishing), and a practice's breakdowns, kidney grid
+ * and value histograms keep the split the report shows (everyone). Format 1
+ * snapshots stored the peer tables per practice and are read as stored.
  */
 import { createHash } from 'node:crypto';
 import { gunzipSync, gzipSync } from 'node:zlib';
@@ -14,13 +21,13 @@ import type {
   RegionBenchmarkDto,
 } from '../benchmarks/dto/benchmark.dto.js';
 import type { PracticeResultsDto } from '../benchmarks/dto/practice-results.dto.js';
-import { canonicalJson } from '../measure-sets/canonical.js';
 import type { PracticeDto } from '../organisations/dto/practice.dto.js';
 import type { QuarterDto } from '../quarters/dto/quarter.dto.js';
 import type { DisclosedCellDto, PeerTableDto } from './dto/report.dto.js';
+import { type PeerCounts, practicePeerTable } from './peer-table.js';
 
 /** Bumped when the snapshot's shape changes; old snapshots keep their own. */
-export const SNAPSHOT_FORMAT = 1;
+export const SNAPSHOT_FORMAT = 2;
 
 export interface SnapshotIdentity {
   regionId: number;
@@ -40,8 +47,8 @@ export interface SnapshotPractice {
   submissionId: number;
   /** The practice's report as its own leads read it (region figures and peers under disclosure control) */
   results: PracticeResultsDto;
-  /** Each measure (everyone): this practice in full, the others protected */
-  peers: PeerTableDto[];
+  /** Format 1 only: each measure's peer table (format 2 makes them with `practicePeers`) */
+  peers?: PeerTableDto[];
 }
 
 export interface RegionBreakdownRow {
@@ -83,9 +90,78 @@ export interface EncodedSnapshot {
 export const sha256Hex = (bytes: Buffer): string =>
   createHash('sha256').update(bytes).digest('hex');
 
+/**
+ * Canonical JSON: object keys sorted (by UTF-16 code units, as `Array.prototype.sort`), no
+ * white space, undefined members left out (null in arrays), any non-array object written as its
+ * own enumerable keys. The same bytes as `canonicalJson` of measure-sets/canonical.ts (a test
+ * compares them), written in one pass without copying the value.
+ */
+export function canonicalSnapshotJson(value: unknown): string {
+  const parts: string[] = [];
+  write(value, parts);
+  return parts.join('');
+}
+
+function write(value: unknown, out: string[]): void {
+  if (value === null || typeof value !== 'object') {
+    out.push(JSON.stringify(value) ?? 'null');
+    return;
+  }
+  if (Array.isArray(value)) {
+    out.push('[');
+    for (let i = 0; i < value.length; i++) {
+      if (i > 0) out.push(',');
+      const v: unknown = value[i];
+      if (v === undefined || typeof v === 'function' || typeof v === 'symbol') out.push('null');
+      else write(v, out);
+    }
+    out.push(']');
+    return;
+  }
+  const record = value as Record<string, unknown>;
+  const keys = Object.keys(record).sort();
+  out.push('{');
+  let first = true;
+  for (const k of keys) {
+    const v = record[k];
+    if (v === undefined || typeof v === 'function' || typeof v === 'symbol') continue;
+    if (!first) out.push(',');
+    first = false;
+    out.push(JSON.stringify(k), ':');
+    write(v, out);
+  }
+  out.push('}');
+}
+
 export function encodeSnapshot(snapshot: ReportSnapshot): EncodedSnapshot {
-  const canonical = Buffer.from(canonicalJson(snapshot), 'utf8');
+  const canonical = Buffer.from(canonicalSnapshotJson(snapshot), 'utf8');
   return { canonical, stored: gzipSync(canonical), contentHash: sha256Hex(canonical) };
+}
+
+/**
+ * A practice's peer tables in a report, one per measure (everyone): the practice's own row in
+ * full, the other practices protected (peer-table.ts), from the region's counts frozen in the
+ * snapshot.
+ */
+export function practicePeers(snapshot: ReportSnapshot, practiceId: number): PeerTableDto[] {
+  const part = snapshot.practices.find((p) => p.practice.id === practiceId);
+  if (part?.peers) return part.peers;
+  const all = snapshot.region.splits[0];
+  if (!all || !part) return [];
+  return all.measures.map((m, i) => {
+    const counts: PeerCounts[] = all.practices.map((p) => ({
+      practice: p.practice,
+      events: p.cells[i]!.events,
+      n: p.cells[i]!.n,
+    }));
+    const own = counts.find((c) => c.practice.id === practiceId)!;
+    return practicePeerTable(
+      m.key,
+      'all',
+      own,
+      counts.filter((c) => c !== own),
+    );
+  });
 }
 
 /** The canonical bytes of a stored snapshot, checked against the hash published with it. */
