@@ -62,6 +62,9 @@ const SPLITS = ['all', 'type1', 'type2_other'] as const;
 /** Decoded snapshots kept in memory (keyed by report id: the bytes never change). */
 const CACHE_ENTRIES = 8;
 
+/** Reports whose practice lists are kept in memory (a few kB each). */
+const PRACTICE_LIST_ENTRIES = 1000;
+
 /** Practices whose results are read at once while publishing. */
 const PARALLEL = 4;
 
@@ -78,6 +81,7 @@ export const reportLabel = (quarterLabel: string, sequence: number) =>
 @Injectable()
 export class ReportsService {
   private readonly cache = new Map<number, { canonical: Buffer; snapshot: ReportSnapshot }>();
+  private readonly practiceLists = new Map<number, PracticeDto[]>();
 
   constructor(
     @Inject(ReportRepository) private readonly repository: ReportRepository,
@@ -507,7 +511,23 @@ export class ReportsService {
       this.cache.delete(this.cache.keys().next().value!);
     }
     this.cache.set(id, entry);
+    if (!this.practiceLists.has(id)) this.practiceLists.set(id, practiceList(entry.snapshot));
     return entry;
+  }
+
+  /**
+   * The practices of a report (with results or not), by code: kept by report id apart from the
+   * snapshots, so that listing reports decodes each snapshot once per process, not per list.
+   */
+  private async practicesOf(row: ReportRow): Promise<PracticeDto[]> {
+    const kept = this.practiceLists.get(row.id);
+    if (kept) return kept;
+    const list = practiceList((await this.snapshot(row)).snapshot);
+    if (this.practiceLists.size >= PRACTICE_LIST_ENTRIES) {
+      this.practiceLists.delete(this.practiceLists.keys().next().value!);
+    }
+    this.practiceLists.set(row.id, list);
+    return list;
   }
 
   private async quarterLabel(actor: Pick<Actor, 'regionId'>, row: ReportRow): Promise<string> {
@@ -519,11 +539,7 @@ export class ReportsService {
     const region = mayReadRegion(actor);
     let practices: PracticeDto[] = [];
     if (row.status !== 'withdrawn') {
-      const { snapshot } = await this.snapshot(row);
-      const all = [
-        ...snapshot.practices.map((p) => p.practice),
-        ...(snapshot.region.splits[0]?.coverage.missing ?? []),
-      ].sort((a, b) => (a.code < b.code ? -1 : a.code > b.code ? 1 : 0));
+      const all = await this.practicesOf(row);
       practices = region ? all : all.filter((p) => actor.practiceIds.includes(p.id));
     }
     const replacedBy = row.replacedById ? await this.repository.get(row.replacedById) : null;
@@ -608,8 +624,9 @@ const notFound = (id: number) =>
   );
 
 /**
- * A practice's results as frozen in a report: nothing to act on; its breakdowns, kidney grid and
- * value histograms in the split the report shows (everyone).
+ * A practice's results as frozen in a report: nothing to act on; every measure, breakdown,
+ * kidney grid and value histogram in the split the report shows (everyone). The region's part
+ * keeps all three splits of every practice's counts.
  */
 function frozen(results: PracticeResultsDto): PracticeResultsDto {
   const everyone = <T extends { split: string }>(splits: T[]) =>
@@ -620,7 +637,20 @@ function frozen(results: PracticeResultsDto): PracticeResultsDto {
     kidney: { ...results.detail.kidney, splits: everyone(results.detail.kidney.splits) },
     values: results.detail.values.map((v) => ({ ...v, splits: everyone(v.splits) })),
   };
-  return { ...results, detail, actions: { upload: false, uploadPath: null } };
+  return {
+    ...results,
+    measures: results.measures.map((m) => ({ ...m, splits: everyone(m.splits) })),
+    detail,
+    actions: { upload: false, uploadPath: null },
+  };
+}
+
+/** Every practice of a report, with results or without, by code. */
+function practiceList(snapshot: ReportSnapshot): PracticeDto[] {
+  return [
+    ...snapshot.practices.map((p) => p.practice),
+    ...(snapshot.region.splits[0]?.coverage.missing ?? []),
+  ].sort((a, b) => (a.code < b.code ? -1 : a.code > b.code ? 1 : 0));
 }
 
 /** How a lead of this practice (and no other) reads its results: under disclosure control. */

@@ -9,8 +9,8 @@
  * What is the same for every practice is stored once: a practice's peer
  * tables (its own row in full, the others protected) are made on reading
  * from the region's counts of every practice (`practicePeers`, by the same
- * disclosure rule as at publishing), and a practice's breakdowns, kidney grid
- * and value histograms keep the split the report shows (everyone). Format 1
+ * disclosure rule as at publishing), and a practice's results keep the split
+ * the report shows (everyone; the region's part holds all three). Format 1
  * snapshots stored the peer tables per practice and are read as stored.
  */
 import { createHash } from 'node:crypto';
