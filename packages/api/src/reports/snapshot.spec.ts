@@ -1,36 +1,29 @@
 /**
- * The snapshot's canonical JSON (snapshot.ts) gives the same bytes as the
- * measure sets' `canonicalJson` (sorted keys, no white space), on a synthetic
- * report and on values with the awkward members JSON leaves out or changes.
+ * A report's snapshot (snapshot.ts) is stored as gzip of canonical JSON and
+ * identified by the SHA-256 of the canonical bytes; it decodes to itself.
  */
+import { gunzipSync } from 'node:zlib';
 import { canonicalJson } from '../measure-sets/canonical.js';
-import { canonicalSnapshotJson, encodeSnapshot, decodeSnapshot, sha256Hex } from './snapshot.js';
+import { canonicalBytes, decodeSnapshot, encodeSnapshot, sha256Hex } from './snapshot.js';
 import { syntheticReport } from './synthetic-report.js';
 
-describe('canonicalSnapshotJson', () => {
-  it.each([
-    ['a synthetic report of 40 practices', syntheticReport(40).snapshot],
-    [
-      'awkward members',
-      {
-        b: [1, undefined, null, 'x', () => 1, { z: 1, a: [] }],
-        a: { undef: undefined, fn: () => 1, n: NaN, inf: -Infinity, neg: -0, s: 'é"\\\n\u2028' },
-        date: new Date(0),
-        'Z key': true,
-        'a key': false,
-        nested: [[{ y: 2, x: { q: null } }]],
-      },
-    ],
-    ['a string', 'text'],
-    ['null', null],
-  ])('%s: the same bytes as canonicalJson', (_name, value) => {
-    expect(canonicalSnapshotJson(value)).toBe(canonicalJson(value));
-  });
-
+describe('report snapshots', () => {
   it('encodes a snapshot that decodes to itself, hashed over the canonical bytes', () => {
     const { snapshot } = syntheticReport(10);
     const encoded = encodeSnapshot(snapshot);
-    expect(encoded.contentHash).toBe(sha256Hex(Buffer.from(canonicalJson(snapshot), 'utf8')));
+    expect(encoded.canonical.toString('utf8')).toBe(canonicalJson(snapshot));
+    expect(encoded.contentHash).toBe(sha256Hex(encoded.canonical));
+    expect(gunzipSync(encoded.stored).equals(encoded.canonical)).toBe(true);
     expect(canonicalJson(decodeSnapshot(encoded.canonical))).toBe(canonicalJson(snapshot));
+  });
+
+  it('refuses stored bytes that do not match the published hash', () => {
+    const encoded = encodeSnapshot(syntheticReport(3).snapshot);
+    expect(canonicalBytes(encoded.stored, encoded.contentHash).equals(encoded.canonical)).toBe(
+      true,
+    );
+    expect(() => canonicalBytes(encoded.stored, 'f'.repeat(64))).toThrow(
+      /does not match its content hash/,
+    );
   });
 });

@@ -15,6 +15,7 @@
  */
 import { createHash } from 'node:crypto';
 import { gunzipSync, gzipSync } from 'node:zlib';
+import { canonicalJson } from '../measure-sets/canonical.js';
 import type {
   BenchmarkTrendDto,
   MeasureFunnelDto,
@@ -90,51 +91,8 @@ export interface EncodedSnapshot {
 export const sha256Hex = (bytes: Buffer): string =>
   createHash('sha256').update(bytes).digest('hex');
 
-/**
- * Canonical JSON: object keys sorted (by UTF-16 code units, as `Array.prototype.sort`), no
- * white space, undefined members left out (null in arrays), any non-array object written as its
- * own enumerable keys. The same bytes as `canonicalJson` of measure-sets/canonical.ts (a test
- * compares them), written in one pass without copying the value.
- */
-export function canonicalSnapshotJson(value: unknown): string {
-  const parts: string[] = [];
-  write(value, parts);
-  return parts.join('');
-}
-
-function write(value: unknown, out: string[]): void {
-  if (value === null || typeof value !== 'object') {
-    out.push(JSON.stringify(value) ?? 'null');
-    return;
-  }
-  if (Array.isArray(value)) {
-    out.push('[');
-    for (let i = 0; i < value.length; i++) {
-      if (i > 0) out.push(',');
-      const v: unknown = value[i];
-      if (v === undefined || typeof v === 'function' || typeof v === 'symbol') out.push('null');
-      else write(v, out);
-    }
-    out.push(']');
-    return;
-  }
-  const record = value as Record<string, unknown>;
-  const keys = Object.keys(record).sort();
-  out.push('{');
-  let first = true;
-  for (const k of keys) {
-    const v = record[k];
-    if (v === undefined || typeof v === 'function' || typeof v === 'symbol') continue;
-    if (!first) out.push(',');
-    first = false;
-    out.push(JSON.stringify(k), ':');
-    write(v, out);
-  }
-  out.push('}');
-}
-
 export function encodeSnapshot(snapshot: ReportSnapshot): EncodedSnapshot {
-  const canonical = Buffer.from(canonicalSnapshotJson(snapshot), 'utf8');
+  const canonical = Buffer.from(canonicalJson(snapshot), 'utf8');
   return { canonical, stored: gzipSync(canonical), contentHash: sha256Hex(canonical) };
 }
 
