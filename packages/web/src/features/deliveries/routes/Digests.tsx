@@ -2,8 +2,8 @@ import {
   Button,
   Callout,
   FormGroup,
+  H1,
   H2,
-  H3,
   HTMLSelect,
   HTMLTable,
   InputGroup,
@@ -69,12 +69,12 @@ function DigestsScreen() {
     <div className="cairn-digests">
       <div className="cairn-page-head">
         <div>
-          <H2>Digests</H2>
+          <H1 className="cairn-page-title">Digests</H1>
           <p className="cairn-muted">
             Each practice&rsquo;s leads get a digest of its part of a report: where it stands
-            against the region, what changed, where improvement would matter most, with its figures
-            attached. Look at any practice&rsquo;s digest here exactly as it will be sent, send
-            yourself a test, then send them all.
+            against the region, what changed, where improvement would matter most, with the
+            practice&rsquo;s data pack of the report attached. Look at any practice&rsquo;s digest
+            here exactly as it will be sent, send yourself a test, then send them all.
           </p>
         </div>
       </div>
@@ -110,7 +110,7 @@ function DigestsScreen() {
 
       {report && <SendPanel reportId={report.id} practices={report.practices} />}
 
-      <H3>Preview</H3>
+      <H2>Preview</H2>
       <ProblemCallout error={preview.error} />
       {preview.isPending && reportId !== null && practiceId !== null ? (
         <Spinner aria-label="Composing the digest" />
@@ -261,7 +261,9 @@ function SendPanel({ reportId, practices }: { reportId: number; practices: numbe
       {s && s.state !== 'none' && (
         <p role="status">
           {s.state === 'scheduled' &&
-            `Scheduled for ${dateTime.format(new Date(s.sendAt!))} by ${s.scheduledBy}.`}
+            `Scheduled for ${dateTime.format(new Date(s.sendAt!))} ${
+              s.scheduledBy === 'on publication' ? 'by Cairn on publication' : `by ${s.scheduledBy}`
+            }.`}
           {s.state === 'sent' &&
             `Sent by schedule on ${dateTime.format(new Date(s.ranAt!))}: ${s.outcome}.`}
           {s.state === 'cancelled' && 'The scheduled sending was cancelled.'}
