@@ -11,7 +11,7 @@
  * and other practices under disclosure control (docs/methods.md §9). Other modules (digests) read
  * one practice's part through `practicePart`.
  */
-import type { Writable } from 'node:stream';
+import { PassThrough, type Writable } from 'node:stream';
 import { HttpStatus, Inject, Injectable } from '@nestjs/common';
 import type { Actor } from '../auth/actor.js';
 import { AuditTrailService } from '../audit-trail/audit-trail.service.js';
@@ -65,6 +65,9 @@ const CACHE_ENTRIES = 8;
 /** Reports whose practice lists are kept in memory (a few kB each). */
 const PRACTICE_LIST_ENTRIES = 1000;
 
+/** Practices' data packs kept in memory (about 100 kB each). */
+const PRACTICE_PACK_ENTRIES = 128;
+
 /** Practices whose results are read at once while publishing. */
 const PARALLEL = 4;
 
@@ -82,6 +85,7 @@ export const reportLabel = (quarterLabel: string, sequence: number) =>
 export class ReportsService {
   private readonly cache = new Map<number, { canonical: Buffer; snapshot: ReportSnapshot }>();
   private readonly practiceLists = new Map<number, PracticeDto[]>();
+  private readonly practicePacks = new Map<string, Buffer>();
 
   constructor(
     @Inject(ReportRepository) private readonly repository: ReportRepository,
@@ -378,19 +382,36 @@ export class ReportsService {
     const { row, snapshot } = await this.snapshotOf(actor, id);
     const name = this.fileStem(row, snapshot, scope);
     if (scope.kind === 'practice') this.assertInReport(snapshot, scope.practiceId, row);
+    const make = (stream: Writable) =>
+      writePack(
+        packSheets(row, snapshot, scope),
+        {
+          title: `${snapshot.identity.label} data pack`,
+          subject: `Content hash ${row.contentHash}`,
+          created: new Date(snapshot.identity.publishedAt),
+        },
+        stream,
+      );
     return {
       fileName: `${name}.xlsx`,
       contentType: XLSX,
-      write: (stream) =>
-        writePack(
-          packSheets(row, snapshot, scope),
-          {
-            title: `${snapshot.identity.label} data pack`,
-            subject: `Content hash ${row.contentHash}`,
-            created: new Date(snapshot.identity.publishedAt),
-          },
-          stream,
-        ),
+      // A practice's pack is the same bytes every time (pack-writer.ts): made once per process
+      // and kept by report and practice. The region's (thousands of practices) is streamed.
+      write:
+        scope.kind === 'region'
+          ? make
+          : async (stream) => {
+              const key = `${row.id}:${row.contentHash}:${scope.practiceId}`;
+              let bytes = this.practicePacks.get(key);
+              if (!bytes) {
+                bytes = await collect(make);
+                if (this.practicePacks.size >= PRACTICE_PACK_ENTRIES) {
+                  this.practicePacks.delete(this.practicePacks.keys().next().value!);
+                }
+                this.practicePacks.set(key, bytes);
+              }
+              await endWith(stream, bytes);
+            },
     };
   }
 
@@ -643,6 +664,30 @@ function frozen(results: PracticeResultsDto): PracticeResultsDto {
     detail,
     actions: { upload: false, uploadPath: null },
   };
+}
+
+/** The bytes a writer writes to a stream. */
+async function collect(write: (stream: Writable) => Promise<void>): Promise<Buffer> {
+  const sink = new PassThrough();
+  const chunks: Buffer[] = [];
+  sink.on('data', (chunk: Buffer) => chunks.push(chunk));
+  const ended = new Promise<void>((resolve, reject) => {
+    sink.on('end', resolve);
+    sink.on('error', reject);
+  });
+  await write(sink);
+  // exceljs ends the stream it was given once the workbook is written; end it if it did not.
+  if (!sink.writableEnded) sink.end();
+  await ended;
+  return Buffer.concat(chunks);
+}
+
+/** Writes `bytes` to a stream and ends it, once the stream has taken them. */
+async function endWith(stream: Writable, bytes: Buffer): Promise<void> {
+  await new Promise<void>((resolve, reject) => {
+    stream.once('error', reject);
+    stream.end(bytes, () => resolve());
+  });
 }
 
 /** Every practice of a report, with results or without, by code. */
