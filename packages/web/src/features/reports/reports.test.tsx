@@ -404,6 +404,9 @@ describe('Publishing from the benchmark page', () => {
     expect(calls.some((c) => c.method === 'POST')).toBe(false);
 
     await user.type(within(dialog).getByLabelText(/Release note/), 'Third report of the quarter.');
+    expect(
+      within(dialog).queryByText('Write a release note: what readers of this report should know.'),
+    ).toBeNull();
     await user.click(within(dialog).getByRole('button', { name: 'Publish report' }));
     expect(await within(dialog).findByText('The benchmark changed while publishing')).toBeTruthy();
 

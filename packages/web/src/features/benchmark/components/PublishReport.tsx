@@ -108,7 +108,10 @@ function PublishDialog({
               rows={3}
               value={note}
               maxLength={2000}
-              onChange={(e) => setNote(e.target.value)}
+              onChange={(e) => {
+                setNote(e.target.value);
+                setBlank(false);
+              }}
               intent={noteProblem ? Intent.DANGER : Intent.NONE}
               aria-invalid={noteProblem ? true : undefined}
             />
