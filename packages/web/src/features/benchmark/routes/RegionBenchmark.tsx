@@ -27,6 +27,7 @@ import type {
 import { formatCount, formatDateTime, formatPercent } from '../../../lib/format';
 import { usePageTitle } from '../../../lib/page-title';
 import { useBenchmarkQuarters, useFunnel, useRegionBenchmark } from '../api/benchmark';
+import { PublishReport } from '../components/PublishReport';
 import { PracticeTable } from '../components/PracticeTable';
 import { type SortKey, sortRows, tableCsv, tableRows } from '../components/table-rows';
 import '../../../components/charts/charts.css';
@@ -124,6 +125,10 @@ function RegionBenchmarkScreen() {
             ]}
           />
         </FormGroup>
+        <PublishReport
+          quarterId={quarterId}
+          quarterLabel={data?.quarter.label ?? quarter?.label ?? null}
+        />
       </div>
       {quarters.isPending || benchmark.isPending ? (
         <Spinner size={24} aria-label="Reading the benchmark" />
