@@ -350,12 +350,13 @@ export class SubmissionsService {
   }
 
   /**
-   * The key of each quarter's current set (what `currentSets` would give, as the benchmark store
-   * keys it: SHA-256 hex of the sorted ids), without sending the pointers; null for a quarter
-   * whose key MariaDB cannot make, absent for one without current submissions.
+   * The key of each quarter's current set (SHA-256 hex of the sorted submission ids, as the
+   * benchmark store keys it), read from the quarters' current-set rows; absent for a quarter
+   * without current submissions.
    */
-  currentSetKeys(quarterIds: readonly number[]): Promise<Map<number, string | null>> {
-    return this.submissions.currentSetKeys(quarterIds);
+  async currentSetKeys(quarterIds: readonly number[]): Promise<Map<number, string>> {
+    const rows = await this.currentSetRows(quarterIds);
+    return new Map([...rows].filter(([, row]) => row.count > 0).map(([id, row]) => [id, row.key]));
   }
 
   /**
