@@ -9,7 +9,16 @@ export interface NavItem {
   roles: readonly Role[];
   /** Other addresses that belong to this item (a submission page belongs to Submissions) */
   activeFor?: RegExp;
+  /** A menu this item joins when the role sees two or more of that menu's items */
+  group?: NavGroupName;
 }
+
+/** The menus that gather several items, so that a long navigation keeps to one row. */
+export type NavGroupName = 'Administration';
+
+/** One place in the navigation bar: a link, or a menu of links. */
+export type NavEntry =
+  { kind: 'link'; item: NavItem } | { kind: 'group'; label: NavGroupName; items: NavItem[] };
 
 const everyone: readonly Role[] = roleValues;
 
@@ -63,13 +72,20 @@ export const navItems: NavItem[] = [
     roles: everyone,
     activeFor: /^\/measure-sets\//,
   },
-  { label: 'Users', to: '/users', icon: 'people', roles: ['regional_lead'] },
+  {
+    label: 'Users',
+    to: '/users',
+    icon: 'people',
+    roles: ['regional_lead'],
+    group: 'Administration',
+  },
   {
     label: 'Mail',
     to: '/deliveries',
     icon: 'envelope',
     roles: ['regional_lead'],
     activeFor: /^\/(deliveries|mail-recipients|digests)(\/|$)/,
+    group: 'Administration',
   },
   {
     label: 'Outliers',
@@ -89,6 +105,7 @@ export const navItems: NavItem[] = [
     to: '/audit-trail',
     icon: 'history',
     roles: ['regional_lead', 'auditor'],
+    group: 'Administration',
   },
 ];
 
@@ -100,4 +117,31 @@ export function alsoActive(item: NavItem, pathname: string): boolean {
 export function navigationFor(me: Me | null | undefined): NavItem[] {
   if (!me) return [];
   return navItems.filter((item) => item.roles.includes(me.role));
+}
+
+/**
+ * The navigation bar of a role: its items in order, except that items of a menu the role sees
+ * two or more of are gathered into that menu, placed after the other entries (the auditor's one
+ * administrative item, Audit trail, stays a plain link).
+ */
+export function navigationLayout(me: Me | null | undefined): NavEntry[] {
+  const items = navigationFor(me);
+  const size = new Map<NavGroupName, number>();
+  for (const item of items) if (item.group) size.set(item.group, (size.get(item.group) ?? 0) + 1);
+  const grouped = (item: NavItem) => item.group != null && (size.get(item.group) ?? 0) > 1;
+  const entries: NavEntry[] = items
+    .filter((item) => !grouped(item))
+    .map((item) => ({ kind: 'link', item }));
+  for (const [label] of size) {
+    const members = items.filter((item) => item.group === label && grouped(item));
+    if (members.length > 0) entries.push({ kind: 'group', label, items: members });
+  }
+  return entries;
+}
+
+/** Whether `pathname` belongs to `item` (its own address, or one it is also active for). */
+export function isCurrent(item: NavItem, pathname: string): boolean {
+  const own =
+    item.to === '/' ? pathname === '/' : pathname === item.to || pathname.startsWith(`${item.to}/`);
+  return own || alsoActive(item, pathname);
 }
