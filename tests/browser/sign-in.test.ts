@@ -8,11 +8,20 @@
 import { type ChildProcess, spawn } from 'node:child_process';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { type BrowserSession, openBrowser } from '../support/browser.ts';
+import { type BrowserSession, openBrowser, waitForLanding } from '../support/browser.ts';
 import { type CairnServer, freePort, startCairn } from '../support/cairn-server.ts';
 import { repoRoot } from '../support/paths.ts';
 
-const personas = [
+const personas: {
+  name: string;
+  role: string;
+  nav: string[];
+  menu?: { label: string; links: string[] };
+  /** 'home', or the heading of the practice results page the person lands on */
+  lands: string;
+  shot: string;
+  practices?: string[];
+}[] = [
   {
     name: 'Imogen Varley',
     role: 'Regional lead',
@@ -24,12 +33,12 @@ const personas = [
       'Coverage',
       'Quarters',
       'Measure sets',
-      'Users',
-      'Mail',
       'Outliers',
       'Review cases',
-      'Audit trail',
     ],
+    // Gathered under one menu of the navigation bar, so that it keeps to one row.
+    menu: { label: 'Administration', links: ['Users', 'Mail', 'Audit trail'] },
+    lands: 'home',
     shot: 'sign-in-regional-lead',
   },
   {
@@ -46,6 +55,7 @@ const personas = [
       'Review cases',
       'Audit trail',
     ],
+    lands: 'home',
     shot: 'sign-in-auditor',
   },
   {
@@ -61,6 +71,8 @@ const personas = [
       'Measure sets',
       'Review cases',
     ],
+    // OV102 has a current submission: its results are the first page.
+    lands: 'Quarrybank Surgery (OV102)',
     shot: 'sign-in-practice-lead-one',
     practices: ['Quarrybank Surgery'],
   },
@@ -77,6 +89,8 @@ const personas = [
       'Measure sets',
       'Review cases',
     ],
+    // The first of the lead's practices by code (OV101) that has a current submission.
+    lands: 'Wrenfield Health Centre (OV101)',
     shot: 'sign-in-practice-lead-two',
     practices: ['Wrenfield Health Centre', 'Harnleigh Old Mill Practice'],
   },
@@ -112,14 +126,37 @@ describe('sign-in in the browser', () => {
     it(`signs in as ${persona.name} (${persona.role}) and shows that role's navigation`, async () => {
       const { page } = browser;
       await signIn(persona.name, { screenshots: persona === personas[0] });
+      const landed = await waitForLanding(page, persona.name);
+      if (persona.lands === 'home') {
+        await page.getByRole('heading', { name: `Welcome, ${persona.name}` }).waitFor();
+        expect(landed).toBe('/');
+      } else {
+        await page.getByRole('heading', { name: persona.lands, level: 1 }).waitFor();
+        expect(landed).toMatch(/^\/practices\/\d+\/results$/);
+      }
+      const main = page.getByRole('navigation', { name: 'Main' });
+      const nav = await main.getByRole('link').allTextContents();
+      expect(nav).toEqual(persona.nav);
+      if (persona.menu) {
+        const button = main.getByRole('button', { name: persona.menu.label });
+        expect(await button.getAttribute('aria-expanded')).toBe('false');
+        await button.click();
+        expect(await button.getAttribute('aria-expanded')).toBe('true');
+        expect(await main.getByRole('link').allTextContents()).toEqual([
+          ...persona.nav,
+          ...persona.menu.links,
+        ]);
+        await browser.screenshot(`${persona.shot}-menu`);
+        await page.keyboard.press('Escape');
+        expect(await button.getAttribute('aria-expanded')).toBe('false');
+      } else {
+        expect(await main.getByRole('button').count()).toBe(0);
+      }
+      expect(await page.locator('.cairn-user').textContent()).toContain(persona.role);
+      // Home stays reachable from the navigation.
+      await main.getByRole('link', { name: 'Home' }).click();
       await page.getByRole('heading', { name: `Welcome, ${persona.name}` }).waitFor();
       expect(new URL(page.url()).pathname).toBe('/');
-      const nav = await page
-        .getByRole('navigation', { name: 'Main' })
-        .getByRole('link')
-        .allTextContents();
-      expect(nav).toEqual(persona.nav);
-      expect(await page.locator('.cairn-user').textContent()).toContain(persona.role);
       for (const practice of persona.practices ?? []) {
         // each practice of the lead has its own section on the home page, headed by its name
         await page.getByRole('heading', { name: practice }).first().waitFor();
@@ -185,6 +222,7 @@ describe('sign-in in the browser', () => {
     await browser.screenshot('users-edit');
     await page.getByRole('button', { name: 'Close' }).click();
     await page.locator('.bp6-overlay-backdrop').waitFor({ state: 'detached' });
+    await page.getByRole('button', { name: 'Administration' }).click();
     await page.getByRole('link', { name: 'Audit trail' }).click();
     await page.getByRole('heading', { name: 'Audit trail' }).waitFor();
     await page

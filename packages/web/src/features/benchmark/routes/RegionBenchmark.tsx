@@ -1,12 +1,10 @@
 import {
   Button,
-  Callout,
   FormGroup,
+  H1,
   H2,
-  H3,
   HTMLSelect,
   HTMLTable,
-  NonIdealState,
   SegmentedControl,
   Spinner,
   Switch,
@@ -16,6 +14,7 @@ import { Link, useNavigate, useSearchParams } from 'react-router-dom';
 import { ChartOrTable } from '../../../components/charts/ChartOrTable';
 import { FlagLegend, FlagMark } from '../../../components/charts/FlagMark';
 import { FunnelPlot, type FunnelPointData } from '../../../components/charts/FunnelPlot';
+import { EmptyState, Notice } from '../../../components/Notice';
 import { ProblemCallout } from '../../../components/ProblemCallout';
 import { RequireRole } from '../../../components/RequireRole';
 import type {
@@ -28,6 +27,7 @@ import { formatCount, formatDateTime, formatPercent } from '../../../lib/format'
 import { usePageTitle } from '../../../lib/page-title';
 import { useBenchmarkQuarters, useFunnel, useRegionBenchmark } from '../api/benchmark';
 import { PracticeTable } from '../components/PracticeTable';
+import { RegionTrend } from '../components/RegionTrend';
 import { type SortKey, sortRows, tableCsv, tableRows } from '../components/table-rows';
 import '../../../components/charts/charts.css';
 import './RegionBenchmark.css';
@@ -96,7 +96,7 @@ function RegionBenchmarkScreen() {
 
   return (
     <div className="cairn-bench">
-      <H2>Region benchmark</H2>
+      <H1 className="cairn-page-title">Region benchmark</H1>
       <div className="cairn-bench-controls">
         <FormGroup label="Audit quarter" labelFor={ids.quarter} inline>
           <HTMLSelect
@@ -130,25 +130,26 @@ function RegionBenchmarkScreen() {
       ) : null}
       <ProblemCallout error={quarters.error ?? benchmark.error} />
       {data?.state === 'no-accepted-submissions' ? (
-        <NonIdealState
+        <EmptyState
           icon="inbox"
           title={`No accepted submissions for ${data.quarter.label}`}
+          headingLevel={2}
           description="No practice has a current submission for this audit quarter yet, so there is nothing to compare. Coverage shows who has sent an extract."
           action={<Link to={`/coverage?quarter=${data.quarter.id}`}>Open coverage</Link>}
         />
       ) : null}
       {data?.state === 'results' ? (
         <>
-          <Callout
+          <Notice
             icon="info-sign"
             title="Audit and improvement support"
             className="cairn-bench-caution"
           >
             {data.caution}
-          </Callout>
+          </Notice>
           <Coverage benchmark={data} />
           <section aria-labelledby="bench-funnel" className="cairn-bench-section">
-            <H3 id="bench-funnel">Funnel plot</H3>
+            <H2 id="bench-funnel">Funnel plot</H2>
             <div className="cairn-bench-controls">
               <FormGroup label="Measure" labelFor={ids.measure} inline>
                 <HTMLSelect
@@ -185,6 +186,7 @@ function RegionBenchmarkScreen() {
               <Spinner size={20} aria-label="Reading the funnel plot" />
             ) : null}
           </section>
+          <RegionTrend quarterId={quarterId} measure={measureKey} split={split} />
           {deferred?.state === 'results' ? (
             <PracticesSection
               benchmark={deferred}
@@ -379,7 +381,7 @@ function PracticesSection({
   };
   return (
     <section aria-labelledby="bench-table" className="cairn-bench-section">
-      <H3 id="bench-table">Practices by measure</H3>
+      <H2 id="bench-table">Practices by measure</H2>
       <div className="cairn-bench-controls">
         <FormGroup label="Sort by" labelFor={sortId} inline>
           <HTMLSelect
