@@ -97,7 +97,7 @@ describe('mail in the browser', () => {
     const { page } = browser;
     await signIn('Imogen Varley');
     const main = page.getByRole('navigation', { name: 'Main' });
-    await main.getByRole('button', { name: 'Administration' }).click();
+    await main.getByRole('button', { name: 'Admin' }).click();
     await main.getByRole('link', { name: 'Mail' }).click();
     await page.getByRole('heading', { name: 'Mail deliveries' }).waitFor();
     await page.getByRole('link', { name: 'Mail recipients' }).click();

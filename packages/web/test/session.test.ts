@@ -1,6 +1,12 @@
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import { stubFetch } from './render';
-import { alsoActive, isCurrent, navigationFor, navigationLayout } from '../src/app/navigation';
+import {
+  alsoActive,
+  isCurrent,
+  MAX_PLACES,
+  navigationFor,
+  navigationLayout,
+} from '../src/app/navigation';
 import { apiFetch } from '../src/lib/api-client';
 import type { Me } from '../src/lib/api/types';
 import { fetchSession } from '../src/lib/session';
@@ -83,22 +89,21 @@ describe('session', () => {
     ]);
   });
 
-  it('gathers Users, Mail and Audit trail into one Administration menu for the regional lead, keeping the bar to ten places; other roles keep plain links', () => {
+  it('gathers the regional lead’s Users, Mail and Audit trail into an Admin menu and Upload extract and Submissions into an Extracts menu, so the bar keeps to nine places; other roles keep plain links', () => {
     const places = (me: Me) =>
       navigationLayout(me).map((e) =>
         e.kind === 'link' ? e.item.label : `${e.label}: ${e.items.map((i) => i.label).join(', ')}`,
       );
     expect(places(lead)).toEqual([
       'Home',
-      'Upload extract',
-      'Submissions',
+      'Extracts: Upload extract, Submissions',
       'Benchmark',
       'Coverage',
       'Quarters',
       'Measure sets',
       'Outliers',
       'Review cases',
-      'Administration: Users, Mail, Audit trail',
+      'Admin: Users, Mail, Audit trail',
     ]);
     // The auditor has one administrative entry: no menu for a single link.
     expect(places({ ...lead, role: 'auditor' })).toEqual(
@@ -108,6 +113,8 @@ describe('session', () => {
       navigationFor({ ...lead, role: 'practice_lead' }).map((i) => i.label),
     );
     expect(navigationLayout(null)).toEqual([]);
+    for (const role of ['regional_lead', 'auditor', 'practice_lead'] as const)
+      expect(navigationLayout({ ...lead, role }).length).toBeLessThanOrEqual(MAX_PLACES);
   });
 
   it('knows which menu entry is the current page, the Mail pages included', () => {

@@ -14,7 +14,13 @@ export interface NavItem {
 }
 
 /** The menus that gather several items, so that a long navigation keeps to one row. */
-export type NavGroupName = 'Administration';
+export type NavGroupName = 'Admin' | 'Extracts';
+
+/** Most places a navigation bar holds on one row beside the name and sign-out (at 1280 px). */
+export const MAX_PLACES = 9;
+
+/** The order in which menus are formed while a role's bar is too long. */
+const groupOrder: NavGroupName[] = ['Admin', 'Extracts'];
 
 /** One place in the navigation bar: a link, or a menu of links. */
 export type NavEntry =
@@ -33,6 +39,7 @@ export const navItems: NavItem[] = [
     to: '/extracts/upload',
     icon: 'upload',
     roles: ['practice_lead', 'regional_lead'],
+    group: 'Extracts',
   },
   {
     label: 'Submissions',
@@ -40,6 +47,7 @@ export const navItems: NavItem[] = [
     icon: 'list-columns',
     roles: ['practice_lead', 'regional_lead'],
     activeFor: /^\/practices\/[^/]+\/submissions(\/|$)/,
+    group: 'Extracts',
   },
   {
     label: 'Results',
@@ -77,7 +85,7 @@ export const navItems: NavItem[] = [
     to: '/users',
     icon: 'people',
     roles: ['regional_lead'],
-    group: 'Administration',
+    group: 'Admin',
   },
   {
     label: 'Mail',
@@ -85,7 +93,7 @@ export const navItems: NavItem[] = [
     icon: 'envelope',
     roles: ['regional_lead'],
     activeFor: /^\/(deliveries|mail-recipients|digests)(\/|$)/,
-    group: 'Administration',
+    group: 'Admin',
   },
   {
     label: 'Outliers',
@@ -105,7 +113,7 @@ export const navItems: NavItem[] = [
     to: '/audit-trail',
     icon: 'history',
     roles: ['regional_lead', 'auditor'],
-    group: 'Administration',
+    group: 'Admin',
   },
 ];
 
@@ -120,22 +128,32 @@ export function navigationFor(me: Me | null | undefined): NavItem[] {
 }
 
 /**
- * The navigation bar of a role: its items in order, except that items of a menu the role sees
- * two or more of are gathered into that menu, placed after the other entries (the auditor's one
- * administrative item, Audit trail, stays a plain link).
+ * The navigation bar of a role: its items in order, one place each, while they fit on one row
+ * (`MAX_PLACES`). A longer bar gathers menus, in `groupOrder`, until it fits: the regional lead's
+ * Users, Mail and Audit trail become Admin, then Upload extract and Submissions become
+ * Extracts. A menu takes the place of its last item. Shorter bars (the auditor's, a practice
+ * lead's) keep plain links.
  */
 export function navigationLayout(me: Me | null | undefined): NavEntry[] {
   const items = navigationFor(me);
-  const size = new Map<NavGroupName, number>();
-  for (const item of items) if (item.group) size.set(item.group, (size.get(item.group) ?? 0) + 1);
-  const grouped = (item: NavItem) => item.group != null && (size.get(item.group) ?? 0) > 1;
-  const entries: NavEntry[] = items
-    .filter((item) => !grouped(item))
-    .map((item) => ({ kind: 'link', item }));
-  for (const [label] of size) {
-    const members = items.filter((item) => item.group === label && grouped(item));
-    if (members.length > 0) entries.push({ kind: 'group', label, items: members });
+  const gathered = new Set<NavGroupName>();
+  const places = () =>
+    items.filter((item) => !item.group || !gathered.has(item.group)).length + gathered.size;
+  for (const group of groupOrder) {
+    if (places() <= MAX_PLACES) break;
+    if (items.filter((item) => item.group === group).length > 1) gathered.add(group);
   }
+  const entries: NavEntry[] = [];
+  items.forEach((item, i) => {
+    if (!item.group || !gathered.has(item.group)) {
+      entries.push({ kind: 'link', item });
+      return;
+    }
+    const members = items.filter((other) => other.group === item.group);
+    // The menu stands where its last item would.
+    if (members.at(-1) === items[i])
+      entries.push({ kind: 'group', label: item.group, items: members });
+  });
   return entries;
 }
 

@@ -2,6 +2,7 @@ import { render, screen } from '@testing-library/react';
 import { describe, expect, it } from 'vitest';
 import fixture from '../../../test/fixtures/results-ov102-priya.json';
 import type { PracticeResults } from '../../lib/api/types';
+import { inSentence } from './ChartOrTable';
 import { PeerStrip, peerStripText } from './PeerStrip';
 import { TrendChart, TrendChartTable, trendChartText } from './TrendChart';
 import { histogramRows, ValueHistogram, ValueHistogramTable } from './ValueHistogram';
@@ -119,5 +120,18 @@ describe('TrendChart', () => {
     expect(trendChartText({ title: 'x', points, signals: noSignals })).toMatch(
       /No run-chart signal\.$/,
     );
+  });
+});
+
+describe('a chart’s table switch', () => {
+  it.each([
+    ['Time to insulin', 'time to insulin'],
+    ['Funnel plot', 'funnel plot'],
+    ['HbA1c', 'HbA1c'],
+    ['BMI', 'BMI'],
+    ['eGFR (CKD-EPI 2021)', 'eGFR (CKD-EPI 2021)'],
+    ['Systolic blood pressure', 'systolic blood pressure'],
+  ])('reads “%s” as “%s” inside its sentence', (label, words) => {
+    expect(inSentence(label)).toBe(words);
   });
 });

@@ -199,7 +199,7 @@ describe('Practice results', () => {
       screen.getAllByRole('img', { name: new RegExp(`^${first.label}: share of recorded values`) })
         .length,
     ).toBeGreaterThan(0);
-    await userEvent.click(screen.getByLabelText(`Show ${first.label.toLowerCase()} as a table`));
+    await userEvent.click(screen.getByLabelText(`Show ${first.label} as a table`));
     const table = screen.getByRole('table', { name: `${first.label}: figures` });
     expect(within(table).getByRole('rowheader', { name: 'Not recorded' })).toBeTruthy();
   });
