@@ -2,8 +2,8 @@ import {
   Button,
   Callout,
   FormGroup,
+  H1,
   H2,
-  H3,
   HTMLSelect,
   HTMLTable,
   InputGroup,
@@ -69,7 +69,7 @@ function DigestsScreen() {
     <div className="cairn-digests">
       <div className="cairn-page-head">
         <div>
-          <H2>Digests</H2>
+          <H1 className="cairn-page-title">Digests</H1>
           <p className="cairn-muted">
             Each practice&rsquo;s leads get a digest of its part of a report: where it stands
             against the region, what changed, where improvement would matter most, with its figures
@@ -110,7 +110,7 @@ function DigestsScreen() {
 
       {report && <SendPanel reportId={report.id} practices={report.practices} />}
 
-      <H3>Preview</H3>
+      <H2>Preview</H2>
       <ProblemCallout error={preview.error} />
       {preview.isPending && reportId !== null && practiceId !== null ? (
         <Spinner aria-label="Composing the digest" />
