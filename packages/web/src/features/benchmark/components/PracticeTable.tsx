@@ -64,8 +64,9 @@ export function PracticeTable({
       ref={box}
       className="cairn-bench-table"
       style={{ height }}
-      role="region"
-      aria-label="Practices by measure"
+      // Its section is the landmark ("Practices by measure"); the table itself is a group in it.
+      role="group"
+      aria-label="Practices by measure: table"
     >
       <Table2
         numRows={rows.length}

@@ -40,6 +40,8 @@ const splits: { value: TypeSplit; label: string }[] = [
 
 /** `/benchmark?quarter=&measure=&split=&locality=&limits=&casemix=`: every practice against its peers. */
 export function RegionBenchmark() {
+  // Named for everyone, a role it is not for included (that page explains the refusal).
+  usePageTitle('Region benchmark');
   return (
     <RequireRole roles={['regional_lead', 'auditor']}>
       <RegionBenchmarkScreen />
@@ -54,7 +56,6 @@ function pickQuarter(list: Quarter[], asked: number): Quarter | null {
 }
 
 function RegionBenchmarkScreen() {
-  usePageTitle('Region benchmark');
   const [params, setParams] = useSearchParams();
   const navigate = useNavigate();
   const quarters = useBenchmarkQuarters();
