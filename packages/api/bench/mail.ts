@@ -19,10 +19,9 @@ import { createHash } from 'node:crypto';
 import { fileURLToPath } from 'node:url';
 import nodemailer from 'nodemailer';
 import { QueryTypes } from 'sequelize';
-import { SMTPServer } from 'smtp-server';
-import type { CairnConfig } from '../src/config/config.schema.js';
 import { API_NODE_FLAGS } from '../src/node-flags.js';
 import { benchApp, fromDist } from './app.js';
+import { sendingTo, smtpSink } from './smtp-sink.js';
 
 if (!API_NODE_FLAGS.every((flag) => process.execArgv.includes(flag))) {
   const again = spawnSync(
@@ -54,57 +53,9 @@ function attachment(): Buffer {
   return out;
 }
 
-/** An SMTP server on loopback that reads every message and keeps only its Message-ID. */
-async function sink() {
-  const ids = new Set<string>();
-  let messages = 0;
-  let bytes = 0;
-  const server = new SMTPServer({
-    authOptional: true,
-    disabledCommands: ['STARTTLS', 'AUTH'],
-    logger: false,
-    size: 10 * 1024 * 1024,
-    onData(stream, _session, callback) {
-      let head = '';
-      stream.on('data', (chunk: Buffer) => {
-        bytes += chunk.length;
-        if (head.length < 8192) head += chunk.toString('latin1');
-      });
-      stream.on('end', () => {
-        messages++;
-        const id = /^Message-ID:\s*(\S+)/im.exec(head)?.[1];
-        if (id) ids.add(id);
-        callback();
-      });
-    },
-  });
-  await new Promise<void>((resolve) => server.listen(0, '127.0.0.1', resolve));
-  const port = (server.server.address() as { port: number }).port;
-  return {
-    port,
-    ids,
-    stats: () => ({ messages, bytes }),
-    reset: () => {
-      ids.clear();
-      messages = 0;
-      bytes = 0;
-    },
-    close: () => new Promise<void>((resolve) => server.close(() => resolve())),
-  };
-}
-
 async function main(): Promise<void> {
-  const server = await sink();
-  const bench = await benchApp((config: CairnConfig): CairnConfig => ({
-    ...config,
-    mail: {
-      ...config.mail,
-      port: server.port,
-      outbox: { ...config.mail.outbox, concurrency: 5 },
-      reminders: { ...config.mail.reminders, checkCron: '0 0 0 1 1 *' },
-      digests: { ...config.mail.digests, checkCron: '0 0 0 1 1 *' },
-    },
-  }));
+  const server = await smtpSink();
+  const bench = await benchApp(sendingTo(server));
   let missed = false;
   try {
     const { MailComposers } = await fromDist('mail/mail-composers.js');

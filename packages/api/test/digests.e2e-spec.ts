@@ -1,12 +1,14 @@
 /**
  * Digests end to end against a real SMTP server on loopback: the preview is
  * the message as sent, a test goes to the regional lead alone, sending queues
- * each practice once and delivers both parts with the figures workbook, a
+ * each practice once and delivers both parts with the practice's data pack of
+ * the report (the file its leads download from the report's page), a
  * practice lead who opted out gets none, and a scheduled sending runs once.
  */
 import ExcelJS from 'exceljs';
 import { simpleParser } from 'mailparser';
 import { QueryTypes } from 'sequelize';
+import type request from 'supertest';
 import { DigestsService } from '../src/digests/digests.service.js';
 import { arrange, type ExtractsWorld, uploadAndWait } from './extracts-fixtures/api.js';
 import { csvOf, goodRows } from './extracts-fixtures/rows.js';
@@ -20,6 +22,27 @@ import {
   waitUntil,
 } from './support/mail.js';
 import type { TestApp } from './support/test-app.js';
+
+/** Every sheet's cell values, by sheet name. */
+async function cellsOf(bytes: Buffer): Promise<Record<string, unknown[][]>> {
+  const workbook = new ExcelJS.Workbook();
+  await workbook.xlsx.load(bytes as unknown as ArrayBuffer);
+  const out: Record<string, unknown[][]> = {};
+  workbook.eachSheet((sheet) => {
+    const rows: unknown[][] = [];
+    sheet.eachRow((row) => rows.push((row.values as unknown[]).slice(1)));
+    out[sheet.name] = rows;
+  });
+  return out;
+}
+
+/** Reads a binary response body as a Buffer. */
+const binary = (req: request.Test) =>
+  req.buffer(true).parse((res, cb) => {
+    const chunks: Buffer[] = [];
+    res.on('data', (c: Buffer) => chunks.push(c));
+    res.on('end', () => cb(null, Buffer.concat(chunks)));
+  });
 
 describe('digests', () => {
   let capture: Capture;
@@ -93,7 +116,7 @@ describe('digests', () => {
     expect(text).toContain('NICE NG28');
     expect(res.body.reviewCasesCounted).toBe(true); // the review-case module counts them
     expect(res.body.attachment).toMatchObject({
-      filename: `cairn-OV102-2026-Q3-report-${r3}-figures.xlsx`,
+      filename: `cairn-report-${r3}-2026-Q3-OV102.xlsx`,
       contentType: 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet',
     });
 
@@ -137,7 +160,7 @@ describe('digests', () => {
     expect(message!.to).toEqual([regional.user.email]);
     expect(message!.subject).toBe('Test: Quarrybank Surgery: your 2026 Q3 digest');
     expect(message!.attachments.map((a) => a.filename)).toEqual([
-      `cairn-OV102-2026-Q3-report-${r3}-figures.xlsx`,
+      `cairn-report-${r3}-2026-Q3-OV102.xlsx`,
     ]);
     expect(await digestRows()).toEqual([]);
   });
@@ -182,17 +205,18 @@ describe('digests', () => {
     // What the preview showed is what arrived.
     const shown = await regional.get(preview(r3, ov102)).expect(200);
     expect(parsed.text!.trim()).toBe((shown.body.text as string).trim());
-    // The attachment is a workbook with the practice's measures.
+    // The attachment is the practice's data pack, sheet for sheet and cell for cell the file its
+    // leads download from the report's page.
     const [pack] = parsed.attachments;
-    expect(pack!.filename).toBe(`cairn-OV102-2026-Q3-report-${r3}-figures.xlsx`);
-    const workbook = new ExcelJS.Workbook();
-    await workbook.xlsx.load(pack!.content as unknown as ArrayBuffer);
-    const sheet = workbook.getWorksheet('Measures')!;
-    expect(sheet.getRow(1).getCell(1).value).toBe('Measure');
-    expect(sheet.rowCount).toBeGreaterThan(10);
-    expect(workbook.getWorksheet('About')!.getRow(1).getCell(2).value).toBe(
-      'Quarrybank Surgery (OV102)',
-    );
+    expect(pack!.filename).toBe(`cairn-report-${r3}-2026-Q3-OV102.xlsx`);
+    const download = await binary(
+      priya.get(`/api/reports/${r3}/practices/${ov102}/data-pack.xlsx`),
+    ).expect(200);
+    expect(download.headers['content-disposition']).toContain(pack!.filename);
+    const attached = await cellsOf(pack!.content);
+    expect(Object.keys(attached)).toContain('Your results');
+    expect(attached['Your results']!.length).toBeGreaterThan(10);
+    expect(attached).toEqual(await cellsOf(download.body as Buffer));
     await daniel.put('/api/me/mail-preferences').send({ optedOut: [] }).expect(200);
   }, 120_000);
 

@@ -245,6 +245,26 @@ describe('outbox faults', () => {
         missing: missing.length,
         repeats: stats.repeats,
         resumedRows: resumed,
+        // Any message that arrived more often than its row was resumed, with its row and the
+        // outbox's warnings of both processes: what to read when the counts below disagree.
+        unexplained: arrived
+          .map((m) => ({ m, row: rows.find((r) => r.message_id === m.messageId) }))
+          .filter(({ m, row }) => m.repeats > (row?.resumed ?? 0))
+          .map(({ m, row }) => ({
+            messageId: m.messageId,
+            repeats: m.repeats,
+            receivedAt: m.receivedAt,
+            repeatedAt: m.repeatedAt,
+            attempts: row?.attempts ?? null,
+            resumed: row?.resumed ?? null,
+            lastError: row?.last_error ?? null,
+          })),
+        warnings: [first.output(), second.output()].map((out) =>
+          out
+            .split('\n')
+            .filter((line) => /outbox|lease|resum/i.test(line))
+            .slice(0, 40),
+        ),
       };
       console.log(`SIGKILL mid-run: ${JSON.stringify(figures)}`);
       const dir = join(findRepoRoot(), '.test-results');

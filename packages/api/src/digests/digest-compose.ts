@@ -283,7 +283,7 @@ export function composeDigest(input: DigestInput, recipient: DigestRecipient): R
       ];
   footer.push(
     input.state === 'results' && input.measures.length > 0
-      ? `Made from ${input.report.label}. The attached workbook holds ${practice.name}'s figures; this message holds no patient data.`
+      ? `Made from ${input.report.label}. The attached data pack (XLSX) holds ${practice.name}'s figures, as on the report's page; this message holds no patient data.`
       : `Made from ${input.report.label}. This message holds no patient data.`,
   );
 

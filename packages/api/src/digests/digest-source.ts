@@ -1,7 +1,8 @@
 /**
  * Where digests come from: a DigestSource names the report a digest belongs
  * to (the outbox row's source id), gives one practice's results in it as the
- * practice's leads see them (disclosure control applied), and its data pack.
+ * practice's leads see them (disclosure control applied), and its data pack
+ * (the same file its leads download from the report's page).
  * DigestsService composes only through this interface.
  */
 import type { PracticeResultsDto } from '../benchmarks/dto/practice-results.dto.js';
@@ -36,10 +37,8 @@ export interface DigestSource {
   practiceResults(report: DigestReport, practiceId: number): Promise<PracticeResultsDto | null>;
   /** Where the practice's part of the report and its recall lists are, in Cairn's web app */
   paths(report: DigestReport, practiceId: number): { report: string; recallLists: string };
-  /** The practice's XLSX data pack from its figures in the report */
-  dataPack(report: DigestReport, results: PracticeResultsDto): Promise<DataPack>;
+  /** The practice's XLSX data pack of the report, as its leads download it */
+  dataPack(report: DigestReport, practiceId: number): Promise<DataPack>;
 }
 
 export const DIGEST_SOURCE = Symbol('DigestSource');
-
-export const XLSX_TYPE = 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet';

@@ -1,5 +1,4 @@
 import { Module } from '@nestjs/common';
-import { BenchmarksModule } from '../benchmarks/benchmarks.module.js';
 import { MailModule } from '../mail/mail.module.js';
 import { OrganisationsModule } from '../organisations/organisations.module.js';
 import { QuartersModule } from '../quarters/quarters.module.js';
@@ -8,7 +7,6 @@ import { DigestSchedulesRepository } from './digest-schedules.repository.js';
 import { DIGEST_SOURCE } from './digest-source.js';
 import { DigestsController } from './digests.controller.js';
 import { DigestsService } from './digests.service.js';
-import { DraftBenchmarkDigestSource } from './draft-benchmark-source.js';
 import { ReportDigestSource } from './report-source.js';
 import { OpenReviewCases } from './review-case-counts.js';
 
@@ -19,14 +17,12 @@ import { OpenReviewCases } from './review-case-counts.js';
  * OpenReviewCases (exported); until then digests say no case is waiting.
  */
 @Module({
-  imports: [MailModule, BenchmarksModule, OrganisationsModule, QuartersModule, ReportsModule],
+  imports: [MailModule, OrganisationsModule, QuartersModule, ReportsModule],
   controllers: [DigestsController],
   providers: [
     DigestSchedulesRepository,
-    DraftBenchmarkDigestSource,
     ReportDigestSource,
-    // Digests are made from published reports; DraftBenchmarkDigestSource reads a quarter's
-    // benchmark as it stands, behind the same interface (tests of the composition use it).
+    // Digests are made from published reports, read through ReportsService alone.
     { provide: DIGEST_SOURCE, useExisting: ReportDigestSource },
     OpenReviewCases,
     DigestsService,

@@ -41,6 +41,7 @@ import {
   OrganisationsService,
   type PracticeInfo,
 } from '../organisations/organisations.service.js';
+import { QuarterReports } from '../quarters/quarter-reports.js';
 import { QuartersService } from '../quarters/quarters.service.js';
 import { composeDigest } from './digest-compose.js';
 import { dataQualityFlags, digestMeasures } from './digest-from-results.js';
@@ -89,6 +90,7 @@ export class DigestsService implements OnModuleInit, OnApplicationBootstrap {
     @Inject(RecipientsService) private readonly recipients: RecipientsService,
     @Inject(OrganisationsService) private readonly organisations: OrganisationsService,
     @Inject(QuartersService) private readonly quarters: QuartersService,
+    @Inject(QuarterReports) private readonly quarterReports: QuarterReports,
     @Inject(MailTransport) private readonly transport: MailTransport,
     @Inject(DigestSchedulesRepository) private readonly schedules: DigestSchedulesRepository,
     @Inject(AuditTrailService) private readonly audit: AuditTrailService,
@@ -181,7 +183,7 @@ export class DigestsService implements OnModuleInit, OnApplicationBootstrap {
         profile: this.link('/profile'),
       },
     };
-    return { input, dataPack: results ? await this.source.dataPack(report, results) : null };
+    return { input, dataPack: results ? await this.source.dataPack(report, practice.id) : null };
   }
 
   private async compose(
@@ -434,24 +436,26 @@ export class DigestsService implements OnModuleInit, OnApplicationBootstrap {
    * Gives each report published in the last week that has no scheduled sending (and was never
    * scheduled, moved or cancelled by the regional lead) one, `mail.digests.afterPublicationMinutes`
    * after its publication: time for the regional lead to preview the digests, send a test, move
-   * or cancel the sending.
+   * or cancel the sending. Every region is looked at (a report may be published from a closed
+   * quarter, and in any region), through each quarter's list of reports: no snapshot is read.
    */
   async scheduleNewReports(now = new Date()): Promise<number> {
-    const regions = new Set((await this.quarters.openQuarters()).map((q) => q.regionId));
-    const primary = await this.organisations.primaryRegion();
-    if (primary) regions.add(primary.id);
     const after = this.config.get('mail', { infer: true }).digests.afterPublicationMinutes * 60_000;
     let scheduled = 0;
-    for (const regionId of regions) {
-      for (const report of await this.source.list(regionId)) {
-        const published = Date.parse(report.publishedAt);
-        if (now.getTime() - published > PUBLICATION_LOOKBACK_MS) continue;
-        if (await this.schedules.find(report.id)) continue;
-        await this.schedules.schedule(report.id, regionId, new Date(published + after), {
-          userId: null,
-          label: 'on publication',
-        });
-        scheduled++;
+    for (const region of await this.organisations.allRegions()) {
+      const quarterIds = (await this.quarters.list(region.id)).map((q) => q.id);
+      for (const reports of (await this.quarterReports.of(region.id, quarterIds)).values()) {
+        for (const report of reports) {
+          if (report.status !== 'published') continue;
+          const published = Date.parse(report.publishedAt);
+          if (now.getTime() - published > PUBLICATION_LOOKBACK_MS) continue;
+          if (await this.schedules.find(report.id)) continue;
+          await this.schedules.schedule(report.id, region.id, new Date(published + after), {
+            userId: null,
+            label: 'on publication',
+          });
+          scheduled++;
+        }
       }
     }
     return scheduled;

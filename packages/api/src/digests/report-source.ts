@@ -1,48 +1,58 @@
 /**
- * Digests made from published reports (src/reports): the source id is the
- * report's id. A practice's part is the report's frozen results as the
- * practice's own leads see them (disclosure control applied); a withdrawn
- * report makes no digest (its queued digests fail rather than send withdrawn
- * figures). The data pack is the figures workbook made from those frozen
- * results.
+ * Digests made from published reports (src/reports), read only through
+ * ReportsService: the source id is the report's id. A practice's part is the
+ * report's frozen results as the practice's own leads see them (disclosure
+ * control applied); its attachment is the practice's data pack of the report,
+ * the same file its leads download from the report's page. A withdrawn report
+ * makes no digest (its queued digests fail rather than send withdrawn
+ * figures): its status is read afresh for every message, from the database.
  */
+import { PassThrough } from 'node:stream';
 import { Inject, Injectable } from '@nestjs/common';
-import { systemActor } from '../auth/actor.js';
+import { type Actor, systemActor } from '../auth/actor.js';
 import type { PracticeResultsDto } from '../benchmarks/dto/practice-results.dto.js';
 import type { ReportDto } from '../reports/dto/report.dto.js';
 import { ReportsService } from '../reports/reports.service.js';
-import { type DataPack, type DigestReport, type DigestSource, XLSX_TYPE } from './digest-source.js';
-import { figuresWorkbook } from './figures-workbook.js';
+import type { DataPack, DigestReport, DigestSource } from './digest-source.js';
 
-const reader = (regionId: number) => systemActor('digest', regionId);
+/** Cairn reading a report for the region: every practice of it is listed. */
+const reader = (regionId: number): Actor => ({
+  ...systemActor('digest', regionId),
+  role: 'auditor',
+});
+
+/** Reports' practice lists kept, by report id and content hash (a report's content never changes). */
+const MEMO_ENTRIES = 32;
 
 @Injectable()
 export class ReportDigestSource implements DigestSource {
   readonly noun = 'report';
+  private readonly memo = new Map<string, DigestReport>();
 
   constructor(@Inject(ReportsService) private readonly reports: ReportsService) {}
 
-  private async digestReport(regionId: number, dto: ReportDto): Promise<DigestReport | null> {
+  private digestReport(regionId: number, dto: ReportDto): DigestReport | null {
     if (dto.status === 'withdrawn') return null;
-    const { snapshot } = await this.reports.snapshotOf(reader(regionId), dto.id);
-    const practiceIds = [
-      ...snapshot.practices.map((p) => p.practice.id),
-      ...(snapshot.region.splits[0]?.coverage.missing ?? []).map((p) => p.id),
-    ].sort((a, b) => a - b);
-    return {
+    const key = `${dto.id}:${dto.contentHash}`;
+    const known = this.memo.get(key);
+    if (known && known.regionId === regionId) return known;
+    const report: DigestReport = {
       id: dto.id,
       regionId,
       quarterId: dto.quarterId,
       quarterLabel: dto.quarterLabel,
       label: dto.label,
       publishedAt: dto.publishedAt,
-      practiceIds,
+      practiceIds: dto.practices.map((p) => p.id).sort((a, b) => a - b),
     };
+    if (this.memo.size >= MEMO_ENTRIES) this.memo.delete(this.memo.keys().next().value!);
+    this.memo.set(key, report);
+    return report;
   }
 
   async report(id: number, regionId: number): Promise<DigestReport | null> {
     try {
-      return await this.digestReport(regionId, await this.reports.get(reader(regionId), id));
+      return this.digestReport(regionId, await this.reports.get(reader(regionId), id));
     } catch (error) {
       // 404 report-not-found (unknown or of another region), 410 report-withdrawn
       const status = (error as { getStatus?: () => number }).getStatus?.();
@@ -53,12 +63,10 @@ export class ReportDigestSource implements DigestSource {
 
   async list(regionId: number): Promise<DigestReport[]> {
     const { reports } = await this.reports.list(reader(regionId));
-    const out: DigestReport[] = [];
-    for (const dto of reports.filter((r) => r.status === 'published')) {
-      const report = await this.digestReport(regionId, dto);
-      if (report) out.push(report);
-    }
-    return out;
+    return reports
+      .filter((r) => r.status === 'published')
+      .map((dto) => this.digestReport(regionId, dto))
+      .filter((r): r is DigestReport => r !== null);
   }
 
   async practiceResults(
@@ -76,14 +84,26 @@ export class ReportDigestSource implements DigestSource {
     };
   }
 
-  async dataPack(report: DigestReport, results: PracticeResultsDto): Promise<DataPack> {
+  async dataPack(report: DigestReport, practiceId: number): Promise<DataPack> {
+    const pack = await this.reports.pack(reader(report.regionId), report.id, {
+      kind: 'practice',
+      practiceId,
+    });
+    const sink = new PassThrough();
+    const chunks: Buffer[] = [];
+    sink.on('data', (chunk: Buffer) => chunks.push(chunk));
+    const ended = new Promise<void>((resolve, reject) => {
+      sink.on('end', resolve);
+      sink.on('error', reject);
+    });
+    await pack.write(sink);
+    // exceljs ends the stream it was given once the workbook is written; end it if it did not.
+    if (!sink.writableEnded) sink.end();
+    await ended;
     return {
-      filename: `cairn-${results.practice.code}-${report.quarterLabel.replace(/\s+/g, '-')}-report-${report.id}-figures.xlsx`,
-      content: await figuresWorkbook(results, {
-        reportLabel: report.label,
-        publishedAt: report.publishedAt,
-      }),
-      contentType: XLSX_TYPE,
+      filename: pack.fileName,
+      content: Buffer.concat(chunks),
+      contentType: pack.contentType,
     };
   }
 }

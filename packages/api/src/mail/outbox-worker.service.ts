@@ -30,7 +30,7 @@ import { ConfigService } from '@nestjs/config';
 import type { SendMailOptions } from 'nodemailer';
 import type { CairnConfig } from '../config/config.schema.js';
 import { type ComposedMail, CompositionError, MailComposers } from './mail-composers.js';
-import { MailTransport } from './mail-transport.js';
+import { MailTransport, type SentReply } from './mail-transport.js';
 import { backoffMs, classifyFailure, clip, messageIdHost } from './outbox-policy.js';
 import { OutboxRepository, type OutboxMessageRow } from './outbox.repository.js';
 
@@ -61,6 +61,9 @@ export function mailOptions(
     },
   };
 }
+
+/** Tries to record a message the server accepted (50, 100, 200 … ms apart). */
+const RECORD_ATTEMPTS = 6;
 
 @Injectable()
 export class OutboxWorker implements OnApplicationBootstrap, OnApplicationShutdown {
@@ -205,14 +208,9 @@ export class OutboxWorker implements OnApplicationBootstrap, OnApplicationShutdo
       from: mail.from,
       publicUrl: this.config.get('server', { infer: true }).publicUrl,
     });
+    let reply: SentReply;
     try {
-      const reply = await this.transport.send(options);
-      this.unreachableInARow = 0;
-      if (!(await this.outbox.markSent(row.id, this.owner, reply.response)))
-        this.logger.warn(
-          { outboxId: row.id, messageId: row.message_id },
-          'sent, but the lease had passed to another process meanwhile',
-        );
+      reply = await this.transport.send(options);
     } catch (error) {
       const failure = classifyFailure(error);
       if (failure.replyCode === null && Date.now() >= this.pausedUntil) {
@@ -235,6 +233,43 @@ export class OutboxWorker implements OnApplicationBootstrap, OnApplicationShutdo
           failure,
           backoffMs(row.attempts, mail.outbox),
         );
+      }
+      return;
+    }
+    // The server has the message. Whatever happens from here on, it is not sent again as if the
+    // server had not taken it: a failure to record the 250 (a deadlock, a lost connection to
+    // MariaDB) is retried as a failure to record, never as a failure to send.
+    this.unreachableInARow = 0;
+    await this.recordSent(row, reply.response);
+  }
+
+  /**
+   * Marks a message the server accepted as sent, trying again while MariaDB refuses the update.
+   * Its lease is renewed meanwhile (it stays in flight). If it cannot be recorded at all, the row
+   * stays `sending`: after its lease it is sent again with the same Message-ID, counted as resumed.
+   */
+  private async recordSent(row: OutboxMessageRow, response: string): Promise<void> {
+    for (let attempt = 1; ; attempt++) {
+      try {
+        if (!(await this.outbox.markSent(row.id, this.owner, response)))
+          this.logger.warn(
+            { outboxId: row.id, messageId: row.message_id },
+            'sent, but the lease had passed to another process meanwhile',
+          );
+        return;
+      } catch (error) {
+        if (attempt >= RECORD_ATTEMPTS) {
+          this.logger.error(
+            { err: error, outboxId: row.id, messageId: row.message_id },
+            'the server took the message but Cairn could not record it; it is sent again after its lease, with the same Message-ID',
+          );
+          return;
+        }
+        this.logger.warn(
+          { err: error, outboxId: row.id, attempt },
+          'could not record a sent message yet; trying again',
+        );
+        await new Promise((resolve) => setTimeout(resolve, 50 * 2 ** attempt));
       }
     }
   }

@@ -208,11 +208,16 @@ export class OutboxRepository {
     });
   }
 
-  /** Extends the leases `owner` holds on these messages (a send still under way). */
+  /**
+   * Extends the leases `owner` holds on these messages (a send still under way). Through the
+   * primary key, as every other update of one message goes: left to itself MariaDB reads these
+   * rows through the (state, next_attempt_at) index and locks in the opposite order to a
+   * concurrent markSent, and one of the two dies in a deadlock.
+   */
   renew(owner: string, ids: readonly number[], leaseSeconds: number): Promise<number> {
     if (ids.length === 0) return Promise.resolve(0);
     return this.execute(
-      `UPDATE outbox_messages SET lease_expires_at = NOW(3) + INTERVAL ? SECOND
+      `UPDATE outbox_messages FORCE INDEX (PRIMARY) SET lease_expires_at = NOW(3) + INTERVAL ? SECOND
         WHERE id IN (?) AND state = 'sending' AND lease_owner = ?`,
       [leaseSeconds, [...ids], owner],
     );

@@ -59,6 +59,12 @@ export class OrganisationsService {
     return region ? { id: region.id, code: region.code, name: region.name } : null;
   }
 
+  /** Every region of the deployment, by id. */
+  async allRegions(): Promise<RegionInfo[]> {
+    const rows = await this.regions.findAll({ order: [['id', 'ASC']] });
+    return rows.map((r) => ({ id: r.id, code: r.code, name: r.name }));
+  }
+
   async regionByCode(code: string): Promise<RegionInfo | null> {
     const region = await this.regions.findOne({ where: { code } });
     return region ? { id: region.id, code: region.code, name: region.name } : null;

@@ -11,7 +11,7 @@ export class DigestRecipientDto {
 }
 
 export class DigestAttachmentDto {
-  @ApiProperty({ type: String, example: 'cairn-OV102-2026-Q3-figures.xlsx' }) filename!: string;
+  @ApiProperty({ type: String, example: 'cairn-report-7-2026-Q3-OV102.xlsx' }) filename!: string;
   @ApiProperty({ type: String }) contentType!: string;
   @ApiProperty({ type: Number }) bytes!: number;
 }
@@ -47,7 +47,8 @@ export class DigestPreviewDto {
   @ApiProperty({
     type: DigestAttachmentDto,
     nullable: true,
-    description: 'The practice’s figures workbook; null when it has no figures in the report',
+    description:
+      'The practice’s data pack of the report (as on the report’s page); null when it has no figures in the report',
   })
   attachment!: DigestAttachmentDto | null;
   @ApiProperty({

@@ -3901,7 +3901,7 @@ export interface components {
       isUser: boolean;
     };
     DigestAttachmentDto: {
-      /** @example cairn-OV102-2026-Q3-figures.xlsx */
+      /** @example cairn-report-7-2026-Q3-OV102.xlsx */
       filename: string;
       contentType: string;
       bytes: number;
@@ -3919,7 +3919,7 @@ export interface components {
       text: string;
       /** @description Where the HTML part is served alone, as sent (for a sandboxed frame) */
       htmlPath: string;
-      /** @description The practice’s figures workbook; null when it has no figures in the report */
+      /** @description The practice’s data pack of the report (as on the report’s page); null when it has no figures in the report */
       attachment: components['schemas']['DigestAttachmentDto'] | null;
       /** @description False until a module that runs review cases counts them: every count is 0 */
       reviewCasesCounted: boolean;

@@ -72,9 +72,9 @@ function DigestsScreen() {
           <H1 className="cairn-page-title">Digests</H1>
           <p className="cairn-muted">
             Each practice&rsquo;s leads get a digest of its part of a report: where it stands
-            against the region, what changed, where improvement would matter most, with its figures
-            attached. Look at any practice&rsquo;s digest here exactly as it will be sent, send
-            yourself a test, then send them all.
+            against the region, what changed, where improvement would matter most, with the
+            practice&rsquo;s data pack of the report attached. Look at any practice&rsquo;s digest
+            here exactly as it will be sent, send yourself a test, then send them all.
           </p>
         </div>
       </div>
@@ -261,7 +261,9 @@ function SendPanel({ reportId, practices }: { reportId: number; practices: numbe
       {s && s.state !== 'none' && (
         <p role="status">
           {s.state === 'scheduled' &&
-            `Scheduled for ${dateTime.format(new Date(s.sendAt!))} by ${s.scheduledBy}.`}
+            `Scheduled for ${dateTime.format(new Date(s.sendAt!))} ${
+              s.scheduledBy === 'on publication' ? 'by Cairn on publication' : `by ${s.scheduledBy}`
+            }.`}
           {s.state === 'sent' &&
             `Sent by schedule on ${dateTime.format(new Date(s.ranAt!))}: ${s.outcome}.`}
           {s.state === 'cancelled' && 'The scheduled sending was cancelled.'}
