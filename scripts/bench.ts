@@ -7,6 +7,7 @@
  *   - @cairn/api: publishing the demo quarter with its region pack, a practice's PDF, and the
  *     region pack of 7,000 synthetic practices vs a bare exceljs write of the same cells
  *   - @cairn/api: composing a practice's digest, and 500 digests with their workbooks through the outbox
+ *   - @cairn/api: the outlier list of 7,000 practices, and one drill-down under 20 connections
  *   - @cairn/web: region benchmark page, funnel points visible after navigation; initial JS
  * The ingest benchmark uses the disposable test MariaDB (never the demo data).
  * Exit code 1 when any benchmark misses a target.
@@ -75,6 +76,14 @@ async function main(): Promise<void> {
       outcomes.push([
         'digests',
         await runInherit('npm', ['run', 'bench:digests', '-w', '@cairn/api'], {
+          cwd: ctx.root,
+          env: ctx.childEnv,
+        }),
+      ]);
+      log.step('── @cairn/api outlier review benchmark ──');
+      outcomes.push([
+        'outliers',
+        await runInherit('npm', ['run', 'bench:outliers', '-w', '@cairn/api'], {
           cwd: ctx.root,
           env: ctx.childEnv,
         }),

@@ -165,4 +165,25 @@ describe('reports in the browser', () => {
     ]);
     expect(browser.errors).toEqual([]);
   });
+
+  it('lets the regional lead publish the chosen quarter from the benchmark page', async () => {
+    const { page } = browser;
+    await signIn('Imogen Varley');
+    await nav(page, 'Benchmark').click();
+    await page.getByRole('button', { name: 'Publish report…' }).click();
+    const dialog = page.getByRole('dialog');
+    await dialog.getByRole('button', { name: 'Publish report' }).click();
+    await dialog
+      .getByText('Write a release note: what readers of this report should know.')
+      .waitFor();
+    await dialog.getByLabel(/Release note/).fill('Second report of 2026 Q3, from the benchmark.');
+    await browser.screenshot('reports-publish-from-benchmark');
+    await accessible(page);
+    await dialog.getByRole('button', { name: 'Publish report' }).click();
+    await page.getByRole('heading', { name: /2026 Q3 · report 2/ }).waitFor({ timeout: 60_000 });
+    expect(page.url()).toMatch(/\/reports\/\d+$/);
+    expect(page.url()).not.toBe(server.baseUrl + permalink);
+    await page.getByText('Second report of 2026 Q3, from the benchmark.').waitFor();
+    expect(browser.errors).toEqual([]);
+  });
 });

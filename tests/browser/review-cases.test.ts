@@ -70,7 +70,13 @@ describe('outlier review in the browser', () => {
     await page.getByRole('heading', { name: 'By diabetes type' }).waitFor();
     await page.getByRole('heading', { name: 'Over time' }).waitFor();
     await page.getByRole('button', { name: 'Show as table' }).first().click();
-    await page.getByRole('columnheader', { name: 'Diabetes type' }).waitFor();
+    const byType = page.locator('figure', { hasText: 'Practice (bars) against the region' });
+    await byType.getByRole('columnheader', { name: 'Diabetes type' }).waitFor();
+    // The records behind the result, a page at a time under pseudonyms, and the evidence.
+    await page.getByText(/^Records 1–\d+ of \d+$/).waitFor();
+    await expect(
+      page.getByRole('link', { name: /Download the evidence/ }).getAttribute('href'),
+    ).resolves.toMatch(/\/evidence\.xlsx$/);
     await browser.screenshot('review-drill-down');
     await expectAccessible(page);
 

@@ -1,6 +1,6 @@
 /** The production build (dist/) of the API on a fresh test database, for the benchmarks. */
 import { dirname, join } from 'node:path';
-import type { Sequelize } from 'sequelize';
+import { QueryTypes, type Sequelize } from 'sequelize';
 import { fileURLToPath } from 'node:url';
 import type { CairnConfig } from '../src/config/config.schema.js';
 
@@ -10,9 +10,14 @@ const dist = join(dirname(fileURLToPath(import.meta.url)), '..', 'dist');
 // eslint-disable-next-line @typescript-eslint/no-explicit-any
 export const fromDist = (path: string): Promise<any> => import(join(dist, path));
 
-/** `configure` adjusts the test profile's configuration (the mail benchmark points mail at its sink). */
+/**
+ * `configure` adjusts the test profile's configuration (the mail benchmark points mail at its sink).
+ * `keep` names a database to keep between runs: created, migrated and seeded only when missing
+ * (`fresh` says which), never dropped.
+ */
 export async function benchApp(
   configure: (config: CairnConfig) => CairnConfig = (config) => config,
+  keep?: string,
 ) {
   const { loadConfig, loadSecrets } = await fromDist('config/load-config.js');
   const { connect, createDatabase, dropTestDatabase } = await fromDist('database/connect.js');
@@ -28,12 +33,19 @@ export async function benchApp(
   };
   const base: CairnConfig = loadConfig({ profile: 'test' });
   const secrets = loadSecrets();
-  const databaseName = `cairn_test_bench_${Date.now().toString(36)}`;
+  const databaseName = keep ?? `cairn_test_bench_${Date.now().toString(36)}`;
   const config = configure({ ...base, database: { ...base.database, name: databaseName } });
   await createDatabase(config, secrets);
   const db: Sequelize = connect(config, secrets);
-  await migrateUp(db);
-  await seedDemoOrganisation(db, generateOrganisation());
+  const [found] = await db.query<{ tables: number }>(
+    'SELECT COUNT(*) AS tables FROM information_schema.tables WHERE table_schema = DATABASE()',
+    { type: QueryTypes.SELECT },
+  );
+  const fresh = Number(found?.tables ?? 0) === 0;
+  if (fresh || !keep) {
+    await migrateUp(db);
+    await seedDemoOrganisation(db, generateOrganisation());
+  }
   const app = await createApp({ config, secrets, logger: createRootLogger('silent') });
   await app.init();
   return {
@@ -43,11 +55,12 @@ export async function benchApp(
     config,
     secrets,
     databaseName,
+    fresh,
     get: async (path: string, name: string) => app.get((await fromDist(path))[name]),
     close: async () => {
       await app.close();
       await db.close();
-      await dropTestDatabase(config, secrets);
+      if (!keep) await dropTestDatabase(config, secrets);
     },
   };
 }

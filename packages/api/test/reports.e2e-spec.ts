@@ -62,6 +62,8 @@ interface Downloads {
   practicePack: Buffer;
   regionPdf: string;
   practicePdf: string;
+  /** Every download as it came, in the order above */
+  bytes: Buffer[];
 }
 
 describe('reports', () => {
@@ -138,17 +140,24 @@ describe('reports', () => {
         return res.body as Buffer;
       };
       const XLSX_TYPE = 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet';
+      const regionPack = await get(regional, `/api/reports/${id}/data-pack.xlsx`, XLSX_TYPE);
+      const practicePack = await get(
+        lead,
+        `/api/reports/${id}/practices/${ov102}/data-pack.xlsx`,
+        XLSX_TYPE,
+      );
+      const regionPdf = await get(auditor, `/api/reports/${id}/report.pdf`, 'application/pdf');
+      const practicePdf = await get(
+        lead,
+        `/api/reports/${id}/practices/${ov102}/report.pdf`,
+        'application/pdf',
+      );
       return {
-        regionPack: await get(regional, `/api/reports/${id}/data-pack.xlsx`, XLSX_TYPE),
-        practicePack: await get(
-          lead,
-          `/api/reports/${id}/practices/${ov102}/data-pack.xlsx`,
-          XLSX_TYPE,
-        ),
-        regionPdf: pdfText(await get(auditor, `/api/reports/${id}/report.pdf`, 'application/pdf')),
-        practicePdf: pdfText(
-          await get(lead, `/api/reports/${id}/practices/${ov102}/report.pdf`, 'application/pdf'),
-        ),
+        regionPack,
+        practicePack,
+        regionPdf: pdfText(regionPdf),
+        practicePdf: pdfText(practicePdf),
+        bytes: [regionPack, practicePack, regionPdf, practicePdf],
       };
     }
 
@@ -377,6 +386,12 @@ describe('reports', () => {
       );
       expect(row!.snapshot.equals(storedBefore)).toBe(true);
       const again = await downloads(reportId);
+      // The same bytes on every request, before and after the new confirm.
+      const repeat = await downloads(reportId);
+      for (const [i, bytes] of before.bytes.entries()) {
+        expect(again.bytes[i]!.equals(bytes)).toBe(true);
+        expect(repeat.bytes[i]!.equals(bytes)).toBe(true);
+      }
       expect(again.regionPdf).toBe(before.regionPdf);
       expect(again.practicePdf).toBe(before.practicePdf);
       for (const [a, b] of [

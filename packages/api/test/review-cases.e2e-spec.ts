@@ -9,6 +9,8 @@
  */
 import ExcelJS from 'exceljs';
 import { QueryTypes } from 'sequelize';
+import { submissionsKey } from '../src/benchmarks/benchmark-store.service.js';
+import { SubmissionsService } from '../src/submissions/submissions.service.js';
 import { arrange, type ExtractsWorld, uploadAndWait } from './extracts-fixtures/api.js';
 import { csvOf, goodRows } from './extracts-fixtures/rows.js';
 import { signInAs, type SignedInAgent } from './support/auth.js';
@@ -101,6 +103,52 @@ describe('review cases', () => {
     ]);
     expect(drill.body.breakdowns.length).toBeGreaterThan(0);
     expect(drill.body.evidence.n).toBeGreaterThan(0);
+    // The drill-down reads only its measure from the stored results, and shows what the
+    // practice's results page shows the region's side for that measure.
+    const page = (
+      await auditor.get(`/api/practices/${practiceId}/quarters/${quarterId}/results`).expect(200)
+    ).body;
+    const own = page.measures.find(
+      (m: { measure: { key: string } }) => m.measure.key === measureKey,
+    );
+    const withoutPeers = (x: Record<string, unknown>) =>
+      Object.fromEntries(Object.entries(x).filter(([k]) => k !== 'peers'));
+    expect(drill.body.splits).toEqual(own.splits.map(withoutPeers));
+    expect(drill.body.trendQuarters).toEqual(
+      page.quarters.map((q: { quarterLabel: string }) => q.quarterLabel),
+    );
+    expect(drill.body.dataQuality).toEqual(page.dataQuality);
+    const cells = page.detail.measures
+      .find((m: { measure: string }) => m.measure === measureKey)
+      .splits.find((x: { split: string }) => x.split === 'all');
+    expect(drill.body.everyone).toEqual(cells.everyone);
+    expect(drill.body.breakdowns.map((b: { cells: unknown }) => b.cells)).toEqual(cells.breakdowns);
+    expect(page.detail.values).toContainEqual(drill.body.histogram);
+    // Asked again, the answer kept by what it was built from is the same.
+    const again = await auditor
+      .get(`/api/quarters/${quarterId}/outliers/practices/${practiceId}/measures/${measureKey}`)
+      .expect(200);
+    expect(again.body).toEqual(drill.body);
+    // A confirm of another practice changes the set: the next drill-down is built from it.
+    const ov201 = w.practice('OV201');
+    const replaced = await uploadAndWait(regional, ov201, quarterId, csvOf(goodRows(11)), {
+      name: 'OV201-again.csv',
+    });
+    await regional.post(`/api/practices/${ov201}/submissions/${replaced.id}/confirm`).expect(200);
+    const after = await auditor
+      .get(`/api/quarters/${quarterId}/outliers/practices/${practiceId}/measures/${measureKey}`)
+      .expect(200);
+    expect(after.body.basis.key).not.toBe(drill.body.basis.key);
+    expect(after.body.basis.resultId).not.toBe(drill.body.basis.resultId);
+    expect(after.body.splits[0].region.n.value).not.toBe(drill.body.splits[0].region.n.value);
+    // The key MariaDB makes of the quarter's current set is the benchmark store's.
+    const submissions = t.app.get(SubmissionsService);
+    const ids = (await submissions.currentSet(quarterId)).map(
+      (p: { submissionId: number }) => p.submissionId,
+    );
+    expect(await submissions.currentSetKeys([quarterId, 999_999])).toEqual(
+      new Map([[quarterId, submissionsKey(ids)]]),
+    );
   });
 
   it('pages the records behind a result under pseudonyms, and exports the evidence as XLSX', async () => {
@@ -340,6 +388,22 @@ describe('review cases', () => {
       .send({ action: 'reopen', expectedVersion: c.version, message: 'New figures arrived.' })
       .expect(200);
     expect(reopened.body).toMatchObject({ status: 'open', finding: null, closedAt: null });
+    // The close it undid stays on the case, for the auditor and the practice lead alike.
+    const undone = {
+      by: auditor.user.displayName,
+      previousFinding: 'data_quality_issue',
+      previousFindingLabel: 'Data quality issue',
+      previousClosedAt: c.closedAt,
+    };
+    expect(c.closedAt).toEqual(expect.any(String));
+    expect(reopened.body.reopened).toMatchObject(undone);
+    expect(Date.parse(reopened.body.reopened.at)).toBeGreaterThanOrEqual(Date.parse(c.closedAt));
+    const seenByLead = (await lead.get(`/api/review-cases/${caseId}`).expect(200)).body;
+    expect(seenByLead.reopened).toEqual(reopened.body.reopened);
+    const listed = (await lead.get('/api/review-cases').expect(200)).body.cases.find(
+      (x: { id: number }) => x.id === caseId,
+    );
+    expect(listed.reopened).toEqual(reopened.body.reopened);
   });
 
   it('answers every case route × role × own/other practice as the policy says (a real case)', async () => {

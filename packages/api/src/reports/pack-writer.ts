@@ -44,6 +44,42 @@ export function columnLetter(n: number): string {
   return s;
 }
 
+/** The style of every data row (none): one object, so that exceljs looks it up once. */
+const ROW_STYLE: Partial<ExcelJS.Style> = {};
+
+/** The zip writer (archiver) inside exceljs's streaming workbook writer. */
+interface ZipInside {
+  append(source: unknown, data: { name: string; date?: string }): unknown;
+}
+
+/**
+ * exceljs's streaming workbook writer with every zip entry dated `date` (exceljs leaves the date
+ * to the zip writer: now), so that the same report's pack is the same bytes on every request and
+ * in every process. The first two parts are added while the writer is constructed, hence the
+ * hooks rather than a change after construction.
+ */
+function datedWriter(date: Date) {
+  const iso = date.toISOString();
+  const dated = new WeakSet<object>();
+  const dateEntries = (writer: object) => {
+    const zip = (writer as { zip: ZipInside }).zip;
+    if (dated.has(zip)) return;
+    dated.add(zip);
+    const append = zip.append.bind(zip);
+    zip.append = (source, data) => append(source, { ...data, date: iso });
+  };
+  return class extends ExcelJS.stream.xlsx.WorkbookWriter {
+    override addThemes() {
+      dateEntries(this);
+      return super.addThemes();
+    }
+    override addOfficeRels() {
+      dateEntries(this);
+      return super.addOfficeRels();
+    }
+  };
+}
+
 const cellValue = (v: PackValue): PackValue => (typeof v === 'string' ? neutralise(v) : v);
 
 export async function writePack(
@@ -51,7 +87,7 @@ export async function writePack(
   meta: PackMeta,
   stream: Writable,
 ): Promise<void> {
-  const workbook = new ExcelJS.stream.xlsx.WorkbookWriter({
+  const workbook = new (datedWriter(meta.created))({
     stream,
     useStyles: true,
     useSharedStrings: false,
@@ -77,13 +113,19 @@ export async function writePack(
     if (table) {
       ws.autoFilter = `A1:${columnLetter(sheet.columns.length)}1`;
     }
+    // One style object per column, shared by its cells: exceljs keeps a style's id by the
+    // object, so a shared one is looked up once (a cell's own copy would be serialised per cell).
+    const styles = sheet.columns.map((c) => (c.format ? { numFmt: c.format } : {}));
     let r = 2;
     for (const values of sheet.rows) {
       const row = ws.getRow(r++);
+      (row as unknown as { style: Partial<ExcelJS.Style> }).style = ROW_STYLE;
       for (let i = 0; i < values.length; i++) {
         const v = values[i];
         if (v === null || v === undefined) continue;
-        row.getCell(i + 1).value = cellValue(v);
+        const target = row.getCell(i + 1);
+        target.style = styles[i] ?? {};
+        target.value = cellValue(v);
       }
       row.commit();
     }

@@ -12,7 +12,7 @@ import type { PracticeResultsDto } from '../benchmarks/dto/practice-results.dto.
 import type { DisclosedCellDto, PeerTableDto } from './dto/report.dto.js';
 import { DECIMAL, INTEGER, type PackSheet, type PackValue, PERCENT } from './pack-writer.js';
 import type { ReportRow } from './report.repository.js';
-import type { ReportSnapshot } from './snapshot.js';
+import { practicePeers, type ReportSnapshot } from './snapshot.js';
 
 export type PackScope = { kind: 'region' } | { kind: 'practice'; practiceId: number };
 
@@ -149,8 +149,7 @@ const FUNNEL_COLUMNS = [
 ];
 
 /** Whether a practice's point may be shown: its met and n shown in the peer table, n ≥ 10. */
-function pointShown(table: PeerTableDto | undefined, code: string): boolean {
-  const r = table?.rows.find((x) => x.practice.code === code);
+function pointShown(r: PeerTableDto['rows'][number] | undefined): boolean {
   if (!r) return false;
   if (r.own) return true;
   return (
@@ -159,12 +158,14 @@ function pointShown(table: PeerTableDto | undefined, code: string): boolean {
 }
 
 function* funnelRows(snapshot: ReportSnapshot, tables: readonly PeerTableDto[], only?: string) {
-  const byMeasure = new Map(tables.map((t) => [t.measure, t]));
+  const byMeasure = new Map(
+    tables.map((t) => [t.measure, new Map(t.rows.map((r) => [r.practice.code, r]))]),
+  );
   for (const f of snapshot.region.funnels) {
-    const table = byMeasure.get(f.measure.key);
+    const rows = byMeasure.get(f.measure.key);
     for (const p of f.points) {
       if (only !== undefined && p.practice.code !== only) continue;
-      if (!pointShown(table, p.practice.code)) {
+      if (!pointShown(rows?.get(p.practice.code))) {
         yield [
           f.measure.key,
           p.practice.code,
@@ -421,6 +422,50 @@ function* regionRows(snapshot: ReportSnapshot): Iterable<PackValue[]> {
   }
 }
 
+/**
+ * What one data pack shows: the region's (every practice protected) or one practice's (its own
+ * figures in full, the others protected). Both packs have the same sheets, in the same order.
+ */
+interface PackView {
+  /** The about sheet's "What this is" */
+  what: string;
+  /** The second sheet: the region's figures, or the practice's own results */
+  headline: PackSheet;
+  /** Each measure's practices (everyone) */
+  peers: readonly PeerTableDto[];
+  /** The one practice whose funnel points are listed (every practice's when undefined) */
+  funnelPractice?: string;
+  breakdowns: Pick<PackSheet, 'columns' | 'rows'>;
+  trends: Pick<PackSheet, 'columns' | 'rows'>;
+}
+
+function regionView(snapshot: ReportSnapshot): PackView {
+  return {
+    what: `The data pack of a published Cairn report for the whole region: every practice on every measure, the funnel data with its limits, the region's breakdowns and trends. Other practices' counts are under disclosure control.`,
+    headline: { name: 'Region', columns: REGION_COLUMNS, rows: regionRows(snapshot) },
+    peers: snapshot.region.peerTables,
+    breakdowns: { columns: BREAKDOWN_COLUMNS, rows: regionBreakdownRows(snapshot) },
+    trends: { columns: TREND_COLUMNS, rows: regionTrendRows(snapshot) },
+  };
+}
+
+function practiceView(snapshot: ReportSnapshot, practiceId: number): PackView {
+  const part = snapshot.practices.find((p) => p.practice.id === practiceId);
+  if (!part) throw new Error(`practice ${practiceId} has no results in this report`);
+  const results = part.results;
+  return {
+    what: `The data pack of a published Cairn report for ${part.practice.code} ${part.practice.name}: its results on every measure against the region, the region's practices under disclosure control, its funnel data, breakdowns and trends.`,
+    headline: { name: 'Your results', columns: RESULTS_COLUMNS, rows: practiceResultRows(results) },
+    peers: practicePeers(snapshot, practiceId),
+    funnelPractice: part.practice.code,
+    breakdowns: {
+      columns: PRACTICE_BREAKDOWN_COLUMNS,
+      rows: results.detail ? practiceBreakdownRows(results.detail) : [],
+    },
+    trends: { columns: PRACTICE_TREND_COLUMNS, rows: practiceTrendRows(results) },
+  };
+}
+
 /** The sheets of a report's data pack. */
 export function packSheets(
   row: ReportRow,
@@ -429,59 +474,22 @@ export function packSheets(
 ): PackSheet[] {
   const measures = snapshot.region.splits[0]?.measures ?? [];
   const labels = new Map(measures.map((m) => [m.key, m.label]));
-  if (scope.kind === 'region') {
-    return [
-      aboutSheet(
-        row,
-        snapshot,
-        measures,
-        `The data pack of a published Cairn report for the whole region: every practice on every measure, the funnel data with its limits, the region's breakdowns and trends. Other practices' counts are under disclosure control.`,
-      ),
-      { name: 'Region', columns: REGION_COLUMNS, rows: regionRows(snapshot) },
-      {
-        name: 'Measures by practice',
-        columns: BY_PRACTICE_COLUMNS,
-        rows: byPracticeRows(snapshot.region.peerTables, labels),
-      },
-      {
-        name: 'Funnel data',
-        columns: FUNNEL_COLUMNS,
-        rows: funnelRows(snapshot, snapshot.region.peerTables),
-      },
-      {
-        name: 'Breakdowns',
-        columns: BREAKDOWN_COLUMNS,
-        rows: regionBreakdownRows(snapshot),
-      },
-      { name: 'Trends', columns: TREND_COLUMNS, rows: regionTrendRows(snapshot) },
-    ];
-  }
-  const part = snapshot.practices.find((p) => p.practice.id === scope.practiceId);
-  if (!part) throw new Error(`practice ${scope.practiceId} has no results in this report`);
-  const results = part.results;
+  const view =
+    scope.kind === 'region' ? regionView(snapshot) : practiceView(snapshot, scope.practiceId);
   return [
-    aboutSheet(
-      row,
-      snapshot,
-      measures,
-      `The data pack of a published Cairn report for ${part.practice.code} ${part.practice.name}: its results on every measure against the region, the region's practices under disclosure control, its funnel data, breakdowns and trends.`,
-    ),
-    { name: 'Your results', columns: RESULTS_COLUMNS, rows: practiceResultRows(results) },
+    aboutSheet(row, snapshot, measures, view.what),
+    view.headline,
     {
       name: 'Measures by practice',
       columns: BY_PRACTICE_COLUMNS,
-      rows: byPracticeRows(part.peers, labels),
+      rows: byPracticeRows(view.peers, labels),
     },
     {
       name: 'Funnel data',
       columns: FUNNEL_COLUMNS,
-      rows: funnelRows(snapshot, part.peers, part.practice.code),
+      rows: funnelRows(snapshot, view.peers, view.funnelPractice),
     },
-    {
-      name: 'Breakdowns',
-      columns: PRACTICE_BREAKDOWN_COLUMNS,
-      rows: results.detail ? practiceBreakdownRows(results.detail) : [],
-    },
-    { name: 'Trends', columns: PRACTICE_TREND_COLUMNS, rows: practiceTrendRows(results) },
+    { name: 'Breakdowns', ...view.breakdowns },
+    { name: 'Trends', ...view.trends },
   ];
 }

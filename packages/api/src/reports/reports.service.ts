@@ -11,7 +11,7 @@
  * and other practices under disclosure control (docs/methods.md §9). Other modules (digests) read
  * one practice's part through `practicePart`.
  */
-import type { Writable } from 'node:stream';
+import { PassThrough, type Writable } from 'node:stream';
 import { HttpStatus, Inject, Injectable } from '@nestjs/common';
 import type { Actor } from '../auth/actor.js';
 import { AuditTrailService } from '../audit-trail/audit-trail.service.js';
@@ -38,13 +38,20 @@ import type {
 import { type PackScope, packSheets } from './pack.js';
 import { writePack } from './pack-writer.js';
 import { writeReportPdf } from './pdf.js';
-import { type PeerCounts, practicePeerTable, protectedPeerTable } from './peer-table.js';
+import { type PeerCounts, protectedPeerTable } from './peer-table.js';
 import { regionBreakdowns } from './region-breakdowns.js';
+import {
+  assertMayPublish,
+  mayReadRegion,
+  reportActions,
+  reportListActions,
+} from './report-policy.js';
 import { ReportRepository, type ReportRow } from './report.repository.js';
 import {
   canonicalBytes,
   decodeSnapshot,
   encodeSnapshot,
+  practicePeers,
   type ReportSnapshot,
   SNAPSHOT_FORMAT,
   type SnapshotPractice,
@@ -54,6 +61,12 @@ const SPLITS = ['all', 'type1', 'type2_other'] as const;
 
 /** Decoded snapshots kept in memory (keyed by report id: the bytes never change). */
 const CACHE_ENTRIES = 8;
+
+/** Reports whose practice lists are kept in memory (a few kB each). */
+const PRACTICE_LIST_ENTRIES = 1000;
+
+/** Practices' data packs kept in memory (about 100 kB each). */
+const PRACTICE_PACK_ENTRIES = 128;
 
 /** Practices whose results are read at once while publishing. */
 const PARALLEL = 4;
@@ -71,6 +84,8 @@ export const reportLabel = (quarterLabel: string, sequence: number) =>
 @Injectable()
 export class ReportsService {
   private readonly cache = new Map<number, { canonical: Buffer; snapshot: ReportSnapshot }>();
+  private readonly practiceLists = new Map<number, PracticeDto[]>();
+  private readonly practicePacks = new Map<string, Buffer>();
 
   constructor(
     @Inject(ReportRepository) private readonly repository: ReportRepository,
@@ -89,6 +104,7 @@ export class ReportsService {
 
   /** Freezes the quarter's benchmark of its current submissions into a new report. */
   async publish(actor: Actor, quarterId: number, releaseNote: string): Promise<ReportDto> {
+    assertMayPublish(actor);
     const note = releaseNote.trim();
     if (note.length === 0) {
       throw new ProblemException(
@@ -206,17 +222,7 @@ export class ReportsService {
           quarterId,
         ),
       );
-      const peers = all.measures.map((m, i) => {
-        const counts = countsOf(i);
-        const own = counts.find((c) => c.practice.id === p.practice.id)!;
-        return practicePeerTable(
-          m.key,
-          'all',
-          own,
-          counts.filter((c) => c !== own),
-        );
-      });
-      return { practice: p.practice, submissionId: p.submissionId, results, peers };
+      return { practice: p.practice, submissionId: p.submissionId, results };
     };
     const practices: SnapshotPractice[] = [];
     // A few at a time: their reads of the database overlap.
@@ -280,7 +286,7 @@ export class ReportsService {
     for (const row of rows) reports.push(await this.dto(actor, row));
     return {
       reports,
-      actions: { publish: quarterId !== undefined && actor.role === 'regional_lead' },
+      actions: reportListActions(actor, quarterId ?? null),
     };
   }
 
@@ -364,7 +370,7 @@ export class ReportsService {
       state: 'results',
       message: null,
       results: found.results,
-      peers: found.peers,
+      peers: practicePeers(snapshot, practiceId),
       caution: snapshot.caution,
     };
   }
@@ -376,19 +382,36 @@ export class ReportsService {
     const { row, snapshot } = await this.snapshotOf(actor, id);
     const name = this.fileStem(row, snapshot, scope);
     if (scope.kind === 'practice') this.assertInReport(snapshot, scope.practiceId, row);
+    const make = (stream: Writable) =>
+      writePack(
+        packSheets(row, snapshot, scope),
+        {
+          title: `${snapshot.identity.label} data pack`,
+          subject: `Content hash ${row.contentHash}`,
+          created: new Date(snapshot.identity.publishedAt),
+        },
+        stream,
+      );
     return {
       fileName: `${name}.xlsx`,
       contentType: XLSX,
-      write: (stream) =>
-        writePack(
-          packSheets(row, snapshot, scope),
-          {
-            title: `${snapshot.identity.label} data pack`,
-            subject: `Content hash ${row.contentHash}`,
-            created: new Date(snapshot.identity.publishedAt),
-          },
-          stream,
-        ),
+      // A practice's pack is the same bytes every time (pack-writer.ts): made once per process
+      // and kept by report and practice. The region's (thousands of practices) is streamed.
+      write:
+        scope.kind === 'region'
+          ? make
+          : async (stream) => {
+              const key = `${row.id}:${row.contentHash}:${scope.practiceId}`;
+              let bytes = this.practicePacks.get(key);
+              if (!bytes) {
+                bytes = await collect(make);
+                if (this.practicePacks.size >= PRACTICE_PACK_ENTRIES) {
+                  this.practicePacks.delete(this.practicePacks.keys().next().value!);
+                }
+                this.practicePacks.set(key, bytes);
+              }
+              await endWith(stream, bytes);
+            },
     };
   }
 
@@ -509,7 +532,23 @@ export class ReportsService {
       this.cache.delete(this.cache.keys().next().value!);
     }
     this.cache.set(id, entry);
+    if (!this.practiceLists.has(id)) this.practiceLists.set(id, practiceList(entry.snapshot));
     return entry;
+  }
+
+  /**
+   * The practices of a report (with results or not), by code: kept by report id apart from the
+   * snapshots, so that listing reports decodes each snapshot once per process, not per list.
+   */
+  private async practicesOf(row: ReportRow): Promise<PracticeDto[]> {
+    const kept = this.practiceLists.get(row.id);
+    if (kept) return kept;
+    const list = practiceList((await this.snapshot(row)).snapshot);
+    if (this.practiceLists.size >= PRACTICE_LIST_ENTRIES) {
+      this.practiceLists.delete(this.practiceLists.keys().next().value!);
+    }
+    this.practiceLists.set(row.id, list);
+    return list;
   }
 
   private async quarterLabel(actor: Pick<Actor, 'regionId'>, row: ReportRow): Promise<string> {
@@ -518,14 +557,10 @@ export class ReportsService {
 
   private async dto(actor: Actor, row: ReportRow): Promise<ReportDto> {
     const quarterLabel = await this.quarterLabel(actor, row);
-    const region = actor.role === 'regional_lead' || actor.role === 'auditor';
+    const region = mayReadRegion(actor);
     let practices: PracticeDto[] = [];
     if (row.status !== 'withdrawn') {
-      const { snapshot } = await this.snapshot(row);
-      const all = [
-        ...snapshot.practices.map((p) => p.practice),
-        ...(snapshot.region.splits[0]?.coverage.missing ?? []),
-      ].sort((a, b) => (a.code < b.code ? -1 : a.code > b.code ? 1 : 0));
+      const all = await this.practicesOf(row);
       practices = region ? all : all.filter((p) => actor.practiceIds.includes(p.id));
     }
     const replacedBy = row.replacedById ? await this.repository.get(row.replacedById) : null;
@@ -551,10 +586,7 @@ export class ReportsService {
           : null,
       permalink: `/reports/${row.id}`,
       practices,
-      actions: {
-        withdraw: actor.role === 'regional_lead' && row.status !== 'withdrawn',
-        region: region && row.status !== 'withdrawn',
-      },
+      actions: reportActions(actor, row.status),
     };
   }
 
@@ -612,9 +644,58 @@ const notFound = (id: number) =>
     `Your region has no report ${id}.`,
   );
 
-/** A practice's results as frozen in a report: nothing to act on. */
+/**
+ * A practice's results as frozen in a report: nothing to act on; every measure, breakdown,
+ * kidney grid and value histogram in the split the report shows (everyone). The region's part
+ * keeps all three splits of every practice's counts.
+ */
 function frozen(results: PracticeResultsDto): PracticeResultsDto {
-  return { ...results, actions: { upload: false, uploadPath: null } };
+  const everyone = <T extends { split: string }>(splits: T[]) =>
+    splits.filter((s) => s.split === 'all');
+  const detail = results.detail && {
+    ...results.detail,
+    measures: results.detail.measures.map((m) => ({ ...m, splits: everyone(m.splits) })),
+    kidney: { ...results.detail.kidney, splits: everyone(results.detail.kidney.splits) },
+    values: results.detail.values.map((v) => ({ ...v, splits: everyone(v.splits) })),
+  };
+  return {
+    ...results,
+    measures: results.measures.map((m) => ({ ...m, splits: everyone(m.splits) })),
+    detail,
+    actions: { upload: false, uploadPath: null },
+  };
+}
+
+/** The bytes a writer writes to a stream. */
+async function collect(write: (stream: Writable) => Promise<void>): Promise<Buffer> {
+  const sink = new PassThrough();
+  const chunks: Buffer[] = [];
+  sink.on('data', (chunk: Buffer) => chunks.push(chunk));
+  const ended = new Promise<void>((resolve, reject) => {
+    sink.on('end', resolve);
+    sink.on('error', reject);
+  });
+  await write(sink);
+  // exceljs ends the stream it was given once the workbook is written; end it if it did not.
+  if (!sink.writableEnded) sink.end();
+  await ended;
+  return Buffer.concat(chunks);
+}
+
+/** Writes `bytes` to a stream and ends it, once the stream has taken them. */
+async function endWith(stream: Writable, bytes: Buffer): Promise<void> {
+  await new Promise<void>((resolve, reject) => {
+    stream.once('error', reject);
+    stream.end(bytes, () => resolve());
+  });
+}
+
+/** Every practice of a report, with results or without, by code. */
+function practiceList(snapshot: ReportSnapshot): PracticeDto[] {
+  return [
+    ...snapshot.practices.map((p) => p.practice),
+    ...(snapshot.region.splits[0]?.coverage.missing ?? []),
+  ].sort((a, b) => (a.code < b.code ? -1 : a.code > b.code ? 1 : 0));
 }
 
 /** How a lead of this practice (and no other) reads its results: under disclosure control. */

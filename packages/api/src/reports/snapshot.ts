@@ -5,22 +5,30 @@
  * gzip; its identity is the SHA-256 of the canonical bytes, which include who
  * published it, when and the release note. Readers get the figures from these
  * bytes only, never from the quarter's current submissions.
+ *
+ * What is the same for every practice is stored once: a practice's peer
+ * tables (its own row in full, the others protected) are made on reading
+ * from the region's counts of every practice (`practicePeers`, by the same
+ * disclosure rule as at publishing), and a practice's results keep the split
+ * the report shows (everyone; the region's part holds all three). Format 1
+ * snapshots stored the peer tables per practice and are read as stored.
  */
 import { createHash } from 'node:crypto';
 import { gunzipSync, gzipSync } from 'node:zlib';
+import { canonicalJson } from '../measure-sets/canonical.js';
 import type {
   BenchmarkTrendDto,
   MeasureFunnelDto,
   RegionBenchmarkDto,
 } from '../benchmarks/dto/benchmark.dto.js';
 import type { PracticeResultsDto } from '../benchmarks/dto/practice-results.dto.js';
-import { canonicalJson } from '../measure-sets/canonical.js';
 import type { PracticeDto } from '../organisations/dto/practice.dto.js';
 import type { QuarterDto } from '../quarters/dto/quarter.dto.js';
 import type { DisclosedCellDto, PeerTableDto } from './dto/report.dto.js';
+import { type PeerCounts, practicePeerTable } from './peer-table.js';
 
 /** Bumped when the snapshot's shape changes; old snapshots keep their own. */
-export const SNAPSHOT_FORMAT = 1;
+export const SNAPSHOT_FORMAT = 2;
 
 export interface SnapshotIdentity {
   regionId: number;
@@ -40,8 +48,8 @@ export interface SnapshotPractice {
   submissionId: number;
   /** The practice's report as its own leads read it (region figures and peers under disclosure control) */
   results: PracticeResultsDto;
-  /** Each measure (everyone): this practice in full, the others protected */
-  peers: PeerTableDto[];
+  /** Format 1 only: each measure's peer table (format 2 makes them with `practicePeers`) */
+  peers?: PeerTableDto[];
 }
 
 export interface RegionBreakdownRow {
@@ -86,6 +94,32 @@ export const sha256Hex = (bytes: Buffer): string =>
 export function encodeSnapshot(snapshot: ReportSnapshot): EncodedSnapshot {
   const canonical = Buffer.from(canonicalJson(snapshot), 'utf8');
   return { canonical, stored: gzipSync(canonical), contentHash: sha256Hex(canonical) };
+}
+
+/**
+ * A practice's peer tables in a report, one per measure (everyone): the practice's own row in
+ * full, the other practices protected (peer-table.ts), from the region's counts frozen in the
+ * snapshot.
+ */
+export function practicePeers(snapshot: ReportSnapshot, practiceId: number): PeerTableDto[] {
+  const part = snapshot.practices.find((p) => p.practice.id === practiceId);
+  if (part?.peers) return part.peers;
+  const all = snapshot.region.splits[0];
+  if (!all || !part) return [];
+  return all.measures.map((m, i) => {
+    const counts: PeerCounts[] = all.practices.map((p) => ({
+      practice: p.practice,
+      events: p.cells[i]!.events,
+      n: p.cells[i]!.n,
+    }));
+    const own = counts.find((c) => c.practice.id === practiceId)!;
+    return practicePeerTable(
+      m.key,
+      'all',
+      own,
+      counts.filter((c) => c !== own),
+    );
+  });
 }
 
 /** The canonical bytes of a stored snapshot, checked against the hash published with it. */

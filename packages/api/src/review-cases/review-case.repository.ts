@@ -33,6 +33,11 @@ export interface CaseRow {
   opened_at: Date;
   updated_at: Date;
   closed_at: Date | null;
+  /** What the case was closed with before its last reopen (null when never reopened) */
+  previous_finding: Finding | null;
+  previous_closed_at: Date | null;
+  reopened_at: Date | null;
+  reopened_by_name: string | null;
 }
 
 export type EntryKind = 'opened' | 'question' | 'answer' | 'note' | 'state';
@@ -96,7 +101,7 @@ export interface CaseFilter {
 }
 
 const CASE_COLUMNS =
-  'id, region_id, practice_id, quarter_id, measure_key, split, status, version, title, evidence, finding, opened_by_user_id, opened_by_label, opened_at, updated_at, closed_at';
+  'id, region_id, practice_id, quarter_id, measure_key, split, status, version, title, evidence, finding, opened_by_user_id, opened_by_label, opened_at, updated_at, closed_at, previous_finding, previous_closed_at, reopened_at, reopened_by_name';
 
 const parseCase = (r: CaseRow): CaseRow => ({
   ...r,
@@ -209,7 +214,8 @@ export class ReviewCaseRepository {
 
   /**
    * Moves a case from the state and version read to `to` (and records a finding when closing).
-   * False when the case has changed since it was read: nothing is changed.
+   * Reopening keeps the finding and close time it leaves as the previous ones, with who reopened
+   * it (`reopenedBy`). False when the case has changed since it was read: nothing is changed.
    */
   async changeStatus(
     id: number,
@@ -217,14 +223,33 @@ export class ReviewCaseRepository {
     to: CaseStatus,
     finding: Finding | null,
     transaction: Transaction,
+    reopenedBy: string | null = null,
   ): Promise<boolean> {
+    // MariaDB assigns left to right: the previous close is copied before it is cleared.
+    const reopening = read.status === 'closed' && to !== 'closed';
     const [, affected] = await this.sequelize.query(
       `UPDATE review_cases
-          SET status = ?, version = version + 1, updated_at = NOW(3),
+          SET previous_finding = IF(?, finding, previous_finding),
+              previous_closed_at = IF(?, closed_at, previous_closed_at),
+              reopened_at = IF(?, NOW(3), reopened_at),
+              reopened_by_name = IF(?, ?, reopened_by_name),
+              status = ?, version = version + 1, updated_at = NOW(3),
               finding = ?, closed_at = IF(? = 'closed', NOW(3), NULL)
         WHERE id = ? AND version = ? AND status = ?`,
       {
-        replacements: [to, finding, to, id, read.version, read.status],
+        replacements: [
+          reopening,
+          reopening,
+          reopening,
+          reopening,
+          reopenedBy ?? '',
+          to,
+          finding,
+          to,
+          id,
+          read.version,
+          read.status,
+        ],
         type: QueryTypes.UPDATE,
         transaction,
       },

@@ -460,6 +460,7 @@ export class ReviewCasesService {
       to,
       finding,
       transaction,
+      actor.displayName,
     );
     if (!done) throw changed(row, await this.currentView(actor, row.id, transaction));
   }
@@ -551,6 +552,17 @@ export class ReviewCasesService {
       openedAt: iso(row.opened_at)!,
       updatedAt: iso(row.updated_at)!,
       closedAt: iso(row.closed_at),
+      reopened: row.reopened_at
+        ? {
+            at: iso(row.reopened_at)!,
+            by: row.reopened_by_name ?? '',
+            previousFinding: row.previous_finding,
+            previousFindingLabel: row.previous_finding
+              ? FINDING_LABELS[row.previous_finding]
+              : null,
+            previousClosedAt: iso(row.previous_closed_at),
+          }
+        : null,
     };
   }
 

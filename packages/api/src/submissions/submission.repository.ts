@@ -350,6 +350,29 @@ export class SubmissionRepository {
     }));
   }
 
+  /**
+   * Each quarter's current set as its key (SHA-256 hex of the sorted submission ids, comma
+   * separated: `submissionsKey` of the benchmark store), computed by MariaDB so that only the
+   * keys are sent. A quarter whose ids outgrow GROUP_CONCAT's limit gets no key (read the
+   * pointers instead); a quarter without current submissions is left out.
+   */
+  async currentSetKeys(quarterIds: readonly number[]): Promise<Map<number, string | null>> {
+    if (quarterIds.length === 0) return new Map();
+    const rows = await this.select<{ quarter_id: number; k: string; len: number; want: number }>(
+      `SELECT quarter_id,
+              SHA2(GROUP_CONCAT(current_submission_id ORDER BY current_submission_id SEPARATOR ','), 256) AS k,
+              LENGTH(GROUP_CONCAT(current_submission_id ORDER BY current_submission_id SEPARATOR ',')) AS len,
+              SUM(LENGTH(current_submission_id)) + COUNT(*) - 1 AS want
+         FROM practice_quarters
+        WHERE quarter_id IN (?) AND current_submission_id IS NOT NULL
+        GROUP BY quarter_id`,
+      [[...quarterIds]],
+    );
+    return new Map(
+      rows.map((r) => [Number(r.quarter_id), Number(r.len) === Number(r.want) ? r.k : null]),
+    );
+  }
+
   /** Facts of confirmed submissions that never change: records, when confirmed, issue counts. */
   confirmedFacts(ids: readonly number[]) {
     if (ids.length === 0) return Promise.resolve([]);

@@ -331,6 +331,15 @@ export class SubmissionsService {
   }
 
   /**
+   * The key of each quarter's current set (what `currentSets` would give, as the benchmark store
+   * keys it: SHA-256 hex of the sorted ids), without sending the pointers; null for a quarter
+   * whose key MariaDB cannot make, absent for one without current submissions.
+   */
+  currentSetKeys(quarterIds: readonly number[]): Promise<Map<number, string | null>> {
+    return this.submissions.currentSetKeys(quarterIds);
+  }
+
+  /**
    * The decoded sums of current submissions under a measure-set version, by submission id.
    * Sums missing or unreadable (an older database, another measure set) are computed again from
    * the submission's records and stored.

@@ -7,14 +7,18 @@ import { PracticeDto } from '../../organisations/dto/practice.dto.js';
 import { BreakdownDto, MeasureDto } from '../../measure-sets/dto/measure-set.dto.js';
 import { QuarterDto } from '../../quarters/dto/quarter.dto.js';
 import {
+  ChangeDto,
   DetailBreakdownDto,
   DetailCellDto,
-  PracticeSplitResultDto,
+  ImprovementDto,
+  OwnFiguresDto,
+  RegionFiguresDto,
   ValueHistogramDto,
 } from '../../benchmarks/dto/practice-results.dto.js';
 import {
   DataQualityCountDto,
   LocalityDto,
+  RateTrendDto,
   SplitQueryDto,
 } from '../../benchmarks/dto/results-common.dto.js';
 import { CaseEvidenceDto, EVIDENCE_ORIGINS } from './review-case.dto.js';
@@ -141,6 +145,30 @@ export class DrillBreakdownDto {
   @ApiProperty({ type: DetailBreakdownDto }) cells!: DetailBreakdownDto;
 }
 
+/** One diabetes type's figures of a drill-down: the practice results page's, without the peers. */
+export class DrillSplitDto {
+  @ApiProperty({ enum: TYPE_SPLITS, enumName: 'TypeSplit' }) split!: TypeSplit;
+  @ApiProperty({ type: OwnFiguresDto }) own!: OwnFiguresDto;
+  @ApiProperty({ type: RegionFiguresDto }) region!: RegionFiguresDto;
+  @ApiProperty({
+    type: ChangeDto,
+    nullable: true,
+    description: 'null when the previous quarter has no rate to compare',
+  })
+  change!: ChangeDto | null;
+  @ApiProperty({ type: ImprovementDto }) improvement!: ImprovementDto;
+  @ApiProperty({
+    type: RateTrendDto,
+    description: 'Every quarter of the region up to this one, with run-chart signals',
+  })
+  trend!: RateTrendDto;
+  @ApiProperty({
+    type: RateTrendDto,
+    description: 'The region’s pooled rate over the same quarters',
+  })
+  regionTrend!: RateTrendDto;
+}
+
 export class DrillDownDto {
   @ApiProperty({ type: PracticeDto }) practice!: PracticeDto;
   @ApiProperty({ type: QuarterDto }) quarter!: QuarterDto;
@@ -150,10 +178,10 @@ export class DrillDownDto {
   @ApiProperty({ type: CaseEvidenceDto, description: 'Its figures and why, in words' })
   evidence!: CaseEvidenceDto;
   @ApiProperty({
-    type: [PracticeSplitResultDto],
+    type: [DrillSplitDto],
     description: 'By diabetes type: all, type 1, type 2 and other (trend with run-chart signals)',
   })
-  splits!: PracticeSplitResultDto[];
+  splits!: DrillSplitDto[];
   @ApiProperty({
     type: [String],
     description: 'The quarters of each trend’s points, oldest first',

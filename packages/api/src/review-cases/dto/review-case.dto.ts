@@ -119,6 +119,21 @@ export class CaseSubjectMeasureDto {
   @ApiProperty({ type: String, description: 'The guideline behind it' }) source!: string;
 }
 
+export class CaseReopenedDto {
+  @ApiProperty({ type: String, description: 'When it was last reopened' }) at!: string;
+  @ApiProperty({ type: String, description: 'Who reopened it (a name)' }) by!: string;
+  @ApiProperty({
+    enum: FINDINGS,
+    enumName: 'CaseFinding',
+    nullable: true,
+    description: 'The finding it was closed with before that reopen',
+  })
+  previousFinding!: Finding | null;
+  @ApiProperty({ type: String, nullable: true }) previousFindingLabel!: string | null;
+  @ApiProperty({ type: String, nullable: true, description: 'When it was closed before that' })
+  previousClosedAt!: string | null;
+}
+
 export class ReviewCaseSummaryDto {
   @ApiProperty({ type: Number }) id!: number;
   @ApiProperty({ type: String }) title!: string;
@@ -140,6 +155,12 @@ export class ReviewCaseSummaryDto {
   @ApiProperty({ type: String }) openedAt!: string;
   @ApiProperty({ type: String }) updatedAt!: string;
   @ApiProperty({ type: String, nullable: true }) closedAt!: string | null;
+  @ApiProperty({
+    type: CaseReopenedDto,
+    nullable: true,
+    description: 'Set once the case has been reopened: the close it undid',
+  })
+  reopened!: CaseReopenedDto | null;
 }
 
 export class ReviewCaseDto extends ReviewCaseSummaryDto {

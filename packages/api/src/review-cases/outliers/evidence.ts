@@ -43,8 +43,16 @@ export function evidenceOf(
   const view = benchmarkPractice(basis.benchmark, code);
   const r = view.results.find((x) => x.measure.key === measureKey && x.split === split);
   if (!r) throw new RangeError(`measure ${measureKey} is not in this benchmark`);
-  const u = r.unit;
-  const context = measureContext(basis.benchmark, measureKey, split);
+  return evidenceOfUnit(basis, r.unit, measureContext(basis.benchmark, measureKey, split), choice);
+}
+
+/** The same for a unit already read (the outlier list's pass over a measure). */
+export function evidenceOfUnit(
+  basis: OutlierBasis,
+  u: UnitResult,
+  context: MeasureContext,
+  choice: OutlierChoice,
+): { evidence: CaseEvidenceDto; judgement: Judgement | null; unit: UnitResult } {
   // The widest net: a case may be opened on a notable result too.
   const judgement = judge(u, context, { ...choice, level: 'inner' });
   const reason = judgement

@@ -7,8 +7,9 @@
  * list depends on where the benchmark came from.
  */
 import { Inject, Injectable } from '@nestjs/common';
-import type { Benchmark } from '@cairn/metrics';
+import type { Benchmark, PracticeSums } from '@cairn/metrics';
 import { BenchmarkStore } from '../../benchmarks/benchmark-store.service.js';
+import { SubmissionsService } from '../../submissions/submissions.service.js';
 import type { QuarterDto } from '../../quarters/dto/quarter.dto.js';
 
 export type OutlierOrigin = 'draft' | 'report';
@@ -25,6 +26,8 @@ export interface OutlierBasis {
   measureSetId: string;
   builtAt: string;
   benchmark: Benchmark;
+  /** The region's merged sums (breakdowns and histograms against the region), when kept */
+  regionSums: PracticeSums | null;
   /** Practice code → the submission its figures come from */
   submissionOf: ReadonlyMap<string, number>;
 }
@@ -32,14 +35,78 @@ export interface OutlierBasis {
 export interface OutlierSource {
   basisOf(quarter: QuarterDto): Promise<OutlierBasis | null>;
   basesOf(quarters: readonly QuarterDto[]): Promise<Map<number, OutlierBasis | null>>;
+  /**
+   * What each quarter's basis would be built from, cheaply, without reading it: equal keys mean
+   * equal bases. `none` for a quarter without a basis; null when it cannot be told (read the
+   * basis then).
+   */
+  keysOf(quarters: readonly QuarterDto[]): Promise<Map<number, string | null>>;
 }
 
 export const OUTLIER_SOURCE = Symbol('OutlierSource');
 
+/**
+ * Reads shared by callers that come while one is running, without ever handing a caller a read
+ * that began before it came: a caller arriving during a read waits for the next one, which
+ * starts when the running one ends and serves everyone who came meanwhile. At most one read
+ * runs and one waits per key, however many callers.
+ */
+export class FreshReads<V> {
+  private readonly running = new Map<string, Promise<V>>();
+  private readonly waiting = new Map<string, Promise<V>>();
+
+  read(key: string, fn: () => Promise<V>): Promise<V> {
+    const queued = this.waiting.get(key);
+    if (queued) return queued;
+    const start = (): Promise<V> => {
+      const p = fn().finally(() => {
+        if (this.running.get(key) === p) this.running.delete(key);
+      });
+      this.running.set(key, p);
+      return p;
+    };
+    const current = this.running.get(key);
+    if (!current) return start();
+    const next = current
+      .catch(() => undefined)
+      .then(() => {
+        this.waiting.delete(key);
+        return start();
+      });
+    this.waiting.set(key, next);
+    return next;
+  }
+}
+
 /** The draft benchmark of each quarter: the stored result of its current submissions. */
 @Injectable()
 export class DraftBenchmarkSource implements OutlierSource {
-  constructor(@Inject(BenchmarkStore) private readonly store: BenchmarkStore) {}
+  constructor(
+    @Inject(BenchmarkStore) private readonly store: BenchmarkStore,
+    @Inject(SubmissionsService) private readonly submissions: SubmissionsService,
+  ) {}
+
+  private readonly keyReads = new FreshReads<Map<number, string | null>>();
+
+  /**
+   * The quarter's current set (its key, made by MariaDB) under the quarter's measure set.
+   * Requests at once share reads (`FreshReads`): never one that began before they came.
+   */
+  async keysOf(quarters: readonly QuarterDto[]): Promise<Map<number, string | null>> {
+    const ids = quarters.map((q) => q.id);
+    const keys = await this.keyReads.read(ids.join(','), () =>
+      this.submissions.currentSetKeys(ids),
+    );
+    return new Map(
+      quarters.map((q) => {
+        const key = keys.get(q.id);
+        return [
+          q.id,
+          key === undefined ? 'none' : key === null ? null : `draft/${q.measureSetId}/${key}`,
+        ];
+      }),
+    );
+  }
 
   async basisOf(quarter: QuarterDto): Promise<OutlierBasis | null> {
     const result = await this.store.resultOf(quarter);
@@ -61,6 +128,7 @@ export class DraftBenchmarkSource implements OutlierSource {
       measureSetId: r.version.id,
       builtAt: r.builtAt,
       benchmark: r.benchmark,
+      regionSums: r.regionSums,
       submissionOf: r.submissionOf,
     };
   }

@@ -11,19 +11,30 @@
  */
 import type { Writable } from 'node:stream';
 import { HttpStatus, Inject, Injectable } from '@nestjs/common';
-import { benchmarkMeasure, benchmarkTable, type TypeSplit } from '@cairn/metrics';
+import {
+  bandOfCode,
+  benchmarkMeasure,
+  benchmarkPractice,
+  benchmarkTable,
+  type TypeSplit,
+  type UnitResult,
+} from '@cairn/metrics';
 import ExcelJS from 'exceljs';
 import { neutralise } from '../../common/neutralise.js';
 import { SubmissionsService } from '../../submissions/submissions.service.js';
 import type { Actor } from '../../auth/actor.js';
-import { PracticeResultsService } from '../../benchmarks/practice-results.service.js';
+import { quartersUpTo } from '../../benchmarks/benchmarks.service.js';
 import { ProblemException } from '../../common/problem.js';
 import type { MeasureView } from '../../measure-sets/describe.js';
 import { toMeasureDto } from '../../measure-sets/measure-set-views.js';
-import { MeasureSetsService } from '../../measure-sets/measure-sets.service.js';
+import {
+  type MeasureSetVersion,
+  MeasureSetsService,
+} from '../../measure-sets/measure-sets.service.js';
 import {
   CLINICAL_CAUTION,
   OrganisationsService,
+  type PracticeInfo,
 } from '../../organisations/organisations.service.js';
 import type { QuarterDto } from '../../quarters/dto/quarter.dto.js';
 import { QuartersService } from '../../quarters/quarters.service.js';
@@ -38,12 +49,19 @@ import type {
 } from '../dto/outliers.dto.js';
 import { mayOpen } from '../review-case-policy.js';
 import { caseSubjectKey, ReviewCaseRepository } from '../review-case.repository.js';
+import { drillDetail, type DrillQuarter, drillSplits } from './drill-figures.js';
 import { DrillRecords, outcomeWords } from './drill-records.js';
-import { evidenceOf, measureContext } from './evidence.js';
-import { flaggedLike, judge, reasonInWords } from './outlier-rule.js';
+import { evidenceOf, evidenceOfUnit, measureContext } from './evidence.js';
+import {
+  flaggedLike,
+  judge,
+  type Judgement,
+  type MeasureContext,
+  reasonInWords,
+} from './outlier-rule.js';
 import { OUTLIER_SOURCE, type OutlierBasis, type OutlierSource } from './outlier-source.js';
 
-/** The value histogram shown for a measure: by words in its key, HbA1c otherwise. */
+/** The value histogram shown for a measure: by words in its key (none when no value fits). */
 const HISTOGRAM_OF: [RegExp, string][] = [
   [/hba1c/, 'hba1c'],
   [/blood_pressure|bp_|systolic/, 'systolic'],
@@ -77,13 +95,13 @@ export class OutliersService {
     @Inject(MeasureSetsService) private readonly measureSets: MeasureSetsService,
     @Inject(OrganisationsService) private readonly organisations: OrganisationsService,
     @Inject(ReviewCaseRepository) private readonly cases: ReviewCaseRepository,
-    @Inject(PracticeResultsService) private readonly results: PracticeResultsService,
     @Inject(SubmissionsService) private readonly submissions: SubmissionsService,
   ) {
     this.drillRecords = new DrillRecords(submissions);
   }
 
   private readonly drillRecords: DrillRecords;
+  private readonly drills = new Map<string, FixedDrill>();
 
   async list(actor: Actor, quarterId: number, query: OutlierQueryDto): Promise<OutlierListDto> {
     const quarter = await this.quarters.get(actor, quarterId);
@@ -125,48 +143,96 @@ export class OutliersService {
       return { ...base, state: 'no-accepted-submissions', basis: null, rows: [], practices: 0 };
     }
     const b = basis.benchmark;
-    const practices = new Map(
-      (await this.organisations.regionPractices(quarter.regionId)).map((p) => [p.code, p]),
-    );
     const choice = { level, caseMix };
-    const open = await this.cases.unclosedOf(quarter.id);
-    const rows: OutlierRowDto[] = [];
+    // One pass per measure over the stored result's units; practices are read for those listed.
+    const found: { u: UnitResult; m: MeasureView; j: Judgement; context: MeasureContext }[] = [];
+    const wantLocality = query.locality === undefined ? -1 : b.localities.indexOf(query.locality);
+    const practiceIndex = new Map(b.practices.map((code, i) => [code, i]));
     const measures = version.measures.filter(
       (m) => query.measure === undefined || m.key === query.measure,
     );
+    // Without case mix the stored flags (adjusted limits) say which units can be listed: only
+    // those are read in full (a practice's every measure at once), when they are few enough for
+    // that to be cheaper than reading each measure's every unit. With case mix every unit's
+    // adjusted rate is judged.
+    const flagged = caseMix ? null : benchmarkTable(b, split);
+    const few =
+      flagged !== null &&
+      new Set(
+        flagged.units
+          .filter((t) => t.adjusted.some((code) => mayBeListed(code, level)))
+          .map((t) => t.code),
+      ).size *
+        b.measures.length *
+        3 <
+        measures.length * b.practices.length;
+    const table = few ? flagged : null;
+    const views = new Map<string, ReturnType<typeof benchmarkPractice>>();
+    const unitOf = (code: string, key: string): UnitResult => {
+      let view = views.get(code);
+      if (!view) views.set(code, (view = benchmarkPractice(b, code)));
+      return view.results.find((r) => r.measure.key === key && r.split === split)!.unit;
+    };
     for (const m of measures) {
       if (!b.measures.some((x) => x.key === m.key)) continue;
       const context = measureContext(b, m.key, split);
-      const units = benchmarkMeasure(b, m.key, split).units;
+      const mi = table ? table.measures.indexOf(m.key) : -1;
+      const units = table
+        ? table.units
+            .filter((t) => mayBeListed(t.adjusted[mi] ?? 0, level))
+            .map((t) => unitOf(t.code, m.key))
+        : benchmarkMeasure(b, m.key, split).units;
       for (const u of units) {
         const j = judge(u, context, choice);
         if (!j) continue;
         if (query.assessment !== undefined && j.assessment !== query.assessment) continue;
-        const practice = practices.get(u.code);
-        if (!practice) continue;
-        if (query.locality !== undefined && practice.localityCode !== query.locality) continue;
-        const { evidence } = evidenceOf(basis, u.code, m.key, split, choice);
-        evidence.reason = reasonInWords(u, j, context, choice);
-        rows.push({
-          practice: {
-            id: practice.id,
-            code: practice.code,
-            name: practice.name,
-            localityName: practice.localityName,
-          },
-          localityCode: practice.localityCode,
-          measure: measureRef(m),
-          band: j.band,
-          side: j.side,
-          assessment: j.assessment,
-          rate: j.rate,
-          limit: j.limit,
-          z: j.z,
-          evidence,
-          flaggedQuarters: 1,
-          openCase: open.get(caseSubjectKey(practice.id, m.key, split)) ?? null,
-        });
+        if (
+          query.locality !== undefined &&
+          b.practiceLocality[practiceIndex.get(u.code) ?? -1] !== wantLocality
+        )
+          continue;
+        found.push({ u, m, j, context });
       }
+    }
+    const practices = new Map(
+      (
+        await this.organisations.practicesByCode(
+          quarter.regionId,
+          found.map((f) => f.u.code),
+        )
+      ).map((p) => [p.code, p]),
+    );
+    const localityOf = (code: string) => {
+      const l = b.practiceLocality[practiceIndex.get(code) ?? -1] ?? -1;
+      return l < 0 ? null : (localities.find((x) => x.code === b.localities[l]) ?? null);
+    };
+    const open = await this.cases.unclosedOf(quarter.id);
+    const rows: OutlierRowDto[] = [];
+    for (const { u, m, j, context } of found) {
+      const practice = practices.get(u.code);
+      if (!practice) continue;
+      const locality = localityOf(u.code);
+      const { evidence } = evidenceOfUnit(basis, u, context, choice);
+      evidence.reason = reasonInWords(u, j, context, choice);
+      rows.push({
+        practice: {
+          id: practice.id,
+          code: practice.code,
+          name: practice.name,
+          localityName: locality?.name ?? null,
+        },
+        localityCode: locality?.code ?? null,
+        measure: measureRef(m),
+        band: j.band,
+        side: j.side,
+        assessment: j.assessment,
+        rate: j.rate,
+        limit: j.limit,
+        z: j.z,
+        evidence,
+        flaggedQuarters: 1,
+        openCase: open.get(caseSubjectKey(practice.id, m.key, split)) ?? null,
+      });
     }
     rows.sort(
       (x, y) => Math.abs(y.z) - Math.abs(x.z) || (x.practice.code < y.practice.code ? -1 : 1),
@@ -219,34 +285,12 @@ export class OutliersService {
   private async subject(actor: Actor, quarterId: number, practiceId: number, measureKey: string) {
     const quarter = await this.quarters.get(actor, quarterId);
     const version = await this.measureSets.get(quarter.measureSetId);
-    const measure = version.measures.find((m) => m.key === measureKey);
-    if (!measure) {
-      throw new ProblemException(
-        HttpStatus.NOT_FOUND,
-        'measure-not-found',
-        'No such measure',
-        `The measure set of ${quarter.label} (${version.id}) has no measure "${measureKey}". Its measures are: ${version.measures.map((m) => m.key).join(', ')}.`,
-      );
-    }
+    const measure = measureOf(quarter, version, measureKey);
     const practice = await this.organisations.practice(practiceId);
-    if (!practice || practice.regionId !== actor.regionId) {
-      throw new ProblemException(
-        HttpStatus.NOT_FOUND,
-        'practice-not-found',
-        'No such practice',
-        `There is no practice ${practiceId} in your region.`,
-      );
-    }
+    if (!practice || practice.regionId !== actor.regionId) throw practiceNotFound(practiceId);
     const basis = await this.source.basisOf(quarter);
     const submissionId = basis?.submissionOf.get(practice.code);
-    if (!basis || submissionId === undefined) {
-      throw new ProblemException(
-        HttpStatus.NOT_FOUND,
-        'no-current-submission',
-        'No figures for this practice',
-        `${practice.name} (${practice.code}) has no current submission for ${quarter.label}: there is nothing to drill into.`,
-      );
-    }
+    if (!basis || submissionId === undefined) throw noSubmission(practice, quarter);
     const submission = { id: submissionId, practiceCode: practice.code };
     return { quarter, version, measure, practice, basis, submission };
   }
@@ -424,28 +468,32 @@ export class OutliersService {
     measureKey: string,
     split: TypeSplit,
   ): Promise<DrillDownDto> {
-    const { quarter, measure, practice, basis } = await this.subject(
-      actor,
-      quarterId,
-      practiceId,
-      measureKey,
-    );
-    const results = await this.results.results(actor, practiceId, quarterId);
-    const { evidence } = evidenceOf(basis, practice.code, measure.key, split, {
-      level: 'inner',
-      caseMix: false,
-    });
-    const own = results.measures.find((m) => m.measure.key === measure.key);
-    const detail = results.detail;
-    const detailSplit = detail?.measures
-      .find((m) => m.measure === measure.key)
-      ?.splits.find((s) => s.split === split);
-    const histogramKey = HISTOGRAM_OF.find(([re]) => re.test(measure.key))?.[1] ?? 'hba1c';
-    const histogram = detail?.values.find((v) => v.key === histogramKey) ?? null;
+    const quarter = await this.quarters.get(actor, quarterId);
+    const version = await this.measureSets.get(quarter.measureSetId);
+    const measure = measureOf(quarter, version, measureKey);
+    const practice = await this.organisations.practice(practiceId);
+    if (!practice || practice.regionId !== actor.regionId) throw practiceNotFound(practiceId);
+    const series = quartersUpTo(await this.quarters.list(quarter.regionId), quarter);
+    // What the answer would be built from, without reading it: the quarters' sets, by key.
+    const keys = await this.source.keysOf(series);
+    const known = series.every((q) => keys.get(q.id) !== null);
+    const wanted = known ? drillKey(practice.id, measure.key, split, series, keys) : null;
+    let fixed = wanted === null ? undefined : this.drills.get(wanted);
+    if (fixed) {
+      // Most recently used last.
+      this.drills.delete(wanted!);
+      this.drills.set(wanted!, fixed);
+    } else {
+      const built = await this.buildDrill(quarter, version, measure, practice, split, series);
+      fixed = built.fixed;
+      if (this.drills.size >= DRILL_CACHE) this.drills.delete(this.drills.keys().next().value!);
+      this.drills.set(built.key, fixed);
+    }
     const open = [...(await this.cases.unclosedOf(quarter.id))]
       .filter(([key]) => key.startsWith(`${practice.id}/${measure.key}/`))
       .map(([, c]) => c);
     return {
+      ...fixed,
       practice: {
         id: practice.id,
         code: practice.code,
@@ -453,22 +501,132 @@ export class OutliersService {
         localityName: practice.localityName,
       },
       quarter,
-      measure: toMeasureDto(measure),
-      split,
-      basis: basisDto(basis),
-      evidence,
-      splits: own?.splits ?? [],
-      trendQuarters: results.quarters.map((q) => q.quarterLabel),
-      everyone: detailSplit?.everyone ?? null,
-      breakdowns: (detail?.breakdowns ?? []).flatMap((breakdown) => {
-        const cells = detailSplit?.breakdowns.find((x) => x.breakdown === breakdown.key);
-        return cells ? [{ breakdown, cells }] : [];
-      }),
-      histogram,
-      dataQuality: results.dataQuality,
       openCases: open,
       mayOpenCase: mayOpen(actor),
       caution: CLINICAL_CAUTION,
     };
   }
+
+  /**
+   * The part of a drill-down that depends only on the stored results it is read from (this
+   * quarter's and the earlier ones' of the trend), the practice, measure and split: kept by
+   * that key (results never change), so any process builds the same.
+   */
+  private async buildDrill(
+    quarter: QuarterDto,
+    version: MeasureSetVersion,
+    measure: MeasureView,
+    practice: PracticeInfo,
+    split: TypeSplit,
+    series: QuarterDto[],
+  ): Promise<{ key: string; fixed: FixedDrill }> {
+    const bases = await this.source.basesOf(series);
+    const basis = bases.get(quarter.id) ?? null;
+    const submissionId = basis?.submissionOf.get(practice.code);
+    if (!basis || submissionId === undefined) throw noSubmission(practice, quarter);
+    const drillSeries: DrillQuarter[] = [];
+    for (const q of series) {
+      const v = await this.measureSets.get(q.measureSetId);
+      drillSeries.push({
+        quarter: q,
+        benchmark: bases.get(q.id)?.benchmark ?? null,
+        measureKeys: new Set(v.measures.map((m) => m.key)),
+      });
+    }
+    const { evidence } = evidenceOf(basis, practice.code, measure.key, split, {
+      level: 'inner',
+      caseMix: false,
+    });
+    const at = { year: quarter.year, quarter: quarter.quarter };
+    const sums = (
+      await this.submissions.sumsOfCurrent(
+        [{ submissionId, practiceCode: practice.code, records: 0 }],
+        version,
+        at,
+      )
+    ).get(submissionId);
+    // The values the measure reads; none for a measure without a value of its own (smoking).
+    const histogramKey = HISTOGRAM_OF.find(([re]) => re.test(measure.key))?.[1] ?? null;
+    const detail =
+      sums && basis.regionSums
+        ? drillDetail(sums, basis.regionSums, version, measure.key, split, histogramKey)
+        : { everyone: null, breakdowns: [], histogram: null };
+    const facts = (await this.submissions.confirmedFacts([submissionId])).get(submissionId);
+    const keys = new Map(
+      series.map((q) => {
+        const b = bases.get(q.id);
+        return [q.id, b ? `${b.origin}/${b.measureSetId}/${b.key}` : 'none'];
+      }),
+    );
+    return {
+      key: drillKey(practice.id, measure.key, split, series, keys),
+      fixed: {
+        measure: toMeasureDto(measure),
+        split,
+        basis: basisDto(basis),
+        evidence,
+        splits: drillSplits(measure, practice.code, drillSeries),
+        trendQuarters: series.map((q) => q.label),
+        ...detail,
+        dataQuality: facts?.dataQuality ?? [],
+      },
+    };
+  }
+}
+
+/** Whether a stored flag code (adjusted limits) lies beyond the chosen level on either side. */
+function mayBeListed(code: number, level: 'outer' | 'inner'): boolean {
+  if (code < 2) return false;
+  const { band } = bandOfCode(code as 2 | 3 | 4 | 5);
+  return band === 'outlier' || level === 'inner';
+}
+
+/** The part of a drill-down kept by what it was built from. */
+type FixedDrill = Omit<
+  DrillDownDto,
+  'practice' | 'quarter' | 'openCases' | 'mayOpenCase' | 'caution'
+>;
+
+/** Finished drill-downs kept in each process, at most. */
+const DRILL_CACHE = 512;
+
+function drillKey(
+  practiceId: number,
+  measureKey: string,
+  split: TypeSplit,
+  series: readonly QuarterDto[],
+  keys: ReadonlyMap<number, string | null>,
+): string {
+  return `${practiceId}/${measureKey}/${split}/${series.map((q) => `${q.id}:${keys.get(q.id)}`).join(',')}`;
+}
+
+function measureOf(quarter: QuarterDto, version: MeasureSetVersion, measureKey: string) {
+  const measure = version.measures.find((m) => m.key === measureKey);
+  if (!measure) {
+    throw new ProblemException(
+      HttpStatus.NOT_FOUND,
+      'measure-not-found',
+      'No such measure',
+      `The measure set of ${quarter.label} (${version.id}) has no measure "${measureKey}". Its measures are: ${version.measures.map((m) => m.key).join(', ')}.`,
+    );
+  }
+  return measure;
+}
+
+function practiceNotFound(practiceId: number): ProblemException {
+  return new ProblemException(
+    HttpStatus.NOT_FOUND,
+    'practice-not-found',
+    'No such practice',
+    `There is no practice ${practiceId} in your region.`,
+  );
+}
+
+function noSubmission(practice: PracticeInfo, quarter: QuarterDto): ProblemException {
+  return new ProblemException(
+    HttpStatus.NOT_FOUND,
+    'no-current-submission',
+    'No figures for this practice',
+    `${practice.name} (${practice.code}) has no current submission for ${quarter.label}: there is nothing to drill into.`,
+  );
 }

@@ -3679,6 +3679,18 @@ export interface components {
       mayOpenCases: boolean;
       caution: string;
     };
+    DrillSplitDto: {
+      split: components['schemas']['TypeSplit'];
+      own: components['schemas']['OwnFiguresDto'];
+      region: components['schemas']['RegionFiguresDto'];
+      /** @description null when the previous quarter has no rate to compare */
+      change: components['schemas']['ChangeDto'] | null;
+      improvement: components['schemas']['ImprovementDto'];
+      /** @description Every quarter of the region up to this one, with run-chart signals */
+      trend: components['schemas']['RateTrendDto'];
+      /** @description The region’s pooled rate over the same quarters */
+      regionTrend: components['schemas']['RateTrendDto'];
+    };
     DrillBreakdownDto: {
       breakdown: components['schemas']['BreakdownDto'];
       cells: components['schemas']['DetailBreakdownDto'];
@@ -3692,7 +3704,7 @@ export interface components {
       /** @description Its figures and why, in words */
       evidence: components['schemas']['CaseEvidenceDto'];
       /** @description By diabetes type: all, type 1, type 2 and other (trend with run-chart signals) */
-      splits: components['schemas']['PracticeSplitResultDto'][];
+      splits: components['schemas']['DrillSplitDto'][];
       /** @description The quarters of each trend’s points, oldest first */
       trendQuarters: string[];
       everyone: components['schemas']['DetailCellDto'] | null;
@@ -3745,6 +3757,17 @@ export interface components {
       | 'genuine_variation_improving'
       | 'genuine_variation_action_agreed'
       | 'no_concern';
+    CaseReopenedDto: {
+      /** @description When it was last reopened */
+      at: string;
+      /** @description Who reopened it (a name) */
+      by: string;
+      /** @description The finding it was closed with before that reopen */
+      previousFinding: components['schemas']['CaseFinding'] | null;
+      previousFindingLabel: string | null;
+      /** @description When it was closed before that */
+      previousClosedAt: string | null;
+    };
     ReviewCaseSummaryDto: {
       id: number;
       title: string;
@@ -3763,6 +3786,8 @@ export interface components {
       openedAt: string;
       updatedAt: string;
       closedAt: string | null;
+      /** @description Set once the case has been reopened: the close it undid */
+      reopened: components['schemas']['CaseReopenedDto'] | null;
     };
     FindingOptionDto: {
       key: components['schemas']['CaseFinding'];
@@ -3851,6 +3876,8 @@ export interface components {
       openedAt: string;
       updatedAt: string;
       closedAt: string | null;
+      /** @description Set once the case has been reopened: the close it undid */
+      reopened: components['schemas']['CaseReopenedDto'] | null;
       /** @description The figures that prompted it, frozen */
       evidence: components['schemas']['CaseEvidenceDto'];
       actions: components['schemas']['CaseActionsDto'];

@@ -164,6 +164,7 @@ export type OutlierRow = Schemas['OutlierRowDto'];
 export type OutlierLevel = Schemas['OutlierLevel'];
 export type OutlierAssessment = Schemas['OutlierAssessment'];
 export type DrillDown = Schemas['DrillDownDto'];
+export type DrillRecordPage = Schemas['DrillRecordPageDto'];
 export type ReviewCase = Schemas['ReviewCaseDto'];
 export type ReviewCaseSummary = Schemas['ReviewCaseSummaryDto'];
 export type ReviewCaseList = Schemas['ReviewCaseListDto'];

@@ -26,6 +26,7 @@ import type {
 import { formatCount, formatDateTime, formatPercent } from '../../../lib/format';
 import { usePageTitle } from '../../../lib/page-title';
 import { useBenchmarkQuarters, useFunnel, useRegionBenchmark } from '../api/benchmark';
+import { PublishReport } from '../components/PublishReport';
 import { PracticeTable } from '../components/PracticeTable';
 import { RegionTrend } from '../components/RegionTrend';
 import { type SortKey, sortRows, tableCsv, tableRows } from '../components/table-rows';
@@ -125,6 +126,10 @@ function RegionBenchmarkScreen() {
             ]}
           />
         </FormGroup>
+        <PublishReport
+          quarterId={quarterId}
+          quarterLabel={data?.quarter.label ?? quarter?.label ?? null}
+        />
       </div>
       {quarters.isPending || benchmark.isPending ? (
         <Spinner size={24} aria-label="Reading the benchmark" />

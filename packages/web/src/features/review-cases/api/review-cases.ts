@@ -9,6 +9,7 @@ import type {
   CaseComment,
   CaseTransition,
   DrillDown,
+  DrillRecordPage,
   OpenCase,
   OutlierList,
   Quarter,
@@ -29,6 +30,8 @@ export const reviewKeys = {
   outliers: (quarterId: number, f: OutlierFilters) => ['review', 'outliers', quarterId, f] as const,
   drill: (quarterId: number, practiceId: number, measure: string, split: string) =>
     ['review', 'drill', quarterId, practiceId, measure, split] as const,
+  records: (quarterId: number, practiceId: number, measure: string, page: number) =>
+    ['review', 'records', quarterId, practiceId, measure, page] as const,
   cases: () => ['review', 'cases'] as const,
   case: (id: number) => ['review', 'cases', id] as const,
 };
@@ -64,6 +67,26 @@ export const drillQueryOptions = (
     queryFn: () =>
       apiFetch<DrillDown>(
         `/api/quarters/${quarterId}/outliers/practices/${practiceId}/measures/${encodeURIComponent(measure)}?split=${split}`,
+      ),
+  });
+
+/** Where the drill-down of a practice × measure and its downloads live. */
+export const drillPath = (quarterId: number, practiceId: number, measure: string) =>
+  `/api/quarters/${quarterId}/outliers/practices/${practiceId}/measures/${encodeURIComponent(measure)}`;
+
+export const RECORDS_PAGE_SIZE = 25;
+
+export const recordsQueryOptions = (
+  quarterId: number,
+  practiceId: number,
+  measure: string,
+  page: number,
+) =>
+  queryOptions({
+    queryKey: reviewKeys.records(quarterId, practiceId, measure, page),
+    queryFn: () =>
+      apiFetch<DrillRecordPage>(
+        `${drillPath(quarterId, practiceId, measure)}/records?page=${page}&pageSize=${RECORDS_PAGE_SIZE}`,
       ),
   });
 

@@ -1,5 +1,6 @@
 import { Button, H1, HTMLTable, Spinner, Tag } from '@blueprintjs/core';
-import { useQuery } from '@tanstack/react-query';
+import { keepPreviousData, useQuery } from '@tanstack/react-query';
+import { useState } from 'react';
 import { Link, useNavigate, useParams } from 'react-router-dom';
 import { ClinicalCaution } from '../../../components/ClinicalCaution';
 import { EmptyState } from '../../../components/Notice';
@@ -8,7 +9,13 @@ import { RequireRole } from '../../../components/RequireRole';
 import type { DrillDown as DrillDownData } from '../../../lib/api/types';
 import { formatPercent } from '../../../lib/format';
 import { usePageTitle } from '../../../lib/page-title';
-import { drillQueryOptions, useOpenCase } from '../api/review-cases';
+import {
+  drillPath,
+  drillQueryOptions,
+  RECORDS_PAGE_SIZE,
+  recordsQueryOptions,
+  useOpenCase,
+} from '../api/review-cases';
 import {
   ChartOrTable,
   HistogramChart,
@@ -65,11 +72,21 @@ function DrillDownScreen() {
       <section className="cairn-review-section">
         <h2>Why it stands out</h2>
         <p>{d.evidence.reason}</p>
+        <p>
+          <a
+            href={`${drillPath(d.quarter.id, d.practice.id, d.measure.key)}/evidence.xlsx`}
+            download
+          >
+            Download the evidence (XLSX: figures, breakdowns, trend, data-quality flags and the
+            records, pseudonyms only)
+          </a>
+        </p>
       </section>
       <ByType d={d} />
       <Breakdowns d={d} />
       <Histogram d={d} />
       <Trend d={d} />
+      <Records d={d} />
       <section className="cairn-review-section">
         <h2>Data-quality flags of its current submission</h2>
         {d.dataQuality.filter((f) => f.count > 0).length === 0 ? (
@@ -87,6 +104,98 @@ function DrillDownScreen() {
         )}
       </section>
     </div>
+  );
+}
+
+const TYPE_WORDS: Record<string, string> = {
+  type1: 'Type 1',
+  type2: 'Type 2',
+  other: 'Other',
+  unknown: 'Not recorded',
+};
+
+const OUTCOME_WORDS: Record<string, string> = {
+  met: 'met',
+  not_met: 'not met',
+  unknown: 'not recorded',
+};
+
+/** The records behind the result, a page at a time, under pseudonyms only. */
+function Records({ d }: { d: DrillDownData }) {
+  const [page, setPage] = useState(1);
+  const records = useQuery({
+    ...recordsQueryOptions(d.quarter.id, d.practice.id, d.measure.key, page),
+    placeholderData: keepPreviousData,
+  });
+  const r = records.data;
+  const pages = r ? Math.max(1, Math.ceil(r.total / r.pageSize)) : 1;
+  const first = r && r.total > 0 ? (r.page - 1) * r.pageSize + 1 : 0;
+  const last = r ? Math.min(r.total, r.page * r.pageSize) : 0;
+  return (
+    <section className="cairn-review-section" aria-labelledby="drill-records">
+      <h2 id="drill-records">The records behind it</h2>
+      <p className="cairn-muted">
+        Records in the measure’s denominator, shown under pseudonyms only (never the practice’s own
+        references).
+      </p>
+      <ProblemCallout error={records.error} />
+      {records.isPending ? <Spinner size={20} aria-label="Loading the records" /> : null}
+      {r && r.total === 0 ? <p>No record is in this measure’s denominator.</p> : null}
+      {r && r.total > 0 ? (
+        <>
+          <p aria-live="polite">
+            Records {first}–{last} of {r.total}
+          </p>
+          <HTMLTable compact striped className="cairn-review-table">
+            <thead>
+              <tr>
+                <th scope="col">Pseudonym</th>
+                <th scope="col">Age</th>
+                <th scope="col">Sex</th>
+                <th scope="col">Diabetes type</th>
+                <th scope="col">Deprivation quintile</th>
+                <th scope="col">Outcome</th>
+                <th scope="col">Readings</th>
+              </tr>
+            </thead>
+            <tbody>
+              {r.records.map((x) => (
+                <tr key={x.pseudonym}>
+                  <th scope="row">{x.pseudonym}</th>
+                  <td>{x.age}</td>
+                  <td>{x.sex}</td>
+                  <td>{TYPE_WORDS[x.diabetesType] ?? x.diabetesType}</td>
+                  <td>{x.deprivationQuintile ?? '—'}</td>
+                  <td>{OUTCOME_WORDS[x.outcome] ?? x.outcome}</td>
+                  <td className="cairn-small">{x.readings}</td>
+                </tr>
+              ))}
+            </tbody>
+          </HTMLTable>
+          <div className="cairn-review-pager">
+            <Button
+              small
+              icon="chevron-left"
+              disabled={page <= 1}
+              onClick={() => setPage(page - 1)}
+            >
+              Previous {RECORDS_PAGE_SIZE}
+            </Button>{' '}
+            <span>
+              Page {r.page} of {pages}
+            </span>{' '}
+            <Button
+              small
+              rightIcon="chevron-right"
+              disabled={page >= pages}
+              onClick={() => setPage(page + 1)}
+            >
+              Next {RECORDS_PAGE_SIZE}
+            </Button>
+          </div>
+        </>
+      ) : null}
+    </section>
   );
 }
 

@@ -13,6 +13,7 @@ import {
 import { useState } from 'react';
 import { Link, useParams } from 'react-router-dom';
 import { ClinicalCaution } from '../../../components/ClinicalCaution';
+import { Notice } from '../../../components/Notice';
 import { ProblemCallout } from '../../../components/ProblemCallout';
 import { RequireRole } from '../../../components/RequireRole';
 import { roleValues, type CaseFinding, type ReviewCase as Case } from '../../../lib/api/types';
@@ -68,6 +69,7 @@ function ReviewCaseScreen() {
           {d.findingLabel ? <Tag intent="primary">{d.findingLabel}</Tag> : null}
         </div>
       </div>
+      {d.reopened ? <ReopenedNotice c={d} /> : null}
       <ClinicalCaution compact />
       <section className="cairn-review-section">
         <h2>The figures that prompted it (as they were on {formatDateTime(d.openedAt)})</h2>
@@ -104,6 +106,31 @@ function ReviewCaseScreen() {
       <Timeline c={d} />
       <Actions c={d} />
     </div>
+  );
+}
+
+/** A reopened case says so, with the close it undid: the finding stays readable. */
+function ReopenedNotice({ c }: { c: Case }) {
+  const r = c.reopened!;
+  return (
+    <Notice intent="warning" icon="undo" title="Reopened" className="cairn-review-reopened">
+      <p>
+        {r.by} reopened this case on <time dateTime={r.at}>{formatDateTime(r.at)}</time>.{' '}
+        {r.previousFindingLabel ? (
+          <>
+            It had been closed
+            {r.previousClosedAt ? (
+              <>
+                {' '}
+                on <time dateTime={r.previousClosedAt}>{formatDateTime(r.previousClosedAt)}</time>
+              </>
+            ) : null}{' '}
+            with the finding <strong>“{r.previousFindingLabel}”</strong>
+            {c.status === 'closed' ? '; it has been closed again since.' : '.'}
+          </>
+        ) : null}
+      </p>
+    </Notice>
   );
 }
 
@@ -322,15 +349,46 @@ function CommentForm({ c }: { c: Case }) {
   );
 }
 
+/** What an answer may carry; the API judges every file again by its bytes. */
+const ANSWER_EXTENSIONS = ['pdf', 'xlsx', 'csv', 'png', 'jpg', 'jpeg'];
+const ANSWER_MAX_BYTES = 10 * 1024 * 1024;
+const ANSWER_MAX_FILES = 5;
+
+/** Why an answer cannot be sent as it is, in words; empty when it can. */
+export function answerProblems(text: string, files: readonly File[]): string[] {
+  const out: string[] = [];
+  if (text.trim() === '') out.push('Write your answer before sending it.');
+  if (files.length > ANSWER_MAX_FILES)
+    out.push(
+      `At most ${ANSWER_MAX_FILES} files can go with one answer; ${files.length} are chosen.`,
+    );
+  for (const f of files) {
+    const dot = f.name.lastIndexOf('.');
+    const ext = dot < 0 ? '' : f.name.slice(dot + 1).toLowerCase();
+    if (!ANSWER_EXTENSIONS.includes(ext))
+      out.push(`“${f.name}” is not a PDF, XLSX, CSV, PNG or JPEG file.`);
+    else if (f.size > ANSWER_MAX_BYTES)
+      out.push(
+        `“${f.name}” is ${(f.size / 1024 / 1024).toFixed(1)} MB; each file may be at most 10 MB.`,
+      );
+  }
+  return out;
+}
+
 function AnswerForm({ c }: { c: Case }) {
   const [text, setText] = useState('');
   const [files, setFiles] = useState<File[]>([]);
+  const [problems, setProblems] = useState<string[]>([]);
   const m = useAnswer(c.id);
   return (
     <form
       className="cairn-review-form"
+      noValidate
       onSubmit={(e) => {
         e.preventDefault();
+        const found = answerProblems(text, files);
+        setProblems(found);
+        if (found.length > 0) return;
         m.mutate(
           { text, expectedVersion: c.version, files },
           {
@@ -366,6 +424,15 @@ function AnswerForm({ c }: { c: Case }) {
           onInputChange={(e) => setFiles(Array.from(e.currentTarget.files ?? []))}
         />
       </FormGroup>
+      {problems.length > 0 ? (
+        <Notice intent="danger" icon="error" title="The answer was not sent">
+          <ul>
+            {problems.map((p) => (
+              <li key={p}>{p}</li>
+            ))}
+          </ul>
+        </Notice>
+      ) : null}
       <ProblemCallout error={m.error} />
       {m.isSuccess ? <Callout intent="success">Your answer was sent.</Callout> : null}
       <Button type="submit" intent="primary" loading={m.isPending}>

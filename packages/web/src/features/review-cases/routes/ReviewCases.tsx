@@ -76,6 +76,15 @@ function ReviewCasesScreen() {
                 <td>
                   <StatusTag status={c.status} label={c.statusLabel} />
                   {c.findingLabel ? <Tag minimal>{c.findingLabel}</Tag> : null}
+                  {c.reopened ? (
+                    <span className="cairn-muted cairn-review-reopened-note">
+                      {' '}
+                      reopened {formatDateTime(c.reopened.at)}
+                      {c.reopened.previousFindingLabel
+                        ? `; last finding “${c.reopened.previousFindingLabel}”`
+                        : ''}
+                    </span>
+                  ) : null}
                 </td>
                 <td className="cairn-nowrap">{formatDateTime(c.updatedAt)}</td>
               </tr>
