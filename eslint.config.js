@@ -67,7 +67,9 @@ export const tableOwners = {
   submission_issues: ['submissions'],
   submission_rejected_rows: ['submissions'],
   submission_sums: ['submissions'],
+  quarter_current_sets: ['submissions'],
   benchmark_results: ['benchmarks'],
+  benchmark_answers: ['benchmarks'],
   reports: ['reports'],
   // Staged by the submissions module through the bulk-load plumbing (src/database/bulk-load).
   care_records: ['submissions', 'database'],

@@ -10,11 +10,15 @@
  * extracts, loaded through the upload pipeline) lives in a database of its
  * own, cairn_test_bench_demo, loaded once and reused while it holds the demo's
  * accepted submissions. Target: p95 ≤ 50 ms and no errors; autocannon reports
- * p90 and p97.5, so the figure judged is p97.5 (above p95).
+ * p90 and p97.5, so the figure judged is p97.5 (above p95). Requests ask for
+ * gzip, as a browser does. The reference, measured the same way in the same
+ * run and not judged, is the quarter list: the smallest signed-in route, whose
+ * time is the session's read and renewal, the guards and one SELECT.
  */
 import { spawn } from 'node:child_process';
 import { existsSync, readFileSync } from 'node:fs';
 import type { Server } from 'node:http';
+import { loadavg } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { QueryTypes } from 'sequelize';
@@ -26,6 +30,7 @@ import { fromDist } from './app.js';
 import { httpSignIn } from './http-sign-in.js';
 
 const DATABASE = 'cairn_test_bench_demo';
+const REFERENCE_ROUTE = '/api/quarters';
 const CONNECTIONS = 50;
 const SECONDS = 10;
 
@@ -39,6 +44,10 @@ interface Latency {
 
 export interface RouteFigures {
   route: string;
+  /** The reference route (not judged) */
+  reference: boolean;
+  /** Bytes of the JSON body (uncompressed) */
+  bytes: number;
   requests: number;
   errors: number;
   non2xx: number;
@@ -97,12 +106,16 @@ export async function measureRoutes(
          FROM audit_quarters q WHERE q.year = 2026 AND q.quarter = 3`,
       { type: QueryTypes.SELECT },
     );
+    // The reference: the region's quarter list, the smallest signed-in route (the session's
+    // read and renewal, the guards, a SELECT), measured the same way in the same run.
     const routes = [
+      REFERENCE_ROUTE,
       `/api/quarters/${ids!.quarter}/benchmark`,
       `/api/practices/${ids!.practice}/quarters/${ids!.quarter}/results`,
     ];
     const bin = join(findRepoRoot(), 'node_modules', '.bin', 'autocannon');
     const out: RouteFigures[] = [];
+    const bytes = new Map<string, number>();
     for (const route of routes) {
       // Requests first until one is answered: the stored results exist (a first build of every
       // quarter may outlast the server's request timeout on a busy machine) and this process
@@ -111,7 +124,7 @@ export async function measureRoutes(
         try {
           const first = await fetch(origin + route, { headers: { cookie } });
           if (first.status !== 200) throw new Error(`${route} answered ${first.status}`);
-          await first.arrayBuffer();
+          bytes.set(route, (await first.arrayBuffer()).byteLength);
           break;
         } catch (error) {
           if (attempt === 10) throw error;
@@ -129,6 +142,9 @@ export async function measureRoutes(
             '-j',
             '-H',
             `cookie=${cookie}`,
+            // As a browser asks: the stored answers are sent gzip-compressed as stored.
+            '-H',
+            'accept-encoding=gzip, deflate, br',
             origin + route,
           ]);
           let stdout = '';
@@ -149,6 +165,8 @@ export async function measureRoutes(
       };
       out.push({
         route,
+        reference: route === REFERENCE_ROUTE,
+        bytes: bytes.get(route) ?? 0,
         requests: result.requests.total,
         errors: result.errors + result.timeouts,
         non2xx: result.non2xx,
@@ -170,15 +188,26 @@ export async function runHttpBench(
   log: (line: string) => void = console.log,
 ): Promise<boolean> {
   let ok = true;
+  log(
+    `  load average before: ${loadavg()
+      .map((x) => x.toFixed(2))
+      .join(', ')}`,
+  );
   for (const f of await measureRoutes(config, secrets, log)) {
     const met = f.errors === 0 && f.non2xx === 0 && f.latency.p97_5 <= 50;
-    if (!met) ok = false;
+    if (!met && !f.reference) ok = false;
+    const verdict = f.reference ? 'ref.  ' : met ? 'met   ' : 'MISSED';
     log(
-      `  ${met ? 'met   ' : 'MISSED'} GET ${f.route}: ${CONNECTIONS} connections, ${f.requests} requests in ${SECONDS} s, ` +
-        `p50 ${f.latency.p50} ms, p90 ${f.latency.p90} ms, p97.5 ${f.latency.p97_5} ms (target p95 ≤ 50 ms), p99 ${f.latency.p99} ms, ` +
+      `  ${verdict} GET ${f.route} (${Math.round(f.bytes / 1024)} kB JSON): ${CONNECTIONS} connections, ${f.requests} requests in ${SECONDS} s, ` +
+        `p50 ${f.latency.p50} ms, p90 ${f.latency.p90} ms, p97.5 ${f.latency.p97_5} ms${f.reference ? '' : ' (target p95 ≤ 50 ms)'}, p99 ${f.latency.p99} ms, ` +
         `errors ${f.errors}, non-2xx ${f.non2xx}`,
     );
   }
+  log(
+    `  load average after: ${loadavg()
+      .map((x) => x.toFixed(2))
+      .join(', ')}`,
+  );
   return ok;
 }
 

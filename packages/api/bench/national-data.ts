@@ -51,7 +51,11 @@ import { findRepoRoot, loadConfig, loadSecrets } from '../src/config/load-config
 import { connect, createDatabase, dropTestDatabase } from '../src/database/connect.js';
 import { migrateUp } from '../src/database/migrator.js';
 import { acquireRaw, releaseRaw } from '../src/database/bulk-load/raw-connection.js';
-import { RECORD_COLUMNS, type RecordRow } from '../src/database/bulk-load/record-columns.js';
+import {
+  CARE_COLUMNS,
+  RECORD_COLUMNS,
+  type RecordRow,
+} from '../src/database/bulk-load/record-columns.js';
 import { LOAD_RECORDS_SQL } from '../src/database/bulk-load/record-loader.js';
 import { TsvEncoder } from '../src/database/bulk-load/tsv-encoder.js';
 
@@ -479,34 +483,7 @@ async function generate(db: Sequelize, v: Variant, log: (line: string) => void):
 // ── the reads ──────────────────────────────────────────────────────────────
 
 /** The columns the metrics read, per record (practice identity, then FlatCareRecord's fields). */
-export const METRIC_COLUMNS = [
-  'birth_year',
-  'sex',
-  'diabetes_type',
-  'diagnosis_year',
-  'deprivation_quintile',
-  'hba1c_month',
-  'hba1c_mmol_mol',
-  'blood_pressure_month',
-  'systolic',
-  'diastolic',
-  'cholesterol_month',
-  'total_cholesterol_mmol_l',
-  'serum_creatinine_month',
-  'serum_creatinine_umol_l',
-  'urine_albumin_month',
-  'acr_mg_mmol',
-  'foot_surveillance_month',
-  'bmi_month',
-  'bmi_kg_m2',
-  'smoking_month',
-  'smoking_status',
-  'retinal_screening_month',
-  'on_statin',
-  'on_insulin',
-  'insulin_start_year',
-  'cvd_history',
-] as const;
+export const METRIC_COLUMNS = CARE_COLUMNS;
 
 const MONTH_COLUMNS = METRIC_COLUMNS.filter((c) => c.endsWith('_month'));
 const monthPositions = METRIC_COLUMNS.map((c, i) => (c.endsWith('_month') ? i + 1 : -1)).filter(

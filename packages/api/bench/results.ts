@@ -13,17 +13,21 @@
  *      submission staged as awaiting confirmation (the same records, so the
  *      data stays as generated), confirmed through SubmissionsService.confirm
  *      (its sums computed from its records, the pointer switched), then the
- *      region benchmark served for the new set (BenchmarksService.region, as
- *      the route); target: served ≤ 1 s after the confirm's answer.
+ *      region benchmark's answer for the new set (BenchmarksService.regionAnswer,
+ *      the bytes the route sends); target: served ≤ 1 s after the confirm's
+ *      answer.
  *
- * The quarter is opened for the confirms and closed again afterwards.
+ * The quarter is opened for the confirms and closed again afterwards. Run
+ * alone with `--variant=region` or `--variant=national` for one size only.
  */
+import { spawnSync } from 'node:child_process';
 import { existsSync, readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { QueryTypes } from 'sequelize';
 import type { CairnConfig, CairnSecrets } from '../src/config/config.schema.js';
 import { findRepoRoot, loadConfig, loadSecrets } from '../src/config/load-config.js';
+import { API_NODE_FLAGS } from '../src/node-flags.js';
 import { fromDist } from './app.js';
 import { RECORD_COLUMNS } from '../src/database/bulk-load/record-columns.js';
 import { type BenchData, ensureBenchData, referenceRead, VARIANTS } from './national-data.js';
@@ -43,7 +47,7 @@ export interface ResultsFigures {
 }
 
 /** Stages a copy of the practice's current submission (same records), awaiting confirmation. */
-async function stageCopy(data: BenchData, submissionId: number): Promise<number> {
+export async function stageCopy(data: BenchData, submissionId: number): Promise<number> {
   const db = data.db;
   const [inserted] = await db.query(
     `INSERT INTO submissions (practice_id, quarter_id, status, file_name, file_size_bytes, file_kind,
@@ -125,8 +129,10 @@ export async function measureResults(
         const t0 = performance.now();
         await submissions.confirm(actor, Number(pick!.practice_id), copy);
         const t1 = performance.now();
-        const after = await benchmarks.region(actor, quarter.id, {});
+        // What the route sends: the stored answer's bytes (read back here only to check them).
+        const answer = await benchmarks.regionAnswer(actor, quarter.id, {});
         const t2 = performance.now();
+        const after = JSON.parse(answer.plain.toString('utf8'));
         if (after.builtFrom.submissionsKey === before.builtFrom.submissionsKey) {
           throw new Error('the benchmark served after the confirm is not of the new set');
         }
@@ -160,7 +166,8 @@ export async function runResultsBench(
     log(`  ${met ? 'met   ' : 'MISSED'} ${label}`);
     if (!met) ok = false;
   };
-  for (const name of ['region', 'national'] as const) {
+  const only = process.argv.find((a) => a.startsWith('--variant='))?.slice('--variant='.length);
+  for (const name of (['region', 'national'] as const).filter((n) => !only || n === only)) {
     const f = await measureResults(config, secrets, name, log);
     const rec = median(f.recompute);
     const ref = median(f.reference);
@@ -194,6 +201,19 @@ export async function runResultsBench(
     }
   }
   return ok;
+}
+
+if (
+  process.argv[1] === fileURLToPath(import.meta.url) &&
+  !API_NODE_FLAGS.every((flag) => process.execArgv.includes(flag))
+) {
+  // Run alone: with the API process's own Node flags, as run.ts runs every section.
+  const again = spawnSync(
+    process.execPath,
+    [...API_NODE_FLAGS, ...process.execArgv, ...process.argv.slice(1)],
+    { stdio: 'inherit' },
+  );
+  process.exit(again.status ?? 1);
 }
 
 if (process.argv[1] === fileURLToPath(import.meta.url)) {

@@ -2,9 +2,11 @@
  * A quarter's benchmark, as every route reads it (docs/methods.md §10): the
  * result of exactly one set of current submissions, said which.
  *
- * 1. One SELECT of the quarter's current pointers (SubmissionsService).
- * 2. key = SHA-256 of the sorted submission ids; the stored result of
- *    (quarter, measure-set version, result format, key) is looked up.
+ * 1. One SELECT of the quarter's current-set row (SubmissionsService), which
+ *    the confirm's transaction keeps in step with the pointers: key = SHA-256
+ *    of the sorted ids of the current submissions.
+ * 2. The stored result of (quarter, measure-set version, result format, key)
+ *    is looked up (the pointers are read only to build one).
  * 3. Found: its body is decoded (kept in memory by result id: rows never
  *    change). Not found: the sums of those submissions (SubmissionsService,
  *    which fills any missing from records), `buildBenchmark` with the
@@ -17,7 +19,6 @@
  * quarter in one streamed read, every submission's sums stored again, the
  * benchmark built and stored the same way.
  */
-import { createHash } from 'node:crypto';
 import { Inject, Injectable, Logger } from '@nestjs/common';
 import {
   type Benchmark,
@@ -34,7 +35,9 @@ import { OrganisationsService, type PracticeInfo } from '../organisations/organi
 import type { QuarterDto } from '../quarters/dto/quarter.dto.js';
 import {
   type CurrentPointer,
+  type CurrentSetRow,
   SubmissionsService,
+  submissionsKey,
   type SumsSubject,
 } from '../submissions/submissions.service.js';
 import { BenchmarkResultsRepository, type ResultRow } from './benchmark-results.repository.js';
@@ -44,6 +47,14 @@ import {
   RESULT_FORMAT,
   type ResultContent,
 } from './results/result-body.js';
+
+/** A quarter's current set changed while an answer of it was being built: read it again. */
+export class SetChangedError extends Error {
+  override name = 'SetChangedError';
+  constructor(quarterId: number) {
+    super(`the current set of quarter ${quarterId} changed while it was being read`);
+  }
+}
 
 /** A quarter's built benchmark and what it was built from. */
 export interface QuarterResult {
@@ -66,11 +77,7 @@ export interface QuarterResult {
   submissionOf: ReadonlyMap<string, number>;
 }
 
-/** The key of a set of submissions: SHA-256 (hex) of their ids, sorted, comma-separated. */
-export function submissionsKey(ids: readonly number[]): string {
-  const sorted = [...ids].sort((a, b) => a - b);
-  return createHash('sha256').update(sorted.join(',')).digest('hex');
-}
+export { submissionsKey };
 
 /** Practices by code, in a fixed order that does not depend on a database collation. */
 export const byCode = <T extends { code: string }>(a: T, b: T): number =>
@@ -129,21 +136,76 @@ export class BenchmarkStore {
 
   /** The quarter's result for its current submissions now; null when it has none. */
   async resultOf(quarter: QuarterDto): Promise<QuarterResult | null> {
-    return this.resultFor(quarter, await this.submissions.currentSet(quarter.id));
+    const sets = await this.submissions.currentSetRows([quarter.id]);
+    return this.resultFor(quarter, sets.get(quarter.id) ?? null);
   }
 
-  /** The results of several quarters of one region (their pointers read in one SELECT). */
+  /** The results of several quarters of one region (their current sets read in one SELECT). */
   async resultsOf(quarters: readonly QuarterDto[]): Promise<Map<number, QuarterResult | null>> {
-    const pointers = await this.submissions.currentSets(quarters.map((q) => q.id));
+    return this.resultsWith(quarters, await this.currentSets(quarters));
+  }
+
+  /** The current set of each quarter as its row names it (one SELECT); null: none. */
+  async currentSets(quarters: readonly QuarterDto[]): Promise<Map<number, CurrentSetRow | null>> {
+    const sets = await this.submissions.currentSetRows(quarters.map((q) => q.id));
+    return new Map(
+      quarters.map((q) => {
+        const set = sets.get(q.id);
+        return [q.id, set && set.count > 0 ? set : null];
+      }),
+    );
+  }
+
+  /**
+   * What identifies the stored result of each quarter's set (read by currentSets): quarter,
+   * measure set, result format, the set's key and the stored row's id ('none' for a quarter
+   * without a current submission). Known rows' ids are remembered (rows never change); a set
+   * whose result was never built is built now.
+   */
+  async resultIdsOf(
+    quarters: readonly QuarterDto[],
+    sets: ReadonlyMap<number, CurrentSetRow | null>,
+  ): Promise<string[]> {
+    const out: string[] = [];
+    for (const quarter of quarters) {
+      const set = sets.get(quarter.id) ?? null;
+      if (!set) {
+        out.push('none');
+        continue;
+      }
+      const version = await this.measureSets.get(quarter.measureSetId);
+      const cacheKey = `${quarter.id}/${version.id}/${RESULT_FORMAT}/${set.key}`;
+      let row = this.ids.get(cacheKey) ?? null;
+      if (!row) {
+        row = await this.repository.find(this.resultKey(quarter, version, set.key));
+        if (row) this.ids.set(cacheKey, row);
+      }
+      let id = row?.id;
+      if (id === undefined) {
+        const built = await this.resultFor(quarter, set);
+        if (!built || built.key !== set.key) throw new SetChangedError(quarter.id);
+        id = built.id;
+      }
+      out.push(`${cacheKey}#${id}`);
+    }
+    return out;
+  }
+
+  /**
+   * The results of exactly these sets (read by currentSets). Throws SetChangedError when a set
+   * is no longer current and its result was never built (a confirm in between): read the sets
+   * again.
+   */
+  async resultsWith(
+    quarters: readonly QuarterDto[],
+    sets: ReadonlyMap<number, CurrentSetRow | null>,
+  ): Promise<Map<number, QuarterResult | null>> {
     const out = new Map<number, QuarterResult | null>();
     for (const quarter of quarters) {
-      out.set(
-        quarter.id,
-        await this.resultFor(
-          quarter,
-          pointers.filter((p) => p.quarterId === quarter.id),
-        ),
-      );
+      const set = sets.get(quarter.id) ?? null;
+      const result = await this.resultFor(quarter, set);
+      if (set && result && result.key !== set.key) throw new SetChangedError(quarter.id);
+      out.set(quarter.id, result);
     }
     return out;
   }
@@ -208,11 +270,11 @@ export class BenchmarkStore {
 
   private async resultFor(
     quarter: QuarterDto,
-    pointers: readonly CurrentPointer[],
+    set: CurrentSetRow | null,
   ): Promise<QuarterResult | null> {
-    if (pointers.length === 0) return null;
+    if (!set || set.count === 0) return null;
     const version = await this.measureSets.get(quarter.measureSetId);
-    const key = submissionsKey(pointers.map((p) => p.submissionId));
+    const key = set.key;
     const resultKey = this.resultKey(quarter, version, key);
     const cacheKey = `${quarter.id}/${version.id}/${RESULT_FORMAT}/${key}`;
     let row = this.ids.get(cacheKey) ?? null;
@@ -233,9 +295,16 @@ export class BenchmarkStore {
     }
     let pending = this.building.get(cacheKey);
     if (!pending) {
-      pending = this.build(quarter, version, pointers, key).finally(() =>
-        this.building.delete(cacheKey),
-      );
+      pending = this.submissions
+        .currentSet(quarter.id)
+        .then((pointers) => {
+          if (submissionsKey(pointers.map((p) => p.submissionId)) !== key) {
+            // The set changed since its row was read: build the newer one.
+            return this.resultOf(quarter).then((r) => r!);
+          }
+          return this.build(quarter, version, pointers, key);
+        })
+        .finally(() => this.building.delete(cacheKey));
       this.building.set(cacheKey, pending);
     }
     return pending;

@@ -1,5 +1,6 @@
-import { Controller, Get, Inject, Param, ParseIntPipe, Query } from '@nestjs/common';
+import { Controller, Get, Inject, Param, ParseIntPipe, Query, Req, Res } from '@nestjs/common';
 import { ApiOkResponse, ApiOperation, ApiTags } from '@nestjs/swagger';
+import type { Request, Response } from 'express';
 import { type Actor, CurrentActor } from '../auth/actor.js';
 import { Roles } from '../auth/index.js';
 import { ApiProblems } from '../common/problem.dto.js';
@@ -12,6 +13,7 @@ import {
 } from './dto/benchmark.dto.js';
 import { SplitQueryDto } from './dto/results-common.dto.js';
 import { BenchmarksService } from './benchmarks.service.js';
+import { sendAnswer } from './answers/send-answer.js';
 
 /** The region's benchmark of an audit quarter: regional leads and auditors. */
 @ApiProblems()
@@ -25,15 +27,18 @@ export class BenchmarkController {
   @ApiOperation({
     summary: 'Every practice on every measure of an audit quarter, with the region’s statistics',
     description:
-      'Read from the practices’ current submissions for the quarter; `builtFrom` says which set. Practices without a current submission are listed in `coverage.missing`, never counted as zero. 404 quarter-not-found, 404 locality-not-found; 400 for a bad split.',
+      'Read from the practices’ current submissions for the quarter; `builtFrom` says which set. Practices without a current submission are listed in `coverage.missing`, never counted as zero. 404 quarter-not-found, 404 locality-not-found; 400 for a bad split. Sent with an ETag; If-None-Match with it gives 304 while nothing it was built from has changed.',
   })
   @ApiOkResponse({ type: RegionBenchmarkDto })
-  region(
+  async region(
     @CurrentActor() actor: Actor,
     @Param('quarterId', ParseIntPipe) quarterId: number,
     @Query() query: BenchmarkQueryDto,
-  ): Promise<RegionBenchmarkDto> {
-    return this.benchmarks.region(actor, quarterId, query);
+    @Req() req: Request,
+    @Res() res: Response,
+  ): Promise<void> {
+    // The stored answer's bytes, with its ETag (304 when the reader has them).
+    sendAnswer(req, res, await this.benchmarks.regionAnswer(actor, quarterId, query));
   }
 
   @Get('measures/:measureKey')

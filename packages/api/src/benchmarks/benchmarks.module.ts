@@ -3,6 +3,8 @@ import { MeasureSetsModule } from '../measure-sets/measure-sets.module.js';
 import { OrganisationsModule } from '../organisations/organisations.module.js';
 import { QuartersModule } from '../quarters/quarters.module.js';
 import { SubmissionsModule } from '../submissions/submissions.module.js';
+import { BenchmarkAnswersRepository } from './answers/benchmark-answers.repository.js';
+import { StoredAnswers } from './answers/stored-answers.service.js';
 import { BenchmarkController } from './benchmark.controller.js';
 import { BenchmarkResultsRepository } from './benchmark-results.repository.js';
 import { BenchmarkStore } from './benchmark-store.service.js';
@@ -14,14 +16,17 @@ import { RecallListService } from './recall-list.service.js';
 
 /**
  * Results of an audit quarter, read from practices' current submissions: the
- * region's benchmark (stored in benchmark_results, this module's table),
+ * region's benchmark (stored in benchmark_results, this module's table, and
+ * the routes' finished responses in benchmark_answers),
  * a practice's results against it, and recall lists.
  */
 @Module({
   imports: [MeasureSetsModule, OrganisationsModule, QuartersModule, SubmissionsModule],
   controllers: [BenchmarkController, PracticeResultsController, RecallListController],
   providers: [
+    BenchmarkAnswersRepository,
     BenchmarkResultsRepository,
+    StoredAnswers,
     BenchmarkStore,
     BenchmarksService,
     PracticeResultsService,

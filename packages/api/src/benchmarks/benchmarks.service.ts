@@ -32,7 +32,13 @@ import {
 import type { QuarterDto } from '../quarters/dto/quarter.dto.js';
 import { QuartersService } from '../quarters/quarters.service.js';
 import { SubmissionsService } from '../submissions/submissions.service.js';
-import { BenchmarkStore, byCode, type QuarterResult } from './benchmark-store.service.js';
+import { type StoredAnswer, StoredAnswers } from './answers/stored-answers.service.js';
+import {
+  BenchmarkStore,
+  byCode,
+  type QuarterResult,
+  SetChangedError,
+} from './benchmark-store.service.js';
 import type {
   BenchmarkPracticeDto,
   BenchmarkQueryDto,
@@ -110,21 +116,69 @@ export class BenchmarksService {
     @Inject(MeasureSetsService) private readonly measureSets: MeasureSetsService,
     @Inject(OrganisationsService) private readonly organisations: OrganisationsService,
     @Inject(SubmissionsService) private readonly submissions: SubmissionsService,
+    @Inject(StoredAnswers) private readonly answers: StoredAnswers,
   ) {}
 
-  /** Every practice × measure of a quarter, with the region's statistics and coverage. */
+  /**
+   * Every practice × measure of a quarter, with the region's statistics and coverage: the
+   * stored answer of the route (regionAnswer), read back as the DTO.
+   */
   async region(
     actor: Actor,
     quarterId: number,
     query: BenchmarkQueryDto,
   ): Promise<RegionBenchmarkDto> {
+    const answer = await this.regionAnswer(actor, quarterId, query);
+    return JSON.parse(answer.plain.toString('utf8')) as RegionBenchmarkDto;
+  }
+
+  /**
+   * The route's finished response (StoredAnswers): keyed by the quarter's stored result (its
+   * current set, measure set and result format), the quarter as sent, the region's practices
+   * and localities as they are, the split and the locality. Three small SELECTs when the
+   * answer is known; built (buildRegion) and stored once otherwise.
+   */
+  async regionAnswer(
+    actor: Actor,
+    quarterId: number,
+    query: BenchmarkQueryDto,
+  ): Promise<StoredAnswer> {
     const quarter = await this.quarters.get(actor, quarterId);
+    const split = query.split ?? 'all';
+    for (let attempt = 0; ; attempt++) {
+      try {
+        const [sets, organisation] = await Promise.all([
+          this.store.currentSets([quarter]),
+          this.organisations.regionFingerprint(quarter.regionId),
+        ]);
+        const key = StoredAnswers.keyOf('region', [
+          ...(await this.store.resultIdsOf([quarter], sets)),
+          JSON.stringify(quarter),
+          organisation,
+          split,
+          query.locality ?? '',
+        ]);
+        return await this.answers.answer('region', quarter.id, key, async () => {
+          const result = (await this.store.resultsWith([quarter], sets)).get(quarter.id) ?? null;
+          return this.buildRegion(quarter, result, { split, locality: query.locality });
+        });
+      } catch (error) {
+        // The set changed while it was read (a confirm in between): read it again.
+        if (!(error instanceof SetChangedError) || attempt >= 2) throw error;
+      }
+    }
+  }
+
+  private async buildRegion(
+    quarter: QuarterDto,
+    result: QuarterResult | null,
+    query: BenchmarkQueryDto,
+  ): Promise<RegionBenchmarkDto> {
     const version = await this.measureSets.get(quarter.measureSetId);
     const split = query.split ?? 'all';
     const localities = await this.organisations.regionLocalities(quarter.regionId);
     const locality = this.localityOf(localities, query.locality);
     const practices = await this.organisations.regionPractices(quarter.regionId);
-    const result = await this.store.resultOf(quarter);
     const inLocality = (p: PracticeInfo) => locality === null || p.localityCode === locality.code;
     const measures = version.measures.map(toMeasureDto);
     const localityList = localities.map((l) => ({ code: l.code, name: l.name }));

@@ -1,10 +1,12 @@
-import { Controller, Get, Inject, Param, ParseIntPipe } from '@nestjs/common';
+import { Controller, Get, Inject, Param, ParseIntPipe, Req, Res } from '@nestjs/common';
 import { ApiOkResponse, ApiOperation, ApiTags } from '@nestjs/swagger';
+import type { Request, Response } from 'express';
 import { type Actor, CurrentActor } from '../auth/actor.js';
 import { PracticeScoped, Roles } from '../auth/index.js';
 import { ApiProblems } from '../common/problem.dto.js';
 import { PracticeResultsDto } from './dto/practice-results.dto.js';
 import { PracticeResultsService } from './practice-results.service.js';
+import { sendAnswer } from './answers/send-answer.js';
 
 /** One practice's results for an audit quarter: its leads, the regional lead, the auditor. */
 @ApiProblems()
@@ -19,14 +21,17 @@ export class PracticeResultsController {
   @ApiOperation({
     summary: "A practice's results for an audit quarter, against the region, with its trend",
     description:
-      "Every measure and split: its own figures, the region's rate, median and limits at its n, its flags, change since the previous quarter, trend with run-chart signals and improvement potential; breakdowns, kidney grid, time to insulin and value histograms against the region; data-quality flags. Other practices appear only as region aggregates and unnamed points, under disclosure control for practice leads. A practice without a current submission: state no-current-submission, with the upload action.",
+      "Every measure and split: its own figures, the region's rate, median and limits at its n, its flags, change since the previous quarter, trend with run-chart signals and improvement potential; breakdowns, kidney grid, time to insulin and value histograms against the region; data-quality flags. Other practices appear only as region aggregates and unnamed points, under disclosure control for practice leads. A practice without a current submission: state no-current-submission, with the upload action. Sent with an ETag; If-None-Match with it gives 304 while nothing it was built from has changed.",
   })
   @ApiOkResponse({ type: PracticeResultsDto })
-  get(
+  async get(
     @CurrentActor() actor: Actor,
     @Param('practiceId', ParseIntPipe) practiceId: number,
     @Param('quarterId', ParseIntPipe) quarterId: number,
-  ): Promise<PracticeResultsDto> {
-    return this.results.results(actor, practiceId, quarterId);
+    @Req() req: Request,
+    @Res() res: Response,
+  ): Promise<void> {
+    // The stored answer's bytes, with its ETag (304 when the reader has them).
+    sendAnswer(req, res, await this.results.resultsAnswer(actor, practiceId, quarterId));
   }
 }

@@ -37,7 +37,9 @@ import type { QuarterDto } from '../quarters/dto/quarter.dto.js';
 import { QuartersService } from '../quarters/quarters.service.js';
 import { mayWrite } from '../submissions/submission-policy.js';
 import { SubmissionsService } from '../submissions/submissions.service.js';
-import { BenchmarkStore, type QuarterResult } from './benchmark-store.service.js';
+import type { CurrentSetRow } from '../submissions/submissions.service.js';
+import { type StoredAnswer, StoredAnswers } from './answers/stored-answers.service.js';
+import { BenchmarkStore, type QuarterResult, SetChangedError } from './benchmark-store.service.js';
 import { comparisonOf, practiceDto, quartersUpTo } from './benchmarks.service.js';
 import type {
   DisclosedCountDto,
@@ -86,25 +88,76 @@ export class PracticeResultsService {
     @Inject(MeasureSetsService) private readonly measureSets: MeasureSetsService,
     @Inject(OrganisationsService) private readonly organisations: OrganisationsService,
     @Inject(SubmissionsService) private readonly submissions: SubmissionsService,
+    @Inject(StoredAnswers) private readonly answers: StoredAnswers,
   ) {}
 
+  /**
+   * A practice's results for a quarter: the stored answer of the route (resultsAnswer), read
+   * back as the DTO. Publishing, digests and the outlier drill-down call this too.
+   */
   async results(actor: Actor, practiceId: number, quarterId: number): Promise<PracticeResultsDto> {
-    const quarter = await this.quarters.get(actor, quarterId);
-    // The route is practice-scoped: the practice exists and is of the reader's region.
-    const practice = (await this.organisations.practice(practiceId))!;
-    const version = await this.measureSets.get(quarter.measureSetId);
+    const answer = await this.resultsAnswer(actor, practiceId, quarterId);
+    return JSON.parse(answer.plain.toString('utf8')) as PracticeResultsDto;
+  }
+
+  /**
+   * The route's finished response (StoredAnswers), keyed by the stored results of the quarter
+   * and of every earlier quarter of the region (its trends), the quarters as sent, the region's
+   * practices and localities as they are, the practice, what the reader may see and whether
+   * they may upload. Three small SELECTs when the answer is known; built once otherwise.
+   */
+  async resultsAnswer(actor: Actor, practiceId: number, quarterId: number): Promise<StoredAnswer> {
+    const all = await this.quarters.list(actor.regionId);
+    // Unknown, or of another region: the same 404 as everywhere.
+    const quarter =
+      all.find((q) => q.id === quarterId) ?? (await this.quarters.get(actor, quarterId));
+    const quarters = quartersUpTo(all, quarter);
     const applied = actor.role === 'practice_lead';
+    // The route is practice-scoped: the practice is of the reader's region.
     const upload = mayWrite(actor, {
       practiceId,
-      practiceRegionId: practice.regionId,
+      practiceRegionId: actor.regionId,
       quarterStatus: quarter.status,
     });
+    for (let attempt = 0; ; attempt++) {
+      try {
+        const [sets, organisation] = await Promise.all([
+          this.store.currentSets(quarters),
+          this.organisations.regionFingerprint(actor.regionId),
+        ]);
+        const key = StoredAnswers.keyOf('practice', [
+          String(practiceId),
+          applied ? 'applied' : 'none',
+          upload ? 'upload' : '',
+          JSON.stringify(quarters),
+          ...(await this.store.resultIdsOf(quarters, sets)),
+          organisation,
+        ]);
+        return await this.answers.answer('practice', quarter.id, key, async () =>
+          this.build(practiceId, quarter, quarters, sets, { applied, upload }),
+        );
+      } catch (error) {
+        // The set changed while it was read (a confirm in between): read it again.
+        if (!(error instanceof SetChangedError) || attempt >= 2) throw error;
+      }
+    }
+  }
+
+  private async build(
+    practiceId: number,
+    quarter: QuarterDto,
+    quarters: readonly QuarterDto[],
+    sets: ReadonlyMap<number, CurrentSetRow | null>,
+    { applied, upload }: { applied: boolean; upload: boolean },
+  ): Promise<PracticeResultsDto> {
+    const quarterId = quarter.id;
+    const practice = (await this.organisations.practice(practiceId))!;
+    const version = await this.measureSets.get(quarter.measureSetId);
     const actions = {
       upload,
       uploadPath: upload ? `/extracts/upload?practice=${practiceId}&quarter=${quarterId}` : null,
     };
-    const quarters = quartersUpTo(await this.quarters.list(quarter.regionId), quarter);
-    const results = await this.store.resultsOf(quarters);
+    const results = await this.store.resultsWith(quarters, sets);
     const result = results.get(quarter.id) ?? null;
     const submissionId = result?.submissionOf.get(practice.code);
     const base = {

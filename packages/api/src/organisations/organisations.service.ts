@@ -4,7 +4,7 @@
  */
 import { Injectable } from '@nestjs/common';
 import { InjectModel } from '@nestjs/sequelize';
-import { Op, type Transaction } from 'sequelize';
+import { Op, QueryTypes, type Transaction } from 'sequelize';
 import { version } from '../version.js';
 import type { AboutDto } from './dto/about.dto.js';
 import type { PracticeDto, PracticeRefDto } from './dto/practice.dto.js';
@@ -121,17 +121,55 @@ export class OrganisationsService {
     regionId: number,
     options: { activeOnly?: boolean; ids?: readonly number[]; transaction?: Transaction } = {},
   ): Promise<PracticeInfo[]> {
-    const rows = await this.practices.findAll({
-      where: {
-        regionId,
-        ...(options.activeOnly ? { active: true } : {}),
-        ...(options.ids ? { id: [...new Set(options.ids)] } : {}),
+    if (options.ids && options.ids.length === 0) return [];
+    // Plain rows, not model instances: a national region has thousands of practices.
+    const rows = await this.practices.sequelize!.query<{
+      id: number;
+      code: string;
+      name: string;
+      region_id: number;
+      active: number | boolean;
+      locality_name: string | null;
+      locality_code: string | null;
+    }>(
+      `SELECT p.id, p.code, p.name, p.region_id, p.active, l.name AS locality_name, l.code AS locality_code
+         FROM practices p LEFT JOIN localities l ON l.id = p.locality_id
+        WHERE p.region_id = ?${options.activeOnly ? ' AND p.active = 1' : ''}${options.ids ? ' AND p.id IN (?)' : ''}
+        ORDER BY p.code ASC`,
+      {
+        replacements: options.ids ? [regionId, [...new Set(options.ids)]] : [regionId],
+        type: QueryTypes.SELECT,
+        transaction: options.transaction,
       },
-      include: [Locality],
-      order: [['code', 'ASC']],
-      transaction: options.transaction,
-    });
-    return rows.map(info);
+    );
+    return rows.map((r) => ({
+      id: Number(r.id),
+      code: r.code,
+      name: r.name,
+      localityName: r.locality_name,
+      localityCode: r.locality_code,
+      regionId: Number(r.region_id),
+      active: Boolean(Number(r.active)),
+    }));
+  }
+
+  /**
+   * A fingerprint of a region's practices and localities as they are now (their count, latest
+   * change and a checksum of what other modules show of them), read in one SELECT: answers
+   * built from them are keyed by it, so a renamed, moved or deactivated practice is a new key.
+   */
+  async regionFingerprint(regionId: number): Promise<string> {
+    const [row] = await this.practices.sequelize!.query<{ practices: string; localities: string }>(
+      `SELECT
+         (SELECT CONCAT(COUNT(*), '/', COALESCE(MAX(updated_at), ''), '/',
+                        COALESCE(SUM(CRC32(CONCAT_WS('|', id, code, name, active, COALESCE(locality_id, '')))), 0))
+            FROM practices WHERE region_id = ?) AS practices,
+         (SELECT CONCAT(COUNT(*), '/', COALESCE(MAX(updated_at), ''), '/',
+                        COALESCE(SUM(CRC32(CONCAT_WS('|', id, code, name))), 0))
+            FROM localities WHERE region_id = ?) AS localities`,
+      { replacements: [regionId, regionId], type: QueryTypes.SELECT },
+    );
+    return `${row?.practices ?? ''};${row?.localities ?? ''}`;
   }
 
   /** A region's localities, by code. */

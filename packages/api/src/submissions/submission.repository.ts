@@ -20,7 +20,8 @@ import type { Issue } from './format/issue-codes.js';
 import { CARE_RECORD_SELECT, type CareRecordRow } from '../database/bulk-load/care-record-row.js';
 import type { RejectedRow } from './pipeline/process-extract.js';
 import { CANCELLABLE, RETRYABLE } from './submission-policy.js';
-import { SUMS_COLUMNS } from './sums/sums-rows.js';
+import { SUMS_SELECT } from './sums/sums-rows.js';
+import { submissionsKey } from './current-set-key.js';
 
 /** A row of `submissions`, with the practice-quarter's current submission. */
 export interface SubmissionRecord {
@@ -102,10 +103,18 @@ export interface SumsRow {
 
 /** Which records a streamed read of sums columns covers. */
 /** Records to read: one submission's, several submissions', or every current record of a quarter. */
+/** A quarter's current set as its row names it (quarter_current_sets). */
+export interface CurrentSetRow {
+  quarterId: number;
+  /** SHA-256 (hex) of the sorted ids of the current submissions */
+  key: string;
+  count: number;
+  /** Grows with every change of the set (0: not yet made from the pointers) */
+  version: number;
+}
+
 export type RecordScope =
   { submissionId: number } | { submissionIds: readonly number[] } | { quarterId: number };
-
-const SUMS_SELECT = SUMS_COLUMNS.map((c) => `r.${c}`).join(', ');
 
 /** What a check found, for the row that ends it. */
 export interface CheckedFields {
@@ -350,27 +359,87 @@ export class SubmissionRepository {
     }));
   }
 
-  /**
-   * Each quarter's current set as its key (SHA-256 hex of the sorted submission ids, comma
-   * separated: `submissionsKey` of the benchmark store), computed by MariaDB so that only the
-   * keys are sent. A quarter whose ids outgrow GROUP_CONCAT's limit gets no key (read the
-   * pointers instead); a quarter without current submissions is left out.
-   */
-  async currentSetKeys(quarterIds: readonly number[]): Promise<Map<number, string | null>> {
-    if (quarterIds.length === 0) return new Map();
-    const rows = await this.select<{ quarter_id: number; k: string; len: number; want: number }>(
-      `SELECT quarter_id,
-              SHA2(GROUP_CONCAT(current_submission_id ORDER BY current_submission_id SEPARATOR ','), 256) AS k,
-              LENGTH(GROUP_CONCAT(current_submission_id ORDER BY current_submission_id SEPARATOR ',')) AS len,
-              SUM(LENGTH(current_submission_id)) + COUNT(*) - 1 AS want
-         FROM practice_quarters
-        WHERE quarter_id IN (?) AND current_submission_id IS NOT NULL
-        GROUP BY quarter_id`,
+  // ── the current set of a quarter (quarter_current_sets, migration 0302) ──
+
+  /** The current-set rows of these quarters (quarters without a row are left out). */
+  async currentSetRows(quarterIds: readonly number[]): Promise<CurrentSetRow[]> {
+    if (quarterIds.length === 0) return [];
+    const rows = await this.select<{
+      quarter_id: number;
+      submissions_key: string;
+      submission_count: number;
+      version: number;
+    }>(
+      `SELECT quarter_id, submissions_key, submission_count, version FROM quarter_current_sets
+        WHERE quarter_id IN (?)`,
       [[...quarterIds]],
     );
-    return new Map(
-      rows.map((r) => [Number(r.quarter_id), Number(r.len) === Number(r.want) ? r.k : null]),
+    return rows.map((r) => ({
+      quarterId: Number(r.quarter_id),
+      key: r.submissions_key,
+      count: Number(r.submission_count),
+      version: Number(r.version),
+    }));
+  }
+
+  /**
+   * Creates the current-set row of a quarter that has none (its pointers written before the
+   * table existed), outside any transaction, so that later locks of it are plain row locks.
+   * The row is made from the pointers as they are, under the row's lock (as a confirm does).
+   */
+  async ensureCurrentSet(quarterId: number): Promise<void> {
+    await this.sequelize.query(
+      `INSERT IGNORE INTO quarter_current_sets (quarter_id, submissions_key, submission_count, version, changed_at)
+       VALUES (?, '', 0, 0, NOW(3))`,
+      { replacements: [quarterId], type: QueryTypes.INSERT },
     );
+    await this.transaction(async (transaction) => {
+      const version = await this.lockCurrentSet(quarterId, transaction);
+      if (version === 0) await this.writeCurrentSet(quarterId, transaction);
+    });
+  }
+
+  /** Locks a quarter's current-set row (ensureCurrentSet made it); returns its version. */
+  async lockCurrentSet(quarterId: number, transaction: Transaction): Promise<number> {
+    const [row] = await this.select<{ version: number }>(
+      'SELECT version FROM quarter_current_sets WHERE quarter_id = ? FOR UPDATE',
+      [quarterId],
+      transaction,
+    );
+    if (!row) throw new Error(`quarter ${quarterId} has no current-set row to lock`);
+    return Number(row.version);
+  }
+
+  /**
+   * Writes a quarter's current-set row from its pointers as they now are (the caller holds the
+   * row's lock; the pointers are read with a shared lock, so committed switches of other
+   * transactions are seen whatever this transaction read before).
+   */
+  async writeCurrentSet(quarterId: number, transaction: Transaction): Promise<void> {
+    const pointers = await this.select<{ current_submission_id: number }>(
+      `SELECT current_submission_id FROM practice_quarters
+        WHERE quarter_id = ? AND current_submission_id IS NOT NULL LOCK IN SHARE MODE`,
+      [quarterId],
+      transaction,
+    );
+    const ids = pointers.map((p) => Number(p.current_submission_id));
+    await this.execute(
+      `UPDATE quarter_current_sets SET submissions_key = ?, submission_count = ?, version = version + 1,
+         changed_at = NOW(3) WHERE quarter_id = ?`,
+      [submissionsKey(ids), ids.length, quarterId],
+      transaction,
+    );
+  }
+
+  /** How many records the quarter's current submissions hold (their accepted rows). */
+  async currentRecordCount(quarterId: number): Promise<number> {
+    const [row] = await this.select<{ n: number | null }>(
+      `SELECT SUM(s.rows_accepted) AS n FROM practice_quarters pq
+         JOIN submissions s ON s.id = pq.current_submission_id
+        WHERE pq.quarter_id = ?`,
+      [quarterId],
+    );
+    return Number(row?.n ?? 0);
   }
 
   /** Facts of confirmed submissions that never change: records, when confirmed, issue counts. */

@@ -39,12 +39,14 @@ import { ISSUE_CODES, type IssueCodeKey } from './format/issue-codes.js';
 import { JobRunner } from './job-runner.service.js';
 import { ValidationReportService } from './validation-report/validation-report.service.js';
 import { assertMay, mayWrite, seesRecordRefs, type SubmissionAction } from './submission-policy.js';
-import { SubmissionRepository, summaryJson } from './submission.repository.js';
+import { type CurrentSetRow, SubmissionRepository, summaryJson } from './submission.repository.js';
 import { issueTitle, type LoadedSubmission, SubmissionLoader, toView } from './submission-view.js';
 import { type StoredRecord, toStoredRecord } from '../database/bulk-load/care-record-row.js';
 import { SubmissionSums, type SumsSubject } from './sums/submission-sums.js';
 
 export type { SumsSubject } from './sums/submission-sums.js';
+export type { CurrentSetRow } from './submission.repository.js';
+export { submissionsKey } from './current-set-key.js';
 
 /** A practice's current submission for a quarter, as its pointer names it. */
 export interface CurrentPointer {
@@ -325,18 +327,36 @@ export class SubmissionsService {
     return this.submissions.currentPointers(quarterId);
   }
 
+  /**
+   * The current set of each of these quarters as its row names it (one SELECT of at most one
+   * row a quarter; a quarter without a row gets one made from its pointers first). Changed in
+   * the confirm's transaction, so it always names the set the pointers make.
+   */
+  async currentSetRows(quarterIds: readonly number[]): Promise<Map<number, CurrentSetRow>> {
+    let rows = await this.submissions.currentSetRows(quarterIds);
+    const missing = quarterIds.filter(
+      (id) => !rows.some((r) => r.quarterId === id && r.version > 0),
+    );
+    if (missing.length > 0) {
+      for (const id of missing) await this.submissions.ensureCurrentSet(id);
+      rows = await this.submissions.currentSetRows(quarterIds);
+    }
+    return new Map(rows.map((r) => [r.quarterId, r]));
+  }
+
   /** The current pointers of several quarters, read in one SELECT. */
   currentSets(quarterIds: readonly number[]): Promise<(CurrentPointer & { quarterId: number })[]> {
     return this.submissions.currentPointersOf(quarterIds);
   }
 
   /**
-   * The key of each quarter's current set (what `currentSets` would give, as the benchmark store
-   * keys it: SHA-256 hex of the sorted ids), without sending the pointers; null for a quarter
-   * whose key MariaDB cannot make, absent for one without current submissions.
+   * The key of each quarter's current set (SHA-256 hex of the sorted submission ids, as the
+   * benchmark store keys it), read from the quarters' current-set rows; absent for a quarter
+   * without current submissions.
    */
-  currentSetKeys(quarterIds: readonly number[]): Promise<Map<number, string | null>> {
-    return this.submissions.currentSetKeys(quarterIds);
+  async currentSetKeys(quarterIds: readonly number[]): Promise<Map<number, string>> {
+    const rows = await this.currentSetRows(quarterIds);
+    return new Map([...rows].filter(([, row]) => row.count > 0).map(([id, row]) => [id, row.key]));
   }
 
   /**
@@ -457,11 +477,15 @@ export class SubmissionsService {
       await this.measureSets.get(quarter.measureSetId),
       { year: quarter.year, quarter: quarter.quarter },
     );
-    // The pointer row exists before the transaction, so the lock below is a plain row lock.
+    // The pointer row and the quarter's current-set row exist before the transaction, so the
+    // locks below are plain row locks.
     await this.submissions.ensurePracticeQuarter(row.practice_id, row.quarter_id);
+    await this.submissions.ensureCurrentSet(row.quarter_id);
     for (let attempt = 0; ; attempt++) {
       try {
         await this.submissions.transaction(async (transaction) => {
+          // The quarter's current set first: confirms of one quarter change it one at a time.
+          await this.submissions.lockCurrentSet(row.quarter_id, transaction);
           const previous = await this.submissions.lockPracticeQuarter(
             row.practice_id,
             row.quarter_id,
@@ -495,6 +519,7 @@ export class SubmissionsService {
             actor,
             transaction,
           );
+          await this.submissions.writeCurrentSet(row.quarter_id, transaction);
           await this.submissions.insertSums(sums, transaction);
           await this.audit.append(
             {

@@ -3,11 +3,14 @@ import { describe, expect, it } from 'vitest';
 import { complete, record } from '../../test/records.js';
 import { arbitraryRecord } from '../../test/arbitrary.js';
 import {
+  type CodedCareRecord,
   createColumnBuilder,
   type FlatCareRecord,
   MISSING_MONTH,
   MISSING_YEAR,
   recordAt,
+  SEX_CODES,
+  SMOKING_CODES,
   toColumns,
 } from './columns.js';
 import { isMonth, monthFromIndex, monthIndex, yearOfMonthIndex } from './month.js';
@@ -46,6 +49,28 @@ function flat(r: CareRecord): FlatCareRecord {
   };
 }
 
+/** The same row in codes, as MariaDB sends it for the sums (ENUM + 0, month indices). */
+function coded(r: CareRecord): CodedCareRecord {
+  const f = flat(r);
+  const m = (x: string | null) => (x === null ? null : monthIndex(x));
+  return {
+    ...f,
+    sex: SEX_CODES.indexOf(f.sex),
+    diabetesType:
+      f.diabetesType === null ? 0 : ['type1', 'type2', 'other'].indexOf(f.diabetesType) + 1,
+    hba1cMonth: m(f.hba1cMonth),
+    bloodPressureMonth: m(f.bloodPressureMonth),
+    cholesterolMonth: m(f.cholesterolMonth),
+    serumCreatinineMonth: m(f.serumCreatinineMonth),
+    urineAlbuminMonth: m(f.urineAlbuminMonth),
+    footSurveillanceMonth: m(f.footSurveillanceMonth),
+    bmiMonth: m(f.bmiMonth),
+    smokingMonth: m(f.smokingMonth),
+    smokingStatus: SMOKING_CODES.indexOf(f.smokingStatus),
+    retinalScreeningMonth: m(f.retinalScreeningMonth),
+  };
+}
+
 describe('month indices', () => {
   it('convert both ways and count months', () => {
     expect(monthIndex('2026-09') - monthIndex('2025-10')).toBe(11);
@@ -81,6 +106,32 @@ describe('columnar form', () => {
         expect(b).toEqual(a);
       }),
     );
+  });
+
+  it('builds the same columns from coded rows as from flat rows', () => {
+    fc.assert(
+      fc.property(fc.array(arbitraryRecord, { maxLength: 20 }), (records) => {
+        const a = createColumnBuilder({ capacity: 1 });
+        const b = createColumnBuilder({ capacity: 1 });
+        for (const r of records) {
+          a.appendFlat(flat(r));
+          b.appendCoded(coded(r));
+        }
+        expect(b.finish()).toEqual(a.finish());
+      }),
+    );
+  });
+
+  it('refuses coded rows whose codes or month indices cannot be', () => {
+    const row = coded(record({}));
+    const b = createColumnBuilder();
+    expect(() => b.appendCoded({ ...row, sex: 4 })).toThrow(/sex must be a code/);
+    expect(() => b.appendCoded({ ...row, diabetesType: 7 })).toThrow(/diabetesType/);
+    expect(() => b.appendCoded({ ...row, hba1cMonth: 3.5 })).toThrow(/hba1c must be a month index/);
+    expect(() => b.appendCoded({ ...row, smokingMonth: 24_300, smokingStatus: 0 })).toThrow(
+      /smokingStatus is required/,
+    );
+    expect(b.length).toBe(0);
   });
 
   it('encodes missing values with the documented sentinels', () => {

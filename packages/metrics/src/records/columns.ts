@@ -49,6 +49,8 @@ export interface CareColumns {
 
 export const MISSING_MONTH = -32768;
 export const MISSING_YEAR = -32768;
+/** The largest month index the Int16 month columns hold (December of year 2730). */
+const MAX_MONTH_INDEX = 2730 * 12 + 11;
 export const SEX_CODES: readonly Sex[] = ['F', 'M', 'X', 'U'];
 export const TYPE_UNKNOWN = 0;
 export const TYPE_1 = 1;
@@ -106,6 +108,44 @@ export interface FlatCareRecord {
   cvdHistory: boolean | null;
 }
 
+/**
+ * A flat row already in the columnar form's codes, as a database can send it without any
+ * string: months as month indices (month.ts: year × 12 + month − 1) or null, sex as its index
+ * in SEX_CODES (0…3), the diabetes type as TYPE_UNKNOWN, TYPE_1, TYPE_2 or TYPE_OTHER, the
+ * smoking status as its index in SMOKING_CODES (0: none). Use it with
+ * `ColumnBuilder.appendCoded`; it builds the same columns as the same row through appendFlat.
+ */
+export interface CodedCareRecord {
+  practiceCode: string;
+  recordKey?: string | null;
+  birthYear: number;
+  sex: number;
+  diabetesType: number;
+  diagnosisYear: number | null;
+  deprivationQuintile: number | null;
+  hba1cMonth: number | null;
+  hba1cMmolMol: number | null;
+  bloodPressureMonth: number | null;
+  systolic: number | null;
+  diastolic: number | null;
+  cholesterolMonth: number | null;
+  totalCholesterolMmolL: number | null;
+  serumCreatinineMonth: number | null;
+  serumCreatinineUmolL: number | null;
+  urineAlbuminMonth: number | null;
+  acrMgMmol: number | null;
+  footSurveillanceMonth: number | null;
+  bmiMonth: number | null;
+  bmiKgM2: number | null;
+  smokingMonth: number | null;
+  smokingStatus: number;
+  retinalScreeningMonth: number | null;
+  onStatin: boolean | null;
+  onInsulin: boolean | null;
+  insulinStartYear: number | null;
+  cvdHistory: boolean | null;
+}
+
 export interface ColumnBuilderOptions {
   /** Expected number of records (the arrays grow by doubling beyond it). Default 1024. */
   capacity?: number;
@@ -122,6 +162,8 @@ export interface ColumnBuilder {
   append(record: CareRecord): void;
   /** Appends a flat row (see `FlatCareRecord`). */
   appendFlat(row: FlatCareRecord): void;
+  /** Appends a flat row already in codes (see `CodedCareRecord`). */
+  appendCoded(row: CodedCareRecord): void;
   /** The columns built so far, trimmed to length. The builder must not be used afterwards. */
   finish(): CareColumns;
 }
@@ -334,6 +376,24 @@ export function createColumnBuilder(options: ColumnBuilderOptions = {}): ColumnB
     return m;
   }
 
+  /** Writes one care process's month index (checked: a month of years 1…2730, or null). */
+  function putIndex(
+    months: Int16Array,
+    field: CareProcessField,
+    month: number | null,
+    i: number,
+  ): number {
+    if (month === null) {
+      months[i] = MISSING_MONTH;
+      return MISSING_MONTH;
+    }
+    if (!Number.isInteger(month) || month < 12 || month > MAX_MONTH_INDEX) {
+      throw new RangeError(`record ${i}: ${field} must be a month index (got ${String(month)})`);
+    }
+    months[i] = month;
+    return month;
+  }
+
   /** Writes one measurement of a care process whose month is m (NaN when not recorded). */
   function putValue(
     values: Float64Array,
@@ -444,6 +504,53 @@ export function createColumnBuilder(options: ColumnBuilderOptions = {}): ColumnB
           throw new RangeError(`record ${i}: smokingStatus is required with smokingMonth`);
         }
         putMonth(a.months.retinalScreening, 'retinalScreening', r.retinalScreeningMonth, i);
+        flags(i, r.onStatin, r.onInsulin, r.insulinStartYear, r.cvdHistory);
+      } catch (error) {
+        if (recordKeys !== null) recordKeys.pop();
+        throw error;
+      }
+      length++;
+    },
+    appendCoded(r: CodedCareRecord): void {
+      const i = slot(r.practiceCode, r.recordKey);
+      try {
+        const sex = r.sex;
+        if (sex !== 0 && sex !== 1 && sex !== 2 && sex !== 3) {
+          throw new RangeError(`record ${i}: sex must be a code 0…3 (got ${String(sex)})`);
+        }
+        const type = r.diabetesType;
+        if (type !== TYPE_UNKNOWN && type !== TYPE_1 && type !== TYPE_2 && type !== TYPE_OTHER) {
+          throw new RangeError(
+            `record ${i}: diabetesType must be a code 0…3 (got ${String(type)})`,
+          );
+        }
+        common(i, r.birthYear, SEX_CODES[sex]!, null, r.diagnosisYear, r.deprivationQuintile);
+        a.diabetesType[i] = type;
+        const { months, values } = a;
+        let m = putIndex(months.hba1c, 'hba1c', r.hba1cMonth, i);
+        putValue(values.hba1c, 'hba1c', m, r.hba1cMmolMol, i);
+        m = putIndex(months.bloodPressure, 'bloodPressure', r.bloodPressureMonth, i);
+        putValue(values.systolic, 'systolic', m, r.systolic, i);
+        putValue(values.diastolic, 'diastolic', m, r.diastolic, i);
+        m = putIndex(months.cholesterol, 'cholesterol', r.cholesterolMonth, i);
+        putValue(values.cholesterol, 'cholesterol', m, r.totalCholesterolMmolL, i);
+        m = putIndex(months.serumCreatinine, 'serumCreatinine', r.serumCreatinineMonth, i);
+        putValue(values.serumCreatinine, 'serumCreatinine', m, r.serumCreatinineUmolL, i);
+        m = putIndex(months.urineAlbumin, 'urineAlbumin', r.urineAlbuminMonth, i);
+        putValue(values.urineAlbumin, 'urineAlbumin', m, r.acrMgMmol, i);
+        putIndex(months.footSurveillance, 'footSurveillance', r.footSurveillanceMonth, i);
+        m = putIndex(months.bmi, 'bmi', r.bmiMonth, i);
+        putValue(values.bmi, 'bmi', m, r.bmiKgM2, i);
+        m = putIndex(months.smoking, 'smoking', r.smokingMonth, i);
+        const smokingCode = r.smokingStatus;
+        if (smokingCode !== 0 && smokingCode !== 1 && smokingCode !== 2 && smokingCode !== 3) {
+          throw new RangeError(`record ${i}: smokingStatus must be a code 0…3`);
+        }
+        if (m !== MISSING_MONTH && smokingCode === 0) {
+          throw new RangeError(`record ${i}: smokingStatus is required with smokingMonth`);
+        }
+        a.smokingStatus[i] = m === MISSING_MONTH ? 0 : smokingCode;
+        putIndex(months.retinalScreening, 'retinalScreening', r.retinalScreeningMonth, i);
         flags(i, r.onStatin, r.onInsulin, r.insulinStartYear, r.cvdHistory);
       } catch (error) {
         if (recordKeys !== null) recordKeys.pop();

@@ -11,39 +11,12 @@ import type {
   Sex,
   SmokingStatus,
 } from '@cairn/metrics';
+import { CARE_COLUMNS } from './record-columns.js';
 
 /** The columns read, in this order (a SELECT list; table alias optional). */
-export const CARE_RECORD_SELECT = [
-  'source_row',
-  'record_ref',
-  'pseudonym',
-  'birth_year',
-  'sex',
-  'diabetes_type',
-  'diagnosis_year',
-  'deprivation_quintile',
-  'hba1c_month',
-  'hba1c_mmol_mol',
-  'blood_pressure_month',
-  'systolic',
-  'diastolic',
-  'cholesterol_month',
-  'total_cholesterol_mmol_l',
-  'serum_creatinine_month',
-  'serum_creatinine_umol_l',
-  'urine_albumin_month',
-  'acr_mg_mmol',
-  'foot_surveillance_month',
-  'bmi_month',
-  'bmi_kg_m2',
-  'smoking_month',
-  'smoking_status',
-  'retinal_screening_month',
-  'on_statin',
-  'on_insulin',
-  'insulin_start_year',
-  'cvd_history',
-].join(', ');
+export const CARE_RECORD_SELECT = ['source_row', 'record_ref', 'pseudonym', ...CARE_COLUMNS].join(
+  ', ',
+);
 
 export interface CareRecordRow {
   source_row: number;

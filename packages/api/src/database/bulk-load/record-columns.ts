@@ -42,6 +42,16 @@ export const RECORD_COLUMNS = [
 
 export type RecordColumn = (typeof RECORD_COLUMNS)[number];
 
+/**
+ * The columns of one person's care record, those the metrics read (FlatCareRecord's fields in
+ * snake case, RECORD_COLUMNS from birth_year to cvd_history): every SELECT of records for the
+ * metrics, the recall lists and the sums is made from this list.
+ */
+export const CARE_COLUMNS = RECORD_COLUMNS.slice(
+  RECORD_COLUMNS.indexOf('birth_year'),
+  RECORD_COLUMNS.indexOf('cvd_history') + 1,
+) as readonly RecordColumn[];
+
 export const COL = Object.fromEntries(RECORD_COLUMNS.map((name, i) => [name, i])) as {
   [K in RecordColumn]: number;
 };

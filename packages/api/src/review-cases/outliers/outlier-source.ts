@@ -89,7 +89,7 @@ export class DraftBenchmarkSource implements OutlierSource {
   private readonly keyReads = new FreshReads<Map<number, string | null>>();
 
   /**
-   * The quarter's current set (its key, made by MariaDB) under the quarter's measure set.
+   * The quarter's current set (its key, from the quarter's current-set row) under the quarter's measure set.
    * Requests at once share reads (`FreshReads`): never one that began before they came.
    */
   async keysOf(quarters: readonly QuarterDto[]): Promise<Map<number, string | null>> {

@@ -10,8 +10,8 @@
  * - fill: every submission's sums missing at once, as after a measure-set change (`ofCurrent`
  *   reading them in one streamed read).
  *
- * The rows reach the code as the connector hands them over (arrays in SUMS_COLUMNS order, no
- * type cast), from an in-memory stand-in for the repository's four reads and writes; the
+ * The rows reach the code as the connector hands them over (arrays in SUMS_COLUMNS order, in
+ * the codes SUMS_SELECT asks MariaDB for, no type cast), from an in-memory stand-in for the repository's four reads and writes; the
  * database paths themselves are checked in test/benchmarks.e2e-spec.ts.
  */
 import { readFileSync } from 'node:fs';
@@ -80,6 +80,24 @@ const world = fc.record({
 
 type Row = unknown[];
 
+/**
+ * A stored value as the sums read's SELECT sends it (sums-rows.ts, `SUMS_SELECT`): months as
+ * month indices, sex as 0…3, diabetes type and smoking status as 1…3 or 0 for NULL.
+ */
+function asSent(column: string, value: unknown): unknown {
+  if (value === null) {
+    return column === 'diabetes_type' || column === 'smoking_status' ? 0 : null;
+  }
+  if (column.endsWith('_month')) {
+    const [year, month] = String(value).split('-').map(Number) as [number, number];
+    return year * 12 + month - 1;
+  }
+  if (column === 'sex') return ['F', 'M', 'X', 'U'].indexOf(String(value));
+  if (column === 'diabetes_type') return ['type1', 'type2', 'other'].indexOf(String(value)) + 1;
+  if (column === 'smoking_status') return ['current', 'ex', 'never'].indexOf(String(value)) + 1;
+  return value;
+}
+
 /** The repository's reads and writes of records and sums, in memory. */
 function memoryRepository(
   rowsOf: ReadonlyMap<number, Row[]>,
@@ -103,6 +121,7 @@ function memoryRepository(
     replaceSums: async (rows: readonly SumsRow[]) => {
       written.push(...rows);
     },
+    currentRecordCount: async () => quarterRows.length,
   };
   return { repository: repository as unknown as SubmissionRepository, written };
 }
@@ -132,7 +151,7 @@ describe('the incremental path and the full recompute from records', () => {
             subjects[p]!.submissionId,
             records.map((r) => [
               subjects[p]!.submissionId,
-              ...SUMS_COLUMNS.map((c) => r[c as keyof typeof r]),
+              ...SUMS_COLUMNS.map((c) => asSent(c, r[c as keyof typeof r])),
             ]),
           ]),
         );

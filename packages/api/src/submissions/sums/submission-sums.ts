@@ -225,7 +225,9 @@ export class SubmissionSums {
     quarter: AuditQuarter,
   ): Promise<Map<number, PracticeSums>> {
     const codeOf = new Map(subjects.map((s) => [s.submissionId, s.practiceCode]));
-    const capacity = subjects.reduce((n, s) => n + s.records, 0);
+    // The builder's arrays sized once for every record (not grown by doubling from a few).
+    const hinted = subjects.reduce((n, s) => n + s.records, 0);
+    const capacity = hinted > 0 ? hinted : await this.repository.currentRecordCount(quarterId);
     const byCode = await this.compute(
       { quarterId },
       (submissionId) => {

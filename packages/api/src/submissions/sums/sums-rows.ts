@@ -2,52 +2,39 @@
  * The care_records columns a submission's sums are computed from, and how
  * one row of them goes into @cairn/metrics' column builder. Rows arrive as
  * arrays straight from the mariadb connector (streamed, no type cast): the
- * submission id first, then SUMS_COLUMNS in this order. Numbers arrive as
- * numbers, ENUMs and months ('YYYY-MM') as strings, TINYINT(1) as 0 or 1.
+ * submission id first, then SUMS_COLUMNS in this order, already in the
+ * column builder's codes, so that no string is made per row (`sumsSelect`):
+ * months as month indices (year × 12 + month − 1, computed by MariaDB from
+ * the stored 'YYYY-MM'), the ENUMs as their 1-based index less one (sex
+ * F, M, X, U → 0…3, as SEX_CODES) or as it is (diabetes type type1, type2,
+ * other → 1…3 and smoking status current, ex, never → 1…3; NULL → 0, as
+ * TYPE_UNKNOWN and "no status"), TINYINT(1) as 0 or 1.
  */
-import type {
-  ColumnBuilder,
-  DiabetesType,
-  FlatCareRecord,
-  Month,
-  Sex,
-  SmokingStatus,
-} from '@cairn/metrics';
+import type { CodedCareRecord, ColumnBuilder } from '@cairn/metrics';
+import { CARE_COLUMNS } from '../../database/bulk-load/record-columns.js';
 
 /** Every column the metrics read, per record (FlatCareRecord's fields in snake case). */
-export const SUMS_COLUMNS = [
-  'birth_year',
-  'sex',
-  'diabetes_type',
-  'diagnosis_year',
-  'deprivation_quintile',
-  'hba1c_month',
-  'hba1c_mmol_mol',
-  'blood_pressure_month',
-  'systolic',
-  'diastolic',
-  'cholesterol_month',
-  'total_cholesterol_mmol_l',
-  'serum_creatinine_month',
-  'serum_creatinine_umol_l',
-  'urine_albumin_month',
-  'acr_mg_mmol',
-  'foot_surveillance_month',
-  'bmi_month',
-  'bmi_kg_m2',
-  'smoking_month',
-  'smoking_status',
-  'retinal_screening_month',
-  'on_statin',
-  'on_insulin',
-  'insulin_start_year',
-  'cvd_history',
-] as const;
+export const SUMS_COLUMNS = CARE_COLUMNS;
+
+/** The SELECT expression of one sums column of table alias `r`, in the builder's codes. */
+function coded(column: string): string {
+  if (column.endsWith('_month')) {
+    return `CAST(SUBSTRING(r.${column}, 1, 4) AS UNSIGNED) * 12 + CAST(SUBSTRING(r.${column}, 6, 2) AS UNSIGNED) - 1`;
+  }
+  if (column === 'sex') return 'r.sex + 0 - 1';
+  if (column === 'diabetes_type' || column === 'smoking_status') {
+    return `COALESCE(r.${column} + 0, 0)`;
+  }
+  return `r.${column}`;
+}
+
+/** SUMS_COLUMNS of care_records `r` as the SELECT list of a sums read (see above). */
+export const SUMS_SELECT = SUMS_COLUMNS.map(coded).join(', ');
 
 const flag = (value: unknown): boolean | null => (value === null ? null : Number(value) !== 0);
 
 /**
- * A function that appends one streamed row ([submission id, ...SUMS_COLUMNS]) to the builder,
+ * A function that appends one streamed row ([submission id, ...SUMS_SELECT]) to the builder,
  * as the practice `practiceOf(submissionId)` names. One record object is reused for every row,
  * so no object is made per row.
  */
@@ -55,11 +42,11 @@ export function rowAppender(
   builder: ColumnBuilder,
   practiceOf: (submissionId: number) => string,
 ): (row: unknown[]) => void {
-  const r: FlatCareRecord = {
+  const r: CodedCareRecord = {
     practiceCode: '',
     birthYear: 0,
-    sex: 'U',
-    diabetesType: null,
+    sex: 3,
+    diabetesType: 0,
     diagnosisYear: null,
     deprivationQuintile: null,
     hba1cMonth: null,
@@ -77,7 +64,7 @@ export function rowAppender(
     bmiMonth: null,
     bmiKgM2: null,
     smokingMonth: null,
-    smokingStatus: null,
+    smokingStatus: 0,
     retinalScreeningMonth: null,
     onStatin: null,
     onInsulin: null,
@@ -92,41 +79,41 @@ export function rowAppender(
       lastSubmission = submission;
     }
     r.birthYear = row[1] as number;
-    r.sex = row[2] as Sex;
-    r.diabetesType = row[3] as DiabetesType | null;
+    r.sex = row[2] as number;
+    r.diabetesType = row[3] as number;
     r.diagnosisYear = row[4] as number | null;
     r.deprivationQuintile = row[5] as number | null;
     // A measurement counts only with its month and its value (as toStoredRecord reads it).
     const hba1c = row[7] as number | null;
-    r.hba1cMonth = hba1c === null ? null : (row[6] as Month | null);
+    r.hba1cMonth = hba1c === null ? null : (row[6] as number | null);
     r.hba1cMmolMol = hba1c;
     const systolic = row[9] as number | null;
     const diastolic = row[10] as number | null;
     r.bloodPressureMonth =
-      systolic === null || diastolic === null ? null : (row[8] as Month | null);
+      systolic === null || diastolic === null ? null : (row[8] as number | null);
     r.systolic = systolic;
     r.diastolic = diastolic;
     const cholesterol = row[12] as number | null;
-    r.cholesterolMonth = cholesterol === null ? null : (row[11] as Month | null);
+    r.cholesterolMonth = cholesterol === null ? null : (row[11] as number | null);
     r.totalCholesterolMmolL = cholesterol;
     const creatinine = row[14] as number | null;
-    r.serumCreatinineMonth = creatinine === null ? null : (row[13] as Month | null);
+    r.serumCreatinineMonth = creatinine === null ? null : (row[13] as number | null);
     r.serumCreatinineUmolL = creatinine;
     const acr = row[16] as number | null;
-    r.urineAlbuminMonth = acr === null ? null : (row[15] as Month | null);
+    r.urineAlbuminMonth = acr === null ? null : (row[15] as number | null);
     r.acrMgMmol = acr;
-    r.footSurveillanceMonth = row[17] as Month | null;
+    r.footSurveillanceMonth = row[17] as number | null;
     const bmi = row[19] as number | null;
-    r.bmiMonth = bmi === null ? null : (row[18] as Month | null);
+    r.bmiMonth = bmi === null ? null : (row[18] as number | null);
     r.bmiKgM2 = bmi;
-    const smoking = row[21] as SmokingStatus | null;
-    r.smokingMonth = smoking === null ? null : (row[20] as Month | null);
+    const smoking = row[21] as number;
+    r.smokingMonth = smoking === 0 ? null : (row[20] as number | null);
     r.smokingStatus = smoking;
-    r.retinalScreeningMonth = row[22] as Month | null;
+    r.retinalScreeningMonth = row[22] as number | null;
     r.onStatin = flag(row[23]);
     r.onInsulin = flag(row[24]);
     r.insulinStartYear = row[25] as number | null;
     r.cvdHistory = flag(row[26]);
-    builder.appendFlat(r);
+    builder.appendCoded(r);
   };
 }

@@ -703,7 +703,7 @@ export interface paths {
     };
     /**
      * Every practice on every measure of an audit quarter, with the region’s statistics
-     * @description Read from the practices’ current submissions for the quarter; `builtFrom` says which set. Practices without a current submission are listed in `coverage.missing`, never counted as zero. 404 quarter-not-found, 404 locality-not-found; 400 for a bad split.
+     * @description Read from the practices’ current submissions for the quarter; `builtFrom` says which set. Practices without a current submission are listed in `coverage.missing`, never counted as zero. 404 quarter-not-found, 404 locality-not-found; 400 for a bad split. Sent with an ETag; If-None-Match with it gives 304 while nothing it was built from has changed.
      */
     get: operations['BenchmarkController_region'];
     put?: never;
@@ -763,7 +763,7 @@ export interface paths {
     };
     /**
      * A practice's results for an audit quarter, against the region, with its trend
-     * @description Every measure and split: its own figures, the region's rate, median and limits at its n, its flags, change since the previous quarter, trend with run-chart signals and improvement potential; breakdowns, kidney grid, time to insulin and value histograms against the region; data-quality flags. Other practices appear only as region aggregates and unnamed points, under disclosure control for practice leads. A practice without a current submission: state no-current-submission, with the upload action.
+     * @description Every measure and split: its own figures, the region's rate, median and limits at its n, its flags, change since the previous quarter, trend with run-chart signals and improvement potential; breakdowns, kidney grid, time to insulin and value histograms against the region; data-quality flags. Other practices appear only as region aggregates and unnamed points, under disclosure control for practice leads. A practice without a current submission: state no-current-submission, with the upload action. Sent with an ETag; If-None-Match with it gives 304 while nothing it was built from has changed.
      */
     get: operations['PracticeResultsController_get'];
     put?: never;

@@ -1,0 +1,137 @@
+/**
+ * Finished responses of the results routes, stored by what they were built
+ * from. A route names every input of its response in an answer key (the
+ * stored results of the quarters it reads, the quarter and the region's
+ * practices and localities as they are now, the split, locality, practice,
+ * what the reader may see, ANSWER_FORMAT); the response is then
+ *
+ *   1. this process's bytes of that key (a bounded memo: a key's bytes never
+ *      change, so any process may keep them), else
+ *   2. the stored row of that key (benchmark_answers: gzip of the JSON), else
+ *   3. built once (concurrent requests of one key share the build), encoded,
+ *      stored with INSERT IGNORE and served.
+ *
+ * Nothing a reader needs lives only here: another process finds the row or
+ * builds the same bytes. A key is never served for other inputs: any change of
+ * them (a confirm, a renamed practice, a quarter's new deadline) is another key.
+ * The ETag is the key's hash, so an unchanged answer is a 304.
+ */
+import { createHash } from 'node:crypto';
+import { promisify } from 'node:util';
+import { gunzip, gzip } from 'node:zlib';
+import { Inject, Injectable, Logger } from '@nestjs/common';
+import { BenchmarkAnswersRepository } from './benchmark-answers.repository.js';
+
+const gzipAsync = promisify(gzip);
+const gunzipAsync = promisify(gunzip);
+
+/** Change when a stored answer's bytes would change for the same inputs (a DTO change). */
+export const ANSWER_FORMAT = 1;
+
+/** A finished response: its JSON bytes, plain and gzip, and its entity tag. */
+export interface StoredAnswer {
+  /** SHA-256 (hex) of the answer key */
+  key: string;
+  /** A strong entity tag made of the key, quoted */
+  etag: string;
+  plain: Buffer;
+  gzip: Buffer;
+}
+
+/** Bytes of answers (plain + gzip) kept in memory at most. */
+const MEMO_BYTES = 64 * 1024 * 1024;
+
+@Injectable()
+export class StoredAnswers {
+  private readonly logger = new Logger('StoredAnswers');
+  private readonly memo = new Map<string, StoredAnswer>();
+  private memoBytes = 0;
+  private readonly building = new Map<string, Promise<StoredAnswer>>();
+
+  constructor(
+    @Inject(BenchmarkAnswersRepository) private readonly repository: BenchmarkAnswersRepository,
+  ) {}
+
+  /** The hash of an answer's inputs (each part a string; their order matters). */
+  static keyOf(kind: string, parts: readonly string[]): string {
+    return createHash('sha256')
+      .update(JSON.stringify([kind, ANSWER_FORMAT, ...parts]))
+      .digest('hex');
+  }
+
+  /** The answer of this key: remembered, stored, or built now by `build` and stored. */
+  async answer(
+    kind: string,
+    quarterId: number,
+    key: string,
+    build: () => Promise<unknown>,
+  ): Promise<StoredAnswer> {
+    const known = this.memo.get(key);
+    if (known) {
+      // Most recently used last.
+      this.memo.delete(key);
+      this.memo.set(key, known);
+      return known;
+    }
+    let pending = this.building.get(key);
+    if (!pending) {
+      pending = this.findOrBuild(kind, quarterId, key, build).finally(() =>
+        this.building.delete(key),
+      );
+      this.building.set(key, pending);
+    }
+    return pending;
+  }
+
+  private async findOrBuild(
+    kind: string,
+    quarterId: number,
+    key: string,
+    build: () => Promise<unknown>,
+  ): Promise<StoredAnswer> {
+    const stored = await this.repository.find(key);
+    if (stored) {
+      let plain: Buffer | null = null;
+      try {
+        plain = await gunzipAsync(stored);
+      } catch {
+        // Damaged bytes: built again below (the row keeps them; INSERT IGNORE).
+      }
+      if (plain) return this.remember({ key, etag: `"${key}"`, plain, gzip: stored });
+    }
+    const plain = Buffer.from(JSON.stringify(await build()), 'utf8');
+    // Compressed on libuv's threads, not this one (a national answer is tens of megabytes).
+    const gzip = await gzipAsync(plain, { level: 1 });
+    try {
+      await this.repository.insert({
+        answerKey: key,
+        kind,
+        quarterId,
+        plainBytes: plain.length,
+        gzip,
+      });
+    } catch (error) {
+      // Served all the same: another process finds no row and builds the same bytes (e.g. an
+      // answer larger than the server's max_allowed_packet).
+      this.logger.warn(
+        `the ${kind} answer of quarter ${quarterId} (${gzip.length} bytes) was not stored: ${(error as Error).message}`,
+      );
+    }
+    return this.remember({ key, etag: `"${key}"`, plain, gzip });
+  }
+
+  private remember(answer: StoredAnswer): StoredAnswer {
+    const size = (a: StoredAnswer) => a.plain.length + a.gzip.length + 256;
+    const old = this.memo.get(answer.key);
+    if (old) this.memoBytes -= size(old);
+    this.memo.delete(answer.key);
+    this.memo.set(answer.key, answer);
+    this.memoBytes += size(answer);
+    for (const [oldest, entry] of this.memo) {
+      if (this.memoBytes <= MEMO_BYTES || oldest === answer.key) break;
+      this.memo.delete(oldest);
+      this.memoBytes -= size(entry);
+    }
+    return answer;
+  }
+}
