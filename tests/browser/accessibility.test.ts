@@ -7,7 +7,7 @@
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { type A11yViolation, auditA11y, describeViolations } from '../support/a11y.ts';
-import { type BrowserSession, openBrowser } from '../support/browser.ts';
+import { type BrowserSession, openBrowser, waitForLanding } from '../support/browser.ts';
 import { type CairnServer, startCairn } from '../support/cairn-server.ts';
 
 /** Page structure rules (moderate in axe) that Cairn holds as strictly as the serious ones. */
@@ -29,6 +29,8 @@ interface Visit {
   path: string;
   /** The document title expected (without " · Cairn") */
   title: string;
+  /** Console errors the visit causes on purpose (a refusal the page explains) */
+  expectedErrors?: string[];
 }
 
 describe('accessibility of every page, for every role', () => {
@@ -64,7 +66,7 @@ describe('accessibility of every page, for every role', () => {
     await page.goto(server.baseUrl + '/sign-in', { waitUntil: 'networkidle' });
     await page.getByRole('button', { name: "Continue to your organisation's sign-in" }).click();
     await page.getByRole('button', { name: `Sign in as ${name}` }).click();
-    await page.getByRole('heading', { name: `Welcome, ${name}` }).waitFor();
+    await waitForLanding(page, name);
   }
 
   /** Reads the API as the signed-in person (the page's own session). */
@@ -75,6 +77,40 @@ describe('accessibility of every page, for every role', () => {
       return (await res.json()) as T;
     }, path);
   }
+
+  /** Sends JSON as the signed-in person (with the session's CSRF token), as the pages do. */
+  async function post<T>(path: string, body: unknown): Promise<T> {
+    return browser.page.evaluate(
+      async ({ path, body }) => {
+        const session = (await (await fetch('/api/session')).json()) as { csrfToken: string };
+        const res = await fetch(path, {
+          method: 'POST',
+          headers: { 'Content-Type': 'application/json', 'X-CSRF-Token': session.csrfToken },
+          body: JSON.stringify(body),
+        });
+        if (!res.ok) throw new Error(`${path} answered ${res.status}: ${await res.text()}`);
+        return (await res.json()) as T;
+      },
+      { path, body },
+    );
+  }
+
+  /** The open audit quarter, and practices' ids by code (never a hard-coded database id). */
+  async function region() {
+    const quarters = await api<{ id: number; status: string }[]>('/api/quarters');
+    const open = quarters.find((q) => q.status === 'open')!;
+    const coverage = await api<{ practices: { practice: { id: number; code: string } }[] }>(
+      `/api/quarters/${open.id}/coverage`,
+    );
+    const id = (code: string) =>
+      coverage.practices.find((p) => p.practice.code === code)!.practice.id;
+    return { open, id };
+  }
+
+  /** Set by the newer pages' visits below: the report published, the review case opened. */
+  let reportId = 0;
+  let caseId = 0;
+  let ov201 = 0;
 
   /** Sends an extract as the signed-in person, as the upload page does. */
   async function uploadCsv(practiceId: number, quarterId: number, name: string, text: string) {
@@ -135,7 +171,7 @@ describe('accessibility of every page, for every role', () => {
     }
     expect(await page.locator('h1').count(), `${where}: one h1`).toBe(1);
     expect(await page.title(), where).toBe(visit.title ? `${visit.title} · Cairn` : 'Cairn');
-    expect(browser.errors.slice(errorsBefore), where).toEqual([]);
+    expect(browser.errors.slice(errorsBefore), where).toEqual(visit.expectedErrors ?? []);
   }
 
   /** Pages every role reads: audit quarters, measure sets and one of them, the profile. */
@@ -226,6 +262,82 @@ describe('accessibility of every page, for every role', () => {
     await check('regional lead', { name: 'sign-out', path: '/sign-out', title: 'Sign in' });
   });
 
+  it('regional lead: results, benchmark, a published report, outliers, digests, a measure-set draft', async () => {
+    await signIn('Imogen Varley');
+    const { open, id } = await region();
+    ov201 = id('OV201');
+    const ov303 = id('OV303');
+    const before: Visit[] = [
+      { name: 'sign-in landing', path: '/start', title: 'Home' },
+      { name: 'digests, none yet', path: '/digests', title: 'Digests' },
+      {
+        name: 'reports of the open quarter, none yet',
+        path: `/reports?quarter=${open.id}`,
+        title: 'Reports',
+      },
+    ];
+    for (const visit of before) await check('regional lead', visit);
+    // Publish the open quarter's report, as the quarter's reports page does.
+    const report = await post<{ id: number; label: string }>(`/api/quarters/${open.id}/reports`, {
+      releaseNote: 'Report published for the accessibility walk.',
+    });
+    reportId = report.id;
+    const [set] = await api<{ id: string }[]>('/api/measure-sets');
+    const draft = await post<{ id: string; label: string }>(
+      `/api/measure-sets/${encodeURIComponent(set!.id)}/drafts`,
+      // A versioned id, as the form asks for (the set's own, one version on).
+      {
+        id: set!.id.replace(/\.(\d+)$/, (_, v: string) => `.${Number(v) + 1}`),
+        label: 'Draft for the walk',
+      },
+    );
+    const outliers = await api<{
+      rows: { practice: { id: number; code: string }; measure: { key: string; label: string } }[];
+    }>(`/api/quarters/${open.id}/outliers`);
+    const outlier = outliers.rows[0]!;
+    for (const visit of [
+      { name: 'region benchmark', path: '/benchmark', title: 'Region benchmark' },
+      {
+        name: 'region benchmark, adjusted limits, case mix, a locality',
+        path: `/benchmark?quarter=${open.id}&limits=adjusted&casemix=on&split=type2_other`,
+        title: 'Region benchmark',
+      },
+      { name: 'results (sent to the benchmark)', path: '/results', title: 'Region benchmark' },
+      { name: 'practice results', path: `/practices/${ov201}/results`, title: 'Results · OV201' },
+      ...['peers', 'values', 'breakdowns', 'kidney', 'insulin', 'quality', 'recall'].map((tab) => ({
+        name: `practice results, ${tab}`,
+        path: `/practices/${ov201}/results?tab=${tab}`,
+        title: 'Results · OV201',
+      })),
+      {
+        name: 'practice results, no current submission',
+        path: `/practices/${ov303}/results`,
+        title: 'Results · OV303',
+      },
+      { name: 'reports', path: '/reports', title: 'Reports' },
+      { name: 'a report', path: `/reports/${reportId}`, title: report.label },
+      { name: 'outlier list', path: '/outliers', title: 'Outlier list' },
+      {
+        name: 'an outlier drilled into',
+        path: `/outliers/${open.id}/practices/${outlier.practice.id}/measures/${outlier.measure.key}`,
+        title: `${outlier.practice.code} · ${outlier.measure.label}`,
+      },
+      { name: 'review cases, none yet', path: '/review-cases', title: 'Review cases' },
+      { name: 'digests', path: '/digests', title: 'Digests' },
+      {
+        name: 'a digest previewed',
+        path: `/digests?report=${reportId}&practice=${ov201}`,
+        title: 'Digests',
+      },
+      {
+        name: 'a measure-set draft, edited in forms',
+        path: `/measure-sets/${encodeURIComponent(draft.id)}`,
+        title: draft.label,
+      },
+    ])
+      await check('regional lead', visit);
+  }, 600_000);
+
   it('auditor: every page it can reach, and the ones it cannot', async () => {
     await signIn('Tobias Renwick');
     const [latest] = await api<{ id: number }[]>('/api/quarters');
@@ -247,13 +359,63 @@ describe('accessibility of every page, for every role', () => {
         title: `Submission ${report.id}`,
       },
       { name: 'audit trail', path: '/audit-trail', title: 'Audit trail' },
+      ...(await auditorNewerPages()),
       { name: 'upload (not for auditors)', path: '/extracts/upload', title: 'Upload extract' },
       { name: 'users (not for auditors)', path: '/users', title: 'Users' },
       ...mailPages(),
       ...(await everyone()),
     ])
       await check('auditor', visit);
-  });
+  }, 600_000);
+
+  /**
+   * The auditor's newer pages: benchmark, results, the report, outliers and a drill-down, and a
+   * review case opened on OV201 and asked of the practice (for its lead's visit below).
+   */
+  async function auditorNewerPages(): Promise<Visit[]> {
+    const { open } = await region();
+    const outliers = await api<{
+      rows: { practice: { id: number; code: string }; measure: { key: string; label: string } }[];
+    }>(`/api/quarters/${open.id}/outliers`);
+    const outlier = outliers.rows.find((r) => r.practice.id === ov201) ?? outliers.rows[0]!;
+    const opened = await post<{ id: number; version: number }>('/api/review-cases', {
+      quarterId: open.id,
+      practiceId: outlier.practice.id,
+      measureKey: outlier.measure.key,
+      split: 'all',
+      note: 'Opened for the accessibility walk.',
+    });
+    caseId = opened.id;
+    await post(`/api/review-cases/${caseId}/transitions`, {
+      action: 'ask',
+      expectedVersion: opened.version,
+      message: 'Could you tell us how these records were coded?',
+    });
+    return [
+      { name: 'region benchmark', path: '/benchmark', title: 'Region benchmark' },
+      { name: 'results (sent to the benchmark)', path: '/results', title: 'Region benchmark' },
+      {
+        name: 'practice results',
+        path: `/practices/${outlier.practice.id}/results`,
+        title: `Results · ${outlier.practice.code}`,
+      },
+      { name: 'reports', path: '/reports', title: 'Reports' },
+      { name: 'a report', path: `/reports/${reportId}`, title: await reportLabel() },
+      { name: 'outlier list', path: '/outliers', title: 'Outlier list' },
+      {
+        name: 'an outlier drilled into',
+        path: `/outliers/${open.id}/practices/${outlier.practice.id}/measures/${outlier.measure.key}`,
+        title: `${outlier.practice.code} · ${outlier.measure.label}`,
+      },
+      { name: 'review cases', path: '/review-cases', title: 'Review cases' },
+      { name: 'a review case', path: `/review-cases/${caseId}`, title: `Review case ${caseId}` },
+      { name: 'digests (not for this role)', path: '/digests', title: 'Digests' },
+    ];
+  }
+
+  async function reportLabel(): Promise<string> {
+    return (await api<{ label: string }>(`/api/reports/${reportId}`)).label;
+  }
 
   it('practice lead of one practice: home with an extract waiting, upload, report, refusal', async () => {
     await signIn('Priya Calloway');
@@ -298,17 +460,49 @@ describe('accessibility of every page, for every role', () => {
         path: `/practices/${practice}/submissions/${refused.id}`,
         title: `Submission ${refused.id}`,
       },
+      {
+        name: 'sign-in landing (the practice’s results)',
+        path: '/start',
+        title: 'Results · OV102',
+      },
+      { name: 'results', path: '/results', title: 'Results · OV102' },
+      ...['peers', 'values'].map((tab) => ({
+        name: `results, ${tab}`,
+        path: `/practices/${practice}/results?tab=${tab}`,
+        title: 'Results · OV102',
+      })),
+      {
+        name: 'another practice’s results (refused)',
+        path: `/practices/${ov201}/results`,
+        title: 'Results',
+        expectedErrors: [
+          'console: Failed to load resource: the server responded with a status of 403 (Forbidden)',
+        ],
+      },
+      { name: 'reports', path: '/reports', title: 'Reports' },
+      {
+        name: 'a report, the practice’s part',
+        path: `/reports/${reportId}`,
+        title: await reportLabel(),
+      },
+      {
+        name: 'review cases, none for this practice',
+        path: '/review-cases',
+        title: 'Review cases',
+      },
+      { name: 'benchmark (not for practice leads)', path: '/benchmark', title: 'Region benchmark' },
+      { name: 'outliers (not for practice leads)', path: '/outliers', title: 'Outlier list' },
       { name: 'coverage (not for practice leads)', path: '/coverage', title: 'Coverage' },
       { name: 'audit trail (not for practice leads)', path: '/audit-trail', title: 'Audit trail' },
       ...mailPages(),
       ...(await everyone()),
     ])
       await check('practice lead of one practice', visit);
-  });
+  }, 600_000);
 
   it('practice lead of two practices: home, upload, both practices', async () => {
     await signIn('Daniel Oyelaran');
-    const me = await api<{ user: { practices: { id: number }[] } }>('/api/session');
+    const me = await api<{ user: { practices: { id: number; code: string }[] } }>('/api/session');
     for (const visit of [
       { name: 'home', path: '/', title: 'Home' },
       { name: 'upload', path: '/extracts/upload', title: 'Upload extract' },
@@ -316,6 +510,16 @@ describe('accessibility of every page, for every role', () => {
         name: 'submissions',
         path: `/practices/${p.id}/submissions`,
         title: 'Submissions',
+      })),
+      {
+        name: 'sign-in landing (the first practice’s results)',
+        path: '/start',
+        title: 'Results · OV101',
+      },
+      ...me.user.practices.map((p) => ({
+        name: 'results, with the practice switch',
+        path: `/practices/${p.id}/results`,
+        title: `Results · ${p.code}`,
       })),
       ...(await everyone()),
     ])
@@ -325,7 +529,20 @@ describe('accessibility of every page, for every role', () => {
       path: '/sign-out',
       title: 'Sign in',
     });
-  });
+  }, 600_000);
+
+  it('practice lead of the practice a review case asks: the case list and the case', async () => {
+    await signIn('Ruth Penhallow');
+    for (const visit of [
+      { name: 'review cases', path: '/review-cases', title: 'Review cases' },
+      {
+        name: 'a review case asked of the practice',
+        path: `/review-cases/${caseId}`,
+        title: `Review case ${caseId}`,
+      },
+    ])
+      await check('practice lead asked', visit);
+  }, 600_000);
 
   // Last: opening the next quarter changes which quarter the other visits find open.
   it('regional lead: a mail delivery, once a quarter has opened', async () => {

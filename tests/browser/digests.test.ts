@@ -12,7 +12,7 @@
 import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { auditA11y, describeViolations } from '../support/a11y.ts';
-import { type BrowserSession, openBrowser } from '../support/browser.ts';
+import { type BrowserSession, openBrowser, waitForLanding } from '../support/browser.ts';
 import { type CairnServer, startCairn } from '../support/cairn-server.ts';
 
 interface Captured {
@@ -47,7 +47,7 @@ describe('digests in the browser', () => {
     await page.locator('.cairn-navbar').getByRole('button', { name: 'Sign in' }).click();
     await page.getByRole('button', { name: "Continue to your organisation's sign-in" }).click();
     await page.getByRole('button', { name: `Sign in as ${name}` }).click();
-    await page.getByRole('heading', { name: `Welcome, ${name}` }).waitFor();
+    await waitForLanding(page, name);
   }
 
   async function expectAccessible(page: Page) {
@@ -82,6 +82,11 @@ describe('digests in the browser', () => {
     await page.getByRole('button', { name: 'Publish report' }).click();
     await page.getByRole('heading', { name: /2026 Q3 · report \d+/ }).waitFor({ timeout: 60_000 });
 
+    // Mail is in the regional lead's Admin menu.
+    await page
+      .getByRole('navigation', { name: 'Main' })
+      .getByRole('button', { name: 'Admin' })
+      .click();
     await nav(page, 'Mail').click();
     await page.getByRole('heading', { name: 'Mail deliveries' }).waitFor();
     await page.getByRole('link', { name: 'Digests' }).click();

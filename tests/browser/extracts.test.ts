@@ -14,7 +14,7 @@ import {
   type ExtractValue,
   writeXlsx,
 } from '../../packages/api/src/submissions/template/extract-writer.ts';
-import { type BrowserSession, openBrowser } from '../support/browser.ts';
+import { type BrowserSession, openBrowser, waitForLanding } from '../support/browser.ts';
 import { type CairnServer, startCairn } from '../support/cairn-server.ts';
 
 /** Rows enough that checking takes a moment: the progress bar is seen moving. */
@@ -95,7 +95,7 @@ describe('extracts in the browser', () => {
     await page.locator('.cairn-navbar').getByRole('button', { name: 'Sign in' }).click();
     await page.getByRole('button', { name: "Continue to your organisation's sign-in" }).click();
     await page.getByRole('button', { name: `Sign in as ${name}` }).click();
-    await page.getByRole('heading', { name: `Welcome, ${name}` }).waitFor();
+    await waitForLanding(page, name);
   }
 
   const nav = (page: Page, label: string) =>

@@ -14,7 +14,7 @@
 import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { auditA11y, describeViolations } from '../support/a11y.ts';
-import { type BrowserSession, openBrowser } from '../support/browser.ts';
+import { type BrowserSession, openBrowser, waitForLanding } from '../support/browser.ts';
 import { type CairnServer, startCairn } from '../support/cairn-server.ts';
 
 interface Captured {
@@ -65,7 +65,7 @@ describe('mail in the browser', () => {
     await page.locator('.cairn-navbar').getByRole('button', { name: 'Sign in' }).click();
     await page.getByRole('button', { name: "Continue to your organisation's sign-in" }).click();
     await page.getByRole('button', { name: `Sign in as ${name}` }).click();
-    await page.getByRole('heading', { name: `Welcome, ${name}` }).waitFor();
+    await waitForLanding(page, name);
   }
 
   async function expectAccessible(page: Page) {
@@ -96,10 +96,9 @@ describe('mail in the browser', () => {
   it('lets the regional lead add mail recipients', async () => {
     const { page } = browser;
     await signIn('Imogen Varley');
-    await page
-      .getByRole('navigation', { name: 'Main' })
-      .getByRole('link', { name: 'Mail' })
-      .click();
+    const main = page.getByRole('navigation', { name: 'Main' });
+    await main.getByRole('button', { name: 'Admin' }).click();
+    await main.getByRole('link', { name: 'Mail' }).click();
     await page.getByRole('heading', { name: 'Mail deliveries' }).waitFor();
     await page.getByRole('link', { name: 'Mail recipients' }).click();
     await page.getByRole('heading', { name: 'Mail recipients' }).waitFor();

@@ -10,7 +10,7 @@ import { readFileSync } from 'node:fs';
 import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { auditA11y, describeViolations } from '../support/a11y.ts';
-import { type BrowserSession, openBrowser } from '../support/browser.ts';
+import { type BrowserSession, openBrowser, waitForLanding } from '../support/browser.ts';
 import { type CairnServer, startCairn } from '../support/cairn-server.ts';
 import { funnelVisibleMs, initialJs } from '../support/web-figures.ts';
 
@@ -34,7 +34,7 @@ describe('results and benchmarks in the browser', () => {
     await page.locator('.cairn-navbar').getByRole('button', { name: 'Sign in' }).click();
     await page.getByRole('button', { name: "Continue to your organisation's sign-in" }).click();
     await page.getByRole('button', { name: `Sign in as ${name}` }).click();
-    await page.getByRole('heading', { name: `Welcome, ${name}` }).waitFor();
+    await waitForLanding(page, name);
   }
 
   async function expectAccessible(page: Page) {

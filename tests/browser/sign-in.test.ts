@@ -8,28 +8,30 @@
 import { type ChildProcess, spawn } from 'node:child_process';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { type BrowserSession, openBrowser } from '../support/browser.ts';
+import { type BrowserSession, openBrowser, waitForLanding } from '../support/browser.ts';
 import { type CairnServer, freePort, startCairn } from '../support/cairn-server.ts';
 import { repoRoot } from '../support/paths.ts';
 
-const personas = [
+const personas: {
+  name: string;
+  role: string;
+  nav: string[];
+  menus?: { label: string; links: string[] }[];
+  /** 'home', or the heading of the practice results page the person lands on */
+  lands: string;
+  shot: string;
+  practices?: string[];
+}[] = [
   {
     name: 'Imogen Varley',
     role: 'Regional lead',
-    nav: [
-      'Home',
-      'Upload extract',
-      'Submissions',
-      'Benchmark',
-      'Coverage',
-      'Quarters',
-      'Measure sets',
-      'Users',
-      'Mail',
-      'Outliers',
-      'Review cases',
-      'Audit trail',
+    nav: ['Home', 'Benchmark', 'Coverage', 'Quarters', 'Measure sets', 'Outliers', 'Review cases'],
+    // Gathered under menus of the navigation bar, so that it keeps to one row.
+    menus: [
+      { label: 'Extracts', links: ['Upload extract', 'Submissions'] },
+      { label: 'Admin', links: ['Users', 'Mail', 'Audit trail'] },
     ],
+    lands: 'home',
     shot: 'sign-in-regional-lead',
   },
   {
@@ -46,6 +48,7 @@ const personas = [
       'Review cases',
       'Audit trail',
     ],
+    lands: 'home',
     shot: 'sign-in-auditor',
   },
   {
@@ -61,6 +64,8 @@ const personas = [
       'Measure sets',
       'Review cases',
     ],
+    // OV102 has a current submission: its results are the first page.
+    lands: 'Quarrybank Surgery (OV102)',
     shot: 'sign-in-practice-lead-one',
     practices: ['Quarrybank Surgery'],
   },
@@ -77,6 +82,8 @@ const personas = [
       'Measure sets',
       'Review cases',
     ],
+    // The first of the lead's practices by code (OV101) that has a current submission.
+    lands: 'Wrenfield Health Centre (OV101)',
     shot: 'sign-in-practice-lead-two',
     practices: ['Wrenfield Health Centre', 'Harnleigh Old Mill Practice'],
   },
@@ -112,14 +119,40 @@ describe('sign-in in the browser', () => {
     it(`signs in as ${persona.name} (${persona.role}) and shows that role's navigation`, async () => {
       const { page } = browser;
       await signIn(persona.name, { screenshots: persona === personas[0] });
+      const landed = await waitForLanding(page, persona.name);
+      if (persona.lands === 'home') {
+        await page.getByRole('heading', { name: `Welcome, ${persona.name}` }).waitFor();
+        expect(landed).toBe('/');
+      } else {
+        await page.getByRole('heading', { name: persona.lands, level: 1 }).waitFor();
+        expect(landed).toMatch(/^\/practices\/\d+\/results$/);
+      }
+      const main = page.getByRole('navigation', { name: 'Main' });
+      const nav = await main.getByRole('link').allTextContents();
+      expect(nav).toEqual(persona.nav);
+      for (const menu of persona.menus ?? []) {
+        const button = main.getByRole('button', { name: menu.label });
+        expect(await button.getAttribute('aria-expanded')).toBe('false');
+        await button.click();
+        expect(await button.getAttribute('aria-expanded')).toBe('true');
+        expect(await main.getByRole('listitem').getByRole('link').allTextContents()).toEqual(
+          menu.links,
+        );
+        await browser.screenshot(`${persona.shot}-${menu.label.toLowerCase()}`);
+        await page.keyboard.press('Escape');
+        expect(await button.getAttribute('aria-expanded')).toBe('false');
+      }
+      expect(await main.getByRole('button').count()).toBe(persona.menus?.length ?? 0);
+      // Every entry stays on the navigation bar's one row at 1280 px.
+      const barHeight = await page
+        .locator('.cairn-navbar')
+        .evaluate((bar) => bar.getBoundingClientRect().height);
+      expect(barHeight, 'the navigation bar keeps to one row').toBeLessThan(70);
+      expect(await page.locator('.cairn-user').textContent()).toContain(persona.role);
+      // Home stays reachable from the navigation.
+      await main.getByRole('link', { name: 'Home' }).click();
       await page.getByRole('heading', { name: `Welcome, ${persona.name}` }).waitFor();
       expect(new URL(page.url()).pathname).toBe('/');
-      const nav = await page
-        .getByRole('navigation', { name: 'Main' })
-        .getByRole('link')
-        .allTextContents();
-      expect(nav).toEqual(persona.nav);
-      expect(await page.locator('.cairn-user').textContent()).toContain(persona.role);
       for (const practice of persona.practices ?? []) {
         // each practice of the lead has its own section on the home page, headed by its name
         await page.getByRole('heading', { name: practice }).first().waitFor();
@@ -185,6 +218,7 @@ describe('sign-in in the browser', () => {
     await browser.screenshot('users-edit');
     await page.getByRole('button', { name: 'Close' }).click();
     await page.locator('.bp6-overlay-backdrop').waitFor({ state: 'detached' });
+    await page.getByRole('button', { name: 'Admin' }).click();
     await page.getByRole('link', { name: 'Audit trail' }).click();
     await page.getByRole('heading', { name: 'Audit trail' }).waitFor();
     await page

@@ -67,3 +67,15 @@ export async function openBrowser(): Promise<BrowserSession> {
     close: () => context.close(),
   };
 }
+
+/**
+ * Waits until sign-in has landed: the person's name in the navigation bar and the landing page's
+ * heading (the home page's welcome, or — for a practice lead whose practice has a current
+ * submission — that practice's results). Returns the path landed on.
+ */
+export async function waitForLanding(page: Page, name: string): Promise<string> {
+  await page.waitForURL((url) => url.pathname !== '/start' && !url.pathname.startsWith('/api/'));
+  await page.locator('.cairn-user', { hasText: name }).waitFor();
+  await page.locator('h1.cairn-page-title').first().waitFor();
+  return new URL(page.url()).pathname;
+}

@@ -1,6 +1,12 @@
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import { stubFetch } from './render';
-import { alsoActive, navigationFor } from '../src/app/navigation';
+import {
+  alsoActive,
+  isCurrent,
+  MAX_PLACES,
+  navigationFor,
+  navigationLayout,
+} from '../src/app/navigation';
 import { apiFetch } from '../src/lib/api-client';
 import type { Me } from '../src/lib/api/types';
 import { fetchSession } from '../src/lib/session';
@@ -81,6 +87,45 @@ describe('session', () => {
       'Measure sets',
       'Review cases',
     ]);
+  });
+
+  it('gathers the regional lead’s Users, Mail and Audit trail into an Admin menu and Upload extract and Submissions into an Extracts menu, so the bar keeps to nine places; other roles keep plain links', () => {
+    const places = (me: Me) =>
+      navigationLayout(me).map((e) =>
+        e.kind === 'link' ? e.item.label : `${e.label}: ${e.items.map((i) => i.label).join(', ')}`,
+      );
+    expect(places(lead)).toEqual([
+      'Home',
+      'Extracts: Upload extract, Submissions',
+      'Benchmark',
+      'Coverage',
+      'Quarters',
+      'Measure sets',
+      'Outliers',
+      'Review cases',
+      'Admin: Users, Mail, Audit trail',
+    ]);
+    // The auditor has one administrative entry: no menu for a single link.
+    expect(places({ ...lead, role: 'auditor' })).toEqual(
+      navigationFor({ ...lead, role: 'auditor' }).map((i) => i.label),
+    );
+    expect(places({ ...lead, role: 'practice_lead' })).toEqual(
+      navigationFor({ ...lead, role: 'practice_lead' }).map((i) => i.label),
+    );
+    expect(navigationLayout(null)).toEqual([]);
+    for (const role of ['regional_lead', 'auditor', 'practice_lead'] as const)
+      expect(navigationLayout({ ...lead, role }).length).toBeLessThanOrEqual(MAX_PLACES);
+  });
+
+  it('knows which menu entry is the current page, the Mail pages included', () => {
+    const mail = navigationFor(lead).find((i) => i.label === 'Mail')!;
+    expect(isCurrent(mail, '/deliveries')).toBe(true);
+    expect(isCurrent(mail, '/digests')).toBe(true);
+    expect(isCurrent(mail, '/mail-recipients')).toBe(true);
+    expect(isCurrent(mail, '/users')).toBe(false);
+    const home = navigationFor(lead).find((i) => i.label === 'Home')!;
+    expect(isCurrent(home, '/')).toBe(true);
+    expect(isCurrent(home, '/users')).toBe(false);
   });
 
   it('keeps Measure sets highlighted on a version’s own page', () => {

@@ -14,7 +14,8 @@ import { CairnMark } from '../components/CairnMark';
 import { useAbout } from '../features/landing/api/about';
 import { roleLabels } from '../lib/roles';
 import { useMe } from '../lib/session';
-import { alsoActive, navigationFor } from './navigation';
+import { NavMenu } from './NavMenu';
+import { alsoActive, navigationLayout } from './navigation';
 import { useTheme } from './theme';
 import './AppLayout.css';
 
@@ -22,7 +23,7 @@ export function AppLayout() {
   const me = useMe();
   const about = useAbout();
   const { theme, toggle } = useTheme();
-  const items = navigationFor(me.data);
+  const entries = navigationLayout(me.data);
   const { pathname } = useLocation();
 
   return (
@@ -40,20 +41,24 @@ export function AppLayout() {
             {about.data?.regionName ? (
               <span className="cairn-region">{about.data.regionName}</span>
             ) : null}
-            {items.length > 0 ? <NavbarDivider /> : null}
+            {entries.length > 0 ? <NavbarDivider /> : null}
             <nav aria-label="Main" className="cairn-nav">
-              {items.map((item) => (
-                <NavLink
-                  key={item.to}
-                  to={item.to}
-                  end={item.to === '/'}
-                  className={({ isActive }) =>
-                    `cairn-nav-link${isActive || alsoActive(item, pathname) ? ' active' : ''}`
-                  }
-                >
-                  {item.label}
-                </NavLink>
-              ))}
+              {entries.map((entry) =>
+                entry.kind === 'group' ? (
+                  <NavMenu key={entry.label} label={entry.label} items={entry.items} />
+                ) : (
+                  <NavLink
+                    key={entry.item.to}
+                    to={entry.item.to}
+                    end={entry.item.to === '/'}
+                    className={({ isActive }) =>
+                      `cairn-nav-link${isActive || alsoActive(entry.item, pathname) ? ' active' : ''}`
+                    }
+                  >
+                    {entry.item.label}
+                  </NavLink>
+                ),
+              )}
             </nav>
           </NavbarGroup>
           <NavbarGroup align={Alignment.END}>

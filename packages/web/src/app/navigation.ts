@@ -9,7 +9,22 @@ export interface NavItem {
   roles: readonly Role[];
   /** Other addresses that belong to this item (a submission page belongs to Submissions) */
   activeFor?: RegExp;
+  /** A menu this item joins when the role sees two or more of that menu's items */
+  group?: NavGroupName;
 }
+
+/** The menus that gather several items, so that a long navigation keeps to one row. */
+export type NavGroupName = 'Admin' | 'Extracts';
+
+/** Most places a navigation bar holds on one row beside the name and sign-out (at 1280 px). */
+export const MAX_PLACES = 9;
+
+/** The order in which menus are formed while a role's bar is too long. */
+const groupOrder: NavGroupName[] = ['Admin', 'Extracts'];
+
+/** One place in the navigation bar: a link, or a menu of links. */
+export type NavEntry =
+  { kind: 'link'; item: NavItem } | { kind: 'group'; label: NavGroupName; items: NavItem[] };
 
 const everyone: readonly Role[] = roleValues;
 
@@ -24,6 +39,7 @@ export const navItems: NavItem[] = [
     to: '/extracts/upload',
     icon: 'upload',
     roles: ['practice_lead', 'regional_lead'],
+    group: 'Extracts',
   },
   {
     label: 'Submissions',
@@ -31,6 +47,7 @@ export const navItems: NavItem[] = [
     icon: 'list-columns',
     roles: ['practice_lead', 'regional_lead'],
     activeFor: /^\/practices\/[^/]+\/submissions(\/|$)/,
+    group: 'Extracts',
   },
   {
     label: 'Results',
@@ -63,13 +80,20 @@ export const navItems: NavItem[] = [
     roles: everyone,
     activeFor: /^\/measure-sets\//,
   },
-  { label: 'Users', to: '/users', icon: 'people', roles: ['regional_lead'] },
+  {
+    label: 'Users',
+    to: '/users',
+    icon: 'people',
+    roles: ['regional_lead'],
+    group: 'Admin',
+  },
   {
     label: 'Mail',
     to: '/deliveries',
     icon: 'envelope',
     roles: ['regional_lead'],
     activeFor: /^\/(deliveries|mail-recipients|digests)(\/|$)/,
+    group: 'Admin',
   },
   {
     label: 'Outliers',
@@ -89,6 +113,7 @@ export const navItems: NavItem[] = [
     to: '/audit-trail',
     icon: 'history',
     roles: ['regional_lead', 'auditor'],
+    group: 'Admin',
   },
 ];
 
@@ -100,4 +125,41 @@ export function alsoActive(item: NavItem, pathname: string): boolean {
 export function navigationFor(me: Me | null | undefined): NavItem[] {
   if (!me) return [];
   return navItems.filter((item) => item.roles.includes(me.role));
+}
+
+/**
+ * The navigation bar of a role: its items in order, one place each, while they fit on one row
+ * (`MAX_PLACES`). A longer bar gathers menus, in `groupOrder`, until it fits: the regional lead's
+ * Users, Mail and Audit trail become Admin, then Upload extract and Submissions become
+ * Extracts. A menu takes the place of its last item. Shorter bars (the auditor's, a practice
+ * lead's) keep plain links.
+ */
+export function navigationLayout(me: Me | null | undefined): NavEntry[] {
+  const items = navigationFor(me);
+  const gathered = new Set<NavGroupName>();
+  const places = () =>
+    items.filter((item) => !item.group || !gathered.has(item.group)).length + gathered.size;
+  for (const group of groupOrder) {
+    if (places() <= MAX_PLACES) break;
+    if (items.filter((item) => item.group === group).length > 1) gathered.add(group);
+  }
+  const entries: NavEntry[] = [];
+  items.forEach((item, i) => {
+    if (!item.group || !gathered.has(item.group)) {
+      entries.push({ kind: 'link', item });
+      return;
+    }
+    const members = items.filter((other) => other.group === item.group);
+    // The menu stands where its last item would.
+    if (members.at(-1) === items[i])
+      entries.push({ kind: 'group', label: item.group, items: members });
+  });
+  return entries;
+}
+
+/** Whether `pathname` belongs to `item` (its own address, or one it is also active for). */
+export function isCurrent(item: NavItem, pathname: string): boolean {
+  const own =
+    item.to === '/' ? pathname === '/' : pathname === item.to || pathname.startsWith(`${item.to}/`);
+  return own || alsoActive(item, pathname);
 }

@@ -5,6 +5,7 @@ import { Home } from './Home';
 import { NotFound } from './NotFound';
 import { PageLoading } from './PageLoading';
 import { RouteError } from './RouteError';
+import { Start } from './Start';
 
 /**
  * Every route in one place. Feature screens are lazy-loaded:
@@ -19,6 +20,8 @@ export const routes: RouteObject[] = [
     hydrateFallbackElement: <PageLoading />,
     children: [
       { index: true, element: <Home /> },
+      // Where sign-in comes back to: a practice lead with results lands on them.
+      { path: 'start', element: <Start /> },
       {
         path: 'sign-in',
         lazy: () =>

@@ -39,6 +39,39 @@ export interface FunnelPlotProps {
 const margin = { top: 14, right: 18, bottom: 42, left: 54 };
 
 /**
+ * The rate axis of a funnel plot: every plotted rate, the region's rate and the 99.8 % limits
+ * across the denominators the practices span fit inside it, widened to round ticks (so the lowest
+ * and highest points sit between labelled ticks, never beyond the last one) and kept within
+ * 0–100 %.
+ */
+export function funnelRateDomain(
+  points: readonly { n: number; rate: number }[],
+  curveN: readonly number[],
+  limits: FunnelLimits,
+  target: number | null,
+): [number, number] {
+  const ns = points.map((p) => p.n);
+  const fromN = ns.length > 0 ? Math.min(...ns) : 0;
+  const toN = ns.length > 0 ? Math.max(...ns) : Infinity;
+  const inRange = (values: readonly number[]) =>
+    values.filter((_, i) => (curveN[i] ?? 0) >= fromN && (curveN[i] ?? 0) <= toN);
+  const values = [
+    ...points.map((p) => p.rate),
+    ...inRange(limits.outerLower),
+    ...inRange(limits.outerUpper),
+    ...(target != null ? [target] : []),
+  ].filter((v) => Number.isFinite(v));
+  if (values.length === 0) return [0, 1];
+  const min = Math.max(0, Math.min(...values) - 0.02);
+  const max = Math.min(1, Math.max(...values) + 0.02);
+  const [lo, hi] = scaleLinear()
+    .domain(min === max ? [Math.max(0, min - 0.05), Math.min(1, max + 0.05)] : [min, max])
+    .nice(6)
+    .domain() as [number, number];
+  return [Math.max(0, lo), Math.min(1, hi)];
+}
+
+/**
  * Funnel plot (Spiegelhalter, Stat Med 2005;24:1185–202): each practice's
  * rate against its denominator, the region's rate as a line, the 95 % and
  * 99.8 % limits as curves. Points are shaped by their flag; each point can be
@@ -49,17 +82,15 @@ export function FunnelPlot(props: FunnelPlotProps) {
   const [active, setActive] = useState<number | null>(null);
   const plotted = points.filter((p) => p.rate != null && p.n > 0);
   const maxN = Math.max(10, ...plotted.map((p) => p.n), ...(curveN.length ? [curveN.at(-1)!] : []));
-  const all = [
-    ...plotted.map((p) => p.rate!),
-    ...limits.outerLower,
-    ...limits.outerUpper,
-    target ?? 0.5,
-  ].filter((v) => Number.isFinite(v));
-  const lo = Math.max(0, Math.min(...all) - 0.03);
-  const hi = Math.min(1, Math.max(...all) + 0.03);
   const x = scaleLinear()
     .domain([0, maxN * 1.04])
     .range([margin.left, width - margin.right]);
+  const [lo, hi] = funnelRateDomain(
+    plotted.map((p) => ({ n: p.n, rate: p.rate! })),
+    curveN,
+    limits,
+    target,
+  );
   const y = scaleLinear()
     .domain([lo, hi])
     .range([height - margin.bottom, margin.top]);

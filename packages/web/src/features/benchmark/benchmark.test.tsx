@@ -7,6 +7,7 @@ import benchmark from '../../../test/fixtures/benchmark-q8.json';
 import funnel from '../../../test/fixtures/funnel-q8-hba1c.json';
 import quarters from '../../../test/fixtures/quarters.json';
 import ov102 from '../../../test/fixtures/results-ov102-priya.json';
+import trend from '../../../test/fixtures/trend-q8-hba1c.json';
 import type { Me, RegionBenchmark } from '../../lib/api/types';
 import { neutraliseCell, sortRows, tableCsv, tableRows } from './components/table-rows';
 
@@ -40,6 +41,7 @@ function stub(role: Me['role'], extra: Record<string, { status?: number; body: u
     'GET /api/quarters/8/benchmark?split=all': { body: benchmark },
     'GET /api/quarters/8/benchmark/measures/hba1c?split=all': { body: funnel },
     'GET /api/practices/2/quarters/8/results': { body: ov102 },
+    'GET /api/quarters/8/benchmark/trend?measure=hba1c&split=all': { body: trend },
     ...extra,
   });
 }
@@ -113,6 +115,29 @@ describe('Region benchmark page', () => {
     const row = within(table).getByRole('row', { name: /OV201/ });
     expect(within(row).getByText('Outlier, worse')).toBeTruthy();
     expect(within(row).getByText('573')).toBeTruthy();
+  });
+
+  it('draws the region’s rate by quarter for the funnel’s measure, with a table alternative', async () => {
+    stub('auditor');
+    renderApp('/benchmark');
+    await screen.findByRole('heading', { name: 'The region over time' }, slow);
+    const chart = await screen.findByRole(
+      'img',
+      {
+        name: /^HbA1c recorded, the region by quarter: 8 quarters with figures, 2024 Q4 87\.3 % to 2026 Q3 87\.7 %\. No run-chart signal\.$/,
+      },
+      slow,
+    );
+    expect(chart.querySelectorAll('.cairn-trend-point')).toHaveLength(8);
+    await userEvent.click(screen.getByLabelText('Show region trend as a table'));
+    const table = screen.getByRole('table', {
+      name: 'HbA1c recorded, the region by quarter: figures',
+    });
+    const row = within(table).getByRole('row', { name: /2026 Q3/ });
+    expect(within(row).getByText('87.7 %')).toBeTruthy();
+    expect(
+      within(row).getByText(trend.region.points.at(-1)!.n.toLocaleString('en-GB')),
+    ).toBeTruthy();
   });
 
   it('asks for the benchmark and the funnel once, as navigation begins, when the address names them', async () => {

@@ -169,4 +169,81 @@ describe('Practice results', () => {
     await screen.findByText('You are not a lead of OV201.', {}, slow);
     await waitFor(() => expect(screen.queryByRole('tab')).toBeNull());
   });
+  it('places the practice among its unnamed peers, with the flag as a shape and in words', async () => {
+    stub(priya);
+    renderApp('/practices/2/results?tab=peers');
+    await screen.findByRole('heading', { name: 'Care processes' }, slow);
+    const row = screen.getByRole('row', { name: /HbA1c recorded/ });
+    const hba1c = ov102.measures.find((m) => m.measure.key === 'hba1c')!.splits[0]!;
+    expect(
+      within(row).getByText(
+        new RegExp(
+          `^OV102 93\\.3 % \\(outlier, better\\): of ${hba1c.peers.rate.length} other practices shown`,
+        ),
+      ),
+    ).toBeTruthy();
+    expect(within(row).getByRole('img').getAttribute('aria-label')).toMatch(/^HbA1c recorded: /);
+    // As tables: the words stay, the drawing goes.
+    await userEvent.click(screen.getByLabelText('Show charts as tables'));
+    expect(
+      within(screen.getByRole('row', { name: /HbA1c recorded/ })).queryByRole('img'),
+    ).toBeNull();
+  });
+
+  it('shows each recorded value’s spread against the region, with a table alternative', async () => {
+    stub(priya);
+    renderApp('/practices/2/results?tab=values');
+    const first = ov102.detail!.values[0]!;
+    await screen.findByRole('heading', { name: `${first.label} (${first.unit})` }, slow);
+    expect(
+      screen.getAllByRole('img', { name: new RegExp(`^${first.label}: share of recorded values`) })
+        .length,
+    ).toBeGreaterThan(0);
+    await userEvent.click(screen.getByLabelText(`Show ${first.label} as a table`));
+    const table = screen.getByRole('table', { name: `${first.label}: figures` });
+    expect(within(table).getByRole('rowheader', { name: 'Not recorded' })).toBeTruthy();
+  });
+
+  it('lands a practice lead on their results after sign-in once there is a current submission', async () => {
+    stub(priya, {
+      'GET /api/practices/2/submissions': {
+        body: {
+          practice: priya.practices[0],
+          quarters: [{ quarter: quarters[0], currentSubmissionId: 340, submissions: [] }],
+        },
+      },
+    });
+    renderApp('/start');
+    await screen.findByRole('heading', { name: 'Quarrybank Surgery (OV102)' }, slow);
+  });
+
+  it('lands a practice lead without a current submission on the home page', async () => {
+    stub(priya, {
+      'GET /api/practices/2/submissions': {
+        body: {
+          practice: priya.practices[0],
+          quarters: [
+            {
+              quarter: quarters[0],
+              currentSubmissionId: null,
+              submissions: [],
+              actions: { upload: true },
+            },
+          ],
+        },
+      },
+    });
+    renderApp('/start');
+    await screen.findByRole('heading', { name: 'Welcome, Someone' }, slow);
+  });
+
+  it('sends a lead of several practices from /results to the first by code', async () => {
+    stub(daniel, {
+      'GET /api/practices/1/quarters/8/results': {
+        body: { ...ov303, practice: daniel.practices[0], message: 'None yet.' },
+      },
+    });
+    renderApp('/results');
+    await screen.findByRole('heading', { name: 'Wrenfield Health Centre (OV101)' }, slow);
+  });
 });

@@ -4,7 +4,13 @@
  */
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
 import { apiFetch } from '../../../lib/api-client';
-import type { MeasureFunnel, Quarter, RegionBenchmark, TypeSplit } from '../../../lib/api/types';
+import type {
+  BenchmarkTrend,
+  MeasureFunnel,
+  Quarter,
+  RegionBenchmark,
+  TypeSplit,
+} from '../../../lib/api/types';
 import { funnelPath, regionBenchmarkPath, takeEarly } from './early';
 
 export { funnelPath, regionBenchmarkPath };
@@ -15,6 +21,8 @@ export const benchmarkKeys = {
     ['benchmark', 'region', quarterId, split, locality] as const,
   funnel: (quarterId: number, measure: string, split: TypeSplit) =>
     ['benchmark', 'funnel', quarterId, measure, split] as const,
+  trend: (quarterId: number, measure: string, split: TypeSplit) =>
+    ['benchmark', 'trend', quarterId, measure, split] as const,
 };
 
 export const benchmarkQuartersQueryOptions = () =>
@@ -61,6 +69,28 @@ export const funnelQueryOptions = (quarterId: number, measure: string, split: Ty
 export function useFunnel(quarterId: number | null, measure: string | null, split: TypeSplit) {
   return useQuery({
     ...funnelQueryOptions(quarterId ?? 0, measure ?? '', split),
+    enabled: quarterId != null && measure != null,
+    placeholderData: keepPreviousData,
+  });
+}
+
+export const benchmarkTrendQueryOptions = (quarterId: number, measure: string, split: TypeSplit) =>
+  queryOptions({
+    queryKey: benchmarkKeys.trend(quarterId, measure, split),
+    queryFn: () =>
+      apiFetch<BenchmarkTrend>(
+        `/api/quarters/${quarterId}/benchmark/trend?${new URLSearchParams({ measure, split }).toString()}`,
+      ),
+  });
+
+/** The region's rate (and every practice's) per quarter up to this one, for one measure. */
+export function useBenchmarkTrend(
+  quarterId: number | null,
+  measure: string | null,
+  split: TypeSplit,
+) {
+  return useQuery({
+    ...benchmarkTrendQueryOptions(quarterId ?? 0, measure ?? '', split),
     enabled: quarterId != null && measure != null,
     placeholderData: keepPreviousData,
   });

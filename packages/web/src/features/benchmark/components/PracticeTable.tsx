@@ -8,11 +8,14 @@ import { formatCount, formatPercent } from '../../../lib/format';
 import type { SortKey, TableRow } from './table-rows';
 
 const ROW_HEIGHT = 44;
+/** The header row: a measure's name over up to three lines (RegionBenchmark.css). */
+const HEADER_HEIGHT = 62;
 
 /**
  * Practices × measures (Blueprint Table2): the practice column frozen, arrow
  * keys move the focused cell, each column sorts from its header menu. A cell
- * shows the rate, and the flag as a shape and in words.
+ * shows the rate, and the flag as a shape and in words. Headers wrap: every measure's name is
+ * read whole (and is its column's tooltip).
  */
 export function PracticeTable({
   benchmark,
@@ -32,6 +35,8 @@ export function PracticeTable({
   const header = (name: string, key: SortKey) => () => (
     <ColumnHeaderCell
       name={`${name}${sort === key ? (descending ? ' ↓' : ' ↑') : ''}`}
+      // The whole name, wrapped over up to three lines (the header row is tall enough), never cut.
+      nameRenderer={(shown) => <div className="cairn-bench-header-name">{shown}</div>}
       menuRenderer={() => (
         <Menu>
           <MenuItem icon="sort-asc" text="Sort ascending" onClick={() => onSort(key, false)} />
@@ -53,14 +58,15 @@ export function PracticeTable({
       });
   });
   const widths = [230, 140, ...benchmark.measures.map(() => 168)];
-  const height = Math.min(rows.length, 14) * ROW_HEIGHT + 34;
+  const height = Math.min(rows.length, 14) * ROW_HEIGHT + HEADER_HEIGHT + 4;
   return (
     <div
       ref={box}
       className="cairn-bench-table"
       style={{ height }}
-      role="region"
-      aria-label="Practices by measure"
+      // Its section is the landmark ("Practices by measure"); the table itself is a group in it.
+      role="group"
+      aria-label="Practices by measure: table"
     >
       <Table2
         numRows={rows.length}

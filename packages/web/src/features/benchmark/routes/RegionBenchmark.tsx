@@ -1,12 +1,10 @@
 import {
   Button,
-  Callout,
   FormGroup,
+  H1,
   H2,
-  H3,
   HTMLSelect,
   HTMLTable,
-  NonIdealState,
   SegmentedControl,
   Spinner,
   Switch,
@@ -16,6 +14,7 @@ import { Link, useNavigate, useSearchParams } from 'react-router-dom';
 import { ChartOrTable } from '../../../components/charts/ChartOrTable';
 import { FlagLegend, FlagMark } from '../../../components/charts/FlagMark';
 import { FunnelPlot, type FunnelPointData } from '../../../components/charts/FunnelPlot';
+import { EmptyState, Notice } from '../../../components/Notice';
 import { ProblemCallout } from '../../../components/ProblemCallout';
 import { RequireRole } from '../../../components/RequireRole';
 import type {
@@ -29,6 +28,7 @@ import { usePageTitle } from '../../../lib/page-title';
 import { useBenchmarkQuarters, useFunnel, useRegionBenchmark } from '../api/benchmark';
 import { PublishReport } from '../components/PublishReport';
 import { PracticeTable } from '../components/PracticeTable';
+import { RegionTrend } from '../components/RegionTrend';
 import { type SortKey, sortRows, tableCsv, tableRows } from '../components/table-rows';
 import '../../../components/charts/charts.css';
 import './RegionBenchmark.css';
@@ -41,6 +41,8 @@ const splits: { value: TypeSplit; label: string }[] = [
 
 /** `/benchmark?quarter=&measure=&split=&locality=&limits=&casemix=`: every practice against its peers. */
 export function RegionBenchmark() {
+  // Named for everyone, a role it is not for included (that page explains the refusal).
+  usePageTitle('Region benchmark');
   return (
     <RequireRole roles={['regional_lead', 'auditor']}>
       <RegionBenchmarkScreen />
@@ -55,7 +57,6 @@ function pickQuarter(list: Quarter[], asked: number): Quarter | null {
 }
 
 function RegionBenchmarkScreen() {
-  usePageTitle('Region benchmark');
   const [params, setParams] = useSearchParams();
   const navigate = useNavigate();
   const quarters = useBenchmarkQuarters();
@@ -97,7 +98,7 @@ function RegionBenchmarkScreen() {
 
   return (
     <div className="cairn-bench">
-      <H2>Region benchmark</H2>
+      <H1 className="cairn-page-title">Region benchmark</H1>
       <div className="cairn-bench-controls">
         <FormGroup label="Audit quarter" labelFor={ids.quarter} inline>
           <HTMLSelect
@@ -135,25 +136,26 @@ function RegionBenchmarkScreen() {
       ) : null}
       <ProblemCallout error={quarters.error ?? benchmark.error} />
       {data?.state === 'no-accepted-submissions' ? (
-        <NonIdealState
+        <EmptyState
           icon="inbox"
           title={`No accepted submissions for ${data.quarter.label}`}
+          headingLevel={2}
           description="No practice has a current submission for this audit quarter yet, so there is nothing to compare. Coverage shows who has sent an extract."
           action={<Link to={`/coverage?quarter=${data.quarter.id}`}>Open coverage</Link>}
         />
       ) : null}
       {data?.state === 'results' ? (
         <>
-          <Callout
+          <Notice
             icon="info-sign"
             title="Audit and improvement support"
             className="cairn-bench-caution"
           >
             {data.caution}
-          </Callout>
+          </Notice>
           <Coverage benchmark={data} />
           <section aria-labelledby="bench-funnel" className="cairn-bench-section">
-            <H3 id="bench-funnel">Funnel plot</H3>
+            <H2 id="bench-funnel">Funnel plot</H2>
             <div className="cairn-bench-controls">
               <FormGroup label="Measure" labelFor={ids.measure} inline>
                 <HTMLSelect
@@ -190,6 +192,7 @@ function RegionBenchmarkScreen() {
               <Spinner size={20} aria-label="Reading the funnel plot" />
             ) : null}
           </section>
+          <RegionTrend quarterId={quarterId} measure={measureKey} split={split} />
           {deferred?.state === 'results' ? (
             <PracticesSection
               benchmark={deferred}
@@ -384,7 +387,7 @@ function PracticesSection({
   };
   return (
     <section aria-labelledby="bench-table" className="cairn-bench-section">
-      <H3 id="bench-table">Practices by measure</H3>
+      <H2 id="bench-table">Practices by measure</H2>
       <div className="cairn-bench-controls">
         <FormGroup label="Sort by" labelFor={sortId} inline>
           <HTMLSelect

@@ -6,18 +6,18 @@ import {
   DialogBody,
   DialogFooter,
   FormGroup,
+  H1,
   H2,
-  H3,
   HTMLSelect,
   HTMLTable,
   Intent,
-  NonIdealState,
   Spinner,
   TextArea,
 } from '@blueprintjs/core';
 import { type FormEvent, useState } from 'react';
 import { Link, useParams, useSearchParams } from 'react-router-dom';
 import { ClinicalCaution } from '../../../components/ClinicalCaution';
+import { EmptyState, Notice } from '../../../components/Notice';
 import { ProblemCallout } from '../../../components/ProblemCallout';
 import type { DisclosedCell, Report as ReportType, ReportPractice } from '../../../lib/api/types';
 import { fieldProblems } from '../../../lib/field-problems';
@@ -69,9 +69,9 @@ export function Report() {
         <>
           <div className="cairn-page-head">
             <div>
-              <H2>
+              <H1 className="cairn-page-title">
                 {r.label} <ReportStatusTag status={r.status} />
-              </H2>
+              </H1>
               <p className="cairn-muted">
                 <Link to={`/reports?quarter=${r.quarterId}`}>All reports of {r.quarterLabel}</Link>
               </p>
@@ -101,20 +101,20 @@ function Identity({ report: r }: { report: ReportType }) {
   return (
     <section aria-label="About this report">
       {r.withdrawal ? (
-        <Callout intent={Intent.DANGER} icon="disable" title="This report was withdrawn">
+        <Notice intent={Intent.DANGER} icon="disable" title="This report was withdrawn">
           Withdrawn {formatDateTime(r.withdrawal.at)} by {r.withdrawal.by}: {r.withdrawal.reason}.
           Its figures are no longer shown.
-        </Callout>
+        </Notice>
       ) : null}
       {r.replacedBy ? (
-        <Callout
+        <Notice
           intent={Intent.WARNING}
           icon="swap-horizontal"
           title="A later report replaced this one"
         >
           <Link to={`/reports/${r.replacedBy.id}`}>{r.replacedBy.label}</Link> was published from
           the same quarter. This report stays readable as it was published.
-        </Callout>
+        </Notice>
       ) : null}
       <dl className="cairn-report-identity">
         <dt>Audit quarter</dt>
@@ -145,7 +145,7 @@ function RegionPart({ report }: { report: ReportType }) {
   const all = region.data?.splits[0];
   return (
     <section className="cairn-report-section" aria-labelledby="region-heading">
-      <H3 id="region-heading">The region</H3>
+      <H2 id="region-heading">The region</H2>
       <div className="cairn-report-downloads">
         <AnchorButton icon="th" href={downloads.regionPack(report.id)} download>
           Region data pack (XLSX)
@@ -198,7 +198,7 @@ function PracticePart({ report }: { report: ReportType }) {
   const part = useReportPractice(report.id, practiceId);
   if (report.practices.length === 0) {
     return (
-      <NonIdealState
+      <EmptyState
         icon="office"
         title="No practice of yours is in this report"
         description="The report holds the practices that had a confirmed extract when it was published."
@@ -207,7 +207,7 @@ function PracticePart({ report }: { report: ReportType }) {
   }
   return (
     <section className="cairn-report-section" aria-labelledby="practice-heading">
-      <H3 id="practice-heading">A practice’s report</H3>
+      <H2 id="practice-heading">A practice’s report</H2>
       <FormGroup label="Practice" labelFor="report-practice" inline>
         <HTMLSelect
           id="report-practice"

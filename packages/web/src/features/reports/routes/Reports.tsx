@@ -2,18 +2,18 @@ import {
   Button,
   Card,
   FormGroup,
+  H1,
   H2,
-  H3,
   HTMLSelect,
   HTMLTable,
   Intent,
-  NonIdealState,
   Spinner,
   TextArea,
 } from '@blueprintjs/core';
 import { type FormEvent, useState } from 'react';
 import { Link, useNavigate, useSearchParams } from 'react-router-dom';
 import { ClinicalCaution } from '../../../components/ClinicalCaution';
+import { EmptyState } from '../../../components/Notice';
 import { ProblemCallout } from '../../../components/ProblemCallout';
 import type { Report } from '../../../lib/api/types';
 import { fieldProblems } from '../../../lib/field-problems';
@@ -40,7 +40,7 @@ export function Reports() {
     <div className="cairn-reports">
       <div className="cairn-page-head">
         <div>
-          <H2>Reports</H2>
+          <H1 className="cairn-page-title">Reports</H1>
           <p className="cairn-muted">
             A report is a quarter’s benchmark frozen when it was published: its figures never change
             afterwards, whatever extracts are confirmed later.
@@ -70,7 +70,7 @@ export function Reports() {
         />
       ) : null}
       {list.data && list.data.reports.length === 0 ? (
-        <NonIdealState
+        <EmptyState
           icon="document"
           title="No report published yet"
           description={
@@ -139,7 +139,7 @@ function PublishForm({ quarterId, quarterLabel }: { quarterId: number; quarterLa
   return (
     <form className="cairn-publish-form" onSubmit={submit} noValidate>
       <Card>
-        <H3>Publish {quarterLabel}</H3>
+        <H2>Publish {quarterLabel}</H2>
         <p>
           Publishing freezes the benchmark of the practices’ current submissions for {quarterLabel}:
           every practice’s results, the region’s, funnels and trends. Practice leads then read their

@@ -1,4 +1,4 @@
-import { FormGroup, H3, HTMLSelect, HTMLTable } from '@blueprintjs/core';
+import { FormGroup, H2, HTMLSelect, HTMLTable } from '@blueprintjs/core';
 import { useId, useState } from 'react';
 import { IntervalBar } from '../../../components/charts/IntervalBar';
 import type { PracticeResults, TypeSplit } from '../../../lib/api/types';
@@ -43,7 +43,7 @@ export function BreakdownsPanel({
             const id = `breakdown-${breakdown.key}`;
             return (
               <section key={breakdown.key} aria-labelledby={id} className="cairn-results-section">
-                <H3 id={id}>{breakdown.label}</H3>
+                <H2 id={id}>{breakdown.label}</H2>
                 <HTMLTable compact className="cairn-results-table">
                   <thead>
                     <tr>

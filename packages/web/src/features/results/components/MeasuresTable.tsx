@@ -1,4 +1,4 @@
-import { H3, HTMLTable } from '@blueprintjs/core';
+import { H2, HTMLTable } from '@blueprintjs/core';
 import { FlagMark } from '../../../components/charts/FlagMark';
 import { IntervalBar, intervalText } from '../../../components/charts/IntervalBar';
 import { RunSparkline, sparklineText } from '../../../components/charts/RunSparkline';
@@ -29,7 +29,7 @@ export function MeasuresTable({
   const id = `results-${title.replace(/\W+/g, '-').toLowerCase()}`;
   return (
     <section aria-labelledby={id} className="cairn-results-section">
-      <H3 id={id}>{title}</H3>
+      <H2 id={id}>{title}</H2>
       <HTMLTable compact className="cairn-results-table">
         <thead>
           <tr>

@@ -1,4 +1,5 @@
-import { Callout, HTMLTable } from '@blueprintjs/core';
+import { HTMLTable } from '@blueprintjs/core';
+import { Notice } from '../../../components/Notice';
 import type { DataQualityCount } from '../../../lib/api/types';
 import { formatCount } from '../../../lib/format';
 
@@ -7,9 +8,9 @@ export function QualityPanel({ flags }: { flags: DataQualityCount[] }) {
   const raised = flags.filter((f) => f.count > 0);
   if (raised.length === 0) {
     return (
-      <Callout icon="tick" title="No data-quality flags">
+      <Notice icon="tick" title="No data-quality flags">
         No record of this submission raised a clinical data-quality flag.
-      </Callout>
+      </Notice>
     );
   }
   return (

@@ -1,13 +1,6 @@
-import {
-  AnchorButton,
-  Button,
-  FormGroup,
-  HTMLSelect,
-  HTMLTable,
-  NonIdealState,
-  Spinner,
-} from '@blueprintjs/core';
+import { AnchorButton, Button, FormGroup, HTMLSelect, HTMLTable, Spinner } from '@blueprintjs/core';
 import { useId, useState } from 'react';
+import { EmptyState } from '../../../components/Notice';
 import { ProblemCallout } from '../../../components/ProblemCallout';
 import type { PracticeResults, TypeSplit } from '../../../lib/api/types';
 import { formatCount } from '../../../lib/format';
@@ -75,7 +68,7 @@ export function RecallPanel({ results, split }: { results: PracticeResults; spli
               : 'References are pseudonyms: only the practice sees its own record references.'}
           </p>
           {data.items.length === 0 ? (
-            <NonIdealState icon="tick" title="Nobody to recall for this measure" />
+            <EmptyState icon="tick" title="Nobody to recall for this measure" />
           ) : (
             <HTMLTable compact striped className="cairn-results-table" aria-label="Recall list">
               <thead>

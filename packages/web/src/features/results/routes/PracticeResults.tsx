@@ -1,9 +1,7 @@
 import {
-  Callout,
   FormGroup,
-  H2,
+  H1,
   HTMLSelect,
-  NonIdealState,
   SegmentedControl,
   Spinner,
   Switch,
@@ -13,40 +11,54 @@ import {
 import { useId } from 'react';
 import { Link, Navigate, useNavigate, useParams, useSearchParams } from 'react-router-dom';
 import { FlagLegend } from '../../../components/charts/FlagMark';
+import { EmptyState, Notice } from '../../../components/Notice';
 import { ProblemCallout } from '../../../components/ProblemCallout';
 import { RequireRole } from '../../../components/RequireRole';
 import type { Me, PracticeResults as Results, Quarter, TypeSplit } from '../../../lib/api/types';
 import { formatCount, formatDateTime } from '../../../lib/format';
 import { usePageTitle } from '../../../lib/page-title';
 import { useMe } from '../../../lib/session';
+import { practicesByCode } from '../../../lib/landing';
 import { usePracticeResults, useResultsQuarters } from '../api/results';
 import { BreakdownsPanel } from '../components/BreakdownsPanel';
 import { InsulinPanel } from '../components/InsulinPanel';
 import { KidneyPanel } from '../components/KidneyPanel';
 import { MeasuresTable } from '../components/MeasuresTable';
+import { PeersPanel } from '../components/PeersPanel';
 import { QualityPanel } from '../components/QualityPanel';
 import { RecallPanel } from '../components/RecallPanel';
+import { ValuesPanel } from '../components/ValuesPanel';
 import { splitLabels } from '../components/words';
 import '../../../components/charts/charts.css';
 import './Results.css';
 
 const splits: TypeSplit[] = ['all', 'type1', 'type2_other'];
-const tabs = ['measures', 'breakdowns', 'kidney', 'insulin', 'quality', 'recall'] as const;
+const tabs = [
+  'measures',
+  'peers',
+  'values',
+  'breakdowns',
+  'kidney',
+  'insulin',
+  'quality',
+  'recall',
+] as const;
 type TabId = (typeof tabs)[number];
 
-/** `/results`: a practice lead's own results (the first practice); others go to the benchmark. */
+/** `/results`: a practice lead's own results (the first practice by code); others go to the benchmark. */
 export function MyResults() {
   const me = useMe();
   if (me.isPending) return <Spinner aria-label="Checking sign-in" />;
   const user = me.data;
   if (!user) return <Navigate to="/sign-in?returnTo=%2Fresults" replace />;
   if (user.role !== 'practice_lead') return <Navigate to="/benchmark" replace />;
-  const first = user.practices[0];
+  const first = practicesByCode(user)[0];
   if (!first) {
     return (
-      <NonIdealState
+      <EmptyState
         icon="office"
         title="No practice yet"
+        headingLevel={1}
         description="You are not assigned to a practice yet. Ask your regional lead to add your practice to your account."
       />
     );
@@ -98,13 +110,15 @@ function PracticeResultsScreen() {
     else next.delete(key);
     setParams(next, { replace: true });
   };
-  const own = me.data?.role === 'practice_lead' ? me.data.practices : [];
+  const own = me.data?.role === 'practice_lead' ? practicesByCode(me.data) : [];
 
   return (
     <div className="cairn-results">
       <div className="cairn-results-head">
         <div>
-          <H2>{data ? `${data.practice.name} (${data.practice.code})` : 'Practice results'}</H2>
+          <H1 className="cairn-page-title">
+            {data ? `${data.practice.name} (${data.practice.code})` : 'Practice results'}
+          </H1>
           <p className="cairn-muted">
             {data ? `${data.practice.localityName ?? 'No locality'} · ` : ''}
             {quarter ? `Audit quarter ${quarter.label}` : ''}
@@ -166,9 +180,10 @@ function PracticeResultsScreen() {
 
 function NoSubmission({ results }: { results: Results }) {
   return (
-    <NonIdealState
+    <EmptyState
       icon="document"
       title={`No current submission for ${results.quarter.label}`}
+      headingLevel={2}
       description={
         results.message ??
         `${results.practice.name} has no accepted extract for this audit quarter, so there are no results to show.`
@@ -206,13 +221,13 @@ function ResultsBody({
   const quality = results.dataQuality.filter((f) => f.count > 0).length;
   return (
     <>
-      <Callout
+      <Notice
         icon="info-sign"
         title="Audit and improvement support"
         className="cairn-results-caution"
       >
         {results.caution}
-      </Callout>
+      </Notice>
       <p className="cairn-muted cairn-small" data-testid="built-from">
         {results.submission
           ? `From submission ${results.submission.id} (${formatCount(results.submission.records)} records, confirmed ${formatDateTime(results.submission.confirmedAt)}). `
@@ -272,6 +287,16 @@ function ResultsBody({
               />
             </>
           }
+        />
+        <Tab
+          id="peers"
+          title="Among peers"
+          panel={<PeersPanel results={results} split={split} asTables={asTables} />}
+        />
+        <Tab
+          id="values"
+          title="Values"
+          panel={<ValuesPanel results={results} split={split} asTables={asTables} />}
         />
         <Tab
           id="breakdowns"

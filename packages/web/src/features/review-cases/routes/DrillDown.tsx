@@ -1,8 +1,9 @@
-import { Button, H2, HTMLTable, NonIdealState, Spinner, Tag } from '@blueprintjs/core';
+import { Button, H1, HTMLTable, Spinner, Tag } from '@blueprintjs/core';
 import { keepPreviousData, useQuery } from '@tanstack/react-query';
 import { useState } from 'react';
 import { Link, useNavigate, useParams } from 'react-router-dom';
 import { ClinicalCaution } from '../../../components/ClinicalCaution';
+import { EmptyState } from '../../../components/Notice';
 import { ProblemCallout } from '../../../components/ProblemCallout';
 import { RequireRole } from '../../../components/RequireRole';
 import type { DrillDown as DrillDownData } from '../../../lib/api/types';
@@ -58,9 +59,9 @@ function DrillDownScreen() {
       </p>
       <div className="cairn-page-head">
         <div>
-          <H2>
+          <H1 className="cairn-page-title">
             {d.practice.code} {d.practice.name}: {d.measure.label}
-          </H2>
+          </H1>
           <p className="cairn-muted">
             {d.quarter.label} · {d.practice.localityName} · guideline: {d.measure.source}
           </p>
@@ -69,7 +70,7 @@ function DrillDownScreen() {
       </div>
       <ClinicalCaution compact />
       <section className="cairn-review-section">
-        <h3>Why it stands out</h3>
+        <h2>Why it stands out</h2>
         <p>{d.evidence.reason}</p>
         <p>
           <a
@@ -87,7 +88,7 @@ function DrillDownScreen() {
       <Trend d={d} />
       <Records d={d} />
       <section className="cairn-review-section">
-        <h3>Data-quality flags of its current submission</h3>
+        <h2>Data-quality flags of its current submission</h2>
         {d.dataQuality.filter((f) => f.count > 0).length === 0 ? (
           <p className="cairn-muted">No record of this submission was flagged.</p>
         ) : (
@@ -132,7 +133,7 @@ function Records({ d }: { d: DrillDownData }) {
   const last = r ? Math.min(r.total, r.page * r.pageSize) : 0;
   return (
     <section className="cairn-review-section" aria-labelledby="drill-records">
-      <h3 id="drill-records">The records behind it</h3>
+      <h2 id="drill-records">The records behind it</h2>
       <p className="cairn-muted">
         Records in the measure’s denominator, shown under pseudonyms only (never the practice’s own
         references).
@@ -241,7 +242,7 @@ function ByType({ d }: { d: DrillDownData }) {
   }));
   return (
     <section className="cairn-review-section">
-      <h3>By diabetes type</h3>
+      <h2>By diabetes type</h2>
       <ChartOrTable
         title="Practice (bars) against the region (diamonds)"
         chart={<PairedRates rows={rows} />}
@@ -255,7 +256,7 @@ function Breakdowns({ d }: { d: DrillDownData }) {
   if (d.breakdowns.length === 0) return null;
   return (
     <section className="cairn-review-section">
-      <h3>Which groups drive the gap</h3>
+      <h2>Which groups drive the gap</h2>
       <div className="cairn-review-grid">
         {d.breakdowns.map((b) => {
           const rows: RatePair[] = b.cells.cells.map((c, i) => ({
@@ -284,9 +285,9 @@ function Histogram({ d }: { d: DrillDownData }) {
   const rows = histogramShares(d.histogram, 'all');
   return (
     <section className="cairn-review-section">
-      <h3>
+      <h2>
         {d.histogram.label} ({d.histogram.unit}): the practice’s values against the region’s
-      </h3>
+      </h2>
       <ChartOrTable
         title="Share of recorded values: practice (bars), region (line)"
         chart={<HistogramChart rows={rows} unit={d.histogram.unit} />}
@@ -329,7 +330,7 @@ function Trend({ d }: { d: DrillDownData }) {
   ];
   return (
     <section className="cairn-review-section">
-      <h3>Over time</h3>
+      <h2>Over time</h2>
       <p>
         Run-chart signals: {words.length === 0 ? 'none' : words.join('; ')}.{' '}
         <Tag minimal>triangles mark points in a signal</Tag>
@@ -366,7 +367,7 @@ function Trend({ d }: { d: DrillDownData }) {
           </HTMLTable>
         }
       />
-      {d.splits.length === 0 ? <NonIdealState title="No figures" /> : null}
+      {d.splits.length === 0 ? <EmptyState title="No figures" /> : null}
     </section>
   );
 }

@@ -1,10 +1,9 @@
 import {
   Button,
   Callout,
-  H2,
+  H1,
   HTMLSelect,
   HTMLTable,
-  NonIdealState,
   Spinner,
   Switch,
   Tag,
@@ -13,6 +12,7 @@ import { useQuery } from '@tanstack/react-query';
 import { useState } from 'react';
 import { Link, useNavigate, useSearchParams } from 'react-router-dom';
 import { ClinicalCaution } from '../../../components/ClinicalCaution';
+import { EmptyState } from '../../../components/Notice';
 import { ProblemCallout } from '../../../components/ProblemCallout';
 import { RequireRole } from '../../../components/RequireRole';
 import type { OutlierRow } from '../../../lib/api/types';
@@ -64,7 +64,7 @@ function OutliersScreen() {
     <div className="cairn-review">
       <div className="cairn-page-head">
         <div>
-          <H2>Outlier list</H2>
+          <H1 className="cairn-page-title">Outlier list</H1>
           <p className="cairn-muted">
             Practices whose rate on a measure lies beyond the funnel limits after allowing for
             over-dispersion, strongest evidence first. Open a row to see why, or open a review case.
@@ -130,7 +130,7 @@ function OutliersScreen() {
         <Spinner aria-label="Loading the outlier list" />
       ) : null}
       {data?.state === 'no-accepted-submissions' ? (
-        <NonIdealState
+        <EmptyState
           icon="search"
           title="Nothing to judge yet"
           description={`${data.quarter.label} has no accepted submissions.`}
@@ -181,7 +181,7 @@ function OutlierTable({
   const [opening, setOpening] = useState<string | null>(null);
   return (
     <section className="cairn-review-section">
-      <h3>{title}</h3>
+      <h2>{title}</h2>
       {rows.length === 0 ? (
         <p className="cairn-muted">None.</p>
       ) : (

@@ -3,7 +3,7 @@ import {
   Callout,
   FileInput,
   FormGroup,
-  H2,
+  H1,
   HTMLSelect,
   HTMLTable,
   Spinner,
@@ -57,9 +57,9 @@ function ReviewCaseScreen() {
       </p>
       <div className="cairn-page-head">
         <div>
-          <H2>
+          <H1 className="cairn-page-title">
             Review case {d.id}: {d.practice.code} {d.practice.name}
-          </H2>
+          </H1>
           <p className="cairn-muted">
             {d.measure.label} · {d.quarter.label} · guideline: {d.measure.source}
           </p>
@@ -72,7 +72,7 @@ function ReviewCaseScreen() {
       {d.reopened ? <ReopenedNotice c={d} /> : null}
       <ClinicalCaution compact />
       <section className="cairn-review-section">
-        <h3>The figures that prompted it (as they were on {formatDateTime(d.openedAt)})</h3>
+        <h2>The figures that prompted it (as they were on {formatDateTime(d.openedAt)})</h2>
         <p>{e.reason}</p>
         <HTMLTable compact className="cairn-review-facts">
           <tbody>
@@ -137,7 +137,7 @@ function ReopenedNotice({ c }: { c: Case }) {
 function Timeline({ c }: { c: Case }) {
   return (
     <section className="cairn-review-section">
-      <h3>Timeline</h3>
+      <h2>Timeline</h2>
       {c.timeline.length === 0 ? (
         <p className="cairn-muted">Nothing has been sent to the practice yet.</p>
       ) : (
@@ -188,7 +188,7 @@ function Actions({ c }: { c: Case }) {
   return (
     <section className="cairn-review-section">
       {closed}
-      <h3>Next step</h3>
+      <h2>Next step</h2>
       {a.answer ? <AnswerForm c={c} /> : null}
       {a.ask ? <AskForm c={c} /> : null}
       {a.close ? <CloseForm c={c} /> : null}

@@ -1,6 +1,7 @@
-import { H2, HTMLTable, NonIdealState, Spinner, Tag } from '@blueprintjs/core';
+import { H1, HTMLTable, Spinner, Tag } from '@blueprintjs/core';
 import { Link } from 'react-router-dom';
 import { ClinicalCaution } from '../../../components/ClinicalCaution';
+import { EmptyState } from '../../../components/Notice';
 import { ProblemCallout } from '../../../components/ProblemCallout';
 import { RequireRole } from '../../../components/RequireRole';
 import { formatDateTime } from '../../../lib/format';
@@ -27,7 +28,7 @@ function ReviewCasesScreen() {
     <div className="cairn-review">
       <div className="cairn-page-head">
         <div>
-          <H2>Review cases</H2>
+          <H1 className="cairn-page-title">Review cases</H1>
           <p className="cairn-muted">
             Each case follows up one practice’s result on one measure with the practice, until there
             is a finding.
@@ -39,7 +40,7 @@ function ReviewCasesScreen() {
       <ProblemCallout error={cases.error} />
       {cases.isPending ? <Spinner aria-label="Loading the review cases" /> : null}
       {cases.data && list.length === 0 ? (
-        <NonIdealState
+        <EmptyState
           icon="search-template"
           title="No review cases"
           description={

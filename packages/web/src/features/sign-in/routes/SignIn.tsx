@@ -22,7 +22,8 @@ export function SignIn() {
   const session = useSession();
   const refused = params.get('refused');
   const ended = params.get('ended') ?? session.data?.sessionEnded ?? null;
-  const returnTo = params.get('returnTo') ?? '/';
+  // Without a page asked for, sign-in comes back to /start, which decides where the person lands.
+  const returnTo = params.get('returnTo') ?? '/start';
   const loginHref = `/api/auth/saml/login?returnTo=${encodeURIComponent(returnTo)}`;
   const user = session.data?.user;
   const refusal = refused ? refusalText(refused) : null;
