@@ -1,6 +1,13 @@
 import type { Actor } from '../auth/actor.js';
 import type { ReportActionsDto, ReportStatus } from './dto/report.dto.js';
-import { assertMayPublish, mayPublish, reportActions, reportListActions } from './report-policy.js';
+import {
+  assertMayPublish,
+  assertMayWithdraw,
+  mayPublish,
+  mayWithdraw,
+  reportActions,
+  reportListActions,
+} from './report-policy.js';
 
 const roles: Record<string, Pick<Actor, 'role'>> = {
   'regional lead': { role: 'regional_lead' },
@@ -23,6 +30,21 @@ describe('report policy', () => {
     if (may) expect(() => assertMayPublish(roles[who]!)).not.toThrow();
     else
       expect(() => assertMayPublish(roles[who]!)).toThrow(
+        expect.objectContaining({ status: 403 }) as unknown as Error,
+      );
+  });
+
+  // [who, may withdraw]
+  it.each([
+    ['regional lead', true],
+    ['system', false],
+    ['auditor', false],
+    ['practice lead', false],
+  ] as const)('%s withdraws: %s', (who, may) => {
+    expect(mayWithdraw(roles[who]!)).toBe(may);
+    if (may) expect(() => assertMayWithdraw(roles[who]!)).not.toThrow();
+    else
+      expect(() => assertMayWithdraw(roles[who]!)).toThrow(
         expect.objectContaining({ status: 403 }) as unknown as Error,
       );
   });

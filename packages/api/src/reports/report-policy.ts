@@ -21,6 +21,8 @@ type Who = Pick<Actor, 'role'>;
 export const mayPublish = (actor: Who): boolean =>
   actor.role === 'regional_lead' || actor.role === 'system';
 
+export const mayWithdraw = (actor: Who): boolean => actor.role === 'regional_lead';
+
 export const mayReadRegion = (actor: Who): boolean =>
   actor.role === 'regional_lead' || actor.role === 'auditor';
 
@@ -31,7 +33,7 @@ export function reportListActions(actor: Who, quarterId: number | null): ReportL
 
 export function reportActions(actor: Who, status: ReportStatus): ReportActionsDto {
   return {
-    withdraw: actor.role === 'regional_lead' && status !== 'withdrawn',
+    withdraw: mayWithdraw(actor) && status !== 'withdrawn',
     region: mayReadRegion(actor) && status !== 'withdrawn',
   };
 }
@@ -43,5 +45,15 @@ export function assertMayPublish(actor: Who): void {
     'role-not-allowed',
     'You may not publish reports',
     'Only the regional lead publishes a quarter’s benchmark as a report.',
+  );
+}
+
+export function assertMayWithdraw(actor: Who): void {
+  if (mayWithdraw(actor)) return;
+  throw new ProblemException(
+    HttpStatus.FORBIDDEN,
+    'role-not-allowed',
+    'You may not withdraw reports',
+    'Only the regional lead withdraws a published report.',
   );
 }

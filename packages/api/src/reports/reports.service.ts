@@ -42,6 +42,7 @@ import { type PeerCounts, protectedPeerTable } from './peer-table.js';
 import { regionBreakdowns } from './region-breakdowns.js';
 import {
   assertMayPublish,
+  assertMayWithdraw,
   mayReadRegion,
   reportActions,
   reportListActions,
@@ -448,6 +449,7 @@ export class ReportsService {
   // ── withdraw ──
 
   async withdraw(actor: Actor, id: number, reason: string): Promise<ReportDto> {
+    assertMayWithdraw(actor);
     const text = reason.trim();
     if (text.length === 0) {
       throw new ProblemException(

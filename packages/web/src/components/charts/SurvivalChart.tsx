@@ -125,9 +125,10 @@ export function SurvivalChart(props: SurvivalChartProps) {
         : null}
       <path d={path(r) ?? ''} className="cairn-survival-region" />
       <path d={path(p) ?? ''} className="cairn-survival-practice" />
-      {r.map(([t, s]) => (
+      {/* A step's drop repeats its time: points are keyed by position. */}
+      {r.map(([t, s], i) => (
         <rect
-          key={`r${t}`}
+          key={`r${i}`}
           x={x(t) - 3}
           y={y(s) - 3}
           width={6}
@@ -135,9 +136,9 @@ export function SurvivalChart(props: SurvivalChartProps) {
           className="cairn-survival-region-mark"
         />
       ))}
-      {p.map(([t, s]) => (
+      {p.map(([t, s], i) => (
         <circle
-          key={`p${t}`}
+          key={`p${i}`}
           cx={x(t)}
           cy={y(s)}
           r={3.2}
