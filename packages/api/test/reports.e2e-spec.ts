@@ -107,7 +107,21 @@ describe('reports', () => {
       .send({ releaseNote: '   ' })
       .expect(400);
     expect(blank.body.errors).toEqual([
-      expect.objectContaining({ field: 'releaseNote', message: 'releaseNote must not be blank' }),
+      expect.objectContaining({
+        field: 'releaseNote',
+        message: 'must not be blank',
+      }),
+    ]);
+    // An empty note is refused by the request's own validation, in the same words.
+    const empty2 = await regional
+      .post(`/api/quarters/${w.quarter(Q3)}/reports`)
+      .send({ releaseNote: '' })
+      .expect(400);
+    expect(empty2.body.errors).toEqual([
+      expect.objectContaining({
+        field: 'releaseNote',
+        message: 'must not be blank',
+      }),
     ]);
     const missing = await regional
       .post(`/api/quarters/${w.quarter(Q3)}/reports`)
@@ -461,7 +475,7 @@ describe('reports', () => {
         .send({ reason: ' ' })
         .expect(400);
       expect(blank.body.errors).toEqual([
-        expect.objectContaining({ field: 'reason', message: 'reason must not be blank' }),
+        expect.objectContaining({ field: 'reason', message: 'must not be blank' }),
       ]);
       expect((await regional.get(`/api/reports/${reportId}`).expect(200)).body.status).toBe(
         'replaced',

@@ -113,7 +113,7 @@ export class ReportsService {
         'validation-failed',
         'The release note is empty',
         'Write a release note: what readers of this report should know.',
-        { errors: [{ field: 'releaseNote', message: 'releaseNote must not be blank' }] },
+        { errors: [{ field: 'releaseNote', message: 'must not be blank' }] },
       );
     }
     const quarter = await this.quarters.get(actor, quarterId);
@@ -457,7 +457,7 @@ export class ReportsService {
         'validation-failed',
         'The reason is empty',
         'Say why the report is withdrawn: readers see the reason in its place.',
-        { errors: [{ field: 'reason', message: 'reason must not be blank' }] },
+        { errors: [{ field: 'reason', message: 'must not be blank' }] },
       );
     }
     await this.repository.transaction(async (transaction) => {

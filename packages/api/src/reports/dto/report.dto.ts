@@ -1,7 +1,7 @@
 /** Published reports as the API sends them, and the inputs that publish and withdraw one. */
 import { ApiProperty, ApiPropertyOptional } from '@nestjs/swagger';
 import { Type } from 'class-transformer';
-import { IsInt, IsOptional, IsString, Length, Min } from 'class-validator';
+import { IsInt, IsOptional, IsString, Matches, MaxLength, Min } from 'class-validator';
 import {
   BenchmarkTrendDto,
   MeasureFunnelDto,
@@ -24,7 +24,8 @@ export class PublishReportDto {
     description: 'What readers should know about this report (kept with it for good)',
   })
   @IsString()
-  @Length(1, 2000)
+  @Matches(/\S/, { message: 'releaseNote must not be blank' })
+  @MaxLength(2000, { message: 'releaseNote must be at most 2,000 characters' })
   releaseNote!: string;
 }
 
@@ -36,7 +37,8 @@ export class WithdrawReportDto {
     example: 'A practice’s extract was found to hold another quarter’s records.',
   })
   @IsString()
-  @Length(1, 2000)
+  @Matches(/\S/, { message: 'reason must not be blank' })
+  @MaxLength(2000, { message: 'reason must be at most 2,000 characters' })
   reason!: string;
 }
 

@@ -309,7 +309,7 @@ describe('Withdraw dialog', () => {
   it('shows the API’s refusal of a blank reason next to the field, and any other refusal in the dialog', async () => {
     const r = report({ practices: [] });
     let answer: Route = problem(400, 'validation-failed', 'The reason is empty', 'Say why.', {
-      errors: [{ field: 'reason', message: 'reason must not be blank' }],
+      errors: [{ field: 'reason', message: 'must not be blank' }],
     });
     const { calls } = stub('regional_lead', {
       'GET /api/reports/5': { body: r },
@@ -322,7 +322,7 @@ describe('Withdraw dialog', () => {
     await user.click(await screen.findByRole('button', { name: 'Withdraw' }, slow));
     const dialog = await screen.findByRole('dialog');
     await user.click(within(dialog).getByRole('button', { name: 'Withdraw report' }));
-    expect(await within(dialog).findByText('Reason must not be blank.')).toBeTruthy();
+    expect(await within(dialog).findByText('Must not be blank.')).toBeTruthy();
     answer = problem(
       409,
       'report-withdrawn',
