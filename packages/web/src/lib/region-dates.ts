@@ -57,3 +57,20 @@ export function formatRegionMonth(month: string): string {
     timeZone: 'UTC',
   });
 }
+
+export type ParsedTime = { ok: true; time: string } | { ok: false; message: string };
+
+/** Reads a time of day on the 24-hour clock (HH:MM, also H:MM or HH.MM): 'HH:MM', or why not. */
+export function fromRegionTime(text: string, example = '07:30'): ParsedTime {
+  const trimmed = text.trim();
+  if (!trimmed) return { ok: false, message: `Enter a time, for example ${example}.` };
+  const match = /^(\d{1,2})[:.](\d{2})$/.exec(trimmed);
+  const [hour, minute] = match ? [Number(match[1]), Number(match[2])] : [NaN, NaN];
+  if (!match || hour > 23 || minute > 59) {
+    return {
+      ok: false,
+      message: `Write the time as HH:MM on the 24-hour clock, for example ${example}.`,
+    };
+  }
+  return { ok: true, time: `${String(hour).padStart(2, '0')}:${String(minute).padStart(2, '0')}` };
+}

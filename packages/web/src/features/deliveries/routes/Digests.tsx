@@ -15,9 +15,11 @@ import {
 import { useState } from 'react';
 import { Link, useSearchParams } from 'react-router-dom';
 import { ClinicalCaution } from '../../../components/ClinicalCaution';
+import { DateField } from '../../../components/DateField';
 import { ProblemCallout } from '../../../components/ProblemCallout';
 import { RequireRole } from '../../../components/RequireRole';
 import { usePageTitle } from '../../../lib/page-title';
+import { fromRegionDate, fromRegionTime } from '../../../lib/region-dates';
 import { useRecipients } from '../api/deliveries';
 import {
   useChangeSchedule,
@@ -207,7 +209,15 @@ function SendPanel({ reportId, practices }: { reportId: number; practices: numbe
   const sendAll = useSendAll();
   const schedule = useDigestSchedule(reportId);
   const change = useChangeSchedule();
-  const [when, setWhen] = useState('');
+  // The day in the region's format (DD/MM/YYYY) and the time on the 24-hour clock, read here
+  // as this browser's local time; the API checks that it lies ahead.
+  const [day, setDay] = useState('');
+  const [time, setTime] = useState('');
+  const [checked, setChecked] = useState(false);
+  const parsedDay = fromRegionDate(day);
+  const parsedTime = fromRegionTime(time);
+  const dayError = checked && !parsedDay.ok ? parsedDay.message : undefined;
+  const timeError = checked && !parsedTime.ok ? parsedTime.message : undefined;
   const s = schedule.data;
   return (
     <section className="cairn-digests-send" aria-label="Send the digests">
@@ -235,17 +245,45 @@ function SendPanel({ reportId, practices }: { reportId: number; practices: numbe
       )}
       <ProblemCallout error={sendAll.error} />
       <form
-        className="cairn-digests-actions"
+        className="cairn-digests-actions cairn-digests-when"
         aria-label="Schedule the digests"
         onSubmit={(e) => {
           e.preventDefault();
-          if (when) change.mutate({ reportId, sendAt: new Date(when).toISOString() });
+          setChecked(true);
+          if (!parsedDay.ok || !parsedTime.ok) return;
+          const sendAt = new Date(`${parsedDay.iso}T${parsedTime.time}:00`).toISOString();
+          change.mutate({ reportId, sendAt });
         }}
+        noValidate
       >
-        <FormGroup label="Or send them at" labelFor="digest-when" inline>
-          <InputGroup id="digest-when" type="datetime-local" value={when} onValueChange={setWhen} />
+        <DateField
+          id="digest-day"
+          label="Or send them on"
+          value={day}
+          onChange={setDay}
+          error={dayError}
+        />
+        <FormGroup
+          label="at"
+          labelFor="digest-time"
+          labelInfo="(HH:MM, 24-hour)"
+          intent={timeError ? Intent.DANGER : Intent.NONE}
+          helperText={timeError ? <span id="digest-time-help">{timeError}</span> : undefined}
+        >
+          <InputGroup
+            id="digest-time"
+            value={time}
+            onValueChange={setTime}
+            placeholder="HH:MM"
+            inputMode="numeric"
+            autoComplete="off"
+            intent={timeError ? Intent.DANGER : Intent.NONE}
+            aria-invalid={timeError ? true : undefined}
+            aria-describedby={timeError ? 'digest-time-help' : undefined}
+            leftIcon="time"
+          />
         </FormGroup>
-        <Button type="submit" icon="time" loading={change.isPending} disabled={!when}>
+        <Button type="submit" icon="time" loading={change.isPending}>
           Schedule
         </Button>
         {s?.state === 'scheduled' && (
