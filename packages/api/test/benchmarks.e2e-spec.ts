@@ -208,7 +208,7 @@ describe('results and benchmarks', () => {
         body.practices.map((p) => p.practice.code);
       expect(all.body.page).toEqual({
         page: 1,
-        pageSize: 250,
+        pageSize: 100,
         pages: 1,
         total: all.body.practices.length,
       });

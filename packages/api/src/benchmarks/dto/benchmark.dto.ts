@@ -31,7 +31,7 @@ export type BenchmarkState = (typeof BENCHMARK_STATES)[number];
 // ── queries ──
 
 /** Practices per page of the region benchmark, unless the reader asks for another size. */
-export const BENCHMARK_PAGE_SIZE = 250;
+export const BENCHMARK_PAGE_SIZE = 100;
 export const BENCHMARK_PAGE_MAX = 1000;
 
 export class BenchmarkQueryDto extends SplitQueryDto {
