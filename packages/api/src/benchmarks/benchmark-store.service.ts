@@ -418,18 +418,26 @@ export class BenchmarkStore {
       ...previous.practices.map((p) => [p.submissionId, p.code] as const),
       ...subjects.map((s) => [s.submissionId, s.practice.code] as const),
     ]);
-    const changed = await this.submissions.sumsOfCurrent(
-      [...left, ...joined].map((id) => ({
-        submissionId: id,
-        practiceCode: codeOf.get(id)!,
-        records: 0,
-      })),
-      version,
-      quarter,
-    );
-    const { content, parts } = rebuildContent(quarter, version, previous, subjects, changed);
-    this.keepParts(parts);
-    return content;
+    try {
+      const changed = await this.submissions.sumsOfCurrent(
+        [...left, ...joined].map((id) => ({
+          submissionId: id,
+          practiceCode: codeOf.get(id)!,
+          records: 0,
+        })),
+        version,
+        quarter,
+      );
+      const { content, parts } = rebuildContent(quarter, version, previous, subjects, changed);
+      this.keepParts(parts);
+      return content;
+    } catch (error) {
+      // Built from every practice's sums instead (the same bytes).
+      this.logger.warn(
+        `the benchmark of ${quarter.label} was not rebuilt from the previous one: ${(error as Error).message}`,
+      );
+      return null;
+    }
   }
 
   private keepParts(parts: ResultParts): void {
