@@ -93,7 +93,8 @@ export class UserAccounts {
   }
 
   /**
-   * The person whose id is `userIdSql` (a column of the caller's statement) as a scalar
+   * The person whose id is `userIdSql` (a column of the caller's statement, written in the
+   * caller's code: never a value from a request) as a scalar
    * subquery: a JSON object, or NULL when there is no such person. Lets auth read a session and
    * its person in one statement (session-store.ts): this module writes the SQL of its own tables,
    * the caller only embeds it. Decode the value with `accountOfJson`.
