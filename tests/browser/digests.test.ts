@@ -106,15 +106,30 @@ describe('digests in the browser', () => {
     expect(attachment).toMatch(/^cairn-report-\d+-2026-Q3-OV102\.xlsx \(\d+ kB\)$/);
     packName = attachment.replace(/ \(\d+ kB\)$/, '');
 
-    // The HTML part, in a frame that may run nothing and fetch nothing.
+    // The HTML part, in a frame that may run nothing (same origin, so its height can be read).
     const frameElement = page.locator('iframe[title="Digest for OV102, HTML part"]');
-    expect(await frameElement.getAttribute('sandbox')).toBe('');
+    expect(await frameElement.getAttribute('sandbox')).toBe('allow-same-origin');
     const frame = page.frameLocator('iframe[title="Digest for OV102, HTML part"]');
     await frame.getByText('Dear Priya Calloway,').waitFor();
     await frame
       .getByText(/follow local guidelines/)
       .first()
       .waitFor();
+    // As tall as the message: no white space under it, no scroll bar of its own.
+    const fit = async () =>
+      frameElement.evaluate((element) => {
+        const iframe = element as HTMLIFrameElement;
+        const body = iframe.contentDocument!.body;
+        return {
+          frame: iframe.clientHeight,
+          content: body.scrollHeight,
+          scrolls: iframe.contentDocument!.documentElement.scrollHeight > iframe.clientHeight,
+        };
+      });
+    await expect.poll(async () => (await fit()).frame, { timeout: 10_000 }).toBeGreaterThan(320);
+    const sized = await fit();
+    expect(sized).toEqual(expect.objectContaining({ scrolls: false }));
+    expect(Math.abs(sized.frame - sized.content)).toBeLessThanOrEqual(2);
     await browser.screenshot('digests-preview-html');
     await expectAccessible(page);
 

@@ -173,6 +173,29 @@ describe('Drill-down', () => {
     expect(within(byType).getByText(/\(12 of 12\)/)).toBeTruthy();
   });
 
+  it('draws the values as the results page does, with the same table', async () => {
+    stub(tobias);
+    const user = userEvent.setup();
+    renderApp('/outliers/2/practices/2/measures/hba1c');
+    const heading = await screen.findByRole(
+      'heading',
+      { name: /HbA1c \(mmol\/mol\): the practice’s values/ },
+      slow,
+    );
+    const section = within(heading.closest('section')!);
+    expect(
+      section.getByRole('img', { name: /OV102 as bars, the region as a dashed outline/ }),
+    ).toBeTruthy();
+    await user.click(section.getByRole('button', { name: 'Show as table' }));
+    const table = section.getByRole('table', { name: 'HbA1c: figures' });
+    expect(
+      within(table)
+        .getAllByRole('columnheader')
+        .map((c) => c.textContent),
+    ).toEqual(['HbA1c', 'OV102', 'Share', 'Region', 'Share']);
+    expect(within(table).getByRole('rowheader', { name: 'Not recorded' })).toBeTruthy();
+  });
+
   it('pages the records behind the result and links the evidence workbook', async () => {
     const { calls } = stub(tobias);
     const user = userEvent.setup();
