@@ -5,10 +5,9 @@
  * practice's digest. The shipped composite target's guideline is written with its parts' keys;
  * what is sent reads their labels.
  */
-import ExcelJS from 'exceljs';
-import type request from 'supertest';
 import { arrange, type ExtractsWorld, uploadAndWait } from './extracts-fixtures/api.js';
 import { csvOf, goodRows } from './extracts-fixtures/rows.js';
+import { binary, cellsOf } from './support/downloads.js';
 import { signInAs, type SignedInAgent } from './support/auth.js';
 import { createTestApp, type TestApp } from './support/test-app.js';
 
@@ -40,24 +39,12 @@ function readTexts(body: unknown, out: string[] = []): string[] {
   return out;
 }
 
-/** Reads a binary response body as a Buffer. */
-const binary = (req: request.Test) =>
-  req.buffer(true).parse((res, cb) => {
-    const chunks: Buffer[] = [];
-    res.on('data', (c: Buffer) => chunks.push(c));
-    res.on('end', () => cb(null, Buffer.concat(chunks)));
-  });
-
+/** Every text cell of a workbook. */
 async function workbookTexts(bytes: Buffer): Promise<string[]> {
-  const workbook = new ExcelJS.Workbook();
-  await workbook.xlsx.load(bytes as unknown as ArrayBuffer);
-  const out: string[] = [];
-  workbook.eachSheet((sheet) =>
-    sheet.eachRow((row) => {
-      for (const v of row.values as unknown[]) if (typeof v === 'string') out.push(v);
-    }),
+  const sheets = await cellsOf(bytes);
+  return Object.values(sheets).flatMap((rows) =>
+    rows.flatMap((row) => row.filter((v): v is string => typeof v === 'string')),
   );
-  return out;
 }
 
 describe('measure texts', () => {

@@ -13,18 +13,11 @@ import casesLead from '../../../test/fixtures/review/case-casesLead.json';
 import reopenedLead from '../../../test/fixtures/review/case-reopenedLead.json';
 import reopenedAuditor from '../../../test/fixtures/review/case-reopenedAuditor.json';
 import type { Me } from '../../lib/api/types';
+import { about } from '../../../test/signed-in';
 
 // Fixtures: the API's own answers over the demo organisation's practices in an API test world
 // (two practices with extracts in 2026 Q3, quarter id 2), trimmed; the outlier list has one row
 // added (worse, a case open on it) so that both sides and the marker show.
-const about = {
-  product: 'Cairn',
-  version: '0.1.0',
-  regionName: 'Ostrevale',
-  practices: 30,
-  localities: 4,
-  clinicalCaution: 'x',
-};
 const person = (role: Me['role'], displayName: string, practices: Me['practices']): Me => ({
   id: 3,
   email: 'someone@x.example',
