@@ -319,7 +319,9 @@ export const configSchema = z
         pruning: z
           .object({
             enabled: bool,
-            intervalMinutes: positiveInt('minutes between prunings; one also runs soon after start'),
+            intervalMinutes: positiveInt(
+              'minutes between prunings; one also runs soon after start',
+            ),
             answersUnusedDays: positiveInt(
               'days a stored answer is kept after it was last read (or built, if never read), unless it was built for a quarter’s current result',
             ),
