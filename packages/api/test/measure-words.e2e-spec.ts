@@ -5,6 +5,10 @@
  * practice's digest. The shipped composite target's guideline is written with its parts' keys;
  * what is sent reads their labels.
  */
+import { gunzipSync } from 'node:zlib';
+import { QueryTypes } from 'sequelize';
+import { canonicalJson } from '../src/measure-sets/canonical.js';
+import { encodeSnapshot, type ReportSnapshot } from '../src/reports/snapshot.js';
 import { arrange, type ExtractsWorld, uploadAndWait } from './extracts-fixtures/api.js';
 import { csvOf, goodRows } from './extracts-fixtures/rows.js';
 import { binary, cellsOf } from './support/downloads.js';
@@ -151,5 +155,64 @@ describe('measure texts', () => {
     ).body;
     const html = await regional.get(preview.htmlPath).expect(200);
     expect(rawKeysIn([preview.text, html.text])).toEqual([]);
+  });
+
+  it('reads a report frozen with the parts named by key in their labels, its bytes as stored', async () => {
+    const [row] = await t.db.query<{ snapshot: Buffer }>(
+      'SELECT snapshot FROM reports WHERE id = ?',
+      {
+        replacements: [reportId],
+        type: QueryTypes.SELECT,
+      },
+    );
+    // The snapshot as a report published before composites were named by label holds it.
+    const OLD = 'Cairn composite of hba1c_le_53, bp_target and lipid_managed';
+    const text = gunzipSync(row!.snapshot).toString('utf8').split(composite()).join(OLD);
+    expect(text).toContain(OLD);
+    const frozen = encodeSnapshot({
+      ...(JSON.parse(text) as ReportSnapshot),
+      identity: { ...(JSON.parse(text) as ReportSnapshot).identity, sequence: 90 },
+    });
+    await t.db.query(
+      `INSERT INTO reports (region_id, quarter_id, sequence, measure_set_id, benchmark_result_id,
+         submissions_key, submission_count, status, published_at, published_by_user_id, published_by,
+         release_note, content_hash, snapshot_bytes, snapshot)
+       SELECT region_id, quarter_id, 90, measure_set_id, benchmark_result_id, submissions_key,
+         submission_count, 'replaced', published_at, published_by_user_id, published_by,
+         release_note, ?, ?, ? FROM reports WHERE id = ?`,
+      {
+        replacements: [frozen.contentHash, frozen.canonical.length, frozen.stored, reportId],
+        type: QueryTypes.INSERT,
+      },
+    );
+    const [old] = await t.db.query<{ id: number }>(
+      'SELECT id FROM reports WHERE quarter_id = ? AND sequence = 90',
+      { replacements: [q3], type: QueryTypes.SELECT },
+    );
+    const oldId = Number(old!.id);
+
+    const region = (await regional.get(`/api/reports/${oldId}/region`).expect(200)).body;
+    expect(rawKeysIn(readTexts(region))).toEqual([]);
+    const part = (await regional.get(`/api/reports/${oldId}/practices/${ov102}`).expect(200)).body;
+    expect(rawKeysIn(readTexts(part))).toEqual([]);
+    const target = part.results.measures
+      .map((m: { measure: { key: string; source: string } }) => m.measure)
+      .find((m: { key: string }) => m.key === 'targets_composite');
+    expect(target?.source).toBe(composite());
+    const pack = await binary(regional.get(`/api/reports/${oldId}/data-pack.xlsx`)).expect(200);
+    const cells = Object.values(await cellsOf(pack.body as Buffer)).flat(2);
+    expect(cells).toContain(composite());
+    expect(cells).not.toContain(OLD);
+
+    // The stored bytes and their hash are as they were inserted.
+    const [after] = await t.db.query<{ snapshot: Buffer; content_hash: string }>(
+      'SELECT snapshot, content_hash FROM reports WHERE id = ?',
+      { replacements: [oldId], type: QueryTypes.SELECT },
+    );
+    expect(after!.content_hash).toBe(frozen.contentHash);
+    expect(gunzipSync(after!.snapshot).toString('utf8')).toContain(OLD);
+    expect(canonicalJson(JSON.parse(gunzipSync(after!.snapshot).toString('utf8')))).toBe(
+      frozen.canonical.toString('utf8'),
+    );
   });
 });
