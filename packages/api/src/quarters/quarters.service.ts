@@ -12,6 +12,7 @@ import { Sequelize } from 'sequelize-typescript';
 import { AuditTrailService } from '../audit-trail/audit-trail.service.js';
 import type { Actor } from '../auth/actor.js';
 import { ProblemException } from '../common/problem.js';
+import { selectRows } from '../database/raw-select.js';
 import type { CairnConfig } from '../config/config.schema.js';
 import type {
   QuarterActionsDto,
@@ -153,20 +154,24 @@ export class QuartersService {
     return { status: quarter.status, hasReport: reports.length > 0 };
   }
 
+  /** A region's quarters, newest first (one SELECT on a pooled connection: read per request). */
   async list(regionId: number): Promise<QuarterDto[]> {
-    const rows = await this.sequelize.query<DbQuarter>(
+    const rows = await selectRows<DbQuarter>(
+      this.sequelize,
       `${SELECT} WHERE region_id = ? ORDER BY year DESC, quarter DESC`,
-      { replacements: [regionId], type: QueryTypes.SELECT },
+      [regionId],
     );
     return rows.map(toQuarter);
   }
 
   async find(id: number, transaction?: Transaction): Promise<QuarterDto | null> {
-    const [row] = await this.sequelize.query<DbQuarter>(`${SELECT} WHERE id = ?`, {
-      replacements: [id],
-      type: QueryTypes.SELECT,
-      transaction,
-    });
+    const [row] = transaction
+      ? await this.sequelize.query<DbQuarter>(`${SELECT} WHERE id = ?`, {
+          replacements: [id],
+          type: QueryTypes.SELECT,
+          transaction,
+        })
+      : await selectRows<DbQuarter>(this.sequelize, `${SELECT} WHERE id = ?`, [id]);
     return row ? toQuarter(row) : null;
   }
 
