@@ -11,6 +11,8 @@ import { BenchmarkStore } from './benchmark-store.service.js';
 import { BenchmarksService } from './benchmarks.service.js';
 import { PracticeResultsController } from './practice-results.controller.js';
 import { PracticeResultsService } from './practice-results.service.js';
+import { BenchmarkPruning } from './pruning/benchmark-pruning.service.js';
+import { BenchmarkUpkeepRepository } from './pruning/benchmark-upkeep.repository.js';
 import { RecallListController } from './recall-list.controller.js';
 import { RecallListService } from './recall-list.service.js';
 
@@ -18,7 +20,8 @@ import { RecallListService } from './recall-list.service.js';
  * Results of an audit quarter, read from practices' current submissions: the
  * region's benchmark (stored in benchmark_results, this module's table, and
  * the routes' finished responses in benchmark_answers),
- * a practice's results against it, and recall lists.
+ * a practice's results against it, and recall lists; pruning of both tables
+ * (pruning/).
  */
 @Module({
   imports: [MeasureSetsModule, OrganisationsModule, QuartersModule, SubmissionsModule],
@@ -31,6 +34,8 @@ import { RecallListService } from './recall-list.service.js';
     BenchmarksService,
     PracticeResultsService,
     RecallListService,
+    BenchmarkUpkeepRepository,
+    BenchmarkPruning,
   ],
   exports: [BenchmarkStore, BenchmarksService, PracticeResultsService],
 })
