@@ -4,6 +4,7 @@ import { OrganisationsModule } from '../organisations/organisations.module.js';
 import { QuartersModule } from '../quarters/quarters.module.js';
 import { SubmissionsModule } from '../submissions/submissions.module.js';
 import { BenchmarkAnswersRepository } from './answers/benchmark-answers.repository.js';
+import { ResultInputs } from './answers/result-inputs.js';
 import { StoredAnswers } from './answers/stored-answers.service.js';
 import { BenchmarkController } from './benchmark.controller.js';
 import { BenchmarkResultsRepository } from './benchmark-results.repository.js';
@@ -30,6 +31,7 @@ import { RecallListService } from './recall-list.service.js';
     BenchmarkAnswersRepository,
     BenchmarkResultsRepository,
     StoredAnswers,
+    ResultInputs,
     BenchmarkStore,
     BenchmarksService,
     PracticeResultsService,
