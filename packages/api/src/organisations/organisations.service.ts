@@ -163,18 +163,26 @@ export class OrganisationsService {
    * built from them are keyed by it, so a renamed, moved or deactivated practice is a new key.
    */
   async regionFingerprint(regionId: number): Promise<string> {
-    const [row] = await selectRows<{ practices: string; localities: string }>(
+    const [row] = await selectRows<{ fingerprint: string }>(
       this.practices.sequelize!,
-      `SELECT
-         (SELECT CONCAT(COUNT(*), '/', COALESCE(MAX(updated_at), ''), '/',
-                        COALESCE(SUM(CRC32(CONCAT_WS('|', id, code, name, active, COALESCE(locality_id, '')))), 0))
-            FROM practices WHERE region_id = ?) AS practices,
-         (SELECT CONCAT(COUNT(*), '/', COALESCE(MAX(updated_at), ''), '/',
-                        COALESCE(SUM(CRC32(CONCAT_WS('|', id, code, name))), 0))
-            FROM localities WHERE region_id = ?) AS localities`,
+      `SELECT ${this.regionFingerprintSql('?')} AS fingerprint`,
       [regionId, regionId],
     );
-    return `${row?.practices ?? ''};${row?.localities ?? ''}`;
+    return row?.fingerprint ?? ';';
+  }
+
+  /**
+   * SQL of `regionFingerprint` for a read that embeds it: `regionIdSql` is SQL written by the
+   * caller's code (a column, or a `?` placeholder), never a request's value; it appears twice.
+   */
+  regionFingerprintSql(regionIdSql: string): string {
+    return `CONCAT(
+      (SELECT CONCAT(COUNT(*), '/', COALESCE(MAX(updated_at), ''), '/',
+                     COALESCE(SUM(CRC32(CONCAT_WS('|', id, code, name, active, COALESCE(locality_id, '')))), 0))
+         FROM practices WHERE region_id = ${regionIdSql}), ';',
+      (SELECT CONCAT(COUNT(*), '/', COALESCE(MAX(updated_at), ''), '/',
+                     COALESCE(SUM(CRC32(CONCAT_WS('|', id, code, name))), 0))
+         FROM localities WHERE region_id = ${regionIdSql}))`;
   }
 
   /** A region's localities, by code. */

@@ -363,6 +363,16 @@ export class SubmissionRepository {
   // ── the current set of a quarter (quarter_current_sets, migration 0302) ──
 
   /** The current-set rows of these quarters (quarters without a row are left out). */
+  /**
+   * A quarter's current-set row as one JSON value (null: no row), for a read that embeds it:
+   * `quarterIdSql` is SQL of the quarter's id written by the caller's code, never a request's
+   * value. Read back by SubmissionsService.currentSetRowsOf.
+   */
+  currentSetJsonSql(quarterIdSql: string): string {
+    return `(SELECT JSON_OBJECT('key', submissions_key, 'count', submission_count, 'version', version)
+       FROM quarter_current_sets WHERE quarter_id = ${quarterIdSql})`;
+  }
+
   async currentSetRows(quarterIds: readonly number[]): Promise<CurrentSetRow[]> {
     if (quarterIds.length === 0) return [];
     // Read by every results route: one SELECT on a pooled connection, no Sequelize pipeline.
