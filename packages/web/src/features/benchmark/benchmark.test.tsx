@@ -2,7 +2,7 @@ import { fireEvent, screen, waitFor, within } from '@testing-library/react';
 import userEvent from '@testing-library/user-event';
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import { renderApp } from '../../../test/render';
-import type { Route } from '../../../test/route-stub';
+import { type Route, stubRoutes } from '../../../test/route-stub';
 import { stubSignedIn } from '../../../test/signed-in';
 import benchmark from '../../../test/fixtures/benchmark-q8.json';
 import funnel from '../../../test/fixtures/funnel-q8-hba1c.json';
