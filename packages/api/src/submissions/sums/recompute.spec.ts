@@ -82,16 +82,13 @@ type Row = unknown[];
 
 /**
  * A stored value as the sums read's SELECT sends it (sums-rows.ts, `SUMS_SELECT`): months as
- * month indices, sex as 0…3, diabetes type and smoking status as 1…3 or 0 for NULL.
+ * the number YYYYMM, sex as 0…3, diabetes type and smoking status as 1…3 or 0 for NULL.
  */
 function asSent(column: string, value: unknown): unknown {
   if (value === null) {
     return column === 'diabetes_type' || column === 'smoking_status' ? 0 : null;
   }
-  if (column.endsWith('_month')) {
-    const [year, month] = String(value).split('-').map(Number) as [number, number];
-    return year * 12 + month - 1;
-  }
+  if (column.endsWith('_month')) return Number(String(value).replace('-', ''));
   if (column === 'sex') return ['F', 'M', 'X', 'U'].indexOf(String(value));
   if (column === 'diabetes_type') return ['type1', 'type2', 'other'].indexOf(String(value)) + 1;
   if (column === 'smoking_status') return ['current', 'ex', 'never'].indexOf(String(value)) + 1;
@@ -200,6 +197,53 @@ describe('the incremental path and the full recompute from records', () => {
         );
       }),
       { numRuns: 60 },
+    );
+  });
+});
+
+describe('the full recompute evaluated a chunk at a time as the rows stream', () => {
+  it('stores what each submission makes alone, with rows grouped or interleaved', async () => {
+    await fc.assert(
+      fc.asyncProperty(
+        world,
+        fc.integer({ min: 1, max: 40 }),
+        async ({ practices, order }, chunkRecords) => {
+          const subjects: SumsSubject[] = practices.map((records, p) => ({
+            submissionId: 900 - p * 3,
+            practiceCode: `Q${String(p + 1).padStart(2, '0')}`,
+            records: records.length,
+          }));
+          const rowsOf = new Map<number, Row[]>(
+            practices.map((records, p) => [
+              subjects[p]!.submissionId,
+              records.map((r) => [
+                subjects[p]!.submissionId,
+                ...SUMS_COLUMNS.map((c) => asSent(c, r[c as keyof typeof r])),
+              ]),
+            ]),
+          );
+          const grouped = [...rowsOf.values()].flat();
+          const interleaved = grouped
+            .map((row, i) => ({ row, key: order[i % order.length]! + i * 1e-9 }))
+            .sort((a, b) => a.key - b.key)
+            .map((x) => x.row);
+
+          const alone = new SubmissionSums(memoryRepository(rowsOf, grouped).repository);
+          const stored: SumsRow[] = [];
+          for (const s of subjects) stored.push(await alone.forConfirm(s, version, quarter));
+
+          for (const quarterRows of [grouped, interleaved]) {
+            const chunked = memoryRepository(rowsOf, quarterRows);
+            const sums = await new SubmissionSums(
+              chunked.repository,
+              chunkRecords,
+            ).recomputeQuarter(quarter.id, subjects, version, quarter);
+            expect(hex(chunked.written)).toEqual(hex(stored));
+            expect([...sums.keys()]).toEqual(subjects.map((s) => s.submissionId));
+          }
+        },
+      ),
+      { numRuns: 40 },
     );
   });
 });
