@@ -470,7 +470,7 @@ export class SubmissionRepository {
 
   /**
    * Streams the sums columns of a submission's records, or of every current record of a quarter,
-   * each row an array [submission id, ...SUMS_COLUMNS] given to `onRow`; resolves with the
+   * each row an array [submission id, SUMS_SELECT's text] given to `onRow`; resolves with the
    * number of rows. One streamed SELECT on a connection of the pool, in the connector's fastest
    * form: rows as arrays, no type cast function.
    */
