@@ -431,17 +431,6 @@ export class SubmissionRepository {
     );
   }
 
-  /** How many records the quarter's current submissions hold (their accepted rows). */
-  async currentRecordCount(quarterId: number): Promise<number> {
-    const [row] = await this.select<{ n: number | null }>(
-      `SELECT SUM(s.rows_accepted) AS n FROM practice_quarters pq
-         JOIN submissions s ON s.id = pq.current_submission_id
-        WHERE pq.quarter_id = ?`,
-      [quarterId],
-    );
-    return Number(row?.n ?? 0);
-  }
-
   /** Facts of confirmed submissions that never change: records, when confirmed, issue counts. */
   confirmedFacts(ids: readonly number[]) {
     if (ids.length === 0) return Promise.resolve([]);

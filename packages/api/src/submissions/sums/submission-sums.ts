@@ -308,7 +308,8 @@ export class SubmissionSums {
     for (const s of subjects) {
       let sums = out.get(s.submissionId);
       if (!sums) {
-        // No record of this submission was read (as one pass over every record would give).
+        // No record of this submission came in the quarter's read: its own read decides (an
+        // error when it has none, as for one submission's sums).
         sums = await this.computeOne(s, version, quarter);
         out.set(s.submissionId, sums);
         bytes.set(s.submissionId, this.row(s.submissionId, version, sums));
