@@ -70,6 +70,7 @@ export const tableOwners = {
   quarter_current_sets: ['submissions'],
   benchmark_results: ['benchmarks'],
   benchmark_answers: ['benchmarks'],
+  benchmark_upkeep: ['benchmarks'],
   reports: ['reports'],
   // Staged by the submissions module through the bulk-load plumbing (src/database/bulk-load).
   care_records: ['submissions', 'database'],

@@ -11,9 +11,15 @@
  */
 import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { auditA11y, describeViolations } from '../support/a11y.ts';
-import { type BrowserSession, openBrowser, waitForLanding } from '../support/browser.ts';
+import { expectAccessible } from '../support/a11y.ts';
+import {
+  type BrowserSession,
+  navLink,
+  openBrowser,
+  signIn as signInAs,
+} from '../support/browser.ts';
 import { type CairnServer, startCairn } from '../support/cairn-server.ts';
+import { readMailbox, waitForMail as waitForMailIn } from '../support/mailbox.ts';
 
 interface Captured {
   id: string;
@@ -40,36 +46,13 @@ describe('digests in the browser', () => {
     await server?.stop();
   });
 
-  async function signIn(name: string) {
-    const { page } = browser;
-    await browser.context.clearCookies();
-    await page.goto(server.baseUrl + '/', { waitUntil: 'networkidle' });
-    await page.locator('.cairn-navbar').getByRole('button', { name: 'Sign in' }).click();
-    await page.getByRole('button', { name: "Continue to your organisation's sign-in" }).click();
-    await page.getByRole('button', { name: `Sign in as ${name}` }).click();
-    await waitForLanding(page, name);
-  }
+  const signIn = (name: string) => signInAs(browser, server.baseUrl, name);
 
-  async function expectAccessible(page: Page) {
-    const report = await auditA11y(page);
-    expect(report.blocking, describeViolations(report.blocking)).toEqual([]);
-  }
+  const nav = (page: Page, name: string) => navLink(page, name, { exact: true });
 
-  const nav = (page: Page, name: string) =>
-    page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name, exact: true });
-
-  const mailbox = async (): Promise<Captured[]> =>
-    (await (await fetch(`${server.fakesUrl}/mailbox/api/messages`)).json()) as Captured[];
-
-  async function waitForMail(check: (messages: Captured[]) => boolean, what: string) {
-    const deadline = Date.now() + 90_000;
-    for (;;) {
-      const messages = await mailbox();
-      if (check(messages)) return messages;
-      if (Date.now() > deadline) throw new Error(`timed out waiting for ${what}`);
-      await new Promise((r) => setTimeout(r, 250));
-    }
-  }
+  const mailbox = () => readMailbox<Captured>(server.fakesUrl);
+  const waitForMail = (check: (messages: Captured[]) => boolean, what: string) =>
+    waitForMailIn<Captured>(server.fakesUrl, check, what, 90_000);
 
   it('lets the regional lead preview one practice’s digest, both parts', async () => {
     const { page } = browser;
@@ -106,15 +89,30 @@ describe('digests in the browser', () => {
     expect(attachment).toMatch(/^cairn-report-\d+-2026-Q3-OV102\.xlsx \(\d+ kB\)$/);
     packName = attachment.replace(/ \(\d+ kB\)$/, '');
 
-    // The HTML part, in a frame that may run nothing and fetch nothing.
+    // The HTML part, in a frame that may run nothing (same origin, so its height can be read).
     const frameElement = page.locator('iframe[title="Digest for OV102, HTML part"]');
-    expect(await frameElement.getAttribute('sandbox')).toBe('');
+    expect(await frameElement.getAttribute('sandbox')).toBe('allow-same-origin');
     const frame = page.frameLocator('iframe[title="Digest for OV102, HTML part"]');
     await frame.getByText('Dear Priya Calloway,').waitFor();
     await frame
       .getByText(/follow local guidelines/)
       .first()
       .waitFor();
+    // As tall as the message: no white space under it, no scroll bar of its own.
+    const fit = async () =>
+      frameElement.evaluate((element) => {
+        const iframe = element as HTMLIFrameElement;
+        const body = iframe.contentDocument!.body;
+        return {
+          frame: iframe.clientHeight,
+          content: body.scrollHeight,
+          scrolls: iframe.contentDocument!.documentElement.scrollHeight > iframe.clientHeight,
+        };
+      });
+    await expect.poll(async () => (await fit()).frame, { timeout: 10_000 }).toBeGreaterThan(320);
+    const sized = await fit();
+    expect(sized).toEqual(expect.objectContaining({ scrolls: false }));
+    expect(Math.abs(sized.frame - sized.content)).toBeLessThanOrEqual(2);
     await browser.screenshot('digests-preview-html');
     await expectAccessible(page);
 

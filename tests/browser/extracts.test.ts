@@ -8,13 +8,18 @@
  */
 import { readFileSync } from 'node:fs';
 import ExcelJS from 'exceljs';
-import type { Download, Page } from 'playwright-core';
+import type { Download } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import {
   type ExtractValue,
   writeXlsx,
 } from '../../packages/api/src/submissions/template/extract-writer.ts';
-import { type BrowserSession, openBrowser, waitForLanding } from '../support/browser.ts';
+import {
+  type BrowserSession,
+  navLink,
+  openBrowser,
+  signIn as signInAs,
+} from '../support/browser.ts';
 import { type CairnServer, startCairn } from '../support/cairn-server.ts';
 
 /** Rows enough that checking takes a moment: the progress bar is seen moving. */
@@ -88,18 +93,9 @@ describe('extracts in the browser', () => {
     await server?.stop();
   });
 
-  async function signIn(name: string) {
-    const { page } = browser;
-    await browser.context.clearCookies();
-    await page.goto(server.baseUrl + '/', { waitUntil: 'networkidle' });
-    await page.locator('.cairn-navbar').getByRole('button', { name: 'Sign in' }).click();
-    await page.getByRole('button', { name: "Continue to your organisation's sign-in" }).click();
-    await page.getByRole('button', { name: `Sign in as ${name}` }).click();
-    await waitForLanding(page, name);
-  }
+  const signIn = (name: string) => signInAs(browser, server.baseUrl, name);
 
-  const nav = (page: Page, label: string) =>
-    page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: label });
+  const nav = navLink;
 
   it('lets a practice lead upload an extract, follow its check, read the report and confirm it', async () => {
     const { page } = browser;

@@ -13,9 +13,10 @@
  */
 import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { auditA11y, describeViolations } from '../support/a11y.ts';
-import { type BrowserSession, openBrowser, waitForLanding } from '../support/browser.ts';
+import { expectAccessible } from '../support/a11y.ts';
+import { type BrowserSession, openBrowser, signIn as signInAs } from '../support/browser.ts';
 import { type CairnServer, startCairn } from '../support/cairn-server.ts';
+import { readMailbox, waitForMail as waitForMailIn } from '../support/mailbox.ts';
 
 interface Captured {
   id: string;
@@ -58,20 +59,7 @@ describe('mail in the browser', () => {
     await server?.stop();
   });
 
-  async function signIn(name: string) {
-    const { page } = browser;
-    await browser.context.clearCookies();
-    await page.goto(server.baseUrl + '/', { waitUntil: 'networkidle' });
-    await page.locator('.cairn-navbar').getByRole('button', { name: 'Sign in' }).click();
-    await page.getByRole('button', { name: "Continue to your organisation's sign-in" }).click();
-    await page.getByRole('button', { name: `Sign in as ${name}` }).click();
-    await waitForLanding(page, name);
-  }
-
-  async function expectAccessible(page: Page) {
-    const report = await auditA11y(page);
-    expect(report.blocking, describeViolations(report.blocking)).toEqual([]);
-  }
+  const signIn = (name: string) => signInAs(browser, server.baseUrl, name);
 
   async function choosePractice(page: Page, code: string) {
     const value = await page
@@ -80,18 +68,9 @@ describe('mail in the browser', () => {
     await page.getByLabel('Practice').selectOption(value!);
   }
 
-  const mailbox = async (): Promise<Captured[]> =>
-    (await (await fetch(`${server.fakesUrl}/mailbox/api/messages`)).json()) as Captured[];
-
-  async function waitForMail(check: (messages: Captured[]) => boolean, what: string) {
-    const deadline = Date.now() + 60_000;
-    for (;;) {
-      const messages = await mailbox();
-      if (check(messages)) return messages;
-      if (Date.now() > deadline) throw new Error(`timed out waiting for ${what}`);
-      await new Promise((r) => setTimeout(r, 250));
-    }
-  }
+  const mailbox = () => readMailbox<Captured>(server.fakesUrl);
+  const waitForMail = (check: (messages: Captured[]) => boolean, what: string) =>
+    waitForMailIn<Captured>(server.fakesUrl, check, what, 60_000);
 
   it('lets the regional lead add mail recipients', async () => {
     const { page } = browser;

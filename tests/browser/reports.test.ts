@@ -15,7 +15,12 @@ import ExcelJS from 'exceljs';
 import type { Download, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { auditA11y, describeViolations } from '../support/a11y.ts';
-import { type BrowserSession, openBrowser, waitForLanding } from '../support/browser.ts';
+import {
+  type BrowserSession,
+  navLink,
+  openBrowser,
+  signIn as signInAs,
+} from '../support/browser.ts';
 import { type CairnServer, startCairn } from '../support/cairn-server.ts';
 import { artifactsDir } from '../support/paths.ts';
 
@@ -37,18 +42,9 @@ describe('reports in the browser', () => {
     await server?.stop();
   });
 
-  async function signIn(name: string) {
-    const { page } = browser;
-    await browser.context.clearCookies();
-    await page.goto(server.baseUrl + '/', { waitUntil: 'networkidle' });
-    await page.locator('.cairn-navbar').getByRole('button', { name: 'Sign in' }).click();
-    await page.getByRole('button', { name: "Continue to your organisation's sign-in" }).click();
-    await page.getByRole('button', { name: `Sign in as ${name}` }).click();
-    await waitForLanding(page, name);
-  }
+  const signIn = (name: string) => signInAs(browser, server.baseUrl, name);
 
-  const nav = (page: Page, label: string) =>
-    page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: label });
+  const nav = navLink;
 
   async function accessible(page: Page) {
     const report = await auditA11y(page);

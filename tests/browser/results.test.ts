@@ -7,10 +7,14 @@
  * at most 350 kB of JavaScript (gzip).
  */
 import { readFileSync } from 'node:fs';
-import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { auditA11y, describeViolations } from '../support/a11y.ts';
-import { type BrowserSession, openBrowser, waitForLanding } from '../support/browser.ts';
+import { expectAccessible } from '../support/a11y.ts';
+import {
+  type BrowserSession,
+  navLink,
+  openBrowser,
+  signIn as signInAs,
+} from '../support/browser.ts';
 import { type CairnServer, startCairn } from '../support/cairn-server.ts';
 import { funnelVisibleMs, initialJs } from '../support/web-figures.ts';
 
@@ -27,23 +31,9 @@ describe('results and benchmarks in the browser', () => {
     await server?.stop();
   });
 
-  async function signIn(name: string) {
-    const { page } = browser;
-    await browser.context.clearCookies();
-    await page.goto(server.baseUrl + '/', { waitUntil: 'networkidle' });
-    await page.locator('.cairn-navbar').getByRole('button', { name: 'Sign in' }).click();
-    await page.getByRole('button', { name: "Continue to your organisation's sign-in" }).click();
-    await page.getByRole('button', { name: `Sign in as ${name}` }).click();
-    await waitForLanding(page, name);
-  }
+  const signIn = (name: string) => signInAs(browser, server.baseUrl, name);
 
-  async function expectAccessible(page: Page) {
-    const report = await auditA11y(page);
-    expect(report.blocking, describeViolations(report.blocking)).toEqual([]);
-  }
-
-  const nav = (page: Page, label: string) =>
-    page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: label });
+  const nav = navLink;
 
   it('shows the regional lead every practice on the funnel, the table and its CSV', async () => {
     const { page } = browser;

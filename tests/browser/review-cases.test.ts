@@ -11,11 +11,11 @@
 import { writeFileSync, mkdtempSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { auditA11y, describeViolations } from '../support/a11y.ts';
-import { type BrowserSession, openBrowser, waitForLanding } from '../support/browser.ts';
+import { expectAccessible } from '../support/a11y.ts';
+import { type BrowserSession, openBrowser, signIn as signInAs } from '../support/browser.ts';
 import { type CairnServer, startCairn } from '../support/cairn-server.ts';
+import { waitForMail } from '../support/mailbox.ts';
 
 interface Captured {
   id: string;
@@ -38,20 +38,7 @@ describe('outlier review in the browser', () => {
     await server?.stop();
   });
 
-  async function signIn(name: string) {
-    const { page } = browser;
-    await browser.context.clearCookies();
-    await page.goto(server.baseUrl + '/', { waitUntil: 'networkidle' });
-    await page.locator('.cairn-navbar').getByRole('button', { name: 'Sign in' }).click();
-    await page.getByRole('button', { name: "Continue to your organisation's sign-in" }).click();
-    await page.getByRole('button', { name: `Sign in as ${name}` }).click();
-    await waitForLanding(page, name);
-  }
-
-  async function expectAccessible(page: Page) {
-    const report = await auditA11y(page);
-    expect(report.blocking, describeViolations(report.blocking)).toEqual([]);
-  }
+  const signIn = (name: string) => signInAs(browser, server.baseUrl, name);
 
   it('lets the auditor find a flagged practice, drill in and open a case from the list', async () => {
     await signIn('Tobias Renwick');
@@ -96,18 +83,14 @@ describe('outlier review in the browser', () => {
   });
 
   it('lets the practice lead find the e-mail, follow it and answer with an attachment', async () => {
-    const deadline = Date.now() + 60_000;
-    let mail: Captured | undefined;
-    while (!mail) {
-      const messages = (await (
-        await fetch(`${server.fakesUrl}/mailbox/api/messages`)
-      ).json()) as Captured[];
-      mail = messages.find(
-        (m) => /^Review case \d+:/.test(m.subject) && m.to.some((a) => /ruth\.penhallow/.test(a)),
-      );
-      if (!mail && Date.now() > deadline) throw new Error('no review case e-mail arrived');
-      if (!mail) await new Promise((r) => setTimeout(r, 500));
-    }
+    const question = (m: Captured) =>
+      /^Review case \d+:/.test(m.subject) && m.to.some((a) => /ruth\.penhallow/.test(a));
+    const messages = await waitForMail<Captured>(
+      server.fakesUrl,
+      (all) => all.some(question),
+      'the review case e-mail',
+    );
+    const mail = messages.find(question)!;
     expect(mail.text).toMatch(/not clinical advice/);
     const link = /(http\S+\/review-cases\/\d+)/.exec(mail.text)?.[1];
     expect(link).toBe(caseUrl);

@@ -6,6 +6,7 @@
 import { readFileSync } from 'node:fs';
 import { createRequire } from 'node:module';
 import type { Page } from 'playwright-core';
+import { expect } from 'vitest';
 
 const require = createRequire(import.meta.url);
 const axeSource = readFileSync(require.resolve('axe-core/axe.min.js'), 'utf8');
@@ -64,4 +65,10 @@ export function describeViolations(violations: readonly A11yViolation[]): string
   return violations
     .map((v) => `${v.impact ?? 'unknown'} ${v.id}: ${v.help} (${v.targets.join(', ')})`)
     .join('\n');
+}
+
+/** Fails the test when axe-core finds a serious or critical violation on the page as it is. */
+export async function expectAccessible(page: Page): Promise<void> {
+  const report = await auditA11y(page);
+  expect(report.blocking, describeViolations(report.blocking)).toEqual([]);
 }

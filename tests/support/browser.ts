@@ -79,3 +79,22 @@ export async function waitForLanding(page: Page, name: string): Promise<string> 
   await page.locator('h1.cairn-page-title').first().waitFor();
   return new URL(page.url()).pathname;
 }
+
+/**
+ * Signs `name` in as a person does, in a fresh session (cookies cleared): the front page's Sign
+ * in, the organisation's sign-in, then the persona on the local identity provider's page; waits
+ * for the landing page.
+ */
+export async function signIn(browser: BrowserSession, baseUrl: string, name: string) {
+  const { page } = browser;
+  await browser.context.clearCookies();
+  await page.goto(baseUrl + '/', { waitUntil: 'networkidle' });
+  await page.locator('.cairn-navbar').getByRole('button', { name: 'Sign in' }).click();
+  await page.getByRole('button', { name: "Continue to your organisation's sign-in" }).click();
+  await page.getByRole('button', { name: `Sign in as ${name}` }).click();
+  return waitForLanding(page, name);
+}
+
+/** A link of the main navigation bar, by its words. */
+export const navLink = (page: Page, name: string, { exact = false } = {}) =>
+  page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name, exact });

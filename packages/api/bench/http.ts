@@ -13,7 +13,8 @@
  * p90 and p97.5, so the figure judged is p97.5 (above p95). Requests ask for
  * gzip, as a browser does. The reference, measured the same way in the same
  * run and not judged, is the quarter list: the smallest signed-in route, whose
- * time is the session's read and renewal, the guards and one SELECT.
+ * time is the session's read (one SELECT with the person; no write within a
+ * minute of the last renewal), the guards and one SELECT.
  */
 import { spawn } from 'node:child_process';
 import { existsSync, readFileSync } from 'node:fs';
@@ -107,7 +108,7 @@ export async function measureRoutes(
       { type: QueryTypes.SELECT },
     );
     // The reference: the region's quarter list, the smallest signed-in route (the session's
-    // read and renewal, the guards, a SELECT), measured the same way in the same run.
+    // read with its person, the guards, a SELECT), measured the same way in the same run.
     const routes = [
       REFERENCE_ROUTE,
       `/api/quarters/${ids!.quarter}/benchmark`,

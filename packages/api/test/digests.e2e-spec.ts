@@ -5,13 +5,12 @@
  * the report (the file its leads download from the report's page), a
  * practice lead who opted out gets none, and a scheduled sending runs once.
  */
-import ExcelJS from 'exceljs';
 import { simpleParser } from 'mailparser';
 import { QueryTypes } from 'sequelize';
-import type request from 'supertest';
 import { DigestsService } from '../src/digests/digests.service.js';
 import { arrange, type ExtractsWorld, uploadAndWait } from './extracts-fixtures/api.js';
 import { csvOf, goodRows } from './extracts-fixtures/rows.js';
+import { binary, cellsOf } from './support/downloads.js';
 import { signInAs, type SignedInAgent } from './support/auth.js';
 import {
   type Capture,
@@ -22,27 +21,6 @@ import {
   waitUntil,
 } from './support/mail.js';
 import type { TestApp } from './support/test-app.js';
-
-/** Every sheet's cell values, by sheet name. */
-async function cellsOf(bytes: Buffer): Promise<Record<string, unknown[][]>> {
-  const workbook = new ExcelJS.Workbook();
-  await workbook.xlsx.load(bytes as unknown as ArrayBuffer);
-  const out: Record<string, unknown[][]> = {};
-  workbook.eachSheet((sheet) => {
-    const rows: unknown[][] = [];
-    sheet.eachRow((row) => rows.push((row.values as unknown[]).slice(1)));
-    out[sheet.name] = rows;
-  });
-  return out;
-}
-
-/** Reads a binary response body as a Buffer. */
-const binary = (req: request.Test) =>
-  req.buffer(true).parse((res, cb) => {
-    const chunks: Buffer[] = [];
-    res.on('data', (c: Buffer) => chunks.push(c));
-    res.on('end', () => cb(null, Buffer.concat(chunks)));
-  });
 
 describe('digests', () => {
   let capture: Capture;

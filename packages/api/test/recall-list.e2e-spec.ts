@@ -25,6 +25,7 @@ import { pseudonymiser } from '../src/submissions/extract-processor.js';
 import { SubmissionsService } from '../src/submissions/submissions.service.js';
 import { arrange, type ExtractsWorld, uploadAndWait } from './extracts-fixtures/api.js';
 import { csvOf, goodRow, type Row } from './extracts-fixtures/rows.js';
+import { binary } from './support/downloads.js';
 import { signInAs, type SignedInAgent } from './support/auth.js';
 import { createTestApp, type TestApp } from './support/test-app.js';
 
@@ -40,14 +41,6 @@ const ROWS: Row[] = [
   goodRow(6, { record_ref: 'QB-006', diabetes_type: null }),
   goodRow(20, { record_ref: 'QB-020', hba1c_value: 54, on_insulin: 'no' }),
 ];
-
-/** Reads a binary response body as a Buffer. */
-const binary = (req: request.Test) =>
-  req.buffer(true).parse((res, cb) => {
-    const chunks: Buffer[] = [];
-    res.on('data', (c: Buffer) => chunks.push(c));
-    res.on('end', () => cb(null, Buffer.concat(chunks)));
-  });
 
 async function sheetRows(body: Buffer, name: string): Promise<unknown[][]> {
   const workbook = new ExcelJS.Workbook();

@@ -10,11 +10,11 @@ import { mkdtempSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import ExcelJS from 'exceljs';
-import request from 'supertest';
 import { gunzipSync } from 'node:zlib';
 import { QueryTypes } from 'sequelize';
 import { arrange, type ExtractsWorld, uploadAndWait } from './extracts-fixtures/api.js';
 import { csvOf, goodRows, type Row } from './extracts-fixtures/rows.js';
+import { binary } from './support/downloads.js';
 import { signInAs, type SignedInAgent } from './support/auth.js';
 import { createTestApp, type TestApp } from './support/test-app.js';
 
@@ -23,14 +23,6 @@ const Q3 = '2026 Q3';
 /** A practice's extract: n clean rows, `off` of them with an HbA1c above every target. */
 const rowsOf = (n: number, off: number, from: number): Row[] =>
   goodRows(n, from).map((r, i) => (i < off ? { ...r, hba1c_value: 95 } : r));
-
-/** Reads a binary response body as a Buffer. */
-const binary = (req: request.Test) =>
-  req.buffer(true).parse((res, cb) => {
-    const chunks: Buffer[] = [];
-    res.on('data', (c: Buffer) => chunks.push(c));
-    res.on('end', () => cb(null, Buffer.concat(chunks)));
-  });
 
 async function workbookOf(body: Buffer) {
   const workbook = new ExcelJS.Workbook();

@@ -4,15 +4,7 @@ import { afterEach, describe, expect, it, vi } from 'vitest';
 import { navigationFor } from '../src/app/navigation';
 import type { Me } from '../src/lib/api/types';
 import { renderApp, stubFetch } from './render';
-
-const about = {
-  product: 'Cairn',
-  version: '0.1.0',
-  regionName: 'Ostrevale',
-  practices: 30,
-  localities: 4,
-  clinicalCaution: 'x',
-};
+import { about } from './signed-in';
 
 const practiceLead: Me = {
   id: 7,

@@ -1,9 +1,9 @@
 /**
  * Sessions: who is signed in on this request, starting a session at sign-in
  * (always a new session id: no fixation), ending one, and ending all of a
- * person's sessions. Sessions live in MariaDB (express-session with
- * connect-session-sequelize, see session-store.ts); the person is re-read
- * from the database on every request.
+ * person's sessions. Sessions live in MariaDB (express-session with Cairn's
+ * own store, see session-store.ts); the person is re-read from the database
+ * on every request.
  */
 import { randomBytes, timingSafeEqual } from 'node:crypto';
 import { Inject, Injectable } from '@nestjs/common';
@@ -18,6 +18,7 @@ import { type Account, UserAccounts } from '../users/user-accounts.js';
 import type { AuthUser } from './auth-user.js';
 import { SessionRecord } from './models/session-record.model.js';
 import type { SessionAuth } from './session-data.js';
+import { personReadWith, RENEW_MS } from './session-store.js';
 import './session-data.js';
 import { section } from './config-section.js';
 
@@ -39,9 +40,6 @@ type SessionRequest = Request & {
 
 const promisify = (fn: (cb: (err?: unknown) => void) => void) =>
   new Promise<void>((resolve, reject) => fn((err) => (err ? reject(err) : resolve())));
-
-/** Updates lastSeenAt at most this often (each update is a session write). */
-const TOUCH_MS = 60_000;
 
 export function newCsrfToken(): string {
   return randomBytes(32).toString('base64url');
@@ -82,7 +80,13 @@ export class SessionService {
     let ended: SessionEnd | undefined;
     if (now - auth.lastSeenAt > idleTimeoutMinutes * 60_000) ended = 'idle';
     else if (now - auth.signedInAt > absoluteTimeoutHours * 3600_000) ended = 'absolute';
-    const user = ended ? null : await this.accounts.find(auth.userId);
+    // The person as read with the session row (the same statement), else read now.
+    const read = personReadWith(req.session);
+    const user = ended
+      ? null
+      : read && read.id === auth.userId
+        ? read
+        : await this.accounts.find(auth.userId);
     if (!ended && !user) ended = 'removed';
     if (!ended && user!.status !== 'active') ended = 'deactivated';
     if (ended) {
@@ -108,7 +112,9 @@ export class SessionService {
       });
       return { ended };
     }
-    if (now - auth.lastSeenAt > TOUCH_MS) auth.lastSeenAt = now;
+    // Renewed at most once a minute (session-store.ts): the change saves the session, which
+    // writes the row's expiry and sends the cookie again.
+    if (now - auth.lastSeenAt >= RENEW_MS) auth.lastSeenAt = now;
     return { user: toAuthUser(user!) };
   }
 

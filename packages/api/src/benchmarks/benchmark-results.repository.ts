@@ -20,6 +20,15 @@ export interface ResultKey {
   submissionsKey: string;
 }
 
+/** A stored result as pruning sees it. */
+export interface StoredResultInfo {
+  id: number;
+  quarterId: number;
+  submissionsKey: string;
+  /** Seconds since it was built (by the database's clock) */
+  ageSeconds: number;
+}
+
 /** A stored result without its body. */
 export interface ResultRow {
   id: number;
@@ -66,6 +75,40 @@ export class BenchmarkResultsRepository {
       { replacements: [id], type: QueryTypes.SELECT },
     );
     return row?.body ?? null;
+  }
+
+  /** Every stored result without its body, for pruning: its quarter, set and age. */
+  async listAll(): Promise<StoredResultInfo[]> {
+    const rows = await this.sequelize.query<{
+      id: number;
+      quarter_id: number;
+      submissions_key: string;
+      age_seconds: number;
+    }>(
+      `SELECT id, quarter_id, submissions_key, TIMESTAMPDIFF(SECOND, built_at, NOW(3)) AS age_seconds
+         FROM benchmark_results`,
+      { type: QueryTypes.SELECT },
+    );
+    return rows.map((r) => ({
+      id: Number(r.id),
+      quarterId: Number(r.quarter_id),
+      submissionsKey: r.submissions_key,
+      ageSeconds: Number(r.age_seconds),
+    }));
+  }
+
+  /**
+   * Removes these stored results, except any a published report names (its foreign key keeps
+   * the row: DELETE IGNORE skips it). The number removed.
+   */
+  async deleteIds(ids: readonly number[]): Promise<number> {
+    if (ids.length === 0) return 0;
+    // BULKDELETE: the dialect answers with the number of rows deleted.
+    const affected = (await this.sequelize.query(
+      'DELETE IGNORE FROM benchmark_results WHERE id IN (?)',
+      { replacements: [ids], type: QueryTypes.BULKDELETE },
+    )) as unknown as number;
+    return Number(affected ?? 0);
   }
 
   /**

@@ -32,6 +32,7 @@ import {
 import type { QuarterDto } from '../quarters/dto/quarter.dto.js';
 import { QuartersService } from '../quarters/quarters.service.js';
 import { SubmissionsService } from '../submissions/submissions.service.js';
+import { ResultInputs } from './answers/result-inputs.js';
 import { type StoredAnswer, StoredAnswers } from './answers/stored-answers.service.js';
 import {
   BenchmarkStore,
@@ -117,6 +118,7 @@ export class BenchmarksService {
     @Inject(OrganisationsService) private readonly organisations: OrganisationsService,
     @Inject(SubmissionsService) private readonly submissions: SubmissionsService,
     @Inject(StoredAnswers) private readonly answers: StoredAnswers,
+    @Inject(ResultInputs) private readonly inputs: ResultInputs,
   ) {}
 
   /**
@@ -143,14 +145,14 @@ export class BenchmarksService {
     quarterId: number,
     query: BenchmarkQueryDto,
   ): Promise<StoredAnswer> {
-    const quarter = await this.quarters.get(actor, quarterId);
     const split = query.split ?? 'all';
     for (let attempt = 0; ; attempt++) {
       try {
-        const [sets, organisation] = await Promise.all([
-          this.store.currentSets([quarter]),
-          this.organisations.regionFingerprint(quarter.regionId),
-        ]);
+        // One SELECT: the quarter, its current set and the region's fingerprint.
+        const inputs = await this.inputs.of(actor.regionId);
+        const quarter = this.quarters.quarterAmong(inputs.quarters, quarterId);
+        const sets = await inputs.setsOf([quarter]);
+        const organisation = inputs.fingerprint;
         const key = StoredAnswers.keyOf('region', [
           ...(await this.store.resultIdsOf([quarter], sets)),
           JSON.stringify(quarter),

@@ -39,6 +39,7 @@ import { mayWrite } from '../submissions/submission-policy.js';
 import { SubmissionsService } from '../submissions/submissions.service.js';
 import type { CurrentSetRow } from '../submissions/submissions.service.js';
 import { type StoredAnswer, StoredAnswers } from './answers/stored-answers.service.js';
+import { ResultInputs } from './answers/result-inputs.js';
 import { BenchmarkStore, type QuarterResult, SetChangedError } from './benchmark-store.service.js';
 import { comparisonOf, practiceDto, quartersUpTo } from './benchmarks.service.js';
 import type {
@@ -89,6 +90,7 @@ export class PracticeResultsService {
     @Inject(OrganisationsService) private readonly organisations: OrganisationsService,
     @Inject(SubmissionsService) private readonly submissions: SubmissionsService,
     @Inject(StoredAnswers) private readonly answers: StoredAnswers,
+    @Inject(ResultInputs) private readonly inputs: ResultInputs,
   ) {}
 
   /**
@@ -107,11 +109,11 @@ export class PracticeResultsService {
    * they may upload. Three small SELECTs when the answer is known; built once otherwise.
    */
   async resultsAnswer(actor: Actor, practiceId: number, quarterId: number): Promise<StoredAnswer> {
-    const all = await this.quarters.list(actor.regionId);
+    // One SELECT: the region's quarters, their current sets and the region's fingerprint.
+    let inputs = await this.inputs.of(actor.regionId);
     // Unknown, or of another region: the same 404 as everywhere.
-    const quarter =
-      all.find((q) => q.id === quarterId) ?? (await this.quarters.get(actor, quarterId));
-    const quarters = quartersUpTo(all, quarter);
+    const quarter = this.quarters.quarterAmong(inputs.quarters, quarterId);
+    const quarters = quartersUpTo(inputs.quarters, quarter);
     const applied = actor.role === 'practice_lead';
     // The route is practice-scoped: the practice is of the reader's region.
     const upload = mayWrite(actor, {
@@ -121,10 +123,9 @@ export class PracticeResultsService {
     });
     for (let attempt = 0; ; attempt++) {
       try {
-        const [sets, organisation] = await Promise.all([
-          this.store.currentSets(quarters),
-          this.organisations.regionFingerprint(actor.regionId),
-        ]);
+        if (attempt > 0) inputs = await this.inputs.of(actor.regionId);
+        const sets = await inputs.setsOf(quarters);
+        const organisation = inputs.fingerprint;
         const key = StoredAnswers.keyOf('practice', [
           String(practiceId),
           applied ? 'applied' : 'none',

@@ -314,6 +314,30 @@ export const configSchema = z
         ),
       })
       .strict(),
+    benchmarks: z
+      .object({
+        pruning: z
+          .object({
+            enabled: bool,
+            intervalMinutes: positiveInt(
+              'minutes between prunings; one also runs soon after start',
+            ),
+            answersUnusedDays: positiveInt(
+              'days a stored answer is kept after it was last read (or built, if never read), unless it was built for a quarter’s current result',
+            ),
+            resultsKeepNewest: positiveInt(
+              'stored results of each quarter always kept, newest first, besides the current set’s',
+            ),
+            resultsGraceMinutes: positiveInt(
+              'minutes a stored result is kept after it was built whatever else holds, so that a request that read it finishes',
+            ),
+            leaseSeconds: positiveInt(
+              'seconds one process holds the pruning before another may take it (a crashed process is noticed after this)',
+            ),
+          })
+          .strict(),
+      })
+      .strict(),
     quarters: z
       .object({
         defaultMeasureSetId: z

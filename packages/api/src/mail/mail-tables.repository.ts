@@ -6,6 +6,7 @@
 import { Inject, Injectable } from '@nestjs/common';
 import { QueryTypes, type Transaction } from 'sequelize';
 import { Sequelize } from 'sequelize-typescript';
+import { JobLeases } from '../database/job-leases.js';
 
 export interface ExtraRecipientRow {
   id: number;
@@ -19,7 +20,11 @@ export interface ExtraRecipientRow {
 
 @Injectable()
 export class MailTablesRepository {
-  constructor(@Inject(Sequelize) private readonly sequelize: Sequelize) {}
+  private readonly leases: JobLeases;
+
+  constructor(@Inject(Sequelize) private readonly sequelize: Sequelize) {
+    this.leases = new JobLeases(sequelize, 'mail_schedule');
+  }
 
   transaction<T>(work: (transaction: Transaction) => Promise<T>): Promise<T> {
     return this.sequelize.transaction(work);
@@ -102,27 +107,11 @@ export class MailTablesRepository {
    * Takes the lease of scheduled job `job` for `owner` if no other process holds a live one;
    * true when this process may run the job now.
    */
-  async claimJob(job: string, owner: string, leaseSeconds: number): Promise<boolean> {
-    await this.sequelize.query('INSERT IGNORE INTO mail_schedule (job) VALUES (?)', {
-      replacements: [job],
-      type: QueryTypes.INSERT,
-    });
-    return (
-      (await this.execute(
-        `UPDATE mail_schedule SET lease_owner = ?, lease_expires_at = NOW(3) + INTERVAL ? SECOND,
-           last_started_at = NOW(3)
-         WHERE job = ? AND (lease_owner IS NULL OR lease_expires_at < NOW(3))`,
-        [owner, leaseSeconds, job],
-      )) > 0
-    );
+  claimJob(job: string, owner: string, leaseSeconds: number): Promise<boolean> {
+    return this.leases.claim(job, owner, leaseSeconds);
   }
 
-  async releaseJob(job: string, owner: string, outcome: string): Promise<void> {
-    await this.execute(
-      `UPDATE mail_schedule SET lease_owner = NULL, lease_expires_at = NULL, last_finished_at = NOW(3),
-         last_outcome = ?
-       WHERE job = ? AND lease_owner = ?`,
-      [outcome.slice(0, 500), job, owner],
-    );
+  releaseJob(job: string, owner: string, outcome: string): Promise<void> {
+    return this.leases.release(job, owner, outcome);
   }
 }

@@ -2,7 +2,13 @@ import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { parseMeasureSet, type MeasureSet } from '@cairn/metrics';
 import { findRepoRoot } from '../config/load-config.js';
-import { denominatorText, describeMeasures, populationText } from './describe.js';
+import {
+  denominatorText,
+  describeMeasures,
+  type MeasureView,
+  nameComponents,
+  populationText,
+} from './describe.js';
 import { decodeMeasureSet, MEASURE_SET_FOLDER } from './measure-sets.service.js';
 
 const file = join(findRepoRoot(), MEASURE_SET_FOLDER, 'cairn-default-2026.1.json');
@@ -144,6 +150,57 @@ describe('describeMeasures (the shipped measure set)', () => {
     target.threshold = 7;
     const view = describeMeasures(parseMeasureSet(set)).find((v) => v.key === 'cholesterol_lt_5')!;
     expect(view.definition).toBe(`Latest total cholesterol in the review window ${words}`);
+  });
+});
+
+/** Every text of a measure that people read. */
+const wordsOf = (v: MeasureView) => [
+  v.label,
+  v.definition,
+  v.denominatorText,
+  v.populationText,
+  v.source,
+  v.note ?? '',
+];
+/**
+ * Keys that no sentence would hold by chance (an underscore or a digit in them); a key that is an
+ * ordinary word ("cholesterol", "smoking") may well appear in a sentence as that word.
+ */
+const codeKeys = views.map((v) => v.key).filter((key) => /[_0-9]/.test(key));
+/** A measure key as a whole word (keys are letters, digits and underscores). */
+const keyIn = (text: string, key: string) =>
+  new RegExp(`(?<![A-Za-z0-9_])${key}(?![A-Za-z0-9_])`).test(text);
+
+describe('measure texts name measures by their labels, never by key', () => {
+  it('checks every key that looks like code', () => {
+    expect(codeKeys).toEqual(expect.arrayContaining(['hba1c', 'hba1c_le_53', 'bp_target']));
+  });
+
+  it('reads the composite target’s guideline in its parts’ labels', () => {
+    expect(byKey.get('targets_composite')!.source).toBe(
+      'Cairn composite of “HbA1c 53 mmol/mol (7.0 %) or below”, “Blood pressure below 140/90 mmHg (below 150/90 mmHg from age 80)” and “On a statin or total cholesterol below 5.0 mmol/L”',
+    );
+  });
+
+  it.each(views.map((v) => [v.key, v] as const))(
+    '%s: no text of it holds a measure key',
+    (_key, view) => {
+      for (const text of wordsOf(view)) {
+        for (const key of codeKeys) expect([key, keyIn(text, key)]).toEqual([key, false]);
+      }
+    },
+  );
+
+  it.each([
+    ['the parts named by key', 'Of a_b and c', ['a_b', 'c'], 'Of “A B” and “C”'],
+    ['a longer key first', 'a_b_c then a_b', ['a_b', 'a_b_c'], '“A B C” then “A B”'],
+    ['only whole words', 'a_bc, xa_b, a_b2 and a_b.', ['a_b'], 'a_bc, xa_b, a_b2 and “A B”.'],
+    ['a key without a label kept', 'Of a_b and zz', ['a_b', 'zz'], 'Of “A B” and zz'],
+    ['keys that are not parts kept', 'Of c', ['a_b'], 'Of c'],
+    ['characters special to patterns', 'Of a.b', ['a.b'], 'Of “A dot B”'],
+  ])('nameComponents: %s', (_case, text, components, expected) => {
+    const labels: Record<string, string> = { a_b: 'A B', a_b_c: 'A B C', c: 'C', 'a.b': 'A dot B' };
+    expect(nameComponents(text, components, (key) => labels[key])).toBe(expected);
   });
 });
 

@@ -162,6 +162,34 @@ function fieldWindow(window: 'review' | 'retinal', retinalMonths: number): strin
     : 'in the review window';
 }
 
+const escapeRegExp = (text: string) => text.replace(/[.*+?^${}()|[\]\\]/g, '\\$&');
+
+/**
+ * A composite's text as people read it: wherever it names one of the measures it combines by
+ * key (a definition file may write "Cairn composite of hba1c_le_53, bp_target and
+ * lipid_managed"), the measure's own label, in quotes, stands instead. Only the composite's own
+ * parts are replaced, and only as whole words (a key is letters, digits and underscores), so an
+ * ordinary word that happens to be a key elsewhere in the set stays as written. Used wherever
+ * a measure is described (describeMeasures) and on reading a frozen report (reports/snapshot.ts),
+ * so every page, download and e-mail reads the same words.
+ */
+export function nameComponents(
+  text: string,
+  components: readonly string[],
+  labelOf: (key: string) => string | undefined,
+): string {
+  let out = text;
+  for (const key of [...components].sort((a, b) => b.length - a.length)) {
+    const label = labelOf(key);
+    if (label === undefined) continue;
+    out = out.replace(
+      new RegExp(`(?<![A-Za-z0-9_])${escapeRegExp(key)}(?![A-Za-z0-9_])`, 'g'),
+      () => `“${label}”`,
+    );
+  }
+  return out;
+}
+
 /** Every measure of a validated measure set, described. */
 export function describeMeasures(set: MeasureSet): MeasureView[] {
   const processes = new Map(set.careProcesses.map((p) => [p.key, p]));
@@ -238,6 +266,12 @@ export function describeMeasures(set: MeasureSet): MeasureView[] {
         components,
       ),
     );
+  }
+  const labels = new Map(views.map((v) => [v.key, v.label]));
+  for (const v of views) {
+    if (v.components.length === 0) continue;
+    v.source = nameComponents(v.source, v.components, (key) => labels.get(key));
+    if (v.note !== null) v.note = nameComponents(v.note, v.components, (key) => labels.get(key));
   }
   return views;
 }

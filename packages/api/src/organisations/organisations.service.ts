@@ -5,6 +5,7 @@
 import { Injectable } from '@nestjs/common';
 import { InjectModel } from '@nestjs/sequelize';
 import { Op, QueryTypes, type Transaction } from 'sequelize';
+import { selectRows } from '../database/raw-select.js';
 import { version } from '../version.js';
 import type { AboutDto } from './dto/about.dto.js';
 import type { PracticeDto, PracticeRefDto } from './dto/practice.dto.js';
@@ -99,10 +100,13 @@ export class OrganisationsService {
   /** The practice's id, region and code only (access checks on every request; null when unknown). */
   async practiceRegion(id: number): Promise<{ id: number; regionId: number; code: string } | null> {
     if (!Number.isSafeInteger(id)) return null;
-    const practice = await this.practices.findByPk(id, {
-      attributes: ['id', 'regionId', 'code'],
-    });
-    return practice ? { id: practice.id, regionId: practice.regionId, code: practice.code } : null;
+    // Read by the access guard on every practice route: one SELECT, no model instance.
+    const [row] = await selectRows<{ id: number; region_id: number; code: string }>(
+      this.practices.sequelize!,
+      'SELECT id, region_id, code FROM practices WHERE id = ?',
+      [id],
+    );
+    return row ? { id: Number(row.id), regionId: Number(row.region_id), code: row.code } : null;
   }
 
   /** These practices (any region), by code; unknown ids are left out. */
@@ -159,17 +163,26 @@ export class OrganisationsService {
    * built from them are keyed by it, so a renamed, moved or deactivated practice is a new key.
    */
   async regionFingerprint(regionId: number): Promise<string> {
-    const [row] = await this.practices.sequelize!.query<{ practices: string; localities: string }>(
-      `SELECT
-         (SELECT CONCAT(COUNT(*), '/', COALESCE(MAX(updated_at), ''), '/',
-                        COALESCE(SUM(CRC32(CONCAT_WS('|', id, code, name, active, COALESCE(locality_id, '')))), 0))
-            FROM practices WHERE region_id = ?) AS practices,
-         (SELECT CONCAT(COUNT(*), '/', COALESCE(MAX(updated_at), ''), '/',
-                        COALESCE(SUM(CRC32(CONCAT_WS('|', id, code, name))), 0))
-            FROM localities WHERE region_id = ?) AS localities`,
-      { replacements: [regionId, regionId], type: QueryTypes.SELECT },
+    const [row] = await selectRows<{ fingerprint: string }>(
+      this.practices.sequelize!,
+      `SELECT ${this.regionFingerprintSql('?')} AS fingerprint`,
+      [regionId, regionId],
     );
-    return `${row?.practices ?? ''};${row?.localities ?? ''}`;
+    return row?.fingerprint ?? ';';
+  }
+
+  /**
+   * SQL of `regionFingerprint` for a read that embeds it: `regionIdSql` is SQL written by the
+   * caller's code (a column, or a `?` placeholder), never a request's value; it appears twice.
+   */
+  regionFingerprintSql(regionIdSql: string): string {
+    return `CONCAT(
+      (SELECT CONCAT(COUNT(*), '/', COALESCE(MAX(updated_at), ''), '/',
+                     COALESCE(SUM(CRC32(CONCAT_WS('|', id, code, name, active, COALESCE(locality_id, '')))), 0))
+         FROM practices WHERE region_id = ${regionIdSql}), ';',
+      (SELECT CONCAT(COUNT(*), '/', COALESCE(MAX(updated_at), ''), '/',
+                     COALESCE(SUM(CRC32(CONCAT_WS('|', id, code, name))), 0))
+         FROM localities WHERE region_id = ${regionIdSql}))`;
   }
 
   /** A region's localities, by code. */

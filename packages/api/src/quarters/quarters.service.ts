@@ -12,6 +12,7 @@ import { Sequelize } from 'sequelize-typescript';
 import { AuditTrailService } from '../audit-trail/audit-trail.service.js';
 import type { Actor } from '../auth/actor.js';
 import { ProblemException } from '../common/problem.js';
+import { selectRows } from '../database/raw-select.js';
 import type { CairnConfig } from '../config/config.schema.js';
 import type {
   QuarterActionsDto,
@@ -70,6 +71,17 @@ function toQuarter(row: DbQuarter): QuarterDto {
   };
 }
 
+/** 404: the quarter is unknown, or of another region (the same answer for both). */
+function notFound(id: number): ProblemException {
+  return new ProblemException(
+    HttpStatus.NOT_FOUND,
+    'quarter-not-found',
+    'No such audit quarter',
+    `There is no audit quarter ${id} in your region.`,
+    { quarterId: id },
+  );
+}
+
 /** 422 problem details naming one field of the request. */
 function fieldProblem(slug: string, title: string, field: string, message: string, detail: string) {
   return new ProblemException(HttpStatus.UNPROCESSABLE_ENTITY, slug, title, detail, {
@@ -90,9 +102,32 @@ function assertDeadline(year: number, quarter: number, deadline: string): void {
   }
 }
 
-const SELECT = `SELECT id, region_id, year, quarter, window_start, window_end, measure_set_id,
-  DATE_FORMAT(submission_deadline, '%Y-%m-%d') AS submission_deadline, status, opened_at, closed_at
-  FROM audit_quarters`;
+/** A quarter's columns as DbQuarter reads them, of the table under alias `q`. */
+const columnsOf = (q: string) => `${q}.id AS id, ${q}.region_id AS region_id, ${q}.year AS year,
+  ${q}.quarter AS quarter, ${q}.window_start AS window_start, ${q}.window_end AS window_end,
+  ${q}.measure_set_id AS measure_set_id,
+  DATE_FORMAT(${q}.submission_deadline, '%Y-%m-%d') AS submission_deadline, ${q}.status AS status,
+  ${q}.opened_at AS opened_at, ${q}.closed_at AS closed_at`;
+
+const SELECT = `SELECT ${columnsOf('audit_quarters')} FROM audit_quarters`;
+
+/**
+ * SQL expressions another module adds to a read of a region's quarters (their own tables, their
+ * own SQL): `perQuarter` of a quarter's id, `perRegion` of the region's id (read once).
+ */
+export interface QuarterReadExtras {
+  perQuarter?: Record<string, (quarterIdSql: string) => string>;
+  perRegion?: Record<string, (regionIdSql: string) => string>;
+}
+
+/** A region's quarters, newest first, with the values of the extras asked for. */
+export interface QuartersWith {
+  quarters: QuarterDto[];
+  /** By quarter id: each perQuarter extra's value */
+  perQuarter: Map<number, Record<string, unknown>>;
+  /** Each perRegion extra's value */
+  perRegion: Record<string, unknown>;
+}
 
 @Injectable()
 export class QuartersService {
@@ -153,20 +188,67 @@ export class QuartersService {
     return { status: quarter.status, hasReport: reports.length > 0 };
   }
 
+  /** A region's quarters, newest first (one SELECT on a pooled connection: read per request). */
   async list(regionId: number): Promise<QuarterDto[]> {
-    const rows = await this.sequelize.query<DbQuarter>(
+    const rows = await selectRows<DbQuarter>(
+      this.sequelize,
       `${SELECT} WHERE region_id = ? ORDER BY year DESC, quarter DESC`,
-      { replacements: [regionId], type: QueryTypes.SELECT },
+      [regionId],
     );
     return rows.map(toQuarter);
   }
 
+  /**
+   * A region's quarters (as `list`) and, in the same SELECT, values other modules compute of
+   * each quarter and of the region (`extras`): the one read a results route makes of what its
+   * answer depends on. The region's values are computed once, in a derived row the quarters are
+   * joined to (a region without quarters still has them).
+   */
+  async listWith(regionId: number, extras: QuarterReadExtras): Promise<QuartersWith> {
+    const perQuarter = Object.entries(extras.perQuarter ?? {});
+    const perRegion = Object.entries(extras.perRegion ?? {});
+    const quarterValues = perQuarter.map(([, sql], i) => `, ${sql('q.id')} AS pq_${i}`).join('');
+    const regionValues = perRegion.map(([, sql], i) => `, ${sql('x.region_id')} AS pr_${i}`);
+    const rows = await selectRows<DbQuarter & Record<string, unknown>>(
+      this.sequelize,
+      `SELECT ${columnsOf('q')}${quarterValues}${perRegion.map((_, i) => `, r.pr_${i} AS pr_${i}`).join('')}
+         FROM (SELECT x.region_id${regionValues.join('')} FROM (SELECT ? AS region_id) x) r
+         LEFT JOIN audit_quarters q ON q.region_id = r.region_id
+        ORDER BY q.year DESC, q.quarter DESC`,
+      [regionId],
+    );
+    const first = rows[0] ?? {};
+    return {
+      quarters: rows.filter((r) => r.id !== null).map(toQuarter),
+      perQuarter: new Map(
+        rows
+          .filter((r) => r.id !== null)
+          .map((r) => [
+            Number(r.id),
+            Object.fromEntries(perQuarter.map(([name], i) => [name, r[`pq_${i}`]])),
+          ]),
+      ),
+      perRegion: Object.fromEntries(
+        perRegion.map(([name], i) => [name, (first as Record<string, unknown>)[`pr_${i}`]]),
+      ),
+    };
+  }
+
+  /** The quarter of these (a region's, read by `list` or `listWith`); 404 when not among them. */
+  quarterAmong(quarters: readonly QuarterDto[], id: number): QuarterDto {
+    const quarter = quarters.find((q) => q.id === id);
+    if (!quarter) throw notFound(id);
+    return quarter;
+  }
+
   async find(id: number, transaction?: Transaction): Promise<QuarterDto | null> {
-    const [row] = await this.sequelize.query<DbQuarter>(`${SELECT} WHERE id = ?`, {
-      replacements: [id],
-      type: QueryTypes.SELECT,
-      transaction,
-    });
+    const [row] = transaction
+      ? await this.sequelize.query<DbQuarter>(`${SELECT} WHERE id = ?`, {
+          replacements: [id],
+          type: QueryTypes.SELECT,
+          transaction,
+        })
+      : await selectRows<DbQuarter>(this.sequelize, `${SELECT} WHERE id = ?`, [id]);
     return row ? toQuarter(row) : null;
   }
 
@@ -174,13 +256,7 @@ export class QuartersService {
   async get(actor: Pick<Actor, 'regionId'>, id: number): Promise<QuarterDto> {
     const quarter = Number.isSafeInteger(id) ? await this.find(id) : null;
     if (!quarter || quarter.regionId !== actor.regionId) {
-      throw new ProblemException(
-        HttpStatus.NOT_FOUND,
-        'quarter-not-found',
-        'No such audit quarter',
-        `There is no audit quarter ${id} in your region.`,
-        { quarterId: id },
-      );
+      throw notFound(id);
     }
     return quarter;
   }

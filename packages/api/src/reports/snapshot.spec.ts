@@ -26,4 +26,32 @@ describe('report snapshots', () => {
       /does not match its content hash/,
     );
   });
+
+  it('reads a composite frozen with its parts named by key in their labels, the bytes unchanged', () => {
+    const { snapshot } = syntheticReport(4);
+    const last = snapshot.region.splits[0]!.measures.at(-1)! as unknown as Record<string, unknown>;
+    Object.assign(last, {
+      composite: true,
+      components: ['measure_1', 'measure_2'],
+      source: 'Cairn composite of measure_1 and measure_2 (not measure_10)',
+      note: 'measure_2 first',
+    });
+    const encoded = encodeSnapshot(snapshot);
+    const canonical = canonicalBytes(encoded.stored, encoded.contentHash);
+    expect(sha256Hex(canonical)).toBe(encoded.contentHash);
+    const read = decodeSnapshot(canonical);
+    const copies = [
+      read.region.splits[0]!.measures.at(-1)!,
+      read.region.funnels.at(-1)!.measure,
+      read.region.trends.at(-1)!.measure,
+    ] as unknown as { source: string; note: string }[];
+    for (const m of copies) {
+      expect(m.source).toBe(
+        'Cairn composite of “Synthetic measure 1” and “Synthetic measure 2” (not measure_10)',
+      );
+      expect(m.note).toBe('“Synthetic measure 2” first');
+    }
+    // Measures that combine nothing read as stored.
+    expect(read.region.splits[0]!.measures[0]!.source).toBe('Invented for the benchmark');
+  });
 });

@@ -16,6 +16,7 @@
 import { createHash } from 'node:crypto';
 import { gunzipSync, gzipSync } from 'node:zlib';
 import { canonicalJson } from '../measure-sets/canonical.js';
+import { nameComponents } from '../measure-sets/describe.js';
 import type {
   BenchmarkTrendDto,
   MeasureFunnelDto,
@@ -132,6 +133,49 @@ export function canonicalBytes(stored: Buffer, contentHash: string): Buffer {
   return canonical;
 }
 
+/**
+ * The snapshot as its readers see it. The bytes stay as published (their hash is checked
+ * first); only a composite measure's guideline and note are read through `nameComponents`, so a
+ * report frozen while a composite's guideline named its parts by key shows their labels, as
+ * every other page does. The labels come from the snapshot's own measures.
+ */
 export function decodeSnapshot(canonical: Buffer): ReportSnapshot {
-  return JSON.parse(canonical.toString('utf8')) as ReportSnapshot;
+  const snapshot = JSON.parse(canonical.toString('utf8')) as ReportSnapshot;
+  nameSnapshotComponents(snapshot);
+  return snapshot;
+}
+
+interface FrozenMeasure {
+  key: string;
+  label: string;
+  source: string;
+  note?: string | null;
+  components?: string[];
+}
+
+const isFrozenMeasure = (value: Record<string, unknown>): boolean =>
+  typeof value.key === 'string' &&
+  typeof value.label === 'string' &&
+  typeof value.source === 'string';
+
+/** Every measure (MeasureDto) held anywhere in a decoded snapshot, in place. */
+export function nameSnapshotComponents(snapshot: unknown): void {
+  const measures: FrozenMeasure[] = [];
+  const walk = (value: unknown): void => {
+    if (Array.isArray(value)) {
+      for (const item of value) walk(item);
+    } else if (value !== null && typeof value === 'object') {
+      const record = value as Record<string, unknown>;
+      if (isFrozenMeasure(record)) measures.push(record as unknown as FrozenMeasure);
+      for (const child of Object.values(record)) walk(child);
+    }
+  };
+  walk(snapshot);
+  const labels = new Map(measures.map((m) => [m.key, m.label]));
+  const labelOf = (key: string) => labels.get(key);
+  for (const m of measures) {
+    if (!Array.isArray(m.components) || m.components.length === 0) continue;
+    m.source = nameComponents(m.source, m.components, labelOf);
+    if (typeof m.note === 'string') m.note = nameComponents(m.note, m.components, labelOf);
+  }
 }

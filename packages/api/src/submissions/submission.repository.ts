@@ -15,6 +15,7 @@ import { Inject, Injectable } from '@nestjs/common';
 import { QueryTypes, type Transaction } from 'sequelize';
 import { Sequelize } from 'sequelize-typescript';
 import { type RawConnection, withRaw } from '../database/bulk-load/raw-connection.js';
+import { selectRows } from '../database/raw-select.js';
 import type { DateConvention, SubmissionStatus } from './dto/submission.dto.js';
 import type { Issue } from './format/issue-codes.js';
 import { CARE_RECORD_SELECT, type CareRecordRow } from '../database/bulk-load/care-record-row.js';
@@ -362,14 +363,26 @@ export class SubmissionRepository {
   // ── the current set of a quarter (quarter_current_sets, migration 0302) ──
 
   /** The current-set rows of these quarters (quarters without a row are left out). */
+  /**
+   * A quarter's current-set row as one JSON value (null: no row), for a read that embeds it:
+   * `quarterIdSql` is SQL of the quarter's id written by the caller's code, never a request's
+   * value. Read back by SubmissionsService.currentSetRowsOf.
+   */
+  currentSetJsonSql(quarterIdSql: string): string {
+    return `(SELECT JSON_OBJECT('key', submissions_key, 'count', submission_count, 'version', version)
+       FROM quarter_current_sets WHERE quarter_id = ${quarterIdSql})`;
+  }
+
   async currentSetRows(quarterIds: readonly number[]): Promise<CurrentSetRow[]> {
     if (quarterIds.length === 0) return [];
-    const rows = await this.select<{
+    // Read by every results route: one SELECT on a pooled connection, no Sequelize pipeline.
+    const rows = await selectRows<{
       quarter_id: number;
       submissions_key: string;
       submission_count: number;
       version: number;
     }>(
+      this.sequelize,
       `SELECT quarter_id, submissions_key, submission_count, version FROM quarter_current_sets
         WHERE quarter_id IN (?)`,
       [[...quarterIds]],

@@ -344,6 +344,45 @@ export class SubmissionsService {
     return new Map(rows.map((r) => [r.quarterId, r]));
   }
 
+  /**
+   * SQL of a quarter's current-set row as one JSON value, for a read that gathers everything a
+   * results route's answer depends on in one statement (see `currentSetRowsOf`).
+   */
+  currentSetSql(quarterIdSql: string): string {
+    return this.submissions.currentSetJsonSql(quarterIdSql);
+  }
+
+  /**
+   * The current-set rows of the values read by `currentSetSql`, by quarter id; a quarter whose
+   * row is not made yet gets it now, as `currentSetRows` does.
+   */
+  async currentSetRowsOf(
+    values: ReadonlyMap<number, unknown>,
+  ): Promise<Map<number, CurrentSetRow>> {
+    const out = new Map<number, CurrentSetRow>();
+    const missing: number[] = [];
+    for (const [quarterId, value] of values) {
+      const row = (typeof value === 'string' ? JSON.parse(value) : value) as {
+        key: string;
+        count: number;
+        version: number;
+      } | null;
+      if (!row || Number(row.version) <= 0) missing.push(quarterId);
+      else {
+        out.set(quarterId, {
+          quarterId,
+          key: row.key,
+          count: Number(row.count),
+          version: Number(row.version),
+        });
+      }
+    }
+    if (missing.length > 0) {
+      for (const [id, row] of await this.currentSetRows(missing)) out.set(id, row);
+    }
+    return out;
+  }
+
   /** The current pointers of several quarters, read in one SELECT. */
   currentSets(quarterIds: readonly number[]): Promise<(CurrentPointer & { quarterId: number })[]> {
     return this.submissions.currentPointersOf(quarterIds);

@@ -20,10 +20,15 @@ export function serveWeb(app: NestExpressApplication, _config: ConfigService): v
     '/assets',
     express.static(join(dist, 'assets'), { immutable: true, maxAge: '365d', fallthrough: false }),
   );
-  app.use(express.static(dist, { index: false, maxAge: '1h' }));
+  // Never for the API's paths: a file lookup on disk for every API request would be wasted.
+  const files = express.static(dist, { index: false, maxAge: '1h' });
+  const isApi = (req: Request) => req.path === '/api' || req.path.startsWith('/api/');
+  app.use((req: Request, res: Response, next: NextFunction) =>
+    isApi(req) ? next() : files(req, res, next),
+  );
   app.use((req: Request, res: Response, next: NextFunction) => {
     if (req.method !== 'GET' && req.method !== 'HEAD') return next();
-    if (req.path === '/api' || req.path.startsWith('/api/')) return next();
+    if (isApi(req)) return next();
     if (!existsSync(index)) {
       res
         .status(503)

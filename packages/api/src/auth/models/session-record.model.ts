@@ -1,8 +1,8 @@
 import { Column, DataType, Model, PrimaryKey, Table } from 'sequelize-typescript';
 
 /**
- * One express-session row, written by connect-session-sequelize (see
- * session-store.ts). `userId` is copied from the session so that ending a
+ * One express-session row, written by CairnSessionStore (session-store.ts);
+ * this model serves endAllFor only. `userId` is copied from the session so that ending a
  * person's access can end all their sessions at once.
  */
 @Table({ tableName: 'sessions' })

@@ -13,13 +13,57 @@ import { withRaw } from '../../database/bulk-load/raw-connection.js';
 export class BenchmarkAnswersRepository {
   constructor(@Inject(Sequelize) private readonly sequelize: Sequelize) {}
 
-  /** The stored gzip body of this answer key, if any. */
+  /** The stored gzip body of this answer key, if any (marked used, at most once an hour). */
   async find(answerKey: string): Promise<Buffer | null> {
-    const [row] = await this.sequelize.query<{ body: Buffer }>(
-      'SELECT body FROM benchmark_answers WHERE answer_key = ?',
+    const [row] = await this.sequelize.query<{ body: Buffer; stale: number }>(
+      `SELECT body, (used_at IS NULL OR used_at < NOW(3) - INTERVAL 1 HOUR) AS stale
+         FROM benchmark_answers WHERE answer_key = ?`,
       { replacements: [answerKey], type: QueryTypes.SELECT },
     );
+    if (row && Number(row.stale) === 1) {
+      // Not awaited: the reader need not wait for the mark (pruning reads it days later).
+      void this.sequelize
+        .query('UPDATE benchmark_answers SET used_at = NOW(3) WHERE answer_key = ?', {
+          replacements: [answerKey],
+          type: QueryTypes.UPDATE,
+        })
+        .catch(() => undefined);
+    }
     return row?.body ?? null;
+  }
+
+  /** The quarters that have stored answers. */
+  async quarters(): Promise<number[]> {
+    const rows = await this.sequelize.query<{ quarter_id: number }>(
+      'SELECT DISTINCT quarter_id FROM benchmark_answers',
+      { type: QueryTypes.SELECT },
+    );
+    return rows.map((r) => Number(r.quarter_id));
+  }
+
+  /**
+   * Removes a quarter's answers last used (read, or built if never read) more than
+   * `unusedDays` ago, except those that may be built from one of `keptResultIds` (the quarter's
+   * current results): built at or after the earliest of them. The number removed.
+   */
+  async deleteUnused(
+    quarterId: number,
+    unusedDays: number,
+    keptResultIds: readonly number[],
+  ): Promise<number> {
+    // BULKDELETE: the dialect answers with the number of rows deleted.
+    const affected = (await this.sequelize.query(
+      `DELETE FROM benchmark_answers
+        WHERE quarter_id = ?
+          AND COALESCE(used_at, built_at) < NOW(3) - INTERVAL ? DAY
+          AND NOT built_at >= COALESCE(
+            (SELECT MIN(built_at) FROM benchmark_results WHERE id IN (?)), '9999-12-31')`,
+      {
+        replacements: [quarterId, unusedDays, keptResultIds.length > 0 ? keptResultIds : [0]],
+        type: QueryTypes.BULKDELETE,
+      },
+    )) as unknown as number;
+    return Number(affected ?? 0);
   }
 
   /** Stores an answer unless one of the same key is there already (the same bytes). */

@@ -2,10 +2,10 @@ import { fireEvent, screen, waitFor, within } from '@testing-library/react';
 import userEvent from '@testing-library/user-event';
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import { renderApp } from '../../../test/render';
-import { stubRoutes } from '../../../test/route-stub';
+import type { Route } from '../../../test/route-stub';
+import { stubSignedIn } from '../../../test/signed-in';
 import benchmark from '../../../test/fixtures/benchmark-q8.json';
 import funnel from '../../../test/fixtures/funnel-q8-hba1c.json';
-import quarters from '../../../test/fixtures/quarters.json';
 import ov102 from '../../../test/fixtures/results-ov102-priya.json';
 import trend from '../../../test/fixtures/trend-q8-hba1c.json';
 import type { Me, RegionBenchmark } from '../../lib/api/types';
@@ -13,31 +13,11 @@ import { neutraliseCell, sortRows, tableCsv, tableRows } from './components/tabl
 
 // Fixtures: answers of the API over the demo region (2026 Q3), trimmed to four practices
 // (OV101, OV102, OV201, OV205; OV303 missing) and three measures.
-const about = {
-  product: 'Cairn',
-  version: '0.1.0',
-  regionName: 'Ostrevale',
-  practices: 30,
-  localities: 4,
-  clinicalCaution: 'x',
-};
-const person = (role: Me['role']): Me => ({
-  id: 1,
-  email: 'someone@x.example',
-  displayName: 'Someone',
-  role,
-  regionName: 'Ostrevale',
-  practices: role === 'practice_lead' ? [{ id: 2, code: 'OV102', name: 'Quarrybank Surgery' }] : [],
-  sessionExpiresAt: '2026-12-05T06:57:32.717Z',
-});
 const slow = { timeout: 15_000 };
 const data = benchmark as unknown as RegionBenchmark;
 
-function stub(role: Me['role'], extra: Record<string, { status?: number; body: unknown }> = {}) {
-  return stubRoutes({
-    'GET /api/about': { body: about },
-    'GET /api/session': { body: { user: person(role), csrfToken: 'tok' } },
-    'GET /api/quarters': { body: quarters },
+function stub(role: Me['role'], extra: Record<string, Route> = {}) {
+  return stubSignedIn(role, {
     'GET /api/quarters/8/benchmark?split=all': { body: benchmark },
     'GET /api/quarters/8/benchmark/measures/hba1c?split=all': { body: funnel },
     'GET /api/practices/2/quarters/8/results': { body: ov102 },

@@ -12,15 +12,8 @@ import type {
   UploadOptions,
 } from '../../lib/api/types';
 import { fillWidths, rowHeightsFor, wrappedLines } from './components/IssuesTable';
+import { about } from '../../../test/signed-in';
 
-const about = {
-  product: 'Cairn',
-  version: '0.1.0',
-  regionName: 'Ostrevale',
-  practices: 30,
-  localities: 4,
-  clinicalCaution: 'x',
-};
 const priya: Me = {
   id: 3,
   email: 'priya@x.example',

@@ -4,15 +4,8 @@ import { afterEach, describe, expect, it, vi } from 'vitest';
 import { renderApp } from '../../../test/render';
 import { stubRoutes } from '../../../test/route-stub';
 import type { Me, MeasureSet, MeasureSetDefinition } from '../../lib/api/types';
+import { about } from '../../../test/signed-in';
 
-const about = {
-  product: 'Cairn',
-  version: '0.1.0',
-  regionName: 'Ostrevale',
-  practices: 30,
-  localities: 4,
-  clinicalCaution: 'x',
-};
 const lead: Me = {
   id: 1,
   email: 'imogen@x.example',

@@ -2,15 +2,8 @@ import { screen } from '@testing-library/react';
 import userEvent from '@testing-library/user-event';
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import { renderApp, stubFetch } from '../../../test/render';
+import { about } from '../../../test/signed-in';
 
-const about = {
-  product: 'Cairn',
-  version: '0.1.0',
-  regionName: 'Ostrevale',
-  practices: 30,
-  localities: 4,
-  clinicalCaution: 'x',
-};
 const priya = {
   id: 3,
   email: 'priya.calloway@quarrybank.example',

@@ -5,15 +5,8 @@ import { renderApp } from '../../../test/render';
 import { stubRoutes } from '../../../test/route-stub';
 import type { AuditQuarter, AuditQuarters, Me } from '../../lib/api/types';
 import { fromRegionDate, toRegionDate } from '../../lib/region-dates';
+import { about } from '../../../test/signed-in';
 
-const about = {
-  product: 'Cairn',
-  version: '0.1.0',
-  regionName: 'Ostrevale',
-  practices: 30,
-  localities: 4,
-  clinicalCaution: 'x',
-};
 const lead: Me = {
   id: 1,
   email: 'imogen@x.example',

@@ -2,14 +2,13 @@ import { screen, waitFor, within } from '@testing-library/react';
 import userEvent from '@testing-library/user-event';
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import { renderApp } from '../../../test/render';
-import { stubRoutes, type Route } from '../../../test/route-stub';
+import type { Route } from '../../../test/route-stub';
+import { stubSignedIn } from '../../../test/signed-in';
 import benchmark from '../../../test/fixtures/benchmark-q8.json';
 import funnel from '../../../test/fixtures/funnel-q8-hba1c.json';
-import quarters from '../../../test/fixtures/quarters.json';
 import ov102 from '../../../test/fixtures/results-ov102-priya.json';
 import type {
   DisclosedCell,
-  Me,
   PeerTable,
   PracticeResults,
   Report,
@@ -19,23 +18,6 @@ import type {
 
 // Report answers built from the API's own answers over the demo region (2026 Q3, trimmed to
 // four practices and three measures): the benchmark, a funnel and OV102's results.
-const about = {
-  product: 'Cairn',
-  version: '0.1.0',
-  regionName: 'Ostrevale',
-  practices: 30,
-  localities: 4,
-  clinicalCaution: 'x',
-};
-const person = (role: Me['role']): Me => ({
-  id: 1,
-  email: 'someone@x.example',
-  displayName: 'Someone',
-  role,
-  regionName: 'Ostrevale',
-  practices: role === 'practice_lead' ? [{ id: 2, code: 'OV102', name: 'Quarrybank Surgery' }] : [],
-  sessionExpiresAt: '2026-12-05T06:57:32.717Z',
-});
 const slow = { timeout: 15_000 };
 const CAUTION = /It is not clinical advice and not a decision tool/;
 
@@ -139,14 +121,7 @@ function region(r: Report): ReportRegion {
   };
 }
 
-function stub(role: Me['role'], routes: Record<string, Route> = {}) {
-  return stubRoutes({
-    'GET /api/about': { body: about },
-    'GET /api/session': { body: { user: person(role), csrfToken: 'tok' } },
-    'GET /api/quarters': { body: quarters },
-    ...routes,
-  });
-}
+const stub = stubSignedIn;
 
 /** Where a download button (an anchor) leads. */
 const download = (text: string) => screen.getByText(text).closest('a')!.getAttribute('href');

@@ -8,16 +8,9 @@ import ov102 from '../../../test/fixtures/results-ov102-priya.json';
 import ov303 from '../../../test/fixtures/results-ov303-none.json';
 import recall from '../../../test/fixtures/recall-ov102-hba1c.json';
 import type { Me } from '../../lib/api/types';
+import { about } from '../../../test/signed-in';
 
 // Fixtures: answers of the API over the demo region (2026 Q3), trimmed to three measures.
-const about = {
-  product: 'Cairn',
-  version: '0.1.0',
-  regionName: 'Ostrevale',
-  practices: 30,
-  localities: 4,
-  clinicalCaution: 'x',
-};
 const person = (role: Me['role'], practices: Me['practices']): Me => ({
   id: 3,
   email: 'someone@x.example',

@@ -13,18 +13,11 @@ import casesLead from '../../../test/fixtures/review/case-casesLead.json';
 import reopenedLead from '../../../test/fixtures/review/case-reopenedLead.json';
 import reopenedAuditor from '../../../test/fixtures/review/case-reopenedAuditor.json';
 import type { Me } from '../../lib/api/types';
+import { about } from '../../../test/signed-in';
 
 // Fixtures: the API's own answers over the demo organisation's practices in an API test world
 // (two practices with extracts in 2026 Q3, quarter id 2), trimmed; the outlier list has one row
 // added (worse, a case open on it) so that both sides and the marker show.
-const about = {
-  product: 'Cairn',
-  version: '0.1.0',
-  regionName: 'Ostrevale',
-  practices: 30,
-  localities: 4,
-  clinicalCaution: 'x',
-};
 const person = (role: Me['role'], displayName: string, practices: Me['practices']): Me => ({
   id: 3,
   email: 'someone@x.example',
@@ -171,6 +164,29 @@ describe('Drill-down', () => {
     const byType = within(figures[0]!).getByRole('table');
     expect(within(byType).getByRole('rowheader', { name: 'All types' })).toBeTruthy();
     expect(within(byType).getByText(/\(12 of 12\)/)).toBeTruthy();
+  });
+
+  it('draws the values as the results page does, with the same table', async () => {
+    stub(tobias);
+    const user = userEvent.setup();
+    renderApp('/outliers/2/practices/2/measures/hba1c');
+    const heading = await screen.findByRole(
+      'heading',
+      { name: /HbA1c \(mmol\/mol\): the practice’s values/ },
+      slow,
+    );
+    const section = within(heading.closest('section')!);
+    expect(
+      section.getByRole('img', { name: /OV102 as bars, the region as a dashed outline/ }),
+    ).toBeTruthy();
+    await user.click(section.getByRole('button', { name: 'Show as table' }));
+    const table = section.getByRole('table', { name: 'HbA1c: figures' });
+    expect(
+      within(table)
+        .getAllByRole('columnheader')
+        .map((c) => c.textContent),
+    ).toEqual(['HbA1c', 'OV102', 'Share', 'Region', 'Share']);
+    expect(within(table).getByRole('rowheader', { name: 'Not recorded' })).toBeTruthy();
   });
 
   it('pages the records behind the result and links the evidence workbook', async () => {

@@ -1,15 +1,7 @@
 import { screen } from '@testing-library/react';
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import { renderApp, stubFetch } from '../../../test/render';
-
-const about = {
-  product: 'Cairn',
-  version: '0.1.0',
-  regionName: 'Ostrevale',
-  practices: 30,
-  localities: 4,
-  clinicalCaution: 'x',
-};
+import { about } from '../../../test/signed-in';
 
 afterEach(() => vi.unstubAllGlobals());
 

@@ -3,19 +3,12 @@ import userEvent from '@testing-library/user-event';
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import { renderApp, stubFetch } from '../../../test/render';
 import type { Me } from '../../lib/api/types';
+import { about } from '../../../test/signed-in';
 
 /** The (url, init) pairs fetch was called with. */
 const callsOf = (mock: { mock: { calls: unknown[][] } }) =>
   mock.mock.calls as unknown as [RequestInfo, RequestInit | undefined][];
 
-const about = {
-  product: 'Cairn',
-  version: '0.1.0',
-  regionName: 'Ostrevale',
-  practices: 30,
-  localities: 4,
-  clinicalCaution: 'x',
-};
 const lead: Me = {
   id: 1,
   email: 'imogen@x.example',

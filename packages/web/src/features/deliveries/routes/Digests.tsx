@@ -21,6 +21,7 @@ import { RequireRole } from '../../../components/RequireRole';
 import { usePageTitle } from '../../../lib/page-title';
 import { fromRegionDate, fromRegionTime } from '../../../lib/region-dates';
 import { useRecipients } from '../api/deliveries';
+import { DigestFrame } from '../components/DigestFrame';
 import {
   useChangeSchedule,
   useDigestPreview,
@@ -159,11 +160,9 @@ function DigestsScreen() {
               id="html"
               title="As most mail programs show it"
               panel={
-                <iframe
-                  className="cairn-digests-frame"
+                <DigestFrame
                   title={`Digest for ${preview.data.practice.code}, HTML part`}
                   src={preview.data.htmlPath}
-                  sandbox=""
                 />
               }
             />

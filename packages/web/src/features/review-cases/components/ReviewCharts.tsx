@@ -7,8 +7,7 @@
 import { Button, HTMLTable } from '@blueprintjs/core';
 import { scaleBand, scaleLinear } from 'd3';
 import { type ReactNode, useId, useState } from 'react';
-import type { RateTrend, ValueHistogram } from '../../../lib/api/types';
-import { formatPercent } from '../../../lib/format';
+import type { RateTrend } from '../../../lib/api/types';
 
 /** A chart with its table alternative. */
 export function ChartOrTable({
@@ -120,106 +119,6 @@ export function PairedRatesTable({ rows, heading }: { rows: RatePair[]; heading:
         ))}
       </tbody>
     </HTMLTable>
-  );
-}
-
-/** Shares of the practice's and the region's recorded values per bin. */
-export function histogramShares(h: ValueHistogram, split: string) {
-  const s = h.splits.find((x) => x.split === split) ?? h.splits[0];
-  if (!s) return [];
-  const share = (counts: typeof s.practice) => {
-    const values = [counts.below, ...counts.bins, counts.above].map((c) => c.value);
-    const total = values.reduce<number>((a, v) => a + (v ?? 0), 0);
-    return values.map((v) => (v === null || total === 0 ? null : v / total));
-  };
-  const p = share(s.practice);
-  const r = share(s.region);
-  const e = h.edges;
-  return p.map((practice, i) => ({
-    label:
-      i === 0
-        ? `below ${e[0]}`
-        : i === p.length - 1
-          ? `${e[e.length - 1]} or above`
-          : `${e[i - 1]}–${e[i]}`,
-    practice,
-    region: r[i] ?? null,
-  }));
-}
-
-export function HistogramChart({
-  rows,
-  unit,
-  width = 560,
-}: {
-  rows: { label: string; practice: number | null; region: number | null }[];
-  unit: string;
-  width?: number;
-}) {
-  const height = 170;
-  const bottom = 24;
-  const max = Math.max(0.01, ...rows.flatMap((r) => [r.practice ?? 0, r.region ?? 0]));
-  const x = scaleBand<number>()
-    .domain(rows.map((_, i) => i))
-    .range([40, width - 8]);
-  const y = scaleLinear()
-    .domain([0, max])
-    .range([height - bottom, 8]);
-  const step = (r: (typeof rows)[number]) => r.region;
-  const path = rows
-    .map((r, i) => {
-      const v = step(r);
-      if (v === null) return '';
-      const x0 = x(i) ?? 0;
-      return `M${x0},${y(v)}h${x.bandwidth()}`;
-    })
-    .join('');
-  const ticks = [
-    0,
-    Math.ceil(rows.length / 4),
-    Math.ceil(rows.length / 2),
-    Math.ceil((3 * rows.length) / 4),
-    rows.length - 1,
-  ];
-  return (
-    <svg width={width} height={height} role="img" aria-label={`Distribution of values (${unit})`}>
-      <line
-        x1={40}
-        x2={width - 8}
-        y1={height - bottom}
-        y2={height - bottom}
-        className="cairn-grid"
-      />
-      {rows.map((r, i) =>
-        r.practice === null || r.practice === 0 ? null : (
-          <rect
-            key={i}
-            x={x(i)}
-            y={y(r.practice)}
-            width={Math.max(1, x.bandwidth() - 1)}
-            height={height - bottom - y(r.practice)}
-            className="cairn-mark-practice"
-          />
-        ),
-      )}
-      <path d={path} className="cairn-mark-region-line" />
-      {ticks.map((i) =>
-        rows[i] ? (
-          <text
-            key={i}
-            x={(x(i) ?? 0) + x.bandwidth() / 2}
-            y={height - 6}
-            textAnchor="middle"
-            className="cairn-axis"
-          >
-            {rows[i]!.label}
-          </text>
-        ) : null,
-      )}
-      <text x={4} y={14} className="cairn-axis">
-        {formatPercent(max, 0)}
-      </text>
-    </svg>
   );
 }
 

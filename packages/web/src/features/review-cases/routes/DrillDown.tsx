@@ -3,6 +3,11 @@ import { keepPreviousData, useQuery } from '@tanstack/react-query';
 import { useState } from 'react';
 import { Link, useNavigate, useParams } from 'react-router-dom';
 import { ClinicalCaution } from '../../../components/ClinicalCaution';
+import {
+  ValueHistogram,
+  type ValueHistogramProps,
+  ValueHistogramTable,
+} from '../../../components/charts/ValueHistogram';
 import { EmptyState } from '../../../components/Notice';
 import { ProblemCallout } from '../../../components/ProblemCallout';
 import { RequireRole } from '../../../components/RequireRole';
@@ -18,13 +23,12 @@ import {
 } from '../api/review-cases';
 import {
   ChartOrTable,
-  HistogramChart,
-  histogramShares,
   PairedRates,
   PairedRatesTable,
   type RatePair,
   TrendChart,
 } from '../components/ReviewCharts';
+import '../../../components/charts/charts.css';
 import '../review.css';
 
 const SPLIT_LABELS: Record<string, string> = {
@@ -281,38 +285,26 @@ function Breakdowns({ d }: { d: DrillDownData }) {
 }
 
 function Histogram({ d }: { d: DrillDownData }) {
-  if (!d.histogram) return null;
-  const rows = histogramShares(d.histogram, 'all');
+  const h = d.histogram;
+  const counts = h?.splits.find((s) => s.split === 'all') ?? h?.splits[0];
+  if (!h || !counts) return null;
+  const props: ValueHistogramProps = {
+    label: h.label,
+    unit: h.unit,
+    edges: h.edges,
+    practice: counts.practice,
+    region: counts.region,
+    practiceLabel: d.practice.code,
+  };
   return (
     <section className="cairn-review-section">
       <h2>
-        {d.histogram.label} ({d.histogram.unit}): the practice’s values against the region’s
+        {h.label} ({h.unit}): the practice’s values against the region’s
       </h2>
       <ChartOrTable
-        title="Share of recorded values: practice (bars), region (line)"
-        chart={<HistogramChart rows={rows} unit={d.histogram.unit} />}
-        table={
-          <HTMLTable compact striped>
-            <thead>
-              <tr>
-                <th scope="col">{d.histogram.unit}</th>
-                <th scope="col">Practice</th>
-                <th scope="col">Region</th>
-              </tr>
-            </thead>
-            <tbody>
-              {rows
-                .filter((r) => (r.practice ?? 0) > 0 || (r.region ?? 0) > 0)
-                .map((r) => (
-                  <tr key={r.label}>
-                    <th scope="row">{r.label}</th>
-                    <td>{formatPercent(r.practice)}</td>
-                    <td>{formatPercent(r.region)}</td>
-                  </tr>
-                ))}
-            </tbody>
-          </HTMLTable>
-        }
+        title={`Share of recorded values: ${d.practice.code} (bars), region (dashed outline)`}
+        chart={<ValueHistogram {...props} />}
+        table={<ValueHistogramTable {...props} />}
       />
     </section>
   );
