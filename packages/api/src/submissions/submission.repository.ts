@@ -444,17 +444,6 @@ export class SubmissionRepository {
     );
   }
 
-  /** How many records the quarter's current submissions hold (their accepted rows). */
-  async currentRecordCount(quarterId: number): Promise<number> {
-    const [row] = await this.select<{ n: number | null }>(
-      `SELECT SUM(s.rows_accepted) AS n FROM practice_quarters pq
-         JOIN submissions s ON s.id = pq.current_submission_id
-        WHERE pq.quarter_id = ?`,
-      [quarterId],
-    );
-    return Number(row?.n ?? 0);
-  }
-
   /** Facts of confirmed submissions that never change: records, when confirmed, issue counts. */
   confirmedFacts(ids: readonly number[]) {
     if (ids.length === 0) return Promise.resolve([]);
@@ -483,7 +472,7 @@ export class SubmissionRepository {
 
   /**
    * Streams the sums columns of a submission's records, or of every current record of a quarter,
-   * each row an array [submission id, ...SUMS_COLUMNS] given to `onRow`; resolves with the
+   * each row an array [submission id, SUMS_SELECT's text] given to `onRow`; resolves with the
    * number of rows. One streamed SELECT on a connection of the pool, in the connector's fastest
    * form: rows as arrays, no type cast function.
    */

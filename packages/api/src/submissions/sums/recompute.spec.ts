@@ -14,8 +14,8 @@
  *   replaced), each new set's result rebuilt from the previous result's parts and the sums of
  *   the submissions that left and joined (`rebuildContent`), equal to a build from scratch.
  *
- * The rows reach the code as the connector hands them over (arrays in SUMS_COLUMNS order, in
- * the codes SUMS_SELECT asks MariaDB for, no type cast), from an in-memory stand-in for the repository's four reads and writes; the
+ * The rows reach the code as the connector hands them over (arrays of the submission id and the
+ * text SUMS_SELECT asks MariaDB for, no type cast), from an in-memory stand-in for the repository's four reads and writes; the
  * database paths themselves are checked in test/benchmarks.e2e-spec.ts.
  */
 import { readFileSync } from 'node:fs';
@@ -92,22 +92,29 @@ const world = fc.record({
 type Row = unknown[];
 
 /**
- * A stored value as the sums read's SELECT sends it (sums-rows.ts, `SUMS_SELECT`): months as
- * month indices, sex as 0…3, diabetes type and smoking status as 1…3 or 0 for NULL.
+ * A stored value as the sums read's SELECT writes it in its text (sums-rows.ts, `SUMS_SELECT`):
+ * '' for NULL, months as stored, sex as 1…4, diabetes type and smoking status as 1…3 or 0 for
+ * NULL, numbers as written.
  */
-function asSent(column: string, value: unknown): unknown {
+function asSent(column: string, value: unknown): string {
   if (value === null) {
-    return column === 'diabetes_type' || column === 'smoking_status' ? 0 : null;
+    return column === 'diabetes_type' || column === 'smoking_status' ? '0' : '';
   }
-  if (column.endsWith('_month')) {
-    const [year, month] = String(value).split('-').map(Number) as [number, number];
-    return year * 12 + month - 1;
+  if (column === 'sex') return String(['F', 'M', 'X', 'U'].indexOf(String(value)) + 1);
+  if (column === 'diabetes_type') {
+    return String(['type1', 'type2', 'other'].indexOf(String(value)) + 1);
   }
-  if (column === 'sex') return ['F', 'M', 'X', 'U'].indexOf(String(value));
-  if (column === 'diabetes_type') return ['type1', 'type2', 'other'].indexOf(String(value)) + 1;
-  if (column === 'smoking_status') return ['current', 'ex', 'never'].indexOf(String(value)) + 1;
-  return value;
+  if (column === 'smoking_status') {
+    return String(['current', 'ex', 'never'].indexOf(String(value)) + 1);
+  }
+  return String(value);
 }
+
+/** A record as the sums read sends it: [submission id, its text]. */
+const sent = (submissionId: number, r: Record<string, unknown>): Row => [
+  submissionId,
+  SUMS_COLUMNS.map((c) => asSent(c, r[c])).join(','),
+];
 
 /** The repository's reads and writes of records and sums, in memory. */
 function memoryRepository(
@@ -160,10 +167,7 @@ describe('the incremental path and the full recompute from records', () => {
         const rowsOf = new Map<number, Row[]>(
           practices.map((records, p) => [
             subjects[p]!.submissionId,
-            records.map((r) => [
-              subjects[p]!.submissionId,
-              ...SUMS_COLUMNS.map((c) => asSent(c, r[c as keyof typeof r])),
-            ]),
+            records.map((r) => sent(subjects[p]!.submissionId, r)),
           ]),
         );
         const all = [...rowsOf.values()].flat();
@@ -245,7 +249,7 @@ describe('the incremental path and the full recompute from records', () => {
           const id = nextId++;
           rowsOf.set(
             id,
-            records.map((r) => [id, ...SUMS_COLUMNS.map((c) => asSent(c, r[c as keyof typeof r]))]),
+            records.map((r) => sent(id, r)),
           );
           const atConfirm = new SubmissionSums(memoryRepository(rowsOf, []).repository);
           stored.push(
@@ -311,6 +315,50 @@ describe('the incremental path and the full recompute from records', () => {
           parts = rebuilt.parts;
         }
       }),
+      { numRuns: 40 },
+    );
+  });
+});
+
+describe('the full recompute evaluated a chunk at a time as the rows stream', () => {
+  it('stores what each submission makes alone, with rows grouped or interleaved', async () => {
+    await fc.assert(
+      fc.asyncProperty(
+        world,
+        fc.integer({ min: 1, max: 40 }),
+        async ({ practices, order }, chunkRecords) => {
+          const subjects: SumsSubject[] = practices.map((records, p) => ({
+            submissionId: 900 - p * 3,
+            practiceCode: `Q${String(p + 1).padStart(2, '0')}`,
+            records: records.length,
+          }));
+          const rowsOf = new Map<number, Row[]>(
+            practices.map((records, p) => [
+              subjects[p]!.submissionId,
+              records.map((r) => sent(subjects[p]!.submissionId, r)),
+            ]),
+          );
+          const grouped = [...rowsOf.values()].flat();
+          const interleaved = grouped
+            .map((row, i) => ({ row, key: order[i % order.length]! + i * 1e-9 }))
+            .sort((a, b) => a.key - b.key)
+            .map((x) => x.row);
+
+          const alone = new SubmissionSums(memoryRepository(rowsOf, grouped).repository);
+          const stored: SumsRow[] = [];
+          for (const s of subjects) stored.push(await alone.forConfirm(s, version, quarter));
+
+          for (const quarterRows of [grouped, interleaved]) {
+            const chunked = memoryRepository(rowsOf, quarterRows);
+            const sums = await new SubmissionSums(
+              chunked.repository,
+              chunkRecords,
+            ).recomputeQuarter(quarter.id, subjects, version, quarter);
+            expect(hex(chunked.written)).toEqual(hex(stored));
+            expect([...sums.keys()]).toEqual(subjects.map((s) => s.submissionId));
+          }
+        },
+      ),
       { numRuns: 40 },
     );
   });

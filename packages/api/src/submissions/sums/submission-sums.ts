@@ -22,6 +22,7 @@
  */
 import {
   type AuditQuarter,
+  type ColumnBuilder,
   createColumnBuilder,
   decodeSums,
   encodeSums,
@@ -59,11 +60,17 @@ function sizeOf(s: PracticeSums): number {
   );
 }
 
+/** Records a chunk of a full recompute holds before it is evaluated (whole submissions). */
+export const CHUNK_RECORDS = 16_384;
+
 export class SubmissionSums {
   private readonly cache = new Map<string, PracticeSums>();
   private cachedBytes = 0;
 
-  constructor(private readonly repository: SubmissionRepository) {}
+  constructor(
+    private readonly repository: SubmissionRepository,
+    private readonly chunkRecords = CHUNK_RECORDS,
+  ) {}
 
   /**
    * The sums of every practice of `scope`'s records (one submission, or every current record
@@ -217,6 +224,14 @@ export class SubmissionSums {
    * A full recompute: every current record of the quarter in one streamed read, the sums of
    * each current submission, all stored (replacing what they had under this measure set).
    * Returns the sums by submission id.
+   *
+   * The records are evaluated as they stream, a chunk at a time: a chunk takes whole
+   * submissions until it holds `chunkRecords` records, and its sums are made (and encoded) as
+   * soon as the next submission's first row arrives, while MariaDB sends the rows after it. A
+   * practice's sums depend only on its own records, so they equal those of one pass over every
+   * record. The read sends each submission's rows together (the join follows care_records'
+   * key); should a submission's rows come again after its chunk was evaluated, its sums are
+   * made afterwards from its own records in one more read.
    */
   async recomputeQuarter(
     quarterId: number,
@@ -225,33 +240,85 @@ export class SubmissionSums {
     quarter: AuditQuarter,
   ): Promise<Map<number, PracticeSums>> {
     const codeOf = new Map(subjects.map((s) => [s.submissionId, s.practiceCode]));
-    // The builder's arrays sized once for every record (not grown by doubling from a few).
-    const hinted = subjects.reduce((n, s) => n + s.records, 0);
-    const capacity = hinted > 0 ? hinted : await this.repository.currentRecordCount(quarterId);
-    const byCode = await this.compute(
-      { quarterId },
-      (submissionId) => {
-        const code = codeOf.get(submissionId);
-        if (code === undefined) {
-          throw new Error(`submission ${submissionId} became current during the recompute`);
-        }
-        return code;
-      },
-      subjects.map((s) => s.practiceCode),
-      capacity,
-      version,
-      quarter,
-    );
+    const practiceOf = (submissionId: number) => {
+      const code = codeOf.get(submissionId);
+      if (code === undefined) {
+        throw new Error(`submission ${submissionId} became current during the recompute`);
+      }
+      return code;
+    };
+    const layout = sumsLayout(version.compiled);
     const out = new Map<number, PracticeSums>();
+    const bytes = new Map<number, SumsRow>();
+    /** Submissions of the chunk being built, and those already evaluated */
+    let inChunk: number[] = [];
+    const evaluated = new Set<number>();
+    /** Submissions whose rows came again after their chunk was evaluated */
+    const again = new Set<number>();
+    let builder: ColumnBuilder | null = null;
+    let append: ((row: unknown[]) => void) | null = null;
+    let current = -1;
+    let skipping = false;
+    const evaluate = () => {
+      if (builder === null) return;
+      const byCode = sumsOfColumns(builder.finish(), layout, quarter);
+      for (const id of inChunk) {
+        const sums = byCode.get(codeOf.get(id)!);
+        evaluated.add(id);
+        if (!sums) continue;
+        out.set(id, sums);
+        bytes.set(id, this.row(id, version, sums));
+      }
+      builder = null;
+      append = null;
+      inChunk = [];
+    };
+    await this.repository.streamSumsRows({ quarterId }, (row) => {
+      const id = row[0] as number;
+      if (id !== current) {
+        current = id;
+        skipping = evaluated.has(id);
+        if (skipping) {
+          again.add(id);
+          return;
+        }
+        if (!inChunk.includes(id)) {
+          // A new submission: the chunk is evaluated first when it is full.
+          if (builder !== null && builder.length >= this.chunkRecords) evaluate();
+          if (builder === null) {
+            builder = createColumnBuilder({ capacity: this.chunkRecords + 1024 });
+            append = rowAppender(builder, practiceOf);
+          }
+          inChunk.push(id);
+        }
+      } else if (skipping) return;
+      append!(row);
+    });
+    evaluate();
+    if (again.size > 0) {
+      const split = subjects.filter((s) => again.has(s.submissionId));
+      const computed = await this.computeMany(split, version, quarter);
+      for (const s of split) {
+        const sums = computed.get(s.submissionId)!;
+        out.set(s.submissionId, sums);
+        bytes.set(s.submissionId, this.row(s.submissionId, version, sums));
+      }
+    }
     const rows: SumsRow[] = [];
     for (const s of subjects) {
-      const sums = byCode.get(s.practiceCode)!;
-      out.set(s.submissionId, sums);
+      let sums = out.get(s.submissionId);
+      if (!sums) {
+        // No record of this submission came in the quarter's read: its own read decides (an
+        // error when it has none, as for one submission's sums).
+        sums = await this.computeOne(s, version, quarter);
+        out.set(s.submissionId, sums);
+        bytes.set(s.submissionId, this.row(s.submissionId, version, sums));
+      }
       this.remember(s.submissionId, version.id, sums);
-      rows.push(this.row(s.submissionId, version, sums));
+      rows.push(bytes.get(s.submissionId)!);
     }
     await this.repository.replaceSums(rows);
-    return out;
+    return new Map(subjects.map((s) => [s.submissionId, out.get(s.submissionId)!]));
   }
 
   private recall(submissionId: number, measureSetId: string): PracticeSums | undefined {

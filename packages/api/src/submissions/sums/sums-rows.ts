@@ -1,14 +1,20 @@
 /**
  * The care_records columns a submission's sums are computed from, and how
  * one row of them goes into @cairn/metrics' column builder. Rows arrive as
- * arrays straight from the mariadb connector (streamed, no type cast): the
- * submission id first, then SUMS_COLUMNS in this order, already in the
- * column builder's codes, so that no string is made per row (`sumsSelect`):
- * months as month indices (year × 12 + month − 1, computed by MariaDB from
- * the stored 'YYYY-MM'), the ENUMs as their 1-based index less one (sex
- * F, M, X, U → 0…3, as SEX_CODES) or as it is (diabetes type type1, type2,
- * other → 1…3 and smoking status current, ex, never → 1…3; NULL → 0, as
- * TYPE_UNKNOWN and "no status"), TINYINT(1) as 0 or 1.
+ * arrays straight from the mariadb connector (streamed, no type cast) with two
+ * fields: the submission id, then one text that MariaDB makes of SUMS_COLUMNS
+ * in this order, separated by commas (`SUMS_SELECT`), which the appender reads
+ * itself. The connector then decodes two fields a row, not 27 (and makes no
+ * string per DOUBLE), and the server only joins what it stores:
+ *
+ * - numbers as MariaDB writes them for the text protocol (the same conversion
+ *   of the stored value), '' for NULL;
+ * - months as stored, 'YYYY-MM', '' for NULL (read as month indices, year ×
+ *   12 + month − 1);
+ * - the ENUMs as their 1-based index (sex F, M, X, U → 1…4, read less one as
+ *   SEX_CODES; diabetes type type1, type2, other → 1…3 and smoking status
+ *   current, ex, never → 1…3; NULL → 0, as TYPE_UNKNOWN and "no status");
+ * - TINYINT(1) as 0 or 1.
  */
 import type { CodedCareRecord, ColumnBuilder } from '@cairn/metrics';
 import { CARE_COLUMNS } from '../../database/bulk-load/record-columns.js';
@@ -16,27 +22,132 @@ import { CARE_COLUMNS } from '../../database/bulk-load/record-columns.js';
 /** Every column the metrics read, per record (FlatCareRecord's fields in snake case). */
 export const SUMS_COLUMNS = CARE_COLUMNS;
 
-/** The SELECT expression of one sums column of table alias `r`, in the builder's codes. */
-function coded(column: string): string {
-  if (column.endsWith('_month')) {
-    return `CAST(SUBSTRING(r.${column}, 1, 4) AS UNSIGNED) * 12 + CAST(SUBSTRING(r.${column}, 6, 2) AS UNSIGNED) - 1`;
-  }
-  if (column === 'sex') return 'r.sex + 0 - 1';
+/** One sums column of table alias `r` as a CONCAT_WS argument (see above). */
+function asText(column: string): string {
+  if (column === 'sex') return 'r.sex + 0';
   if (column === 'diabetes_type' || column === 'smoking_status') {
-    return `COALESCE(r.${column} + 0, 0)`;
+    return `IFNULL(r.${column} + 0, 0)`;
   }
-  return `r.${column}`;
+  // CONCAT_WS skips NULLs: an empty field keeps the place of each.
+  return `IFNULL(r.${column}, '')`;
 }
 
-/** SUMS_COLUMNS of care_records `r` as the SELECT list of a sums read (see above). */
-export const SUMS_SELECT = SUMS_COLUMNS.map(coded).join(', ');
+/** SUMS_COLUMNS of care_records `r` as the one text field of a sums read (see above). */
+export const SUMS_SELECT = `CONCAT_WS(',', ${SUMS_COLUMNS.map(asText).join(', ')})`;
 
-const flag = (value: unknown): boolean | null => (value === null ? null : Number(value) !== 0);
+/** Exact powers of ten, 10⁰ … 10²² (every one a double exactly). */
+const POW10 = Array.from({ length: 23 }, (_, k) => Number(`1e${k}`));
 
 /**
- * A function that appends one streamed row ([submission id, ...SUMS_SELECT]) to the builder,
- * as the practice `practiceOf(submissionId)` names. One record object is reused for every row,
- * so no object is made per row.
+ * Reads the comma-separated fields of one row's text in turn. A number of at most 15
+ * significant digits and no exponent is read as its digits divided by a power of ten: both
+ * are doubles exactly, so the quotient (IEEE 754 division, correctly rounded) is the double
+ * nearest to the decimal, as `Number` gives it (W. D. Clinger, "How to Read Floating Point
+ * Numbers Accurately", PLDI 1990: the exact fast path). Anything else goes through `Number`.
+ */
+export class RowText {
+  private text = '';
+  private pos = 0;
+
+  start(text: string): void {
+    this.text = text;
+    this.pos = 0;
+  }
+
+  /** The next field as a number; null when it is empty. */
+  number(): number | null {
+    const text = this.text;
+    const length = text.length;
+    const from = this.pos;
+    let pos = from;
+    let c = pos < length ? text.charCodeAt(pos) : 44;
+    if (c === 44) {
+      this.pos = pos + 1;
+      return null;
+    }
+    const negative = c === 45;
+    if (negative) pos++;
+    let digits = 0;
+    let scale = 0;
+    let point = false;
+    let mantissa = 0;
+    for (; pos < length; pos++) {
+      c = text.charCodeAt(pos);
+      if (c >= 48 && c <= 57) {
+        mantissa = mantissa * 10 + (c - 48);
+        digits++;
+        if (point) scale++;
+      } else if (c === 46 && !point) point = true;
+      else break;
+    }
+    if ((pos < length && c !== 44) || digits === 0 || digits > 15) {
+      // An exponent, more digits than a double holds exactly, or no digits: as Number reads it.
+      let end = text.indexOf(',', pos);
+      if (end < 0) end = length;
+      this.pos = end + 1;
+      return Number(text.slice(from, end));
+    }
+    this.pos = pos + 1;
+    const value = scale === 0 ? mantissa : mantissa / (POW10[scale] as number);
+    return negative ? -value : value;
+  }
+
+  /** The next field, a month 'YYYY-MM', as its month index; null when it is empty. */
+  month(): number | null {
+    const text = this.text;
+    const length = text.length;
+    let pos = this.pos;
+    let c = pos < length ? text.charCodeAt(pos) : 44;
+    if (c === 44) {
+      this.pos = pos + 1;
+      return null;
+    }
+    if (pos + 7 <= length && text.charCodeAt(pos + 4) === 45) {
+      // As stored: four digits, '-', two digits.
+      const y0 = text.charCodeAt(pos) - 48;
+      const y1 = text.charCodeAt(pos + 1) - 48;
+      const y2 = text.charCodeAt(pos + 2) - 48;
+      const y3 = text.charCodeAt(pos + 3) - 48;
+      const m0 = text.charCodeAt(pos + 5) - 48;
+      const m1 = text.charCodeAt(pos + 6) - 48;
+      if (
+        y0 >>> 0 < 10 &&
+        y1 >>> 0 < 10 &&
+        y2 >>> 0 < 10 &&
+        y3 >>> 0 < 10 &&
+        m0 >>> 0 < 10 &&
+        m1 >>> 0 < 10 &&
+        (pos + 7 === length || text.charCodeAt(pos + 7) === 44)
+      ) {
+        this.pos = pos + 8;
+        return (y0 * 1000 + y1 * 100 + y2 * 10 + y3) * 12 + m0 * 10 + m1 - 1;
+      }
+    }
+    let year = 0;
+    let month = 0;
+    let part = 0;
+    let bad = false;
+    for (; pos < length; pos++) {
+      c = text.charCodeAt(pos);
+      if (c === 44) break;
+      if (c >= 48 && c <= 57) {
+        if (part === 0) year = year * 10 + (c - 48);
+        else month = month * 10 + (c - 48);
+      } else if (c === 45 && part === 0) part = 1;
+      else bad = true;
+    }
+    this.pos = pos + 1;
+    // Not a month: NaN, which the column builder refuses with the field's name.
+    return bad || part === 0 ? NaN : year * 12 + month - 1;
+  }
+}
+
+const flag = (value: number | null): boolean | null => (value === null ? null : value !== 0);
+
+/**
+ * A function that appends one streamed row ([submission id, SUMS_SELECT's text]) to the
+ * builder, as the practice `practiceOf(submissionId)` names. One record object is reused for
+ * every row, so no object is made per row.
  */
 export function rowAppender(
   builder: ColumnBuilder,
@@ -71,6 +182,7 @@ export function rowAppender(
     insulinStartYear: null,
     cvdHistory: null,
   };
+  const f = new RowText();
   let lastSubmission = -1;
   return (row: unknown[]) => {
     const submission = row[0] as number;
@@ -78,42 +190,50 @@ export function rowAppender(
       r.practiceCode = practiceOf(submission);
       lastSubmission = submission;
     }
-    r.birthYear = row[1] as number;
-    r.sex = row[2] as number;
-    r.diabetesType = row[3] as number;
-    r.diagnosisYear = row[4] as number | null;
-    r.deprivationQuintile = row[5] as number | null;
+    f.start(row[1] as string);
+    r.birthYear = f.number() as number;
+    const sex = f.number();
+    r.sex = sex === null ? NaN : sex - 1;
+    r.diabetesType = f.number() as number;
+    r.diagnosisYear = f.number();
+    r.deprivationQuintile = f.number();
     // A measurement counts only with its month and its value (as toStoredRecord reads it).
-    const hba1c = row[7] as number | null;
-    r.hba1cMonth = hba1c === null ? null : (row[6] as number | null);
+    const hba1cMonth = f.month();
+    const hba1c = f.number();
+    r.hba1cMonth = hba1c === null ? null : hba1cMonth;
     r.hba1cMmolMol = hba1c;
-    const systolic = row[9] as number | null;
-    const diastolic = row[10] as number | null;
-    r.bloodPressureMonth =
-      systolic === null || diastolic === null ? null : (row[8] as number | null);
+    const bloodPressureMonth = f.month();
+    const systolic = f.number();
+    const diastolic = f.number();
+    r.bloodPressureMonth = systolic === null || diastolic === null ? null : bloodPressureMonth;
     r.systolic = systolic;
     r.diastolic = diastolic;
-    const cholesterol = row[12] as number | null;
-    r.cholesterolMonth = cholesterol === null ? null : (row[11] as number | null);
+    const cholesterolMonth = f.month();
+    const cholesterol = f.number();
+    r.cholesterolMonth = cholesterol === null ? null : cholesterolMonth;
     r.totalCholesterolMmolL = cholesterol;
-    const creatinine = row[14] as number | null;
-    r.serumCreatinineMonth = creatinine === null ? null : (row[13] as number | null);
+    const creatinineMonth = f.month();
+    const creatinine = f.number();
+    r.serumCreatinineMonth = creatinine === null ? null : creatinineMonth;
     r.serumCreatinineUmolL = creatinine;
-    const acr = row[16] as number | null;
-    r.urineAlbuminMonth = acr === null ? null : (row[15] as number | null);
+    const acrMonth = f.month();
+    const acr = f.number();
+    r.urineAlbuminMonth = acr === null ? null : acrMonth;
     r.acrMgMmol = acr;
-    r.footSurveillanceMonth = row[17] as number | null;
-    const bmi = row[19] as number | null;
-    r.bmiMonth = bmi === null ? null : (row[18] as number | null);
+    r.footSurveillanceMonth = f.month();
+    const bmiMonth = f.month();
+    const bmi = f.number();
+    r.bmiMonth = bmi === null ? null : bmiMonth;
     r.bmiKgM2 = bmi;
-    const smoking = row[21] as number;
-    r.smokingMonth = smoking === 0 ? null : (row[20] as number | null);
+    const smokingMonth = f.month();
+    const smoking = f.number() as number;
+    r.smokingMonth = smoking === 0 ? null : smokingMonth;
     r.smokingStatus = smoking;
-    r.retinalScreeningMonth = row[22] as number | null;
-    r.onStatin = flag(row[23]);
-    r.onInsulin = flag(row[24]);
-    r.insulinStartYear = row[25] as number | null;
-    r.cvdHistory = flag(row[26]);
+    r.retinalScreeningMonth = f.month();
+    r.onStatin = flag(f.number());
+    r.onInsulin = flag(f.number());
+    r.insulinStartYear = f.number();
+    r.cvdHistory = flag(f.number());
     builder.appendCoded(r);
   };
 }
