@@ -202,6 +202,36 @@ describe('results and benchmarks', () => {
       expect(res.body.builtFrom.resultId).toBe(all.body.builtFrom.resultId);
     });
 
+    it('pages the practices: each page with the region’s figures, together the whole list', async () => {
+      const all = await regional.get(`/api/quarters/${q3}/benchmark`).expect(200);
+      const codes = (body: { practices: { practice: { code: string } }[] }) =>
+        body.practices.map((p) => p.practice.code);
+      expect(all.body.page).toEqual({
+        page: 1,
+        pageSize: 100,
+        pages: 1,
+        total: all.body.practices.length,
+      });
+      const pages = [];
+      for (let page = 1; page <= Math.ceil(all.body.practices.length / 2); page++) {
+        const res = await regional
+          .get(`/api/quarters/${q3}/benchmark`)
+          .query({ page, pageSize: 2 })
+          .expect(200);
+        expect(res.body.page).toMatchObject({
+          page,
+          pageSize: 2,
+          total: all.body.practices.length,
+        });
+        expect(res.body.builtFrom).toEqual(all.body.builtFrom);
+        expect(res.body.region).toEqual(all.body.region);
+        expect(res.body.coverage).toEqual(all.body.coverage);
+        pages.push(...res.body.practices);
+      }
+      expect(pages).toEqual(all.body.practices);
+      expect(codes({ practices: pages })).toEqual(codes(all.body));
+    });
+
     it('keeps one stored result per set, and a new one when the set changes', async () => {
       const first = await regional.get(`/api/quarters/${q3}/benchmark`).expect(200);
       const again = await regional
@@ -215,6 +245,35 @@ describe('results and benchmarks', () => {
       expect(after.body.builtFrom.resultId).not.toBe(first.body.builtFrom.resultId);
       expect(after.body.builtFrom.submissionsKey).toBe((await currentKey(q3)).key);
       expect(await counts()).toEqual({ results: before.results + 1, sums: before.sums + 1 });
+    });
+
+    it('rebuilds the set after a confirm from the previous result: the bytes of a recompute from records', async () => {
+      const store = t.app.get(BenchmarkStore);
+      const submissions = t.app.get(SubmissionsService);
+      await store.resultOf((await t.app.get(QuartersService).find(q3))!);
+      const replaced = confirmed.get(`OV103/${q3}`)!;
+      const calls: number[][] = [];
+      const read = submissions.sumsOfCurrent.bind(submissions);
+      submissions.sumsOfCurrent = (subjects, version, at) => {
+        calls.push(subjects.map((s) => s.submissionId).sort((a, b) => a - b));
+        return read(subjects, version, at);
+      };
+      let id: number;
+      try {
+        id = await confirm('OV103', q3, goodRows(45, 700));
+        const result = await store.resultOf((await t.app.get(QuartersService).find(q3))!);
+        expect(result!.key).toBe((await currentKey(q3)).key);
+      } finally {
+        submissions.sumsOfCurrent = read;
+      }
+      // Only the replaced submission's sums and the new one's were read, not every practice's.
+      expect(calls).toEqual([[replaced, id].sort((a, b) => a - b)]);
+      const [stored] = await select<{ body: Buffer }>(
+        'SELECT body FROM benchmark_results WHERE quarter_id = ? AND submissions_key = ?',
+        [q3, (await currentKey(q3)).key],
+      );
+      const recomputed = await store.recompute((await t.app.get(QuartersService).find(q3))!);
+      expect(recomputed.body!.equals(stored!.body)).toBe(true);
     });
 
     it('answers a quarter without accepted submissions with an empty state', async () => {
@@ -433,6 +492,10 @@ describe('results and benchmarks', () => {
         'locality',
       ],
       ['an unknown query field', () => `/api/quarters/${q3}/benchmark?measure=hba1c`, 'measure'],
+      ['a page that is not a number', () => `/api/quarters/${q3}/benchmark?page=two`, 'page'],
+      ['page 0', () => `/api/quarters/${q3}/benchmark?page=0`, 'page'],
+      ['a page size too large', () => `/api/quarters/${q3}/benchmark?pageSize=5000`, 'pageSize'],
+      ['a page past the last', () => `/api/quarters/${q3}/benchmark?page=3&pageSize=250`, 'page'],
     ])('answers %s with 400 naming the field', async (_what, path, field) => {
       const before = await counts();
       const res = await regional.get(path()).expect(400);

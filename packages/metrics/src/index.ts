@@ -78,7 +78,7 @@ export { sumsLayout, SUMS_FORMAT_VERSION, type SumsLayout } from './sums/sums-la
 export { sumsOfColumns, type SumsOptions } from './sums/sums-of-columns.js';
 export { encodeSums } from './sums/encode-sums.js';
 export { decodeSums, SumsDecodeError, type SumsDecodeProblem } from './sums/decode-sums.js';
-export { addSums, mergeSums } from './sums/merge-sums.js';
+export { addSums, mergeSums, replaceSums } from './sums/merge-sums.js';
 export {
   VALUE_HISTOGRAMS,
   binEdges,
@@ -96,6 +96,9 @@ export {
 export * from './benchmark/benchmark.js';
 export {
   buildBenchmark,
+  buildBenchmarkOfParts,
+  type BenchmarkParts,
+  type BenchmarkPartsInput,
   type BenchmarkPracticeInput,
   type BuildBenchmarkInput,
 } from './benchmark/build-benchmark.js';

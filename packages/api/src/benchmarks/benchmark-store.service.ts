@@ -13,6 +13,14 @@
  *    practices in code order and their localities (OrganisationsService), the
  *    region's sums merged, the body stored (INSERT IGNORE) and served.
  *
+ * A set built after a confirm is rebuilt from the previous result of its
+ * quarter when this process built that one (results/rebuild.ts): the region's
+ * sums minus the replaced submission's plus the new one's, every other
+ * practice's parts kept, the region's statistics computed again; the same
+ * bytes as a build from every practice's sums. A confirm starts the new set's
+ * build as soon as its transaction commits, so that the first reader finds it
+ * built or joins the build.
+ *
  * A request thus sees one consistent set, never a mix; nothing a reader needs
  * lives only here (any process finds the row, or builds the same bytes).
  * `recompute` is the full recompute from records: every current record of the
@@ -47,6 +55,7 @@ import {
   RESULT_FORMAT,
   type ResultContent,
 } from './results/result-body.js';
+import { partsOfBuild, rebuildContent, type ResultParts, setChange } from './results/rebuild.js';
 
 /** A quarter's current set changed while an answer of it was being built: read it again. */
 export class SetChangedError extends Error {
@@ -117,6 +126,10 @@ export function resultContent(
 
 /** Decoded results kept in memory at most, by the size of their stored bodies. */
 const CACHE_BYTES = 96 * 1024 * 1024;
+/** Quarters whose latest built result's parts are kept for a rebuild (a few MB per 1,000 practices). */
+const PARTS_QUARTERS = 2;
+/** A set is rebuilt from the previous one while at most this share of its practices changed. */
+const REBUILD_SHARE = 1 / 8;
 
 @Injectable()
 export class BenchmarkStore {
@@ -126,13 +139,24 @@ export class BenchmarkStore {
   private readonly results = new Map<number, { result: QuarterResult; size: number }>();
   private cachedBytes = 0;
   private readonly building = new Map<string, Promise<QuarterResult>>();
+  /** The parts of the latest result this process built, per quarter (rows never change). */
+  private readonly parts = new Map<number, ResultParts>();
 
   constructor(
     @Inject(BenchmarkResultsRepository) private readonly repository: BenchmarkResultsRepository,
     @Inject(SubmissionsService) private readonly submissions: SubmissionsService,
     @Inject(OrganisationsService) private readonly organisations: OrganisationsService,
     @Inject(MeasureSetsService) private readonly measureSets: MeasureSetsService,
-  ) {}
+  ) {
+    // The new set's result is built once the confirm has committed (a reader joins the build).
+    submissions.onConfirmed((quarter) => {
+      this.resultOf(quarter).catch((error: unknown) =>
+        this.logger.warn(
+          `the benchmark of ${quarter.label} after a confirm was not built ahead of its readers: ${(error as Error).message}`,
+        ),
+      );
+    });
+  }
 
   /** The quarter's result for its current submissions now; null when it has none. */
   async resultOf(quarter: QuarterDto): Promise<QuarterResult | null> {
@@ -239,6 +263,7 @@ export class BenchmarkStore {
     const t0 = performance.now();
     const sums = await this.submissions.recomputeSums(quarter.id, subjects, version, quarter);
     const content = resultContent(quarter, version, subjects, sums);
+    this.keepParts(partsOfBuild(quarter.id, version, subjects, sums, content.regionSums));
     const body = encodeResult(content);
     const key = submissionsKey(pointers.map((p) => p.submissionId));
     const row = await this.repository.insert(this.resultKey(quarter, version, key), {
@@ -359,8 +384,12 @@ export class BenchmarkStore {
   ): Promise<QuarterResult> {
     const t0 = performance.now();
     const subjects = await this.subjects(quarter, pointers);
-    const sums = await this.submissions.sumsOfCurrent(subjects, version, quarter);
-    const content = resultContent(quarter, version, subjects, sums);
+    let content = await this.rebuilt(quarter, version, subjects);
+    if (content === null) {
+      const sums = await this.submissions.sumsOfCurrent(subjects, version, quarter);
+      content = resultContent(quarter, version, subjects, sums);
+      this.keepParts(partsOfBuild(quarter.id, version, subjects, sums, content.regionSums));
+    }
     const body = encodeResult(content);
     const row = await this.repository.insert(this.resultKey(quarter, version, key), {
       submissionCount: pointers.length,
@@ -369,6 +398,55 @@ export class BenchmarkStore {
     });
     this.ids.set(`${quarter.id}/${version.id}/${RESULT_FORMAT}/${key}`, row);
     return this.remember(row, quarter, version, key, content, body.length);
+  }
+
+  /**
+   * The set's content rebuilt from the previous result of its quarter that this process built
+   * (results/rebuild.ts), reading only the sums of the submissions that left or joined; null
+   * when there is none, or too much changed.
+   */
+  private async rebuilt(
+    quarter: QuarterDto,
+    version: MeasureSetVersion,
+    subjects: readonly (SumsSubject & { practice: PracticeInfo })[],
+  ): Promise<ResultContent | null> {
+    const previous = this.parts.get(quarter.id);
+    if (!previous || previous.measureSetId !== version.id) return null;
+    const { left, joined } = setChange(previous, subjects);
+    if (left.length + joined.length > Math.max(16, subjects.length * REBUILD_SHARE)) return null;
+    const codeOf = new Map<number, string>([
+      ...previous.practices.map((p) => [p.submissionId, p.code] as const),
+      ...subjects.map((s) => [s.submissionId, s.practice.code] as const),
+    ]);
+    try {
+      const changed = await this.submissions.sumsOfCurrent(
+        [...left, ...joined].map((id) => ({
+          submissionId: id,
+          practiceCode: codeOf.get(id)!,
+          records: 0,
+        })),
+        version,
+        quarter,
+      );
+      const { content, parts } = rebuildContent(quarter, version, previous, subjects, changed);
+      this.keepParts(parts);
+      return content;
+    } catch (error) {
+      // Built from every practice's sums instead (the same bytes).
+      this.logger.warn(
+        `the benchmark of ${quarter.label} was not rebuilt from the previous one: ${(error as Error).message}`,
+      );
+      return null;
+    }
+  }
+
+  private keepParts(parts: ResultParts): void {
+    this.parts.delete(parts.quarterId);
+    this.parts.set(parts.quarterId, parts);
+    for (const quarterId of this.parts.keys()) {
+      if (this.parts.size <= PARTS_QUARTERS) break;
+      this.parts.delete(quarterId);
+    }
   }
 
   private remember(

@@ -27,7 +27,7 @@ export class BenchmarkController {
   @ApiOperation({
     summary: 'Every practice on every measure of an audit quarter, with the region’s statistics',
     description:
-      'Read from the practices’ current submissions for the quarter; `builtFrom` says which set. Practices without a current submission are listed in `coverage.missing`, never counted as zero. 404 quarter-not-found, 404 locality-not-found; 400 for a bad split. Sent with an ETag; If-None-Match with it gives 304 while nothing it was built from has changed.',
+      'Read from the practices’ current submissions for the quarter; `builtFrom` says which set. Practices come in pages (`page`, `pageSize`; `page` in the answer says how many there are), each page with the region’s statistics, the measures and the coverage; pages with the same `builtFrom.resultId` belong together. Practices without a current submission are listed in `coverage.missing`, never counted as zero. 404 quarter-not-found, 404 locality-not-found; 400 for a bad split, page or page size, or a page past the last. Sent with an ETag; If-None-Match with it gives 304 while nothing it was built from has changed.',
   })
   @ApiOkResponse({ type: RegionBenchmarkDto })
   async region(

@@ -10,10 +10,10 @@ import { HttpStatus, Inject, Injectable } from '@nestjs/common';
 import {
   type Benchmark,
   benchmarkMeasure,
+  benchmarkMeasureAt,
   benchmarkRecords,
   type MeasureComparison,
   type TypeSplit,
-  type UnitResult,
 } from '@cairn/metrics';
 import type { Actor } from '../auth/actor.js';
 import { ProblemException } from '../common/problem.js';
@@ -40,14 +40,16 @@ import {
   type QuarterResult,
   SetChangedError,
 } from './benchmark-store.service.js';
-import type {
-  BenchmarkPracticeDto,
-  BenchmarkQueryDto,
+import {
+  BENCHMARK_PAGE_MAX,
+  BENCHMARK_PAGE_SIZE,
+  type BenchmarkPracticeDto,
+  type BenchmarkQueryDto,
   BenchmarkTrendDto,
-  MeasureFunnelDto,
-  PracticeTrendDto,
-  RegionBenchmarkDto,
-  TrendQueryDto,
+  type MeasureFunnelDto,
+  type PracticeTrendDto,
+  type RegionBenchmarkDto,
+  type TrendQueryDto,
 } from './dto/benchmark.dto.js';
 import type { LocalityDto } from './dto/results-common.dto.js';
 import {
@@ -107,8 +109,6 @@ export function quartersUpTo(all: readonly QuarterDto[], quarter: QuarterDto): Q
 
 @Injectable()
 export class BenchmarksService {
-  /** Table rows per (result, split): they depend only on the immutable result. */
-  private readonly tables = new Map<string, Map<string, UnitResult[]>>();
   private readonly recordCounts = new Map<string, ReturnType<typeof benchmarkRecords>>();
 
   constructor(
@@ -122,16 +122,52 @@ export class BenchmarksService {
   ) {}
 
   /**
-   * Every practice × measure of a quarter, with the region's statistics and coverage: the
-   * stored answer of the route (regionAnswer), read back as the DTO.
+   * Every practice × measure of a quarter, with the region's statistics and coverage: every
+   * page of the route's stored answers (regionAnswer) read back as one DTO, all of one result
+   * (read again when a confirm came in between pages).
    */
   async region(
     actor: Actor,
     quarterId: number,
-    query: BenchmarkQueryDto,
+    query: Omit<BenchmarkQueryDto, 'page' | 'pageSize'>,
   ): Promise<RegionBenchmarkDto> {
-    const answer = await this.regionAnswer(actor, quarterId, query);
-    return JSON.parse(answer.plain.toString('utf8')) as RegionBenchmarkDto;
+    const read = async (page: number) =>
+      JSON.parse(
+        (
+          await this.regionAnswer(actor, quarterId, {
+            ...query,
+            page,
+            pageSize: BENCHMARK_PAGE_MAX,
+          })
+        ).plain.toString('utf8'),
+      ) as RegionBenchmarkDto;
+    for (let attempt = 0; ; attempt++) {
+      const first = await read(1);
+      const practices = [...first.practices];
+      let same = true;
+      for (let page = 2; same && page <= first.page.pages; page++) {
+        const next = await read(page).catch((error: unknown) => {
+          // Fewer pages now: a confirm came in between.
+          if (error instanceof ProblemException && attempt < 2) return null;
+          throw error;
+        });
+        if (!next || next.builtFrom?.resultId !== first.builtFrom?.resultId) same = false;
+        else practices.push(...next.practices);
+      }
+      if (same) {
+        return {
+          ...first,
+          practices,
+          page: {
+            page: 1,
+            pageSize: Math.max(1, practices.length),
+            pages: 1,
+            total: practices.length,
+          },
+        };
+      }
+      if (attempt >= 2) throw new SetChangedError(quarterId);
+    }
   }
 
   /**
@@ -146,6 +182,8 @@ export class BenchmarksService {
     query: BenchmarkQueryDto,
   ): Promise<StoredAnswer> {
     const split = query.split ?? 'all';
+    const page = query.page ?? 1;
+    const pageSize = query.pageSize ?? BENCHMARK_PAGE_SIZE;
     for (let attempt = 0; ; attempt++) {
       try {
         // One SELECT: the quarter, its current set and the region's fingerprint.
@@ -159,10 +197,17 @@ export class BenchmarksService {
           organisation,
           split,
           query.locality ?? '',
+          String(page),
+          String(pageSize),
         ]);
         return await this.answers.answer('region', quarter.id, key, async () => {
           const result = (await this.store.resultsWith([quarter], sets)).get(quarter.id) ?? null;
-          return this.buildRegion(quarter, result, { split, locality: query.locality });
+          return this.buildRegion(quarter, result, {
+            split,
+            locality: query.locality,
+            page,
+            pageSize,
+          });
         });
       } catch (error) {
         // The set changed while it was read (a confirm in between): read it again.
@@ -174,7 +219,7 @@ export class BenchmarksService {
   private async buildRegion(
     quarter: QuarterDto,
     result: QuarterResult | null,
-    query: BenchmarkQueryDto,
+    query: BenchmarkQueryDto & { page: number; pageSize: number },
   ): Promise<RegionBenchmarkDto> {
     const version = await this.measureSets.get(quarter.measureSetId);
     const split = query.split ?? 'all';
@@ -185,6 +230,22 @@ export class BenchmarksService {
     const measures = version.measures.map(toMeasureDto);
     const localityList = localities.map((l) => ({ code: l.code, name: l.name }));
     const coverage = this.coverage(practices.filter(inLocality), result);
+    const paging = (total: number) => {
+      const pages = Math.max(1, Math.ceil(total / query.pageSize));
+      if (query.page > pages) {
+        throw new ProblemException(
+          HttpStatus.BAD_REQUEST,
+          'validation',
+          'No such page',
+          `page ${query.page} is past the last page: ${total} practices make ${pages} page${pages === 1 ? '' : 's'} of ${query.pageSize}.`,
+          {
+            errors: [{ field: 'page', message: `page must be from 1 to ${pages}` }],
+            pages,
+          },
+        );
+      }
+      return { page: query.page, pageSize: query.pageSize, pages, total };
+    };
     if (!result) {
       return {
         state: 'no-accepted-submissions',
@@ -197,19 +258,26 @@ export class BenchmarksService {
         measures,
         region: [],
         practices: [],
+        page: paging(0),
         coverage,
         caution: CLINICAL_CAUTION,
       };
     }
     const b = result.benchmark;
-    const units = this.units(result, split);
     const byCodeInfo = new Map(practices.map((p) => [p.code, p]));
-    const shown = result.practices
+    const listed = result.practices
       .map((p, i) => ({ ...p, index: i, info: byCodeInfo.get(p.code) }))
       .filter((p) => p.info !== undefined && inLocality(p.info));
+    const page = paging(listed.length);
+    const shown = listed.slice((page.page - 1) * page.pageSize, page.page * page.pageSize);
+    // Every measure's units of this page's practices only.
+    const indices = shown.map((p) => p.index);
+    const units = new Map(
+      b.measures.map((m) => [m.key, benchmarkMeasureAt(b, m.key, split, indices)]),
+    );
     const facts = await this.submissions.confirmedFacts(shown.map((p) => p.submissionId));
     const records = this.records(result);
-    const rows: BenchmarkPracticeDto[] = shown.map((p) => {
+    const rows: BenchmarkPracticeDto[] = shown.map((p, i) => {
       const info = p.info!;
       const { code: _code, ...counts } = records[p.index]!;
       void _code;
@@ -219,7 +287,7 @@ export class BenchmarksService {
         submissionId: p.submissionId,
         records: counts,
         dataQuality: facts.get(p.submissionId)?.dataQuality ?? [],
-        cells: b.measures.map((m) => cell(m.key, units.get(m.key)![p.index]!)),
+        cells: b.measures.map((m) => cell(m.key, units.get(m.key)![i]!)),
       };
     });
     return {
@@ -233,6 +301,7 @@ export class BenchmarksService {
       measures,
       region: b.measures.map((m) => regionMeasure(comparisonOf(b, m.key, split)!)),
       practices: rows,
+      page,
       coverage,
       caution: CLINICAL_CAUTION,
     };
@@ -429,22 +498,5 @@ export class BenchmarksService {
       this.recordCounts.set(key, records);
     }
     return records;
-  }
-
-  /** Every measure's units of a result and split (practices in benchmark order), kept. */
-  private units(result: QuarterResult, split: TypeSplit): Map<string, UnitResult[]> {
-    const key = `${result.id}/${split}`;
-    let table = this.tables.get(key);
-    if (!table) {
-      table = new Map(
-        result.benchmark.measures.map((m) => [
-          m.key,
-          benchmarkMeasure(result.benchmark, m.key, split).units,
-        ]),
-      );
-      if (this.tables.size >= 64) this.tables.clear();
-      this.tables.set(key, table);
-    }
-    return table;
   }
 }

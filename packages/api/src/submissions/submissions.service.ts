@@ -24,6 +24,7 @@ import {
   MeasureSetsService,
 } from '../measure-sets/measure-sets.service.js';
 import { OrganisationsService } from '../organisations/organisations.service.js';
+import type { QuarterDto } from '../quarters/dto/quarter.dto.js';
 import { QuartersService } from '../quarters/quarters.service.js';
 import { PeopleNames } from '../users/people-names.js';
 import type {
@@ -132,6 +133,8 @@ export class SubmissionsService {
   private readonly pseudonym: (practiceCode: string, ref: string) => string;
   private readonly sums: SubmissionSums;
   private readonly facts = new Map<number, ConfirmedFacts>();
+
+  private readonly confirmedListeners: ((quarter: QuarterDto) => void)[] = [];
 
   constructor(
     @Inject(SubmissionRepository) private readonly submissions: SubmissionRepository,
@@ -496,6 +499,11 @@ export class SubmissionsService {
     return out;
   }
 
+  /** Called with the quarter after each confirm's transaction has committed. */
+  onConfirmed(listener: (quarter: QuarterDto) => void): void {
+    this.confirmedListeners.push(listener);
+  }
+
   /** Makes a submission current for its practice and quarter (atomically). */
   async confirm(actor: Actor, practiceId: number, submissionId: number): Promise<SubmissionDto> {
     const loaded = await this.find(practiceId, submissionId);
@@ -583,6 +591,7 @@ export class SubmissionsService {
         throw error;
       }
     }
+    for (const listener of this.confirmedListeners) listener(quarter);
     return this.get(actor, practiceId, submissionId);
   }
 

@@ -295,6 +295,38 @@ export function benchmarkMeasure(
   };
 }
 
+/**
+ * One measure and split for some practices only (indices in benchmark order, e.g. one page of
+ * the practices × measures table): the same units as `benchmarkMeasure` gives for them, with
+ * limits computed at their own n only.
+ */
+export function benchmarkMeasureAt(
+  b: Benchmark,
+  measure: string,
+  split: TypeSplit,
+  practices: readonly number[],
+): UnitResult[] {
+  const d = unpack(b);
+  const m = measureOf(b, d, measure);
+  const k = splitIndex(split);
+  const comparison = b.comparisons[m * 3 + k] as MeasureComparison;
+  const out: UnitResult[] = [];
+  // Runs of consecutive practices, each read as one range.
+  for (let i = 0; i < practices.length;) {
+    const first = practices[i] as number;
+    if (!Number.isInteger(first) || first < 0 || first >= d.P) {
+      throw new RangeError(`practice index ${first} is not in this benchmark`);
+    }
+    let j = i + 1;
+    while (j < practices.length && practices[j] === first + (j - i)) j++;
+    const codes = b.practices.slice(first, first + (j - i));
+    if (codes.length !== j - i) throw new RangeError('practice indices past the benchmark');
+    out.push(...unitResults(b, d, m, k, comparison, comparison.practice, first, codes));
+    i = j;
+  }
+  return out;
+}
+
 export interface PracticeView {
   code: string;
   locality: string | null;

@@ -7,8 +7,14 @@ import type { CareRecord } from '../records/record.js';
 import { decodeSums } from '../sums/decode-sums.js';
 import { encodeSums } from '../sums/encode-sums.js';
 import { sumsOfColumns } from '../sums/sums-of-columns.js';
-import { benchmarkMeasure, benchmarkPractice, benchmarkTable } from './benchmark-views.js';
-import { buildBenchmark } from './build-benchmark.js';
+import { mergeSums } from '../sums/merge-sums.js';
+import {
+  benchmarkMeasure,
+  benchmarkMeasureAt,
+  benchmarkPractice,
+  benchmarkTable,
+} from './benchmark-views.js';
+import { buildBenchmark, buildBenchmarkOfParts } from './build-benchmark.js';
 
 /**
  * The exactness guarantee: a benchmark built incrementally (each practice's sums computed from
@@ -71,6 +77,61 @@ describe('incremental and full benchmarks agree exactly (property)', () => {
           expect(benchmarkTable(incremental, 'all', 'locality')).toEqual(
             benchmarkTable(fullBenchmark, 'all', 'locality'),
           );
+        },
+      ),
+      { numRuns: 60 },
+    );
+  });
+
+  it('from the practices’ parts and the region’s life table (the rebuild after a confirm)', () => {
+    fc.assert(
+      fc.property(
+        arbitraryRecords(8, { maxLength: 160 }),
+        quarters,
+        localityOf,
+        fc.array(fc.nat(), { maxLength: 6 }),
+        (records: CareRecord[], quarter, locality, picks) => {
+          const sums = sumsOfColumns(toColumns(records), set, quarter);
+          const codes = [...sums.keys()].sort();
+          const whole = buildBenchmark({
+            practices: codes.map((code) => ({
+              code,
+              locality: locality(code),
+              sums: sums.get(code)!,
+            })),
+            measureSet: set,
+            quarter,
+          });
+          const region = codes.length > 0 ? mergeSums(codes.map((c) => sums.get(c)!)) : null;
+          const parts = buildBenchmarkOfParts({
+            practices: codes.map((code) => {
+              const own = sums.get(code)!;
+              // Copies: what a rebuild keeps of a practice, apart from its full sums.
+              return {
+                code,
+                locality: locality(code),
+                parts: {
+                  tallies: own.tallies.slice(),
+                  records: own.records.slice(),
+                  strata: { ids: own.strata.ids.slice(), values: own.strata.values.slice() },
+                },
+              };
+            }),
+            insulin: region ? [region.insulin] : [],
+            measureSet: set,
+            quarter,
+          });
+          expect(JSON.stringify(parts)).toBe(JSON.stringify(whole));
+          // Some practices' units only (a page of the table): those of the whole measure.
+          const indices = [...new Set(picks.map((x) => (codes.length ? x % codes.length : 0)))]
+            .filter(() => codes.length > 0)
+            .sort((a, b) => a - b);
+          for (const measure of ['hba1c_le_53', 'all_processes']) {
+            const all = benchmarkMeasure(whole, measure, 'all').units;
+            expect(benchmarkMeasureAt(whole, measure, 'all', indices)).toEqual(
+              indices.map((i) => all[i]),
+            );
+          }
         },
       ),
       { numRuns: 60 },

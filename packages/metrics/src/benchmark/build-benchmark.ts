@@ -66,12 +66,30 @@ function resolveOptions(options: BenchmarkOptions = {}): Required<BenchmarkOptio
   return { confidence, overdispersion, curvePoints };
 }
 
-/** Units and localities of the input, checked. */
-function resolveUnits(
-  practices: readonly BenchmarkPracticeInput[],
-  layout: SumsLayout,
-  quarter: AuditQuarter,
-): { codes: string[]; localities: string[]; practiceLocality: Int32Array; sums: PracticeSums[] } {
+/**
+ * What the benchmark reads of one practice's sums: its tallies and record counts (the units'
+ * columns) and its case-mix strata (expected events). A rebuild after a confirm keeps these of
+ * the practices that did not change (`buildBenchmarkOfParts`).
+ */
+export type BenchmarkParts = Pick<PracticeSums, 'tallies' | 'records' | 'strata'>;
+
+export interface BenchmarkPartsInput {
+  practices: readonly { code: string; locality?: string | null; parts: BenchmarkParts }[];
+  /**
+   * Life tables of time to insulin whose sum is the region's: every practice's, or the region's
+   * sums' own (the same integer totals).
+   */
+  insulin: readonly PracticeSums['insulin'][];
+  measureSet: MeasureSet | CompiledMeasureSet | SumsLayout;
+  quarter: AuditQuarter;
+  options?: BenchmarkOptions;
+}
+
+/** Codes and localities of the units, checked. */
+function resolveCodes(
+  practices: readonly { code: string; locality?: string | null }[],
+  check: (index: number) => void,
+): { codes: string[]; localities: string[]; practiceLocality: Int32Array } {
   if (!Array.isArray(practices)) throw new RangeError('practices must be an array');
   const seen = new Set<string>();
   const localities: string[] = [];
@@ -84,10 +102,7 @@ function resolveUnits(
     if (seen.has(p.code))
       throw new RangeError(`practices[${i}]: practice ${p.code} is listed twice`);
     seen.add(p.code);
-    if (p.sums === null || typeof p.sums !== 'object') {
-      throw new RangeError(`practices[${i}].sums must be the practice's sums`);
-    }
-    assertSumsOf(p.sums, layout, quarter, `the sums of practice ${p.code}`);
+    check(i);
     const locality = p.locality ?? null;
     if (locality === null) practiceLocality[i] = -1;
     else {
@@ -103,12 +118,7 @@ function resolveUnits(
       practiceLocality[i] = l;
     }
   });
-  return {
-    codes: practices.map((p) => p.code),
-    localities,
-    practiceLocality,
-    sums: practices.map((p) => p.sums),
-  };
+  return { codes: practices.map((p) => p.code), localities, practiceLocality };
 }
 
 // Garwood intervals depend only on the count and the level: each is computed once and kept.
@@ -221,11 +231,68 @@ export function buildBenchmark(input: BuildBenchmarkInput): Benchmark {
   const layout = sumsLayout(input.measureSet);
   const w = reviewWindow(input.quarter, layout.compiled.retinalWindowMonths);
   const options = resolveOptions(input.options);
-  const { codes, localities, practiceLocality, sums } = resolveUnits(
-    input.practices,
+  const practices = input.practices;
+  const units = resolveCodes(practices, (i) => {
+    const p = practices[i] as BenchmarkPracticeInput;
+    if (p.sums === null || typeof p.sums !== 'object') {
+      throw new RangeError(`practices[${i}].sums must be the practice's sums`);
+    }
+    assertSumsOf(p.sums, layout, w.quarter, `the sums of practice ${p.code}`);
+  });
+  const sums = practices.map((p) => p.sums);
+  return benchmarkOf(
     layout,
-    w.quarter,
+    w,
+    options,
+    units,
+    sums,
+    sums.map((s) => s.insulin),
   );
+}
+
+/**
+ * The same benchmark as `buildBenchmark` from what it reads of each practice's sums (its
+ * parts) and the region's life table: a rebuild after one practice's confirm keeps the parts of
+ * every other practice and needs no practice's full sums. The same parts and life-table totals
+ * in the same order give the same benchmark, bit for bit.
+ */
+export function buildBenchmarkOfParts(input: BenchmarkPartsInput): Benchmark {
+  const layout = sumsLayout(input.measureSet);
+  const w = reviewWindow(input.quarter, layout.compiled.retinalWindowMonths);
+  const options = resolveOptions(input.options);
+  const practices = input.practices;
+  const M = layout.compiled.measures.length;
+  const units = resolveCodes(practices, (i) => {
+    const parts = (practices[i] as BenchmarkPartsInput['practices'][number]).parts;
+    if (
+      parts === null ||
+      typeof parts !== 'object' ||
+      parts.tallies?.length !== M * 6 ||
+      parts.records?.length !== 4 ||
+      parts.strata?.values?.length !== (parts.strata?.ids?.length ?? -1) * layout.valuesPerStratum
+    ) {
+      throw new RangeError(`practices[${i}].parts are not the parts of sums of this measure set`);
+    }
+  });
+  return benchmarkOf(
+    layout,
+    w,
+    options,
+    units,
+    practices.map((p) => p.parts),
+    input.insulin,
+  );
+}
+
+function benchmarkOf(
+  layout: SumsLayout,
+  w: ReturnType<typeof reviewWindow>,
+  options: Required<BenchmarkOptions>,
+  units: { codes: string[]; localities: string[]; practiceLocality: Int32Array },
+  sums: readonly BenchmarkParts[],
+  insulin: readonly PracticeSums['insulin'][],
+): Benchmark {
+  const { codes, localities, practiceLocality } = units;
   const compiled = layout.compiled;
   const M = compiled.measures.length;
   const P = codes.length;
@@ -309,9 +376,9 @@ export function buildBenchmark(input: BuildBenchmarkInput): Benchmark {
   // The region's time to insulin.
   let excluded = 0;
   const lifeTable: SurvivalCount[] = [];
-  for (const s of sums) {
-    excluded += s.insulin.excluded;
-    const c = s.insulin.counts;
+  for (const table of insulin) {
+    excluded += table.excluded;
+    const c = table.counts;
     for (let y = 0; 2 * y < c.length; y++) {
       const row = lifeTable[y] ?? (lifeTable[y] = { time: y, events: 0, censored: 0 });
       row.events += c[2 * y] as number;

@@ -17,7 +17,7 @@ function measureIndices(layout: SumsLayout): number[] {
 
 export function expectedFromSums(
   layout: SumsLayout,
-  sums: readonly PracticeSums[],
+  sums: readonly Pick<PracticeSums, 'strata'>[],
   practiceLocality: Int32Array,
   localities: number,
 ): Float64Array {
@@ -59,7 +59,7 @@ export function expectedFromSums(
   const byRecords = new Float64Array(2 * M);
   const byOwn = new Float64Array(2 * O);
   for (let p = 0; p < P; p++) {
-    const { ids, values } = (sums[p] as PracticeSums).strata;
+    const { ids, values } = (sums[p] as Pick<PracticeSums, 'strata'>).strata;
     byRecords.fill(0);
     byOwn.fill(0);
     for (let j = 0; j < ids.length; j++) {

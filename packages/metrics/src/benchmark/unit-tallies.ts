@@ -15,7 +15,7 @@ export interface UnitTallies {
 
 export function unitTallies(
   layout: SumsLayout,
-  sums: readonly PracticeSums[],
+  sums: readonly Pick<PracticeSums, 'tallies' | 'records'>[],
   practiceLocality: Int32Array,
   localities: number,
 ): UnitTallies {
@@ -30,7 +30,7 @@ export function unitTallies(
     array[to] = (array[to] as number) + (array[from] as number);
   };
   for (let p = 0; p < P; p++) {
-    const s = sums[p] as PracticeSums;
+    const s = sums[p] as Pick<PracticeSums, 'tallies' | 'records'>;
     const t = s.tallies;
     for (let g = 0; g < 2; g++) {
       for (let m = 0; m < M; m++) {

@@ -5,7 +5,7 @@ import { record } from '../../test/records.js';
 import { arbitraryRecords } from '../../test/sums-reference.js';
 import { parseMeasureSet } from '../measures/schema.js';
 import { toColumns } from '../records/columns.js';
-import { addSums, mergeSums } from './merge-sums.js';
+import { addSums, mergeSums, replaceSums } from './merge-sums.js';
 import { type PracticeSums, SumsMismatchError } from './practice-sums.js';
 import { sumsOfColumns } from './sums-of-columns.js';
 
@@ -46,6 +46,36 @@ describe('mergeSums', () => {
       }),
       { numRuns: 40 },
     );
+  });
+
+  it('replaceSums: the total minus the practices that left plus those that joined (property)', () => {
+    fc.assert(
+      fc.property(
+        arbitraryRecords(7, { minLength: 1 }),
+        arbitraryRecords(4, { minLength: 1 }),
+        fc.array(fc.boolean(), { minLength: 7, maxLength: 7 }),
+        (records, joining, leaves) => {
+          const before = sumsOf(records);
+          const joined = sumsOf(joining.map((r) => ({ ...r, practiceCode: `J${r.practiceCode}` })));
+          const removed = before.filter((_, i) => leaves[i]);
+          const kept = before.filter((_, i) => !leaves[i]);
+          const replaced = replaceSums(mergeSums(before), removed, joined);
+          const now = [...kept, ...joined];
+          expect(replaced).toEqual(now.length === 0 ? null : mergeSums(now));
+          // Everyone leaving: nothing is left.
+          expect(replaceSums(mergeSums(before), before, [])).toBeNull();
+        },
+      ),
+      { numRuns: 60 },
+    );
+  });
+
+  it('replaceSums refuses to remove what the total does not hold', () => {
+    const [a, b] = sumsOf([record({ practiceCode: 'A' }), record({ practiceCode: 'B' })]) as [
+      PracticeSums,
+      PracticeSums,
+    ];
+    expect(() => replaceSums(a, [a, b], [])).toThrow(/not part of the total/);
   });
 
   it('refuses sums of other quarters or measure sets, and an empty list', () => {

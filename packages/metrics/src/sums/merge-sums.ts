@@ -118,6 +118,137 @@ export function mergeSums(list: readonly PracticeSums[]): PracticeSums {
   };
 }
 
+/**
+ * The sums of a group of practices after some left it and others joined: `total` minus each of
+ * `removed` plus each of `added` (a quarter's region after a confirm: the replaced submission's
+ * sums out, the new one's in). `removed` must be sums that `total` holds. The result equals
+ * `mergeSums` of the group's practices as they are now, object for object (strata that no
+ * record falls in any more are dropped, the life table ends at its last count, the count widths
+ * follow practice-sums.ts); null when no practice is left.
+ */
+export function replaceSums(
+  total: PracticeSums,
+  removed: readonly PracticeSums[],
+  added: readonly PracticeSums[],
+): PracticeSums | null {
+  const all = [total, ...removed, ...added];
+  all.forEach((s, i) => {
+    if (s.fingerprint !== total.fingerprint || s.measureSetId !== total.measureSetId) {
+      throw new SumsMismatchError(
+        `sums[${i}] were made under measure set ${s.measureSetId} (layout ${s.fingerprint}), ` +
+          `the total under ${total.measureSetId} (layout ${total.fingerprint})`,
+      );
+    }
+    if (s.quarter.year !== total.quarter.year || s.quarter.quarter !== total.quarter.quarter) {
+      throw new SumsMismatchError(
+        `sums[${i}] are for ${s.quarter.year} Q${s.quarter.quarter}, ` +
+          `the total for ${total.quarter.year} Q${total.quarter.quarter}`,
+      );
+    }
+    if (
+      s.cells.length !== total.cells.length ||
+      s.eligible.length !== total.eligible.length ||
+      s.values.length !== total.values.length ||
+      s.kidney.length !== total.kidney.length
+    ) {
+      throw new SumsMismatchError(`sums[${i}] do not have the layout of the total`);
+    }
+  });
+  const sign = (i: number): number => (i === 0 ? 1 : i <= removed.length ? -1 : 1);
+  let practices = 0;
+  let excluded = 0;
+  let insulinLength = 0;
+  let maxId = -1;
+  let width = 0;
+  const records = [0, 0, 0, 0];
+  all.forEach((s, i) => {
+    const f = sign(i);
+    practices += f * s.practices;
+    excluded += f * s.insulin.excluded;
+    for (let k = 0; k < 4; k++) records[k] = (records[k] as number) + f * (s.records[k] as number);
+    if (s.insulin.counts.length > insulinLength) insulinLength = s.insulin.counts.length;
+    const ids = s.strata.ids;
+    if (ids.length === 0) return;
+    const w = s.strata.values.length / ids.length;
+    if (width === 0) width = w;
+    if (w !== width || !Number.isInteger(w)) {
+      throw new SumsMismatchError(`sums[${i}] do not have the case-mix layout of the others`);
+    }
+    maxId = Math.max(maxId, ids[ids.length - 1] as number);
+  });
+  if (practices < 0 || records.some((r) => r < 0) || excluded < 0) {
+    throw new RangeError('replaceSums: the removed sums are not part of the total');
+  }
+  if (practices === 0) return null;
+  const add = (pick: (s: PracticeSums) => ArrayLike<number>, length: number): Float64Array => {
+    const acc = new Float64Array(length);
+    all.forEach((s, i) => {
+      const f = sign(i);
+      const a = pick(s);
+      for (let x = 0; x < a.length; x++) acc[x] = (acc[x] as number) + f * (a[x] as number);
+    });
+    for (let x = 0; x < length; x++) {
+      if ((acc[x] as number) < 0) {
+        throw new RangeError('replaceSums: the removed sums are not part of the total');
+      }
+    }
+    return acc;
+  };
+  const dense = new Float64Array((maxId + 1) * width);
+  all.forEach((s, i) => {
+    const f = sign(i);
+    const { ids, values } = s.strata;
+    for (let j = 0; j < ids.length; j++) {
+      const to = (ids[j] as number) * width;
+      const from = j * width;
+      for (let k = 0; k < width; k++) {
+        dense[to + k] = (dense[to + k] as number) + f * (values[from + k] as number);
+      }
+    }
+  });
+  // A stratum is present while a record falls in it (its first count, the records, above 0).
+  const idList: number[] = [];
+  for (let id = 0; id <= maxId; id++) if ((dense[id * width] as number) > 0) idList.push(id);
+  const strataValues = new Float64Array(idList.length * width);
+  idList.forEach((id, j) =>
+    strataValues.set(dense.subarray(id * width, (id + 1) * width), j * width),
+  );
+  // The life table up to its last count, in whole years (pairs), as practices' sums keep it.
+  const insulinAll = add((s) => s.insulin.counts, insulinLength);
+  let length = insulinLength;
+  while (length > 0 && insulinAll[length - 1] === 0) length--;
+  if (length % 2 === 1) length++;
+  const sums: Record<Section, Float64Array> = {
+    cells: add((s) => s.cells, total.cells.length),
+    eligible: add((s) => s.eligible, total.eligible.length),
+    strataValues,
+    insulin: insulinAll.subarray(0, length),
+    values: add((s) => s.values, total.values.length),
+    kidney: add((s) => s.kidney, total.kidney.length),
+  };
+  const lengths = {} as Record<Section, number>;
+  for (const section of SECTIONS) lengths[section] = sums[section].length;
+  const widths = sumsWidths(records[1] as number, fullestStratum(strataValues, width));
+  const a = allocateSums(lengths, idList.length, widths);
+  a.records.set(records);
+  a.ids.set(idList);
+  for (const section of SECTIONS) a[section].set(sums[section]);
+  return {
+    measureSetId: total.measureSetId,
+    fingerprint: total.fingerprint,
+    quarter: { year: total.quarter.year, quarter: total.quarter.quarter },
+    practices,
+    records: a.records,
+    cells: a.cells,
+    eligible: a.eligible,
+    strata: { ids: a.ids, values: a.strataValues },
+    insulin: { counts: a.insulin, excluded },
+    values: a.values,
+    kidney: a.kidney,
+    tallies: Uint32Array.from(add((s) => s.tallies, total.tallies.length)),
+  };
+}
+
 /** The sums of two practices (or groups of practices). */
 export function addSums(a: PracticeSums, b: PracticeSums): PracticeSums {
   return mergeSums([a, b]);

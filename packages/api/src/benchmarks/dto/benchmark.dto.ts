@@ -5,7 +5,8 @@
  */
 import { ApiProperty, ApiPropertyOptional } from '@nestjs/swagger';
 import { TYPE_SPLITS, type TypeSplit } from '@cairn/metrics';
-import { IsString, Matches, MaxLength, IsOptional } from 'class-validator';
+import { Type } from 'class-transformer';
+import { IsInt, IsOptional, IsString, Matches, Max, MaxLength, Min } from 'class-validator';
 import { MeasureDto } from '../../measure-sets/dto/measure-set.dto.js';
 import { PracticeDto } from '../../organisations/dto/practice.dto.js';
 import { QuarterDto } from '../../quarters/dto/quarter.dto.js';
@@ -29,6 +30,10 @@ export type BenchmarkState = (typeof BENCHMARK_STATES)[number];
 
 // ── queries ──
 
+/** Practices per page of the region benchmark, unless the reader asks for another size. */
+export const BENCHMARK_PAGE_SIZE = 100;
+export const BENCHMARK_PAGE_MAX = 1000;
+
 export class BenchmarkQueryDto extends SplitQueryDto {
   @ApiPropertyOptional({
     type: String,
@@ -42,6 +47,35 @@ export class BenchmarkQueryDto extends SplitQueryDto {
     message: 'locality must be a locality code (letters, digits, - or _)',
   })
   locality?: string;
+
+  @ApiPropertyOptional({
+    type: Number,
+    default: 1,
+    minimum: 1,
+    description: 'Which page of the practices (by code); the region’s figures come with every page',
+  })
+  @IsOptional()
+  @Type(() => Number)
+  @IsInt({ message: 'page must be a whole number from 1' })
+  @Min(1, { message: 'page must be a whole number from 1' })
+  @Max(100_000, { message: 'page must be at most 100000' })
+  page?: number;
+
+  @ApiPropertyOptional({
+    type: Number,
+    default: BENCHMARK_PAGE_SIZE,
+    minimum: 1,
+    maximum: BENCHMARK_PAGE_MAX,
+    description: 'Practices per page',
+  })
+  @IsOptional()
+  @Type(() => Number)
+  @IsInt({ message: `pageSize must be a whole number from 1 to ${BENCHMARK_PAGE_MAX}` })
+  @Min(1, { message: `pageSize must be a whole number from 1 to ${BENCHMARK_PAGE_MAX}` })
+  @Max(BENCHMARK_PAGE_MAX, {
+    message: `pageSize must be a whole number from 1 to ${BENCHMARK_PAGE_MAX}`,
+  })
+  pageSize?: number;
 }
 
 export class TrendQueryDto extends SplitQueryDto {
@@ -138,6 +172,17 @@ export class BenchmarkCoverageDto {
   missing!: PracticeDto[];
 }
 
+export class BenchmarkPageDto {
+  @ApiProperty({ type: Number, description: 'This page, from 1' }) page!: number;
+  @ApiProperty({ type: Number, description: 'Practices per page' }) pageSize!: number;
+  @ApiProperty({ type: Number, description: 'Pages in all (at least 1)' }) pages!: number;
+  @ApiProperty({
+    type: Number,
+    description: 'Practices with a current submission in all pages (of the locality when filtered)',
+  })
+  total!: number;
+}
+
 export class RegionBenchmarkDto {
   @ApiProperty({
     enum: BENCHMARK_STATES,
@@ -160,9 +205,11 @@ export class RegionBenchmarkDto {
   region!: RegionMeasureDto[];
   @ApiProperty({
     type: [BenchmarkPracticeDto],
-    description: 'Practices with a current submission, by code',
+    description: 'Practices with a current submission, by code: this page of them',
   })
   practices!: BenchmarkPracticeDto[];
+  @ApiProperty({ type: BenchmarkPageDto, description: 'Which page of the practices this is' })
+  page!: BenchmarkPageDto;
   @ApiProperty({ type: BenchmarkCoverageDto }) coverage!: BenchmarkCoverageDto;
   @ApiProperty({ type: String, description: 'The clinical caution to show with these figures' })
   caution!: string;

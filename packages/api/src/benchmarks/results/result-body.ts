@@ -9,15 +9,17 @@
  * (bit 0: the rest is gzip-compressed), then the payload: the length of the
  * description JSON (4 bytes, little-endian), the description JSON (UTF-8), the
  * length of the benchmark JSON (4 bytes), the benchmark JSON, and the region's
- * sums (the rest; none when the benchmark has no practice). The payload is
- * compressed when it is longer than COMPRESS_FROM bytes. Encoding is
- * deterministic: the same benchmark gives the same bytes.
+ * sums (the rest; none when the benchmark has no practice). Container 2 stores
+ * the payload as it is: a result is built again after every confirm, and at
+ * national size compressing it took longer than storing and reading twice the
+ * bytes (reading still accepts the gzip flag). Encoding is deterministic: the
+ * same benchmark gives the same bytes.
  *
  * `RESULT_FORMAT` (the table's `format_version`) combines the container's
  * version with the benchmark's and the sums' formats, so that a change of any
  * of them makes new rows instead of a new reading of old bytes.
  */
-import { gunzipSync, gzipSync } from 'node:zlib';
+import { gunzipSync } from 'node:zlib';
 import {
   type Benchmark,
   BENCHMARK_FORMAT,
@@ -29,10 +31,8 @@ import {
 } from '@cairn/metrics';
 
 const SIGNATURE = Buffer.from('CRBR', 'latin1');
-const CONTAINER_VERSION = 1;
+const CONTAINER_VERSION = 2;
 const GZIP = 1;
-/** Payloads longer than this are stored compressed. */
-export const COMPRESS_FROM = 64 * 1024;
 
 if (BENCHMARK_FORMAT >= 100 || SUMS_FORMAT_VERSION >= 100) {
   throw new Error('RESULT_FORMAT holds benchmark and sums formats below 100');
@@ -72,12 +72,7 @@ export function encodeResult(content: ResultContent): Buffer {
     lengthPrefixed(Buffer.from(JSON.stringify(content.benchmark), 'utf8')),
     content.regionSums ? Buffer.from(encodeSums(content.regionSums)) : Buffer.alloc(0),
   ]);
-  const compress = payload.length > COMPRESS_FROM;
-  return Buffer.concat([
-    SIGNATURE,
-    Buffer.from([CONTAINER_VERSION, compress ? GZIP : 0]),
-    compress ? gzipSync(payload, { level: 1 }) : payload,
-  ]);
+  return Buffer.concat([SIGNATURE, Buffer.from([CONTAINER_VERSION, 0]), payload]);
 }
 
 /** Reads a stored result; throws ResultBodyError (or the sums' SumsDecodeError) saying why. */

@@ -6,6 +6,7 @@
  */
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
+import { gzipSync } from 'node:zlib';
 import {
   buildBenchmark,
   createColumnBuilder,
@@ -17,13 +18,7 @@ import {
 import { findRepoRoot } from '../../config/load-config.js';
 import { decodeMeasureSet, MEASURE_SET_FOLDER } from '../../measure-sets/measure-sets.service.js';
 import { peerShown, regionCount, regionRate } from './peer-disclosure.js';
-import {
-  COMPRESS_FROM,
-  decodeResult,
-  encodeResult,
-  RESULT_FORMAT,
-  ResultBodyError,
-} from './result-body.js';
+import { decodeResult, encodeResult, RESULT_FORMAT, ResultBodyError } from './result-body.js';
 import { trendDto } from './views.js';
 
 describe('region figures on a practice’s page (disclosure applied)', () => {
@@ -138,18 +133,27 @@ describe('the stored form of a result', () => {
     expect(encodeSums(back.regionSums!)).toEqual(encodeSums(content.regionSums));
   });
 
-  it('compresses a large result, and reads it back the same', () => {
+  it('stores a large result as it is, and reads it back the same, compressed or not', () => {
     const content = contentOf(60);
     const body = encodeResult(content);
-    expect(JSON.stringify(content.benchmark).length).toBeGreaterThan(COMPRESS_FROM);
-    expect(body[5]).toBe(1);
+    expect(body[4]).toBe(2);
+    expect(body[5]).toBe(0);
     expect(decodeResult(body, layout).benchmark).toEqual(
+      JSON.parse(JSON.stringify(content.benchmark)),
+    );
+    // The same payload behind the gzip flag reads the same.
+    const zipped = Buffer.concat([
+      body.subarray(0, 5),
+      Buffer.from([1]),
+      gzipSync(body.subarray(6)),
+    ]);
+    expect(decodeResult(zipped, layout).benchmark).toEqual(
       JSON.parse(JSON.stringify(content.benchmark)),
     );
   });
 
   it('keeps the benchmark’s and the sums’ formats in its format number', () => {
-    expect(RESULT_FORMAT).toBe(10_101);
+    expect(RESULT_FORMAT).toBe(20_101);
   });
 
   it.each([
@@ -161,7 +165,7 @@ describe('the stored form of a result', () => {
     ],
     [
       'a truncated payload',
-      Buffer.from([0x43, 0x52, 0x42, 0x52, 1, 0, 200, 0, 0, 0, 1]),
+      Buffer.from([0x43, 0x52, 0x42, 0x52, 2, 0, 200, 0, 0, 0, 1]),
       /ends inside its description/,
     ],
   ])('refuses %s', (_what, bytes, message) => {

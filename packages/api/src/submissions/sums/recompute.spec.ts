@@ -10,6 +10,10 @@
  * - fill: every submission's sums missing at once, as after a measure-set change (`ofCurrent`
  *   reading them in one streamed read).
  *
+ * - rebuild after a confirm: a random sequence of confirms (practices joining, submissions
+ *   replaced), each new set's result rebuilt from the previous result's parts and the sums of
+ *   the submissions that left and joined (`rebuildContent`), equal to a build from scratch.
+ *
  * The rows reach the code as the connector hands them over (arrays of the submission id and the
  * text SUMS_SELECT asks MariaDB for, no type cast), from an in-memory stand-in for the repository's four reads and writes; the
  * database paths themselves are checked in test/benchmarks.e2e-spec.ts.
@@ -24,6 +28,13 @@ import { SubmissionSums, type SumsSubject } from './submission-sums.js';
 import { SUMS_COLUMNS } from './sums-rows.js';
 import { resultContent } from '../../benchmarks/benchmark-store.service.js';
 import { encodeResult } from '../../benchmarks/results/result-body.js';
+import {
+  partsOfBuild,
+  rebuildContent,
+  type ResultParts,
+  setChange,
+  type SetMember,
+} from '../../benchmarks/results/rebuild.js';
 
 const version = decodeMeasureSet(
   'cairn-default-2026.1.json',
@@ -204,6 +215,107 @@ describe('the incremental path and the full recompute from records', () => {
         );
       }),
       { numRuns: 60 },
+    );
+  });
+
+  it('rebuild each set after a confirm from the previous result, the bytes of a build from scratch', async () => {
+    const sequence = fc.record({
+      /** Practices' first submissions (null: the practice joins later, or never) */
+      initial: fc.array(
+        fc.option(fc.array(record, { minLength: 1, maxLength: 12 }), { nil: null }),
+        {
+          minLength: 1,
+          maxLength: 6,
+        },
+      ),
+      confirms: fc.array(
+        fc.record({ slot: fc.nat(), records: fc.array(record, { minLength: 1, maxLength: 12 }) }),
+        { minLength: 1, maxLength: 6 },
+      ),
+    });
+    await fc.assert(
+      fc.asyncProperty(sequence, async ({ initial, confirms }) => {
+        const slots = initial.length;
+        const practiceOf = (slot: number) => ({
+          code: `P${String(slot + 1).padStart(2, '0')}`,
+          localityCode: slot % 3 === 2 ? null : `L${slot % 3}`,
+        });
+        const rowsOf = new Map<number, Row[]>();
+        const stored: SumsRow[] = [];
+        const current = new Map<number, number>();
+        let nextId = 900;
+        /** A submission staged from these records and confirmed: its sums stored. */
+        const confirm = async (slot: number, records: (typeof initial)[number] & object) => {
+          const id = nextId++;
+          rowsOf.set(
+            id,
+            records.map((r) => sent(id, r)),
+          );
+          const atConfirm = new SubmissionSums(memoryRepository(rowsOf, []).repository);
+          stored.push(
+            await atConfirm.forConfirm(
+              { submissionId: id, practiceCode: practiceOf(slot).code, records: records.length },
+              version,
+              quarter,
+            ),
+          );
+          current.set(slot, id);
+        };
+        const members = (): (SetMember & SumsSubject)[] =>
+          [...current]
+            .sort((a, b) => a[0] - b[0])
+            .map(([slot, id]) => ({
+              submissionId: id,
+              practiceCode: practiceOf(slot).code,
+              records: 0,
+              practice: practiceOf(slot),
+            }));
+        /** Sums read back by another process (stored bytes, nothing in memory). */
+        const read = (subjects: SumsSubject[]) =>
+          new SubmissionSums(memoryRepository(rowsOf, [], stored).repository).ofCurrent(
+            subjects,
+            version,
+            quarter,
+          );
+        for (let slot = 0; slot < slots; slot++) {
+          const records = initial[slot];
+          if (records) await confirm(slot, records);
+        }
+        let parts: ResultParts | null = null;
+        if (current.size > 0) {
+          const now = members();
+          const sums = await read(now);
+          const content = resultContent(quarter, version, now, sums);
+          parts = partsOfBuild(quarter.id, version, now, sums, content.regionSums);
+        }
+        for (const step of confirms) {
+          const slot = step.slot % slots;
+          const replaced = current.get(slot) ?? null;
+          await confirm(slot, step.records);
+          const now = members();
+          const scratch = encodeResult(resultContent(quarter, version, now, await read(now)));
+          if (parts === null) {
+            const sums = await read(now);
+            const content = resultContent(quarter, version, now, sums);
+            parts = partsOfBuild(quarter.id, version, now, sums, content.regionSums);
+            continue;
+          }
+          const change = setChange(parts, now);
+          expect(change.left).toEqual(replaced === null ? [] : [replaced]);
+          expect(change.joined).toEqual([current.get(slot)]);
+          const changed = await read(
+            [...change.left, ...change.joined].map((id) => ({
+              submissionId: id,
+              practiceCode: practiceOf(slot).code,
+              records: 0,
+            })),
+          );
+          const rebuilt = rebuildContent(quarter, version, parts, now, changed);
+          expect(encodeResult(rebuilt.content).equals(scratch)).toBe(true);
+          parts = rebuilt.parts;
+        }
+      }),
+      { numRuns: 40 },
     );
   });
 });

@@ -2,13 +2,14 @@ import { fireEvent, screen, waitFor, within } from '@testing-library/react';
 import userEvent from '@testing-library/user-event';
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import { renderApp } from '../../../test/render';
-import type { Route } from '../../../test/route-stub';
+import { type Route, stubRoutes } from '../../../test/route-stub';
 import { stubSignedIn } from '../../../test/signed-in';
 import benchmark from '../../../test/fixtures/benchmark-q8.json';
 import funnel from '../../../test/fixtures/funnel-q8-hba1c.json';
 import ov102 from '../../../test/fixtures/results-ov102-priya.json';
 import trend from '../../../test/fixtures/trend-q8-hba1c.json';
 import type { Me, RegionBenchmark } from '../../lib/api/types';
+import { fetchRegionBenchmark } from './api/benchmark';
 import { neutraliseCell, sortRows, tableCsv, tableRows } from './components/table-rows';
 
 // Fixtures: answers of the API over the demo region (2026 Q3), trimmed to four practices
@@ -153,6 +154,52 @@ describe('Region benchmark page', () => {
 });
 
 describe('practices × measures rows', () => {
+  it('reads every page of the practices, all of one stored result', async () => {
+    const path = '/api/quarters/8/benchmark?split=all';
+    const paged = (from: number, to: number, page: number, resultId: number) => ({
+      ...data,
+      builtFrom: { ...data.builtFrom!, resultId },
+      practices: data.practices.slice(from, to),
+      page: { page, pageSize: 2, pages: 2, total: data.practices.length },
+    });
+    const { calls } = stubRoutes({
+      [`GET ${path}`]: { body: paged(0, 2, 1, 41) },
+      [`GET ${path}&page=2`]: { body: paged(2, 4, 2, 41) },
+    });
+    const all = await fetchRegionBenchmark(path);
+    expect(all.practices.map((p) => p.practice.code)).toEqual(['OV101', 'OV102', 'OV201', 'OV205']);
+    expect(all.page).toEqual({ page: 1, pageSize: 2, pages: 1, total: 4 });
+    expect(calls.map((c) => c.path)).toEqual([path, `${path}&page=2`]);
+    expect(tableRows(all).map((r) => r.practice.code)).toEqual(
+      tableRows(data).map((r) => r.practice.code),
+    );
+  });
+
+  it('reads the pages again when a confirm came in between them', async () => {
+    const path = '/api/quarters/8/benchmark?split=all';
+    let firstPages = 0;
+    const page = (from: number, to: number, n: number, resultId: number) => ({
+      ...data,
+      builtFrom: { ...data.builtFrom!, resultId },
+      practices: data.practices.slice(from, to),
+      page: { page: n, pageSize: 2, pages: 2, total: 4 },
+    });
+    vi.stubGlobal('fetch', async (input: string) => {
+      const url = String(input);
+      const body = url.endsWith('&page=2')
+        ? page(2, 4, 2, 42)
+        : page(0, 2, 1, firstPages++ === 0 ? 41 : 42);
+      return new Response(JSON.stringify(body), {
+        status: 200,
+        headers: { 'Content-Type': 'application/json' },
+      });
+    });
+    const all = await fetchRegionBenchmark(path);
+    expect(firstPages).toBe(2);
+    expect(all.builtFrom!.resultId).toBe(42);
+    expect(all.practices).toHaveLength(4);
+  });
+
   it('lists the missing practice as missing, last whatever the order', () => {
     const rows = tableRows(data);
     expect(rows.map((r) => r.practice.code)).toEqual(['OV101', 'OV102', 'OV201', 'OV205', 'OV303']);

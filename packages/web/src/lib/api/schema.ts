@@ -703,7 +703,7 @@ export interface paths {
     };
     /**
      * Every practice on every measure of an audit quarter, with the region’s statistics
-     * @description Read from the practices’ current submissions for the quarter; `builtFrom` says which set. Practices without a current submission are listed in `coverage.missing`, never counted as zero. 404 quarter-not-found, 404 locality-not-found; 400 for a bad split. Sent with an ETag; If-None-Match with it gives 304 while nothing it was built from has changed.
+     * @description Read from the practices’ current submissions for the quarter; `builtFrom` says which set. Practices come in pages (`page`, `pageSize`; `page` in the answer says how many there are), each page with the region’s statistics, the measures and the coverage; pages with the same `builtFrom.resultId` belong together. Practices without a current submission are listed in `coverage.missing`, never counted as zero. 404 quarter-not-found, 404 locality-not-found; 400 for a bad split, page or page size, or a page past the last. Sent with an ETag; If-None-Match with it gives 304 while nothing it was built from has changed.
      */
     get: operations['BenchmarkController_region'];
     put?: never;
@@ -2688,6 +2688,16 @@ export interface components {
       /** @description One per measure, in `measures` order */
       cells: components['schemas']['BenchmarkCellDto'][];
     };
+    BenchmarkPageDto: {
+      /** @description This page, from 1 */
+      page: number;
+      /** @description Practices per page */
+      pageSize: number;
+      /** @description Pages in all (at least 1) */
+      pages: number;
+      /** @description Practices with a current submission in all pages (of the locality when filtered) */
+      total: number;
+    };
     BenchmarkCoverageDto: {
       /** @description Active practices of the region (of the locality when filtered) */
       practices: number;
@@ -2713,8 +2723,10 @@ export interface components {
       measures: components['schemas']['MeasureDto'][];
       /** @description One per measure, in `measures` order */
       region: components['schemas']['RegionMeasureDto'][];
-      /** @description Practices with a current submission, by code */
+      /** @description Practices with a current submission, by code: this page of them */
       practices: components['schemas']['BenchmarkPracticeDto'][];
+      /** @description Which page of the practices this is */
+      page: components['schemas']['BenchmarkPageDto'];
       coverage: components['schemas']['BenchmarkCoverageDto'];
       /** @description The clinical caution to show with these figures */
       caution: string;
@@ -5459,6 +5471,10 @@ export interface operations {
         split?: components['schemas']['TypeSplit'];
         /** @description Only the practices of this locality (the region’s statistics stay the region’s) */
         locality?: string;
+        /** @description Which page of the practices (by code); the region’s figures come with every page */
+        page?: number;
+        /** @description Practices per page */
+        pageSize?: number;
       };
       header?: never;
       path: {
