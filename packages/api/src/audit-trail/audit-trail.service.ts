@@ -1,6 +1,7 @@
 import { HttpStatus, Inject, Injectable } from '@nestjs/common';
 import { InjectModel } from '@nestjs/sequelize';
 import { Op, QueryTypes, type Transaction, type WhereOptions } from 'sequelize';
+import { Sequelize } from 'sequelize-typescript';
 import { ProblemException } from '../common/problem.js';
 import { OrganisationsService } from '../organisations/organisations.service.js';
 import { PeopleNames } from '../users/people-names.js';
@@ -33,6 +34,8 @@ export class AuditTrailService {
     @InjectModel(AuditEvent) private readonly events: typeof AuditEvent,
     @Inject(OrganisationsService) private readonly organisations: OrganisationsService,
     @Inject(PeopleNames) private readonly people: PeopleNames,
+    // The app's own connection, not the model's (shared by every app made in one process).
+    @Inject(Sequelize) private readonly sequelize: Sequelize,
   ) {}
 
   /** Appends one event; pass the caller's transaction so the event commits with the change it records. */
@@ -130,7 +133,7 @@ export class AuditTrailService {
   }
 
   async actions(regionId: number): Promise<AuditActionDto[]> {
-    const rows = await this.events.sequelize!.query<{ action: string; count: number }>(
+    const rows = await this.sequelize.query<{ action: string; count: number }>(
       `SELECT action, COUNT(*) AS count FROM audit_events
         WHERE region_id = ? OR region_id IS NULL GROUP BY action ORDER BY action`,
       { replacements: [regionId], type: QueryTypes.SELECT },

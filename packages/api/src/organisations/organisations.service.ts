@@ -2,9 +2,10 @@
  * The owner of regions, localities and practices: every other module reads
  * them through this service (never through the models or raw SQL).
  */
-import { Injectable } from '@nestjs/common';
+import { Inject, Injectable } from '@nestjs/common';
 import { InjectModel } from '@nestjs/sequelize';
 import { Op, QueryTypes, type Transaction } from 'sequelize';
+import { Sequelize } from 'sequelize-typescript';
 import { selectRows } from '../database/raw-select.js';
 import { version } from '../version.js';
 import type { AboutDto } from './dto/about.dto.js';
@@ -52,6 +53,9 @@ export class OrganisationsService {
     @InjectModel(Region) private readonly regions: typeof Region,
     @InjectModel(Locality) private readonly localities: typeof Locality,
     @InjectModel(Practice) private readonly practices: typeof Practice,
+    // The app's own connection, not a model's: a model class is shared by every app made in
+    // one process (tests, the operator's commands), and points at the one made last.
+    @Inject(Sequelize) private readonly sequelize: Sequelize,
   ) {}
 
   /** The region this deployment serves (the first one; a national deployment will choose by user). */
@@ -102,7 +106,7 @@ export class OrganisationsService {
     if (!Number.isSafeInteger(id)) return null;
     // Read by the access guard on every practice route: one SELECT, no model instance.
     const [row] = await selectRows<{ id: number; region_id: number; code: string }>(
-      this.practices.sequelize!,
+      this.sequelize,
       'SELECT id, region_id, code FROM practices WHERE id = ?',
       [id],
     );
@@ -127,7 +131,7 @@ export class OrganisationsService {
   ): Promise<PracticeInfo[]> {
     if (options.ids && options.ids.length === 0) return [];
     // Plain rows, not model instances: a national region has thousands of practices.
-    const rows = await this.practices.sequelize!.query<{
+    const rows = await this.sequelize.query<{
       id: number;
       code: string;
       name: string;
@@ -164,7 +168,7 @@ export class OrganisationsService {
    */
   async regionFingerprint(regionId: number): Promise<string> {
     const [row] = await selectRows<{ fingerprint: string }>(
-      this.practices.sequelize!,
+      this.sequelize,
       `SELECT ${this.regionFingerprintSql('?')} AS fingerprint`,
       [regionId, regionId],
     );
