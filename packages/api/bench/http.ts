@@ -17,9 +17,10 @@
  * minute of the last renewal), the guards and one SELECT.
  */
 import { spawn } from 'node:child_process';
-import { existsSync, readFileSync } from 'node:fs';
+import { existsSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { request } from 'node:http';
 import type { Server } from 'node:http';
-import { loadavg } from 'node:os';
+import { loadavg, tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { QueryTypes } from 'sequelize';
@@ -53,6 +54,8 @@ export interface RouteFigures {
   errors: number;
   non2xx: number;
   latency: Latency;
+  /** The same response from a bare node:http server under the same load (routes that send bytes) */
+  floor?: { requests: number; errors: number; non2xx: number; latency: Latency; sentBytes: number };
 }
 
 /** The demo region in its own database: loaded now unless an earlier run left it complete. */
@@ -114,7 +117,6 @@ export async function measureRoutes(
       `/api/quarters/${ids!.quarter}/benchmark`,
       `/api/practices/${ids!.practice}/quarters/${ids!.quarter}/results`,
     ];
-    const bin = join(findRepoRoot(), 'node_modules', '.bin', 'autocannon');
     const out: RouteFigures[] = [];
     const bytes = new Map<string, number>();
     for (const route of routes) {
@@ -132,46 +134,19 @@ export async function measureRoutes(
           await new Promise((resolve) => setTimeout(resolve, 2000));
         }
       }
-      // Spawned, not spawnSync: this process serves the requests while autocannon runs.
-      const run = await new Promise<{ status: number | null; stdout: string; stderr: string }>(
-        (resolve, reject) => {
-          const child = spawn(bin, [
-            '-c',
-            String(CONNECTIONS),
-            '-d',
-            String(SECONDS),
-            '-j',
-            '-H',
-            `cookie=${cookie}`,
-            // As a browser asks: the stored answers are sent gzip-compressed as stored.
-            '-H',
-            'accept-encoding=gzip, deflate, br',
-            origin + route,
-          ]);
-          let stdout = '';
-          let stderr = '';
-          child.stdout.on('data', (chunk: Buffer) => (stdout += chunk.toString()));
-          child.stderr.on('data', (chunk: Buffer) => (stderr += chunk.toString()));
-          child.on('error', reject);
-          child.on('close', (status) => resolve({ status, stdout, stderr }));
-        },
-      );
-      if (run.status !== 0) throw new Error(`autocannon failed: ${run.stderr}`);
-      const result = JSON.parse(run.stdout) as {
-        requests: { total: number };
-        errors: number;
-        timeouts: number;
-        non2xx: number;
-        latency: Latency;
-      };
+      const result = await loadFor(origin + route, cookie);
+      // The floor of a route that sends bytes: the same response (status, headers and the
+      // gzip body exactly as sent) from a bare node:http server in a process of its own,
+      // under the same load. What the route costs beyond it is Cairn's; the floor itself is
+      // what sending those bytes to autocannon costs on this machine.
+      let floor: RouteFigures['floor'];
+      if (route !== REFERENCE_ROUTE) floor = await bareFloor(origin + route, cookie);
       out.push({
         route,
         reference: route === REFERENCE_ROUTE,
         bytes: bytes.get(route) ?? 0,
-        requests: result.requests.total,
-        errors: result.errors + result.timeouts,
-        non2xx: result.non2xx,
-        latency: result.latency,
+        ...result,
+        floor,
       });
     }
     return out;
@@ -179,6 +154,99 @@ export async function measureRoutes(
     idpServer.close();
     await app.close();
     await db.close();
+  }
+}
+
+type Load = Omit<RouteFigures, 'route' | 'reference' | 'bytes' | 'floor'>;
+
+/** autocannon in a child process (spawned, not spawnSync: this process serves meanwhile). */
+async function loadFor(url: string, cookie: string): Promise<Load> {
+  const bin = join(findRepoRoot(), 'node_modules', '.bin', 'autocannon');
+  const run = await new Promise<{ status: number | null; stdout: string; stderr: string }>(
+    (resolve, reject) => {
+      const child = spawn(bin, [
+        '-c',
+        String(CONNECTIONS),
+        '-d',
+        String(SECONDS),
+        '-j',
+        '-H',
+        `cookie=${cookie}`,
+        // As a browser asks: the stored answers are sent gzip-compressed as stored.
+        '-H',
+        'accept-encoding=gzip, deflate, br',
+        url,
+      ]);
+      let stdout = '';
+      let stderr = '';
+      child.stdout.on('data', (chunk: Buffer) => (stdout += chunk.toString()));
+      child.stderr.on('data', (chunk: Buffer) => (stderr += chunk.toString()));
+      child.on('error', reject);
+      child.on('close', (status) => resolve({ status, stdout, stderr }));
+    },
+  );
+  if (run.status !== 0) throw new Error(`autocannon failed: ${run.stderr}`);
+  const result = JSON.parse(run.stdout) as {
+    requests: { total: number };
+    errors: number;
+    timeouts: number;
+    non2xx: number;
+    latency: Latency;
+  };
+  return {
+    requests: result.requests.total,
+    errors: result.errors + result.timeouts,
+    non2xx: result.non2xx,
+    latency: result.latency,
+  };
+}
+
+/** The bare server: sends the body it is given with the headers it is given, to every request. */
+const BARE_SERVER = `
+const { createServer } = require('node:http');
+const { readFileSync } = require('node:fs');
+const [file, headersJson] = process.argv.slice(1);
+const body = readFileSync(file);
+const headers = JSON.parse(headersJson);
+const server = createServer((req, res) => { req.resume(); res.writeHead(200, headers); res.end(body); });
+server.listen(0, '127.0.0.1', () => console.log(server.address().port));
+`;
+
+/** The route's response as sent (gzip as stored), served bare, under the same load. */
+async function bareFloor(url: string, cookie: string): Promise<RouteFigures['floor']> {
+  const sent = await new Promise<{ headers: Record<string, string>; body: Buffer }>(
+    (resolve, reject) => {
+      request(url, { headers: { cookie, 'accept-encoding': 'gzip, deflate, br' } }, (res) => {
+        const chunks: Buffer[] = [];
+        res.on('data', (c: Buffer) => chunks.push(c));
+        res.on('end', () => {
+          const headers: Record<string, string> = {};
+          for (const name of ['content-type', 'content-encoding', 'etag', 'cache-control', 'vary'])
+            if (typeof res.headers[name] === 'string') headers[name] = res.headers[name];
+          const body = Buffer.concat(chunks);
+          headers['content-length'] = String(body.length);
+          resolve({ headers, body });
+        });
+        res.on('error', reject);
+      })
+        .on('error', reject)
+        .end();
+    },
+  );
+  const dir = mkdtempSync(join(tmpdir(), 'cairn-bare-'));
+  const file = join(dir, 'body');
+  writeFileSync(file, sent.body);
+  const child = spawn(process.execPath, ['-e', BARE_SERVER, file, JSON.stringify(sent.headers)]);
+  try {
+    const port = await new Promise<number>((resolve, reject) => {
+      child.stdout.once('data', (chunk: Buffer) => resolve(Number(chunk.toString().trim())));
+      child.once('error', reject);
+      child.once('exit', (code) => reject(new Error(`the bare server ended (${code})`)));
+    });
+    return { ...(await loadFor(`http://127.0.0.1:${port}/`, cookie)), sentBytes: sent.body.length };
+  } finally {
+    child.kill();
+    rmSync(dir, { recursive: true, force: true });
   }
 }
 
@@ -203,6 +271,11 @@ export async function runHttpBench(
         `p50 ${f.latency.p50} ms, p90 ${f.latency.p90} ms, p97.5 ${f.latency.p97_5} ms${f.reference ? '' : ' (target p95 ≤ 50 ms)'}, p99 ${f.latency.p99} ms, ` +
         `errors ${f.errors}, non-2xx ${f.non2xx}`,
     );
+    if (f.floor)
+      log(
+        `         the same ${Math.round(f.floor.sentBytes / 1024)} kB response as sent from a bare node:http server (floor, not judged): ` +
+          `${f.floor.requests} requests, p50 ${f.floor.latency.p50} ms, p97.5 ${f.floor.latency.p97_5} ms, p99 ${f.floor.latency.p99} ms`,
+      );
   }
   log(
     `  load average after: ${loadavg()
