@@ -83,29 +83,54 @@ export function mergeSums(list: readonly PracticeSums[]): PracticeSums {
   }
   const idList: number[] = [];
   for (let id = 0; id <= maxId; id++) if (present[id] === 1) idList.push(id);
-  const strataValues = new Float64Array(idList.length * width);
-  idList.forEach((id, j) =>
-    strataValues.set(dense.subarray(id * width, (id + 1) * width), j * width),
+  return packSums(
+    first,
+    practices,
+    records,
+    excluded,
+    { dense, width, ids: idList },
+    {
+      cells: add((s) => s.cells, first.cells.length),
+      eligible: add((s) => s.eligible, first.eligible.length),
+      insulin: add((s) => s.insulin.counts, insulinLength),
+      values: add((s) => s.values, first.values.length),
+      kidney: add((s) => s.kidney, first.kidney.length),
+      tallies: add((s) => s.tallies, first.tallies.length),
+    },
   );
-  const sums: Record<Section, Float64Array> = {
-    cells: add((s) => s.cells, first.cells.length),
-    eligible: add((s) => s.eligible, first.eligible.length),
-    strataValues,
-    insulin: add((s) => s.insulin.counts, insulinLength),
-    values: add((s) => s.values, first.values.length),
-    kidney: add((s) => s.kidney, first.kidney.length),
-  };
+}
+
+/** Summed counts of every section but the strata, as `packSums` takes them. */
+type SummedSections = Record<Exclude<Section, 'strataValues'> | 'tallies', Float64Array>;
+
+/**
+ * Sums packed into one allocation (practice-sums.ts' layout and count widths): the strata
+ * `ids` taken from their dense table (`width` counts per stratum id), every other section as
+ * summed. `like` gives the measure set, layout and quarter.
+ */
+function packSums(
+  like: PracticeSums,
+  practices: number,
+  records: number[],
+  excluded: number,
+  strata: { dense: Float64Array; width: number; ids: number[] },
+  summed: SummedSections,
+): PracticeSums {
+  const { dense, width, ids } = strata;
+  const strataValues = new Float64Array(ids.length * width);
+  ids.forEach((id, j) => strataValues.set(dense.subarray(id * width, (id + 1) * width), j * width));
+  const sums: Record<Section, Float64Array> = { ...summed, strataValues };
   const lengths = {} as Record<Section, number>;
   for (const section of SECTIONS) lengths[section] = sums[section].length;
   const widths = sumsWidths(records[1] as number, fullestStratum(strataValues, width));
-  const a = allocateSums(lengths, idList.length, widths);
+  const a = allocateSums(lengths, ids.length, widths);
   a.records.set(records);
-  a.ids.set(idList);
+  a.ids.set(ids);
   for (const section of SECTIONS) a[section].set(sums[section]);
   return {
-    measureSetId: first.measureSetId,
-    fingerprint: first.fingerprint,
-    quarter: { year: first.quarter.year, quarter: first.quarter.quarter },
+    measureSetId: like.measureSetId,
+    fingerprint: like.fingerprint,
+    quarter: { year: like.quarter.year, quarter: like.quarter.quarter },
     practices,
     records: a.records,
     cells: a.cells,
@@ -114,7 +139,7 @@ export function mergeSums(list: readonly PracticeSums[]): PracticeSums {
     insulin: { counts: a.insulin, excluded },
     values: a.values,
     kidney: a.kidney,
-    tallies: Uint32Array.from(add((s) => s.tallies, first.tallies.length)),
+    tallies: Uint32Array.from(summed.tallies),
   };
 }
 
@@ -209,44 +234,26 @@ export function replaceSums(
   // A stratum is present while a record falls in it (its first count, the records, above 0).
   const idList: number[] = [];
   for (let id = 0; id <= maxId; id++) if ((dense[id * width] as number) > 0) idList.push(id);
-  const strataValues = new Float64Array(idList.length * width);
-  idList.forEach((id, j) =>
-    strataValues.set(dense.subarray(id * width, (id + 1) * width), j * width),
-  );
   // The life table up to its last count, in whole years (pairs), as practices' sums keep it.
   const insulinAll = add((s) => s.insulin.counts, insulinLength);
   let length = insulinLength;
   while (length > 0 && insulinAll[length - 1] === 0) length--;
   if (length % 2 === 1) length++;
-  const sums: Record<Section, Float64Array> = {
-    cells: add((s) => s.cells, total.cells.length),
-    eligible: add((s) => s.eligible, total.eligible.length),
-    strataValues,
-    insulin: insulinAll.subarray(0, length),
-    values: add((s) => s.values, total.values.length),
-    kidney: add((s) => s.kidney, total.kidney.length),
-  };
-  const lengths = {} as Record<Section, number>;
-  for (const section of SECTIONS) lengths[section] = sums[section].length;
-  const widths = sumsWidths(records[1] as number, fullestStratum(strataValues, width));
-  const a = allocateSums(lengths, idList.length, widths);
-  a.records.set(records);
-  a.ids.set(idList);
-  for (const section of SECTIONS) a[section].set(sums[section]);
-  return {
-    measureSetId: total.measureSetId,
-    fingerprint: total.fingerprint,
-    quarter: { year: total.quarter.year, quarter: total.quarter.quarter },
+  return packSums(
+    total,
     practices,
-    records: a.records,
-    cells: a.cells,
-    eligible: a.eligible,
-    strata: { ids: a.ids, values: a.strataValues },
-    insulin: { counts: a.insulin, excluded },
-    values: a.values,
-    kidney: a.kidney,
-    tallies: Uint32Array.from(add((s) => s.tallies, total.tallies.length)),
-  };
+    records,
+    excluded,
+    { dense, width, ids: idList },
+    {
+      cells: add((s) => s.cells, total.cells.length),
+      eligible: add((s) => s.eligible, total.eligible.length),
+      insulin: insulinAll.subarray(0, length),
+      values: add((s) => s.values, total.values.length),
+      kidney: add((s) => s.kidney, total.kidney.length),
+      tallies: add((s) => s.tallies, total.tallies.length),
+    },
+  );
 }
 
 /** The sums of two practices (or groups of practices). */
