@@ -14,7 +14,9 @@
  * gzip, as a browser does. The reference, measured the same way in the same
  * run and not judged, is the quarter list: the smallest signed-in route, whose
  * time is the session's read (one SELECT with the person; no write within a
- * minute of the last renewal), the guards and one SELECT.
+ * minute of the last renewal), the guards and one SELECT. Each judged route's
+ * response, exactly as sent, is also served by a bare node:http server under the
+ * same load (the floor: what sending those bytes costs here; not judged).
  */
 import { spawn } from 'node:child_process';
 import { existsSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
