@@ -31,6 +31,7 @@ import { findRepoRoot, loadConfig, loadSecrets, resolvePath } from '../src/confi
 import { connect, createDatabase } from '../src/database/connect.js';
 import { migrateUp } from '../src/database/migrator.js';
 import { fromDist } from './app.js';
+import { autocannon, type LoadFigures } from './autocannon.js';
 import { httpSignIn } from './http-sign-in.js';
 
 const DATABASE = 'cairn_test_bench_demo';
@@ -38,26 +39,14 @@ const REFERENCE_ROUTE = '/api/quarters';
 const CONNECTIONS = 50;
 const SECONDS = 10;
 
-interface Latency {
-  p50: number;
-  p90: number;
-  p97_5: number;
-  p99: number;
-  max: number;
-}
-
-export interface RouteFigures {
+export interface RouteFigures extends LoadFigures {
   route: string;
   /** The reference route (not judged) */
   reference: boolean;
   /** Bytes of the JSON body (uncompressed) */
   bytes: number;
-  requests: number;
-  errors: number;
-  non2xx: number;
-  latency: Latency;
   /** The same response from a bare node:http server under the same load (routes that send bytes) */
-  floor?: { requests: number; errors: number; non2xx: number; latency: Latency; sentBytes: number };
+  floor?: LoadFigures & { sentBytes: number };
 }
 
 /** The demo region in its own database: loaded now unless an earlier run left it complete. */
@@ -159,49 +148,13 @@ export async function measureRoutes(
   }
 }
 
-type Load = Omit<RouteFigures, 'route' | 'reference' | 'bytes' | 'floor'>;
-
-/** autocannon in a child process (spawned, not spawnSync: this process serves meanwhile). */
-async function loadFor(url: string, cookie: string): Promise<Load> {
-  const bin = join(findRepoRoot(), 'node_modules', '.bin', 'autocannon');
-  const run = await new Promise<{ status: number | null; stdout: string; stderr: string }>(
-    (resolve, reject) => {
-      const child = spawn(bin, [
-        '-c',
-        String(CONNECTIONS),
-        '-d',
-        String(SECONDS),
-        '-j',
-        '-H',
-        `cookie=${cookie}`,
-        // As a browser asks: the stored answers are sent gzip-compressed as stored.
-        '-H',
-        'accept-encoding=gzip, deflate, br',
-        url,
-      ]);
-      let stdout = '';
-      let stderr = '';
-      child.stdout.on('data', (chunk: Buffer) => (stdout += chunk.toString()));
-      child.stderr.on('data', (chunk: Buffer) => (stderr += chunk.toString()));
-      child.on('error', reject);
-      child.on('close', (status) => resolve({ status, stdout, stderr }));
-    },
-  );
-  if (run.status !== 0) throw new Error(`autocannon failed: ${run.stderr}`);
-  const result = JSON.parse(run.stdout) as {
-    requests: { total: number };
-    errors: number;
-    timeouts: number;
-    non2xx: number;
-    latency: Latency;
-  };
-  return {
-    requests: result.requests.total,
-    errors: result.errors + result.timeouts,
-    non2xx: result.non2xx,
-    latency: result.latency,
-  };
-}
+/** The load of every route: as a browser asks, gzip accepted (the stored answers are sent as stored). */
+const loadFor = (url: string, cookie: string): Promise<LoadFigures> =>
+  autocannon(url, {
+    connections: CONNECTIONS,
+    seconds: SECONDS,
+    headers: { cookie, 'accept-encoding': 'gzip, deflate, br' },
+  });
 
 /** The bare server: sends the body it is given with the headers it is given, to every request. */
 const BARE_SERVER = `

@@ -15,7 +15,7 @@
  * The auditor is added to the national data's region once (an invented person). Exit code 1
  * when a target is missed.
  */
-import { spawn, spawnSync } from 'node:child_process';
+import { spawnSync } from 'node:child_process';
 import type { Server } from 'node:http';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
@@ -25,6 +25,7 @@ import { API_NODE_FLAGS } from '../src/node-flags.js';
 import type { CairnConfig } from '../src/config/config.schema.js';
 import { findRepoRoot, loadConfig, loadSecrets, resolvePath } from '../src/config/load-config.js';
 import { fromDist } from './app.js';
+import { autocannon } from './autocannon.js';
 import { httpSignIn } from './http-sign-in.js';
 import { ensureBenchData, VARIANTS } from './national-data.js';
 
@@ -57,13 +58,6 @@ const AUDITOR = {
 const median = (xs: number[]) => [...xs].sort((a, b) => a - b)[xs.length >> 1]!;
 const ms = (x: number) => `${Math.round(x)} ms`;
 
-interface Latency {
-  p50: number;
-  p90: number;
-  p97_5: number;
-  p99: number;
-}
-
 async function ensureAuditor(db: Sequelize, regionId: number): Promise<void> {
   const { insertUser, userIdByEmail } = await fromDist('users/command-line.js');
   await db.transaction(async (transaction) => {
@@ -83,40 +77,12 @@ async function ensureAuditor(db: Sequelize, regionId: number): Promise<void> {
 }
 
 async function load(url: string, cookie: string) {
-  const bin = join(findRepoRoot(), 'node_modules', '.bin', 'autocannon');
-  const run = await new Promise<{ status: number | null; stdout: string; stderr: string }>(
-    (resolve, reject) => {
-      const child = spawn(bin, [
-        '-c',
-        String(CONNECTIONS),
-        '-d',
-        String(SECONDS),
-        '-j',
-        '-H',
-        `cookie=${cookie}`,
-        url,
-      ]);
-      let stdout = '';
-      let stderr = '';
-      child.stdout.on('data', (chunk: Buffer) => (stdout += chunk.toString()));
-      child.stderr.on('data', (chunk: Buffer) => (stderr += chunk.toString()));
-      child.on('error', reject);
-      child.on('close', (status) => resolve({ status, stdout, stderr }));
-    },
-  );
-  if (run.status !== 0) throw new Error(`autocannon failed: ${run.stderr}`);
-  const r = JSON.parse(run.stdout) as {
-    requests: { total: number };
-    errors: number;
-    timeouts: number;
-    non2xx: number;
-    latency: Latency;
-  };
-  return {
-    requests: r.requests.total,
-    errors: r.errors + r.timeouts + r.non2xx,
-    latency: r.latency,
-  };
+  const r = await autocannon(url, {
+    connections: CONNECTIONS,
+    seconds: SECONDS,
+    headers: { cookie },
+  });
+  return { requests: r.requests, errors: r.errors + r.non2xx, latency: r.latency };
 }
 
 async function main(): Promise<number> {
