@@ -14,6 +14,7 @@ import { type AppModuleOptions, AppModule } from './app.module.js';
 import { installSessions } from './auth/session-store.js';
 import { createRootLogger, PinoNestLogger, requestLogger } from './common/logger.js';
 import { ProblemDetailsFilter } from './common/problem-details.filter.js';
+import { figuresAsSent } from './common/sent-figures.js';
 import type { CairnConfig } from './config/config.schema.js';
 import { loadConfig } from './config/load-config.js';
 import { describeApi } from './contract/openapi.js';
@@ -43,6 +44,8 @@ export function configureApp(app: INestApplication, config: CairnConfig, logger:
   const express = app as NestExpressApplication;
   express.set('trust proxy', config.server.trustProxy ? 1 : false);
   express.disable('x-powered-by');
+  // Every JSON response sends non-integer numbers to six significant figures (sent-figures.ts).
+  express.set('json replacer', figuresAsSent);
   express.useBodyParser('json', { limit: '1mb' });
   app.use(requestLogger(logger, config.logging.requests));
   app.use(

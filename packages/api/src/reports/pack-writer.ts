@@ -1,12 +1,14 @@
 /**
  * Writes a data pack's sheets with exceljs's streaming writer: each sheet's
  * header row frozen and filtered, numbers stored as numbers with the column's
- * format, every text neutralised (common/neutralise.ts) so that nothing
- * written can run as a formula, rows committed as they are made.
+ * format (non-integers to six significant figures, as the API sends them),
+ * every text neutralised (common/neutralise.ts) so that nothing written can
+ * run as a formula, rows committed as they are made.
  */
 import type { Writable } from 'node:stream';
 import ExcelJS from 'exceljs';
 import { neutralise } from '../common/neutralise.js';
+import { toSignificant } from '../common/sent-figures.js';
 
 export type PackValue = number | string | null;
 
@@ -80,7 +82,9 @@ function datedWriter(date: Date) {
   };
 }
 
-const cellValue = (v: PackValue): PackValue => (typeof v === 'string' ? neutralise(v) : v);
+/** Text neutralised; numbers to six significant figures, as every response sends them. */
+const cellValue = (v: PackValue): PackValue =>
+  typeof v === 'string' ? neutralise(v) : typeof v === 'number' ? toSignificant(v) : v;
 
 export async function writePack(
   sheets: readonly PackSheet[],

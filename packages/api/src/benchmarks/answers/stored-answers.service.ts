@@ -8,7 +8,8 @@
  *   1. this process's bytes of that key (a bounded memo: a key's bytes never
  *      change, so any process may keep them), else
  *   2. the stored row of that key (benchmark_answers: gzip of the JSON), else
- *   3. built once (concurrent requests of one key share the build), encoded,
+ *   3. built once (concurrent requests of one key share the build), encoded
+ *      (answer-encoding.ts: numbers to six significant figures, gzip),
  *      stored with INSERT IGNORE and served.
  *
  * Nothing a reader needs lives only here: another process finds the row or
@@ -18,15 +19,15 @@
  */
 import { createHash } from 'node:crypto';
 import { promisify } from 'node:util';
-import { gunzip, gzip } from 'node:zlib';
+import { gunzip } from 'node:zlib';
 import { Inject, Injectable, Logger } from '@nestjs/common';
+import { encodeAnswer } from './answer-encoding.js';
 import { BenchmarkAnswersRepository } from './benchmark-answers.repository.js';
 
-const gzipAsync = promisify(gzip);
 const gunzipAsync = promisify(gunzip);
 
 /** Change when a stored answer's bytes would change for the same inputs (a DTO change). */
-export const ANSWER_FORMAT = 2;
+export const ANSWER_FORMAT = 3;
 
 /** A finished response: its JSON bytes, plain and gzip, and its entity tag. */
 export interface StoredAnswer {
@@ -99,9 +100,8 @@ export class StoredAnswers {
       }
       if (plain) return this.remember({ key, etag: `"${key}"`, plain, gzip: stored });
     }
-    const plain = Buffer.from(JSON.stringify(await build()), 'utf8');
-    // Compressed on libuv's threads, not this one (a national answer is tens of megabytes).
-    const gzip = await gzipAsync(plain, { level: 1 });
+    // Numbers to six significant figures, then gzip (answer-encoding.ts).
+    const { plain, gzip } = await encodeAnswer(await build());
     try {
       await this.repository.insert({
         answerKey: key,
