@@ -8,7 +8,8 @@
  * refused confirm or a cancel; the region benchmark and a practice's results
  * are sent as the bytes stored in benchmark_answers, the same bytes from a
  * second API process on the same database (and from the stored row alone),
- * with an ETag and 304 for If-None-Match; an answer is never served once what
+ * with an ETag and 304 for If-None-Match; their brotli form, made after the
+ * first serve (by any process that finds none), to readers that accept it; an answer is never served once what
  * it was built from changed (a confirm, a renamed practice, a moved deadline);
  * results() (what publishing and digests call) returns the route's DTO; bad
  * input keeps its problem details and stores no answer.
@@ -16,12 +17,13 @@
 import { createHash } from 'node:crypto';
 import { get, type IncomingHttpHeaders, type Server } from 'node:http';
 import type { AddressInfo } from 'node:net';
-import { gunzipSync } from 'node:zlib';
+import { brotliDecompressSync, gunzipSync } from 'node:zlib';
 import type { NestExpressApplication } from '@nestjs/platform-express';
 import { QueryTypes } from 'sequelize';
 import request from 'supertest';
 import { createApp } from '../src/app.factory.js';
 import { systemActor } from '../src/auth/actor.js';
+import { StoredAnswers } from '../src/benchmarks/answers/stored-answers.service.js';
 import { PracticeResultsService } from '../src/benchmarks/practice-results.service.js';
 import { createRootLogger } from '../src/common/logger.js';
 import { arrange, type ExtractsWorld, uploadAndWait } from './extracts-fixtures/api.js';
@@ -205,6 +207,32 @@ describe('stored answers and the current set', () => {
       }
     });
 
+    it('sends the brotli form once made, to readers that accept it, and gzip to the others', async () => {
+      for (const [agent, path] of [
+        [regional, regionPath()],
+        [leadOne, resultsPath()],
+      ] as const) {
+        const first = await agent.get(path).expect(200);
+        const key = (first.headers.etag as string).slice(1, -1);
+        await t.app.get(StoredAnswers).brotliSettled();
+        const [stored] = await select<{ body: Buffer; body_br: Buffer | null }>(
+          'SELECT body, body_br FROM benchmark_answers WHERE answer_key = ?',
+          [key],
+        );
+        expect(stored!.body_br).not.toBeNull();
+        expect(brotliDecompressSync(stored!.body_br!).toString('utf8')).toBe(first.text);
+        expect(stored!.body_br!.length).toBeLessThan(stored!.body.length);
+        const br = await rawGet(path, agent.cookie, { 'Accept-Encoding': 'gzip, deflate, br' });
+        expect(br.status).toBe(200);
+        expect(br.headers['content-encoding']).toBe('br');
+        expect(br.headers.vary).toMatch(/Accept-Encoding/);
+        expect(br.body.equals(stored!.body_br!)).toBe(true);
+        const gzip = await rawGet(path, agent.cookie, { 'Accept-Encoding': 'gzip' });
+        expect(gzip.headers['content-encoding']).toBe('gzip');
+        expect(gzip.body.equals(stored!.body)).toBe(true);
+      }
+    });
+
     it('is never served once what it was built from changed', async () => {
       const before = await regional.get(regionPath()).expect(200);
       const beforeResults = await leadOne.get(resultsPath()).expect(200);
@@ -280,6 +308,23 @@ describe('stored answers and the current set', () => {
       expect(theirs[0]!.text).toBe(mine.text);
       expect(theirs[0]!.headers.etag).toBe(mine.headers.etag);
       expect(theirs[1]!.text).toBe(mineResults.text);
+      // A row without its brotli form: a process that finds it serves gzip and makes it.
+      await t.db.query('UPDATE benchmark_answers SET body_br = NULL', { type: QueryTypes.UPDATE });
+      const [gzipFirst, brLater] = await otherProcess(async (app) => {
+        const asBrowser = () =>
+          request(app.getHttpServer())
+            .get(regionPath())
+            .set('Cookie', regional.cookie)
+            .set('Accept-Encoding', 'gzip, deflate, br');
+        const before = await asBrowser();
+        await app.get(StoredAnswers).brotliSettled();
+        return [before, await asBrowser()];
+      });
+      expect(gzipFirst!.headers['content-encoding']).toBe('gzip');
+      expect(brLater!.headers['content-encoding']).toBe('br');
+      // (supertest expands either encoding)
+      expect(gzipFirst!.text).toBe(mine.text);
+      expect(brLater!.text).toBe(mine.text);
       // Without any stored answer, a fresh process builds the same bytes again.
       await t.db.query('DELETE FROM benchmark_answers', { type: QueryTypes.DELETE });
       const rebuilt = await otherProcess(async (app) =>

@@ -1,8 +1,9 @@
 /**
- * The one owner of `benchmark_answers` (migration 0302): finished responses
- * of the results routes, gzip of their JSON, keyed by the SHA-256 of what
- * each was built from. Rows never change; INSERT IGNORE keeps the first of
- * two identical builds.
+ * The one owner of `benchmark_answers` (migrations 0302–0304): finished
+ * responses of the results routes, gzip of their JSON (and its brotli form once
+ * made), keyed by the SHA-256 of what each was built from. Rows never change
+ * but for the brotli form, set once; INSERT IGNORE keeps the first of two
+ * identical builds.
  */
 import { Inject, Injectable } from '@nestjs/common';
 import { QueryTypes } from 'sequelize';
@@ -13,10 +14,17 @@ import { withRaw } from '../../database/bulk-load/raw-connection.js';
 export class BenchmarkAnswersRepository {
   constructor(@Inject(Sequelize) private readonly sequelize: Sequelize) {}
 
-  /** The stored gzip body of this answer key, if any (marked used, at most once an hour). */
-  async find(answerKey: string): Promise<Buffer | null> {
-    const [row] = await this.sequelize.query<{ body: Buffer; stale: number }>(
-      `SELECT body, (used_at IS NULL OR used_at < NOW(3) - INTERVAL 1 HOUR) AS stale
+  /**
+   * The stored gzip body of this answer key and its brotli form (null until made), if any
+   * (marked used, at most once an hour).
+   */
+  async find(answerKey: string): Promise<{ gzip: Buffer; brotli: Buffer | null } | null> {
+    const [row] = await this.sequelize.query<{
+      body: Buffer;
+      body_br: Buffer | null;
+      stale: number;
+    }>(
+      `SELECT body, body_br, (used_at IS NULL OR used_at < NOW(3) - INTERVAL 1 HOUR) AS stale
          FROM benchmark_answers WHERE answer_key = ?`,
       { replacements: [answerKey], type: QueryTypes.SELECT },
     );
@@ -29,7 +37,17 @@ export class BenchmarkAnswersRepository {
         })
         .catch(() => undefined);
     }
-    return row?.body ?? null;
+    return row ? { gzip: row.body, brotli: row.body_br ?? null } : null;
+  }
+
+  /** Stores the brotli form of an answer unless it has one already (the same bytes). */
+  async setBrotli(answerKey: string, brotli: Buffer): Promise<void> {
+    await withRaw(this.sequelize, (connection) =>
+      connection.batch(
+        'UPDATE benchmark_answers SET body_br = ? WHERE answer_key = ? AND body_br IS NULL',
+        [[brotli, answerKey]],
+      ),
+    );
   }
 
   /** The quarters that have stored answers. */

@@ -1,6 +1,7 @@
 /**
  * Sends a stored answer over HTTP: its ETag, 304 when the reader already has
- * it (If-None-Match), gzip as stored when the reader accepts it, plain JSON
+ * it (If-None-Match), brotli when the reader accepts it and the answer has its
+ * brotli form, else gzip as stored when the reader accepts it, plain JSON
  * otherwise. Private: the answers are per reader's access.
  */
 import type { Request, Response } from 'express';
@@ -23,7 +24,14 @@ export function sendAnswer(req: Request, res: Response, answer: StoredAnswer): v
     return;
   }
   res.setHeader('Content-Type', 'application/json; charset=utf-8');
-  if (/\bgzip\b/.test(req.headers['accept-encoding'] ?? '')) {
+  const accepts = req.headers['accept-encoding'] ?? '';
+  if (answer.brotli && /\bbr\b/.test(accepts)) {
+    res.setHeader('Content-Encoding', 'br');
+    res.setHeader('Content-Length', String(answer.brotli.length));
+    res.status(200).end(answer.brotli);
+    return;
+  }
+  if (/\bgzip\b/.test(accepts)) {
     res.setHeader('Content-Encoding', 'gzip');
     res.setHeader('Content-Length', String(answer.gzip.length));
     res.status(200).end(answer.gzip);

@@ -12,6 +12,11 @@
  *      (answer-encoding.ts: numbers to six significant figures, gzip),
  *      stored with INSERT IGNORE and served.
  *
+ * Once served, the answer's brotli form is made off the request's path (one at
+ * a time per process, answer-encoding.ts) and stored beside the gzip; readers
+ * that accept brotli get it from then on. A process that finds a row without
+ * it makes it too (the same bytes; the first stored is kept).
+ *
  * Nothing a reader needs lives only here: another process finds the row or
  * builds the same bytes. A key is never served for other inputs: any change of
  * them (a confirm, a renamed practice, a quarter's new deadline) is another key.
@@ -20,8 +25,8 @@
 import { createHash } from 'node:crypto';
 import { promisify } from 'node:util';
 import { gunzip } from 'node:zlib';
-import { Inject, Injectable, Logger } from '@nestjs/common';
-import { encodeAnswer } from './answer-encoding.js';
+import { type BeforeApplicationShutdown, Inject, Injectable, Logger } from '@nestjs/common';
+import { brotliOf, encodeAnswer } from './answer-encoding.js';
 import { BenchmarkAnswersRepository } from './benchmark-answers.repository.js';
 
 const gunzipAsync = promisify(gunzip);
@@ -29,7 +34,7 @@ const gunzipAsync = promisify(gunzip);
 /** Change when a stored answer's bytes would change for the same inputs (a DTO change). */
 export const ANSWER_FORMAT = 3;
 
-/** A finished response: its JSON bytes, plain and gzip, and its entity tag. */
+/** A finished response: its JSON bytes, plain, gzip and brotli once made, and its entity tag. */
 export interface StoredAnswer {
   /** SHA-256 (hex) of the answer key */
   key: string;
@@ -37,17 +42,22 @@ export interface StoredAnswer {
   etag: string;
   plain: Buffer;
   gzip: Buffer;
+  /** The brotli form, null until made (after the answer is first served) */
+  brotli: Buffer | null;
 }
 
 /** Bytes of answers (plain + gzip) kept in memory at most. */
 const MEMO_BYTES = 64 * 1024 * 1024;
 
 @Injectable()
-export class StoredAnswers {
+export class StoredAnswers implements BeforeApplicationShutdown {
   private readonly logger = new Logger('StoredAnswers');
   private readonly memo = new Map<string, StoredAnswer>();
   private memoBytes = 0;
   private readonly building = new Map<string, Promise<StoredAnswer>>();
+  /** Brotli forms being made or queued here, by key; made one at a time (the chain). */
+  private readonly compressing = new Set<string>();
+  private compressed: Promise<void> = Promise.resolve();
 
   constructor(
     @Inject(BenchmarkAnswersRepository) private readonly repository: BenchmarkAnswersRepository,
@@ -94,11 +104,21 @@ export class StoredAnswers {
     if (stored) {
       let plain: Buffer | null = null;
       try {
-        plain = await gunzipAsync(stored);
+        plain = await gunzipAsync(stored.gzip);
       } catch {
         // Damaged bytes: built again below (the row keeps them; INSERT IGNORE).
       }
-      if (plain) return this.remember({ key, etag: `"${key}"`, plain, gzip: stored });
+      if (plain) {
+        const found = this.remember({
+          key,
+          etag: `"${key}"`,
+          plain,
+          gzip: stored.gzip,
+          brotli: stored.brotli,
+        });
+        if (!found.brotli) this.makeBrotli(kind, quarterId, found);
+        return found;
+      }
     }
     // Numbers to six significant figures, then gzip (answer-encoding.ts).
     const { plain, gzip } = await encodeAnswer(await build());
@@ -117,11 +137,47 @@ export class StoredAnswers {
         `the ${kind} answer of quarter ${quarterId} (${gzip.length} bytes) was not stored: ${(error as Error).message}`,
       );
     }
-    return this.remember({ key, etag: `"${key}"`, plain, gzip });
+    const built = this.remember({ key, etag: `"${key}"`, plain, gzip, brotli: null });
+    this.makeBrotli(kind, quarterId, built);
+    return built;
+  }
+
+  /** Resolves when every brotli form queued so far is made and stored (or given up). */
+  brotliSettled(): Promise<void> {
+    return this.compressed;
+  }
+
+  async beforeApplicationShutdown(): Promise<void> {
+    await this.compressed;
+  }
+
+  /**
+   * Queues the answer's brotli form: made on libuv's threads after the answers queued before it,
+   * stored beside the gzip and set on the remembered answer. A failure leaves the gzip only.
+   */
+  private makeBrotli(kind: string, quarterId: number, answer: StoredAnswer): void {
+    if (this.compressing.has(answer.key)) return;
+    this.compressing.add(answer.key);
+    this.compressed = this.compressed.then(async () => {
+      try {
+        const brotli = await brotliOf(answer.plain);
+        if (!brotli) return;
+        await this.repository.setBrotli(answer.key, brotli);
+        answer.brotli = brotli;
+        if (this.memo.get(answer.key) === answer) this.memoBytes += brotli.length;
+      } catch (error) {
+        this.logger.warn(
+          `the brotli form of a ${kind} answer of quarter ${quarterId} was not stored: ${(error as Error).message}`,
+        );
+      } finally {
+        this.compressing.delete(answer.key);
+      }
+    });
   }
 
   private remember(answer: StoredAnswer): StoredAnswer {
-    const size = (a: StoredAnswer) => a.plain.length + a.gzip.length + 256;
+    const size = (a: StoredAnswer) =>
+      a.plain.length + a.gzip.length + (a.brotli?.length ?? 0) + 256;
     const old = this.memo.get(answer.key);
     if (old) this.memoBytes -= size(old);
     this.memo.delete(answer.key);
