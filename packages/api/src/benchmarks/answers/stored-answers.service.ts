@@ -26,7 +26,7 @@ const gzipAsync = promisify(gzip);
 const gunzipAsync = promisify(gunzip);
 
 /** Change when a stored answer's bytes would change for the same inputs (a DTO change). */
-export const ANSWER_FORMAT = 2;
+export const ANSWER_FORMAT = 3;
 
 /** A finished response: its JSON bytes, plain and gzip, and its entity tag. */
 export interface StoredAnswer {
