@@ -1,4 +1,13 @@
-import { Controller, Get, Inject, Param, ParseIntPipe, Req, Res } from '@nestjs/common';
+import {
+  applyDecorators,
+  Controller,
+  Get,
+  Inject,
+  Param,
+  ParseIntPipe,
+  Req,
+  Res,
+} from '@nestjs/common';
 import { ApiOkResponse, ApiOperation, ApiTags } from '@nestjs/swagger';
 import type { Request, Response } from 'express';
 import { type Actor, CurrentActor } from '../auth/actor.js';
@@ -8,6 +17,10 @@ import { PracticeResultsDetailDto, PracticeResultsDto } from './dto/practice-res
 import { PracticeResultsService } from './practice-results.service.js';
 import { sendAnswer } from './answers/send-answer.js';
 
+/** Who reads a practice's results and detail: its own leads, the regional lead, the auditor. */
+const PracticeReaders = () =>
+  applyDecorators(Roles('practice_lead', 'regional_lead', 'auditor'), PracticeScoped('practiceId'));
+
 /** One practice's results for an audit quarter: its leads, the regional lead, the auditor. */
 @ApiProblems()
 @ApiTags('practice results')
@@ -16,8 +29,7 @@ export class PracticeResultsController {
   constructor(@Inject(PracticeResultsService) private readonly results: PracticeResultsService) {}
 
   @Get('results')
-  @Roles('practice_lead', 'regional_lead', 'auditor')
-  @PracticeScoped('practiceId')
+  @PracticeReaders()
   @ApiOperation({
     summary: "A practice's results for an audit quarter, against the region, with its trend",
     description:
@@ -36,8 +48,7 @@ export class PracticeResultsController {
   }
 
   @Get('results/detail')
-  @Roles('practice_lead', 'regional_lead', 'auditor')
-  @PracticeScoped('practiceId')
+  @PracticeReaders()
   @ApiOperation({
     summary: "A practice's detail for an audit quarter, against the region",
     description:
