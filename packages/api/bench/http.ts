@@ -1,6 +1,7 @@
 /**
- * The results routes under load over loopback: the region benchmark and a
- * practice's results of the demo region's open quarter (2026 Q3), 50
+ * The results routes under load over loopback: the region benchmark, a
+ * practice's results and its detail (the tabs' figures, their own route) of
+ * the demo region's open quarter (2026 Q3), 50
  * concurrent connections for 10 s each, by autocannon in a child process of
  * its own (never in the API's process), against the production build (dist/)
  * listening on the test profile's server port, signed in as the regional lead
@@ -109,6 +110,7 @@ export async function measureRoutes(
       REFERENCE_ROUTE,
       `/api/quarters/${ids!.quarter}/benchmark`,
       `/api/practices/${ids!.practice}/quarters/${ids!.quarter}/results`,
+      `/api/practices/${ids!.practice}/quarters/${ids!.quarter}/results/detail`,
     ];
     const out: RouteFigures[] = [];
     const bytes = new Map<string, number>();

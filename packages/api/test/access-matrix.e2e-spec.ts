@@ -91,6 +91,15 @@ function observed(res: {
 const A = 'allowed';
 const U = '401 sign-in-required';
 const R = '403 role-not-allowed';
+/** A practice's own figures: its leads, the regional lead and the auditor; no other practice's lead. */
+const OWN_PRACTICE: Record<Caller, string> = {
+  anonymous: U,
+  'lead of practice': A,
+  'lead of another': '403 practice-not-yours',
+  'regional lead': A,
+  auditor: A,
+  deactivated: U,
+};
 const handWritten: Record<string, Record<Caller, string>> = {
   'GET /api/session': {
     anonymous: A,
@@ -216,14 +225,7 @@ const handWritten: Record<string, Record<Caller, string>> = {
   ...Object.fromEntries(
     ['recall-list', 'recall-list.csv', 'recall-list.xlsx'].map((path) => [
       `GET /api/practices/:practiceId/quarters/:quarterId/${path}`,
-      {
-        anonymous: U,
-        'lead of practice': A,
-        'lead of another': '403 practice-not-yours',
-        'regional lead': A,
-        auditor: A,
-        deactivated: U,
-      },
+      OWN_PRACTICE,
     ]),
   ),
   // Results and benchmarks: the region's figures for the regional lead and the auditor; a
@@ -245,14 +247,12 @@ const handWritten: Record<string, Record<Caller, string>> = {
       },
     ]),
   ),
-  'GET /api/practices/:practiceId/quarters/:quarterId/results': {
-    anonymous: U,
-    'lead of practice': A,
-    'lead of another': '403 practice-not-yours',
-    'regional lead': A,
-    auditor: A,
-    deactivated: U,
-  },
+  ...Object.fromEntries(
+    [
+      'GET /api/practices/:practiceId/quarters/:quarterId/results',
+      'GET /api/practices/:practiceId/quarters/:quarterId/results/detail',
+    ].map((route) => [route, OWN_PRACTICE]),
+  ),
   ...Object.fromEntries(
     [
       'GET /api/mail/deliveries',
@@ -384,17 +384,7 @@ const handWritten: Record<string, Record<Caller, string>> = {
       'GET /api/reports/:reportId/practices/:practiceId',
       'GET /api/reports/:reportId/practices/:practiceId/data-pack.xlsx',
       'GET /api/reports/:reportId/practices/:practiceId/report.pdf',
-    ].map((route) => [
-      route,
-      {
-        anonymous: U,
-        'lead of practice': A,
-        'lead of another': '403 practice-not-yours',
-        'regional lead': A,
-        auditor: A,
-        deactivated: U,
-      },
-    ]),
+    ].map((route) => [route, OWN_PRACTICE]),
   ),
   ...Object.fromEntries(
     ['POST /api/quarters/:quarterId/reports', 'POST /api/reports/:reportId/withdraw'].map(

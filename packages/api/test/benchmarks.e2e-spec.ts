@@ -373,16 +373,66 @@ describe('results and benchmarks', () => {
       // Peers are unnamed points; OV104's 30 records are shown, nothing names a practice.
       expect(JSON.stringify(all.peers)).not.toMatch(/OV\d/);
       expect(all.peers.n.length + all.peers.withheld).toBe(res.body.builtFrom.submissions - 1);
-      expect(res.body.detail.kidney.rows).toContain('G3a');
-      expect(res.body.detail.progression.ruleOfThumbYears).toBe(7);
+      // The detail is on its own route, not in the results.
+      expect(res.body).not.toHaveProperty('detail');
       expect(res.body.dataQuality.map((d: { code: string }) => d.code)).toEqual([
         'type1_not_on_insulin',
         'diagnostic_below_threshold',
       ]);
     });
 
-    it('suppresses small region counts for a practice lead, and not for the auditor', async () => {
+    it('gives its detail on its own route, built from the same stored result as its results', async () => {
       const path = `/api/practices/${w.practice('OV102')}/quarters/${q3}/results`;
+      const results = await leadOne.get(path).expect(200);
+      const res = await leadOne.get(`${path}/detail`).expect(200);
+      expect(res.body).toMatchObject({
+        state: 'results',
+        disclosure: 'applied',
+        practice: results.body.practice,
+        quarter: results.body.quarter,
+        builtFrom: results.body.builtFrom,
+        caution: results.body.caution,
+      });
+      expect(res.body.detail.kidney.rows).toContain('G3a');
+      expect(res.body.detail.progression.ruleOfThumbYears).toBe(7);
+      expect(res.body.detail.measures.map((m: { measure: string }) => m.measure)).toEqual(
+        results.body.measures.map((m: { measure: { key: string } }) => m.measure.key),
+      );
+      // The same figures as the practice's results: everyone of a split is its own n and events.
+      for (const m of results.body.measures as {
+        measure: { key: string };
+        splits: { split: string; own: { n: number; events: number } }[];
+      }[]) {
+        const detail = res.body.detail.measures.find(
+          (d: { measure: string }) => d.measure === m.measure.key,
+        );
+        for (const s of m.splits) {
+          const everyone = detail.splits.find((d: { split: string }) => d.split === s.split)
+            .everyone.practice;
+          expect([everyone.n, everyone.events]).toEqual([s.own.n, s.own.events]);
+        }
+      }
+    });
+
+    it('sends the detail with an ETag, and 304 to a reader who has it', async () => {
+      const path = `/api/practices/${w.practice('OV102')}/quarters/${q3}/results/detail`;
+      const first = await leadOne.get(path).expect(200);
+      const etag = first.headers.etag as string;
+      expect(etag).toMatch(/^"[0-9a-f]{64}"$/);
+      const again = await leadOne.get(path).set('If-None-Match', etag).expect(304);
+      expect(again.headers.etag).toBe(etag);
+      // Another reader's view (no disclosure control) is another answer.
+      const audit = await auditor.get(path).expect(200);
+      expect(audit.headers.etag).not.toBe(etag);
+      // The results answer is another answer too.
+      const results = await leadOne
+        .get(`/api/practices/${w.practice('OV102')}/quarters/${q3}/results`)
+        .expect(200);
+      expect(results.headers.etag).not.toBe(etag);
+    });
+
+    it('suppresses small region counts for a practice lead, and not for the auditor', async () => {
+      const path = `/api/practices/${w.practice('OV102')}/quarters/${q3}/results/detail`;
       const lead = await leadOne.get(path).expect(200);
       const audit = await auditor.get(path).expect(200);
       expect(audit.body.disclosure).toBe('none');
@@ -420,7 +470,6 @@ describe('results and benchmarks', () => {
       expect(lead.body).toMatchObject({
         state: 'no-current-submission',
         measures: [],
-        detail: null,
         builtFrom: null,
         actions: {
           upload: true,
@@ -430,6 +479,14 @@ describe('results and benchmarks', () => {
       expect(lead.body.message).toMatch(/no confirmed extract for 2026 Q3/);
       const audit = await auditor.get(path).expect(200);
       expect(audit.body.actions).toEqual({ upload: false, uploadPath: null });
+      const detail = await regional.get(`${path}/detail`).expect(200);
+      expect(detail.body).toMatchObject({
+        state: 'no-current-submission',
+        practice: { code: 'OV303' },
+        builtFrom: null,
+        detail: null,
+      });
+      expect(detail.body.caution).toBe(lead.body.caution);
     });
   });
 
@@ -466,6 +523,13 @@ describe('results and benchmarks', () => {
       [
         'an unknown quarter of a practice',
         () => `/api/practices/${w.practice('OV102')}/quarters/999999/results`,
+        404,
+        'quarter-not-found',
+        /999999/,
+      ],
+      [
+        'an unknown quarter of a practice’s detail',
+        () => `/api/practices/${w.practice('OV102')}/quarters/999999/results/detail`,
         404,
         'quarter-not-found',
         /999999/,
@@ -519,6 +583,7 @@ describe('results and benchmarks', () => {
       await leadTwo.get(`/api/practices/${w.practice('OV103')}/quarters/${q3}/results`).expect(200);
       for (const path of [
         `/api/practices/${practice}/quarters/${q3}/results`,
+        `/api/practices/${practice}/quarters/${q3}/results/detail`,
         `/api/practices/${practice}/quarters/${q3}/recall-list?measure=hba1c`,
         `/api/practices/${practice}/quarters/${q3}/recall-list.csv?measure=hba1c`,
         `/api/practices/${practice}/quarters/${q3}/recall-list.xlsx?measure=hba1c`,

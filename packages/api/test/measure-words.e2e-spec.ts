@@ -1,8 +1,8 @@
 /**
  * Every text of a measure that people read names measures by their labels, never by key: the
- * measure set, the region benchmark and its funnel, a practice's results and recall list, the
- * outlier list and drill-down, a published report (region and practice parts, data pack) and a
- * practice's digest. The shipped composite target's guideline is written with its parts' keys;
+ * measure set, the region benchmark and its funnel, a practice's results, detail and recall
+ * list, the outlier list and drill-down, a published report (region and practice parts, data
+ * pack) and a practice's digest. The shipped composite target's guideline is written with its parts' keys;
  * what is sent reads their labels.
  */
 import { gunzipSync } from 'node:zlib';
@@ -117,6 +117,7 @@ describe('measure texts', () => {
     ['a measure’s funnel', () => `/api/quarters/${q3}/benchmark/measures/targets_composite`],
     ['the region over time', () => `/api/quarters/${q3}/benchmark/trend?measure=targets_composite`],
     ['a practice’s results', () => `/api/practices/${ov102}/quarters/${q3}/results`],
+    ['a practice’s detail', () => `/api/practices/${ov102}/quarters/${q3}/results/detail`],
     [
       'a practice’s recall list',
       () => `/api/practices/${ov102}/quarters/${q3}/recall-list?measure=targets_composite`,

@@ -273,14 +273,18 @@ describe('stored answers and the current set', () => {
       );
     });
 
-    it('gives results() the route’s DTO', async () => {
+    it('gives results() the route’s DTO, and resultsWithDetail() the detail route’s detail with it', async () => {
       const route = await regional.get(resultsPath()).expect(200);
+      const detail = await regional.get(`${resultsPath()}/detail`).expect(200);
+      expect(detail.body.builtFrom).toEqual(route.body.builtFrom);
       const [region] = await select<{ id: number }>('SELECT id FROM regions');
-      const dto = await t.app
-        .get(PracticeResultsService)
-        .results(systemActor('publishing', region!.id), w.practice('OV102'), q3);
+      const service = t.app.get(PracticeResultsService);
+      const reader = systemActor('publishing', region!.id);
+      const dto = await service.results(reader, w.practice('OV102'), q3);
       expect(dto.builtFrom).toEqual(route.body.builtFrom);
       expect(dto.measures).toEqual(route.body.measures);
+      const both = await service.resultsWithDetail(reader, w.practice('OV102'), q3);
+      expect(both).toEqual({ ...dto, detail: detail.body.detail });
     });
 
     it('keeps problem details for bad input and stores no answer for it', async () => {
@@ -293,6 +297,10 @@ describe('stored answers and the current set', () => {
         .get(`/api/practices/${w.practice('OV102')}/quarters/999999/results`)
         .expect(404);
       expect(quarter.body.type).toMatch(/quarter-not-found$/);
+      const detail = await leadOne
+        .get(`/api/practices/${w.practice('OV102')}/quarters/999999/results/detail`)
+        .expect(404);
+      expect(detail.body.type).toMatch(/quarter-not-found$/);
       expect(await answerCount()).toBe(before);
     });
 

@@ -4,9 +4,10 @@
  * earlier quarter of the region (BenchmarkStore): its own figures on every
  * measure and split, the region's rate, median and limits at its n, its
  * flags, the change since the previous quarter, its trend with run-chart
- * signals, improvement potential, the breakdowns, kidney grid, time to
- * insulin and value histograms against the region (practiceDetail), and its
- * submission's data-quality flags.
+ * signals, improvement potential and its submission's data-quality flags;
+ * and, as a second answer of its own route, the breakdowns, kidney grid, time
+ * to insulin and value histograms against the region (practiceDetail), which
+ * the results page reads only on the tabs that show them.
  *
  * Other practices appear only as region aggregates and as unnamed points;
  * for a practice lead under disclosure control (results/peer-disclosure.ts,
@@ -14,7 +15,7 @@
  * state (`no-current-submission`) and the upload action the submission policy
  * gives the reader.
  */
-import { Inject, Injectable } from '@nestjs/common';
+import { HttpStatus, Inject, Injectable } from '@nestjs/common';
 import {
   benchmarkMeasure,
   benchmarkPractice,
@@ -26,6 +27,7 @@ import {
   TYPE_SPLITS,
 } from '@cairn/metrics';
 import type { Actor } from '../auth/actor.js';
+import { ProblemException } from '../common/problem.js';
 import { toMeasureDto } from '../measure-sets/measure-set-views.js';
 import { MeasureSetsService } from '../measure-sets/measure-sets.service.js';
 import {
@@ -47,7 +49,9 @@ import type {
   HistogramCountsDto,
   PracticeDetailDto,
   PracticeMeasureResultDto,
+  PracticeResultsDetailDto,
   PracticeResultsDto,
+  PracticeResultsWithDetailDto,
   PracticeSplitResultDto,
   SurvivalDto,
 } from './dto/practice-results.dto.js';
@@ -81,6 +85,20 @@ interface QuarterSeries {
 
 const figureKey = (measure: string, split: TypeSplit) => `${measure}/${split}`;
 
+/** What one practice's answer for a quarter is built from, as read for its key. */
+interface AnswerScope {
+  quarter: QuarterDto;
+  /** The quarters it reads: every one up to this (the results' trends), or this one alone */
+  quarters: readonly QuarterDto[];
+  sets: ReadonlyMap<number, CurrentSetRow | null>;
+  /** Disclosure control applies (a practice lead) */
+  applied: boolean;
+  /** The reader may upload an extract for this practice and quarter */
+  upload: boolean;
+}
+
+const parsed = <T>(answer: StoredAnswer): T => JSON.parse(answer.plain.toString('utf8')) as T;
+
 @Injectable()
 export class PracticeResultsService {
   constructor(
@@ -95,47 +113,116 @@ export class PracticeResultsService {
 
   /**
    * A practice's results for a quarter: the stored answer of the route (resultsAnswer), read
-   * back as the DTO. Publishing, digests and the outlier drill-down call this too.
+   * back as the DTO. Digests and the outlier drill-down call this too; a published report reads
+   * resultsWithDetail.
    */
   async results(actor: Actor, practiceId: number, quarterId: number): Promise<PracticeResultsDto> {
-    const answer = await this.resultsAnswer(actor, practiceId, quarterId);
-    return JSON.parse(answer.plain.toString('utf8')) as PracticeResultsDto;
+    return parsed<PracticeResultsDto>(await this.resultsAnswer(actor, practiceId, quarterId));
+  }
+
+  /** The practice's detail for a quarter: the stored answer of its route, read back as the DTO. */
+  async detail(
+    actor: Actor,
+    practiceId: number,
+    quarterId: number,
+  ): Promise<PracticeResultsDetailDto> {
+    return parsed<PracticeResultsDetailDto>(await this.detailAnswer(actor, practiceId, quarterId));
   }
 
   /**
-   * The route's finished response (StoredAnswers), keyed by the stored results of the quarter
-   * and of every earlier quarter of the region (its trends), the quarters as sent, the region's
-   * practices and localities as they are, the practice, what the reader may see and whether
-   * they may upload. Three small SELECTs when the answer is known; built once otherwise.
+   * A practice's results with their detail, both built from the same stored result (what a
+   * published report freezes). A confirm between the two reads gives parts of two results: they
+   * are read again; a 409 if they still differ.
+   */
+  async resultsWithDetail(
+    actor: Actor,
+    practiceId: number,
+    quarterId: number,
+  ): Promise<PracticeResultsWithDetailDto> {
+    for (let attempt = 0; ; attempt++) {
+      const results = await this.results(actor, practiceId, quarterId);
+      const detail = await this.detail(actor, practiceId, quarterId);
+      if ((results.builtFrom?.resultId ?? null) === (detail.builtFrom?.resultId ?? null)) {
+        return { ...results, detail: detail.detail };
+      }
+      if (attempt >= 2) {
+        throw new ProblemException(
+          HttpStatus.CONFLICT,
+          'results-changed',
+          'The results changed while they were read',
+          `An extract for ${results.quarter.label} was confirmed while ${results.practice.code}'s results were read, so its results and their detail came from different sets of submissions. Try again.`,
+        );
+      }
+    }
+  }
+
+  /**
+   * The results route's finished response (StoredAnswers), keyed by the stored results of the
+   * quarter and of every earlier quarter of the region (its trends), the quarters as sent, the
+   * region's practices and localities as they are, the practice, what the reader may see and
+   * whether they may upload. Three small SELECTs when the answer is known; built once otherwise.
    */
   async resultsAnswer(actor: Actor, practiceId: number, quarterId: number): Promise<StoredAnswer> {
-    // One SELECT: the region's quarters, their current sets and the region's fingerprint.
+    return this.answerOf('practice', actor, practiceId, quarterId, { trend: true }, (scope) =>
+      this.build(practiceId, scope),
+    );
+  }
+
+  /**
+   * The detail route's finished response, keyed the same way as resultsAnswer but by this
+   * quarter's stored result only (the detail has no trend) and without the upload action.
+   */
+  async detailAnswer(actor: Actor, practiceId: number, quarterId: number): Promise<StoredAnswer> {
+    return this.answerOf(
+      'practice-detail',
+      actor,
+      practiceId,
+      quarterId,
+      { trend: false },
+      (scope) => this.buildDetail(practiceId, scope),
+    );
+  }
+
+  /**
+   * A stored answer of one practice and quarter: what it is built from read in one SELECT
+   * (ResultInputs), its key made of all of it, built by `build` when not known yet.
+   */
+  private async answerOf(
+    kind: string,
+    actor: Actor,
+    practiceId: number,
+    quarterId: number,
+    { trend }: { trend: boolean },
+    build: (scope: AnswerScope) => Promise<unknown>,
+  ): Promise<StoredAnswer> {
     let inputs = await this.inputs.of(actor.regionId);
     // Unknown, or of another region: the same 404 as everywhere.
     const quarter = this.quarters.quarterAmong(inputs.quarters, quarterId);
-    const quarters = quartersUpTo(inputs.quarters, quarter);
+    const quarters = trend ? quartersUpTo(inputs.quarters, quarter) : [quarter];
     const applied = actor.role === 'practice_lead';
-    // The route is practice-scoped: the practice is of the reader's region.
-    const upload = mayWrite(actor, {
-      practiceId,
-      practiceRegionId: actor.regionId,
-      quarterStatus: quarter.status,
-    });
+    // The route is practice-scoped: the practice is of the reader's region. Only the results
+    // carry the upload action.
+    const upload =
+      trend &&
+      mayWrite(actor, {
+        practiceId,
+        practiceRegionId: actor.regionId,
+        quarterStatus: quarter.status,
+      });
     for (let attempt = 0; ; attempt++) {
       try {
         if (attempt > 0) inputs = await this.inputs.of(actor.regionId);
         const sets = await inputs.setsOf(quarters);
-        const organisation = inputs.fingerprint;
-        const key = StoredAnswers.keyOf('practice', [
+        const key = StoredAnswers.keyOf(kind, [
           String(practiceId),
           applied ? 'applied' : 'none',
           upload ? 'upload' : '',
           JSON.stringify(quarters),
           ...(await this.store.resultIdsOf(quarters, sets)),
-          organisation,
+          inputs.fingerprint,
         ]);
-        return await this.answers.answer('practice', quarter.id, key, async () =>
-          this.build(practiceId, quarter, quarters, sets, { applied, upload }),
+        return await this.answers.answer(kind, quarter.id, key, async () =>
+          build({ quarter, quarters, sets, applied, upload }),
         );
       } catch (error) {
         // The set changed while it was read (a confirm in between): read it again.
@@ -146,10 +233,7 @@ export class PracticeResultsService {
 
   private async build(
     practiceId: number,
-    quarter: QuarterDto,
-    quarters: readonly QuarterDto[],
-    sets: ReadonlyMap<number, CurrentSetRow | null>,
-    { applied, upload }: { applied: boolean; upload: boolean },
+    { quarter, quarters, sets, applied, upload }: AnswerScope,
   ): Promise<PracticeResultsDto> {
     const quarterId = quarter.id;
     const practice = (await this.organisations.practice(practiceId))!;
@@ -183,16 +267,12 @@ export class PracticeResultsService {
         records: null,
         quarters: [],
         measures: [],
-        detail: null,
         dataQuality: [],
       };
     }
     const facts = (await this.submissions.confirmedFacts([submissionId])).get(submissionId);
     const view = benchmarkPractice(result.benchmark, practice.code);
     const series = await this.series(quarters, results, practice);
-    const sums = await this.store.practiceSums(result, practice.code);
-    const detail =
-      sums && result.regionSums ? practiceDetail(sums, result.regionSums, version.compiled) : null;
     return {
       ...base,
       state: 'results',
@@ -209,8 +289,35 @@ export class PracticeResultsService {
         builtFrom: s.result ? builtFrom(s.result) : null,
       })),
       measures: this.measures(version.measures, view, result, series, practice, applied),
-      detail: detail ? this.detail(detail, applied) : null,
       dataQuality: facts?.dataQuality ?? [],
+    };
+  }
+
+  /** The detail answer: practiceDetail of this quarter's stored result, as the reader may see it. */
+  private async buildDetail(
+    practiceId: number,
+    { quarter, sets, applied }: AnswerScope,
+  ): Promise<PracticeResultsDetailDto> {
+    const practice = (await this.organisations.practice(practiceId))!;
+    const result = (await this.store.resultsWith([quarter], sets)).get(quarter.id) ?? null;
+    const base = {
+      practice: practiceDto(practice),
+      quarter,
+      disclosure: applied ? ('applied' as const) : ('none' as const),
+      caution: CLINICAL_CAUTION,
+    };
+    if (!result || !result.submissionOf.has(practice.code)) {
+      return { ...base, state: 'no-current-submission', builtFrom: null, detail: null };
+    }
+    const version = await this.measureSets.get(quarter.measureSetId);
+    const sums = await this.store.practiceSums(result, practice.code);
+    const detail =
+      sums && result.regionSums ? practiceDetail(sums, result.regionSums, version.compiled) : null;
+    return {
+      ...base,
+      state: 'results',
+      builtFrom: builtFrom(result),
+      detail: detail ? this.detailDto(detail, applied) : null,
     };
   }
 
@@ -323,7 +430,7 @@ export class PracticeResultsService {
   }
 
   /** practiceDetail with the region's figures as the reader may see them. */
-  private detail(d: PracticeDetail, applied: boolean): PracticeDetailDto {
+  private detailDto(d: PracticeDetail, applied: boolean): PracticeDetailDto {
     const count = (region: number, own: number): DisclosedCountDto =>
       regionCount(region, own, applied);
     const cellOf = (

@@ -8,7 +8,10 @@
  */
 import { discloseCount, discloseRate } from '@cairn/metrics';
 import type { MeasureDto } from '../measure-sets/dto/measure-set.dto.js';
-import type { PracticeResultsDto } from '../benchmarks/dto/practice-results.dto.js';
+import type {
+  PracticeResultsDto,
+  PracticeResultsWithDetailDto,
+} from '../benchmarks/dto/practice-results.dto.js';
 import type { DisclosedCellDto, PeerTableDto } from './dto/report.dto.js';
 import { DECIMAL, INTEGER, type PackSheet, type PackValue, PERCENT } from './pack-writer.js';
 import type { ReportRow } from './report.repository.js';
@@ -237,7 +240,7 @@ const PRACTICE_BREAKDOWN_COLUMNS = [
   { header: 'Region rate', width: 10, format: PERCENT },
 ];
 
-function* practiceBreakdownRows(detail: NonNullable<PracticeResultsDto['detail']>) {
+function* practiceBreakdownRows(detail: NonNullable<PracticeResultsWithDetailDto['detail']>) {
   for (const m of detail.measures) {
     const everyone = m.splits.find((s) => s.split === 'all');
     if (!everyone) continue;

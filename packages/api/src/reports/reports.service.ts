@@ -17,7 +17,7 @@ import type { Actor } from '../auth/actor.js';
 import { AuditTrailService } from '../audit-trail/audit-trail.service.js';
 import { BenchmarksService } from '../benchmarks/benchmarks.service.js';
 import type { RegionBenchmarkDto } from '../benchmarks/dto/benchmark.dto.js';
-import type { PracticeResultsDto } from '../benchmarks/dto/practice-results.dto.js';
+import type { PracticeResultsWithDetailDto } from '../benchmarks/dto/practice-results.dto.js';
 import { PracticeResultsService } from '../benchmarks/practice-results.service.js';
 import { PDF, XLSX } from '../common/file-response.js';
 import { ProblemException } from '../common/problem.js';
@@ -217,7 +217,7 @@ export class ReportsService {
       }));
     const part = async (p: (typeof all.practices)[number]): Promise<SnapshotPractice> => {
       const results = frozen(
-        await this.practiceResults.results(
+        await this.practiceResults.resultsWithDetail(
           practiceReader(actor, p.practice.id),
           p.practice.id,
           quarterId,
@@ -231,10 +231,12 @@ export class ReportsService {
       practices.push(...(await Promise.all(all.practices.slice(i, i + PARALLEL).map(part))));
     }
     const first = all.practices[0];
-    const regionDetail = first
-      ? (await this.practiceResults.results(actor, first.practice.id, quarterId)).detail
+    const region = first
+      ? await this.practiceResults.detail(actor, first.practice.id, quarterId)
       : null;
+    const regionDetail = region?.detail ?? null;
     const built = [
+      ...(region ? [region.builtFrom?.resultId] : []),
       ...splits.map((s) => s.builtFrom?.resultId),
       ...funnels.map((f) => f.builtFrom?.resultId),
       ...practices.map((p) => p.results.builtFrom?.resultId),
@@ -651,7 +653,7 @@ const notFound = (id: number) =>
  * kidney grid and value histogram in the split the report shows (everyone). The region's part
  * keeps all three splits of every practice's counts.
  */
-function frozen(results: PracticeResultsDto): PracticeResultsDto {
+function frozen(results: PracticeResultsWithDetailDto): PracticeResultsWithDetailDto {
   const everyone = <T extends { split: string }>(splits: T[]) =>
     splits.filter((s) => s.split === 'all');
   const detail = results.detail && {

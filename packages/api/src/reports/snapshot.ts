@@ -22,7 +22,7 @@ import type {
   MeasureFunnelDto,
   RegionBenchmarkDto,
 } from '../benchmarks/dto/benchmark.dto.js';
-import type { PracticeResultsDto } from '../benchmarks/dto/practice-results.dto.js';
+import type { PracticeResultsWithDetailDto } from '../benchmarks/dto/practice-results.dto.js';
 import type { PracticeDto } from '../organisations/dto/practice.dto.js';
 import type { QuarterDto } from '../quarters/dto/quarter.dto.js';
 import type { DisclosedCellDto, PeerTableDto } from './dto/report.dto.js';
@@ -48,7 +48,7 @@ export interface SnapshotPractice {
   practice: PracticeDto;
   submissionId: number;
   /** The practice's report as its own leads read it (region figures and peers under disclosure control) */
-  results: PracticeResultsDto;
+  results: PracticeResultsWithDetailDto;
   /** Format 1 only: each measure's peer table (format 2 makes them with `practicePeers`) */
   peers?: PeerTableDto[];
 }

@@ -1,10 +1,12 @@
 /**
  * One practice's results for an audit quarter: every measure and split with
  * its own figures, the region's rate, median and limits at its n, its flags,
- * change and trend, improvement potential, the breakdowns against the region,
- * the kidney grid, time to insulin, value histograms and data-quality flags.
- * Other practices appear only as region aggregates or as unnamed points;
- * for a practice lead both are under disclosure control (docs/methods.md §9).
+ * change and trend, improvement potential and data-quality flags
+ * (PracticeResultsDto); and, on their own route, its detail against the
+ * region: the breakdowns, the kidney grid, time to insulin and value
+ * histograms (PracticeResultsDetailDto). Other practices appear only as region
+ * aggregates or as unnamed points; for a practice lead both are under
+ * disclosure control (docs/methods.md §9).
  */
 import { ApiProperty } from '@nestjs/swagger';
 import { TYPE_SPLITS, type TypeSplit } from '@cairn/metrics';
@@ -344,11 +346,62 @@ export class PracticeResultsDto {
     description: 'Care processes first, then treatment targets',
   })
   measures!: PracticeMeasureResultDto[];
-  @ApiProperty({ type: PracticeDetailDto, nullable: true }) detail!: PracticeDetailDto | null;
   @ApiProperty({
     type: [DataQualityCountDto],
     description: 'Clinical data-quality flags of its current submission',
   })
   dataQuality!: DataQualityCountDto[];
   @ApiProperty({ type: String }) caution!: string;
+}
+
+/** The practice's detail against the region for an audit quarter (its own route). */
+export class PracticeResultsDetailDto {
+  @ApiProperty({
+    enum: PRACTICE_RESULTS_STATES,
+    enumName: 'PracticeResultsState',
+    description:
+      'no-current-submission: the practice has no confirmed extract for the quarter, so no detail',
+  })
+  state!: PracticeResultsState;
+  @ApiProperty({ type: PracticeDto, description: 'The practice the detail is of' })
+  practice!: PracticeDto;
+  @ApiProperty({ type: QuarterDto, description: 'The audit quarter the detail is of' })
+  quarter!: QuarterDto;
+  @ApiProperty({
+    type: BuiltFromDto,
+    nullable: true,
+    description:
+      'The stored result the detail was built from: the same resultId as the results it goes with; null without a current submission',
+  })
+  builtFrom!: BuiltFromDto | null;
+  @ApiProperty({
+    enum: PEER_DISCLOSURES,
+    enumName: 'PeerDisclosure',
+    description:
+      'applied: the region’s counts are under disclosure control (counts 1–4 as “< 5”, rates of fewer than 10 withheld); none: shown in full',
+  })
+  disclosure!: PeerDisclosure;
+  @ApiProperty({
+    type: PracticeDetailDto,
+    nullable: true,
+    description:
+      'Breakdowns, kidney grid, time to insulin and value histograms, the practice against the region; null without a current submission or without the sums to build it from',
+  })
+  detail!: PracticeDetailDto | null;
+  @ApiProperty({ type: String, description: 'The clinical caution to show with these figures' })
+  caution!: string;
+}
+
+/**
+ * A practice's results with their detail, as a published report freezes them: both built from
+ * the same stored result (PracticeResultsService.resultsWithDetail).
+ */
+export class PracticeResultsWithDetailDto extends PracticeResultsDto {
+  @ApiProperty({
+    type: PracticeDetailDto,
+    nullable: true,
+    description:
+      'Breakdowns, kidney grid, time to insulin and value histograms, the practice against the region',
+  })
+  detail!: PracticeDetailDto | null;
 }

@@ -7,7 +7,7 @@ import {
   MeasureFunnelDto,
   RegionBenchmarkDto,
 } from '../../benchmarks/dto/benchmark.dto.js';
-import { PracticeResultsDto } from '../../benchmarks/dto/practice-results.dto.js';
+import { PracticeResultsWithDetailDto } from '../../benchmarks/dto/practice-results.dto.js';
 import { PracticeDto } from '../../organisations/dto/practice.dto.js';
 
 export const REPORT_STATUSES = ['published', 'replaced', 'withdrawn'] as const;
@@ -197,12 +197,12 @@ export class ReportPracticeDto {
   @ApiProperty({ type: String, nullable: true, description: 'Why there are no results' })
   message!: string | null;
   @ApiProperty({
-    type: PracticeResultsDto,
+    type: PracticeResultsWithDetailDto,
     nullable: true,
     description:
       'As frozen: in full for the region’s readers, under disclosure control for practice leads',
   })
-  results!: PracticeResultsDto | null;
+  results!: PracticeResultsWithDetailDto | null;
   @ApiProperty({
     type: [PeerTableDto],
     description:

@@ -1,13 +1,15 @@
 import { render, screen } from '@testing-library/react';
 import { describe, expect, it } from 'vitest';
 import fixture from '../../../test/fixtures/results-ov102-priya.json';
-import type { PracticeResults } from '../../lib/api/types';
+import detailFixture from '../../../test/fixtures/detail-ov102-priya.json';
+import type { PracticeResults, PracticeResultsDetail } from '../../lib/api/types';
 import { inSentence } from './ChartOrTable';
 import { PeerStrip, peerStripText } from './PeerStrip';
 import { TrendChart, TrendChartTable, trendChartText } from './TrendChart';
 import { histogramRows, ValueHistogram, ValueHistogramTable } from './ValueHistogram';
 
 const ov102 = fixture as unknown as PracticeResults;
+const ov102Detail = detailFixture as unknown as PracticeResultsDetail;
 const hba1c = ov102.measures.find((m) => m.measure.key === 'hba1c')!;
 const all = hba1c.splits.find((s) => s.split === 'all')!;
 const lowOutlier = { band: 'outlier', side: 'below', assessment: 'worse' } as const;
@@ -48,7 +50,7 @@ describe('PeerStrip', () => {
 });
 
 describe('ValueHistogram', () => {
-  const values = ov102.detail!.values[0]!;
+  const values = ov102Detail.detail!.values[0]!;
   const counts = values.splits.find((s) => s.split === 'all')!;
   const props = {
     label: values.label,

@@ -7,10 +7,10 @@ import { stubSignedIn } from '../../../test/signed-in';
 import benchmark from '../../../test/fixtures/benchmark-q8.json';
 import funnel from '../../../test/fixtures/funnel-q8-hba1c.json';
 import ov102 from '../../../test/fixtures/results-ov102-priya.json';
+import ov102Detail from '../../../test/fixtures/detail-ov102-priya.json';
 import type {
   DisclosedCell,
   PeerTable,
-  PracticeResults,
   Report,
   ReportPractice,
   ReportRegion,
@@ -104,7 +104,8 @@ function part(r: Report): ReportPractice {
     practice: practice('OV102'),
     state: 'results',
     message: null,
-    results: ov102 as unknown as PracticeResults,
+    // As a report freezes them: the results with their detail.
+    results: { ...ov102, detail: ov102Detail.detail } as unknown as ReportPractice['results'],
     peers: [peers],
     caution: 'x',
   };

@@ -5,6 +5,7 @@ import { renderApp } from '../../../test/render';
 import { stubRoutes } from '../../../test/route-stub';
 import quarters from '../../../test/fixtures/quarters.json';
 import ov102 from '../../../test/fixtures/results-ov102-priya.json';
+import ov102Detail from '../../../test/fixtures/detail-ov102-priya.json';
 import ov303 from '../../../test/fixtures/results-ov303-none.json';
 import recall from '../../../test/fixtures/recall-ov102-hba1c.json';
 import type { Me } from '../../lib/api/types';
@@ -33,6 +34,7 @@ function stub(me: Me, extra: Record<string, { status?: number; body: unknown }> 
     'GET /api/session': { body: { user: me, csrfToken: 'tok' } },
     'GET /api/quarters': { body: quarters },
     'GET /api/practices/2/quarters/8/results': { body: ov102 },
+    'GET /api/practices/2/quarters/8/results/detail': { body: ov102Detail },
     'GET /api/practices/18/quarters/8/results': { body: ov303 },
     'GET /api/practices/2/quarters/8/recall-list?measure=hba1c&split=all&offset=0&limit=50': {
       body: recall,
@@ -40,6 +42,8 @@ function stub(me: Me, extra: Record<string, { status?: number; body: unknown }> 
     ...extra,
   });
 }
+
+const detailPath = '/api/practices/2/quarters/8/results/detail';
 
 // The first render loads the page's lazy chunk: allow it time.
 const slow = { timeout: 15_000 };
@@ -186,7 +190,7 @@ describe('Practice results', () => {
   it('shows each recorded value’s spread against the region, with a table alternative', async () => {
     stub(priya);
     renderApp('/practices/2/results?tab=values');
-    const first = ov102.detail!.values[0]!;
+    const first = ov102Detail.detail.values[0]!;
     await screen.findByRole('heading', { name: `${first.label} (${first.unit})` }, slow);
     expect(
       screen.getAllByRole('img', { name: new RegExp(`^${first.label}: share of recorded values`) })
@@ -238,5 +242,77 @@ describe('Practice results', () => {
     });
     renderApp('/results');
     await screen.findByRole('heading', { name: 'Wrenfield Health Centre (OV101)' }, slow);
+  });
+
+  describe('the detail (its own request)', () => {
+    it('is not read on the measures tab, and is read once a tab that shows it opens', async () => {
+      const { calls } = stub(priya);
+      renderApp('/practices/2/results');
+      await screen.findByRole('heading', { name: 'Care processes' }, slow);
+      await userEvent.click(screen.getByRole('tab', { name: 'Among peers' }));
+      await userEvent.click(screen.getByRole('tab', { name: /^Data quality/ }));
+      expect(calls.some((c) => c.path === detailPath)).toBe(false);
+      await userEvent.click(screen.getByRole('tab', { name: 'Kidney risk' }));
+      const grid = await screen.findByRole('table', {}, slow);
+      expect(within(grid).getByRole('rowheader', { name: 'G3a' })).toBeTruthy();
+      expect(calls.filter((c) => c.path === detailPath)).toHaveLength(1);
+      // Another tab of the detail shows the same answer.
+      await userEvent.click(screen.getByRole('tab', { name: 'Breakdowns' }));
+      await screen.findByRole('heading', { name: 'Age band' }, slow);
+      expect(calls.filter((c) => c.path === detailPath)).toHaveLength(1);
+    });
+
+    it('shows a loading state until the detail arrives', async () => {
+      const { fetchMock } = stub(priya);
+      const answer = fetchMock.getMockImplementation()!;
+      let release: () => void = () => undefined;
+      const held = new Promise<void>((resolve) => (release = resolve));
+      vi.stubGlobal('fetch', async (input: RequestInfo | URL, init?: RequestInit) => {
+        if (String(input).endsWith('/results/detail')) await held;
+        return answer(input, init);
+      });
+      renderApp('/practices/2/results?tab=insulin');
+      await screen.findByRole('progressbar', { name: "Reading the practice's detail" }, slow);
+      expect(screen.queryByText('Rule of thumb: about 7 years')).toBeNull();
+      release();
+      await screen.findByText('Rule of thumb: about 7 years', {}, slow);
+      expect(
+        screen.queryByRole('progressbar', { name: "Reading the practice's detail" }),
+      ).toBeNull();
+    });
+
+    it('shows the problem when the detail cannot be read, and the other tabs still work', async () => {
+      stub(priya, {
+        [`GET ${detailPath}`]: {
+          status: 503,
+          body: {
+            type: '/api/problems/database-unavailable',
+            title: 'The database is not answering',
+            status: 503,
+            detail: 'Try again in a minute.',
+          },
+        },
+      });
+      renderApp('/practices/2/results?tab=values');
+      await screen.findByText('Try again in a minute.', {}, slow);
+      await userEvent.click(screen.getByRole('tab', { name: 'Measures' }));
+      expect(screen.getByRole('row', { name: /HbA1c recorded/ })).toBeTruthy();
+    });
+
+    it('shows no figures of a detail built from another result than the page’s results', async () => {
+      const { calls } = stub(priya, {
+        [`GET ${detailPath}`]: {
+          body: { ...ov102Detail, builtFrom: { ...ov102Detail.builtFrom, resultId: 2 } },
+        },
+      });
+      renderApp('/practices/2/results?tab=kidney');
+      await screen.findByText('The results have changed', {}, slow);
+      expect(screen.queryByRole('rowheader', { name: 'G3a' })).toBeNull();
+      const before = calls.filter((c) => c.path === detailPath).length;
+      await userEvent.click(screen.getByRole('button', { name: 'Read the results again' }));
+      await waitFor(() =>
+        expect(calls.filter((c) => c.path === detailPath).length).toBeGreaterThan(before),
+      );
+    });
   });
 });

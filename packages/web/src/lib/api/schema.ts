@@ -763,9 +763,29 @@ export interface paths {
     };
     /**
      * A practice's results for an audit quarter, against the region, with its trend
-     * @description Every measure and split: its own figures, the region's rate, median and limits at its n, its flags, change since the previous quarter, trend with run-chart signals and improvement potential; breakdowns, kidney grid, time to insulin and value histograms against the region; data-quality flags. Other practices appear only as region aggregates and unnamed points, under disclosure control for practice leads. A practice without a current submission: state no-current-submission, with the upload action. Sent with an ETag; If-None-Match with it gives 304 while nothing it was built from has changed.
+     * @description Every measure and split: its own figures, the region's rate, median and limits at its n, its flags, change since the previous quarter, trend with run-chart signals and improvement potential; data-quality flags (the breakdowns, kidney grid, time to insulin and value histograms are on results/detail). Other practices appear only as region aggregates and unnamed points, under disclosure control for practice leads. A practice without a current submission: state no-current-submission, with the upload action. Sent with an ETag; If-None-Match with it gives 304 while nothing it was built from has changed.
      */
     get: operations['PracticeResultsController_get'];
+    put?: never;
+    post?: never;
+    delete?: never;
+    options?: never;
+    head?: never;
+    patch?: never;
+    trace?: never;
+  };
+  '/api/practices/{practiceId}/quarters/{quarterId}/results/detail': {
+    parameters: {
+      query?: never;
+      header?: never;
+      path?: never;
+      cookie?: never;
+    };
+    /**
+     * A practice's detail for an audit quarter, against the region
+     * @description Per measure and split, the practice's figures by breakdown category (age band, sex, deprivation, duration) beside the region's; the kidney grid (GFR × albuminuria categories); time from diagnosis to insulin (Kaplan–Meier) and value histograms, the practice against the region. The region's counts are under disclosure control for practice leads. builtFrom names the stored result it was built from, the same as the results it goes with. A practice without a current submission: state no-current-submission and no detail. Sent with an ETag; If-None-Match with it gives 304 while nothing it was built from has changed.
+     */
+    get: operations['PracticeResultsController_detail'];
     put?: never;
     post?: never;
     delete?: never;
@@ -2999,6 +3019,28 @@ export interface components {
       /** @description all; type 1; type 2 and other */
       splits: components['schemas']['PracticeSplitResultDto'][];
     };
+    PracticeResultsDto: {
+      /** @description no-current-submission: the practice has no confirmed extract for the quarter */
+      state: components['schemas']['PracticeResultsState'];
+      /** @description What the state means, in words */
+      message: string | null;
+      practice: components['schemas']['PracticeDto'];
+      quarter: components['schemas']['QuarterDto'];
+      measureSetId: string;
+      submission: components['schemas']['PracticeSubmissionRefDto'] | null;
+      builtFrom: components['schemas']['BuiltFromDto'] | null;
+      actions: components['schemas']['ResultsActionsDto'];
+      /** @description applied: region figures and peers are under disclosure control (counts 1–4 as “< 5”, rates of fewer than 10 withheld); none: the reader may see every practice */
+      disclosure: components['schemas']['PeerDisclosure'];
+      records: components['schemas']['RecordCountsDto'] | null;
+      /** @description Every quarter of the region up to this one, oldest first: the quarters of every trend below */
+      quarters: components['schemas']['SeriesQuarterDto'][];
+      /** @description Care processes first, then treatment targets */
+      measures: components['schemas']['PracticeMeasureResultDto'][];
+      /** @description Clinical data-quality flags of its current submission */
+      dataQuality: components['schemas']['DataQualityCountDto'][];
+      caution: string;
+    };
     DetailOwnCountsDto: {
       events: number;
       n: number;
@@ -3120,27 +3162,20 @@ export interface components {
       progression: components['schemas']['ProgressionDto'];
       values: components['schemas']['ValueHistogramDto'][];
     };
-    PracticeResultsDto: {
-      /** @description no-current-submission: the practice has no confirmed extract for the quarter */
+    PracticeResultsDetailDto: {
+      /** @description no-current-submission: the practice has no confirmed extract for the quarter, so no detail */
       state: components['schemas']['PracticeResultsState'];
-      /** @description What the state means, in words */
-      message: string | null;
+      /** @description The practice the detail is of */
       practice: components['schemas']['PracticeDto'];
+      /** @description The audit quarter the detail is of */
       quarter: components['schemas']['QuarterDto'];
-      measureSetId: string;
-      submission: components['schemas']['PracticeSubmissionRefDto'] | null;
+      /** @description The stored result the detail was built from: the same resultId as the results it goes with; null without a current submission */
       builtFrom: components['schemas']['BuiltFromDto'] | null;
-      actions: components['schemas']['ResultsActionsDto'];
-      /** @description applied: region figures and peers are under disclosure control (counts 1–4 as “< 5”, rates of fewer than 10 withheld); none: the reader may see every practice */
+      /** @description applied: the region’s counts are under disclosure control (counts 1–4 as “< 5”, rates of fewer than 10 withheld); none: shown in full */
       disclosure: components['schemas']['PeerDisclosure'];
-      records: components['schemas']['RecordCountsDto'] | null;
-      /** @description Every quarter of the region up to this one, oldest first: the quarters of every trend below */
-      quarters: components['schemas']['SeriesQuarterDto'][];
-      /** @description Care processes first, then treatment targets */
-      measures: components['schemas']['PracticeMeasureResultDto'][];
+      /** @description Breakdowns, kidney grid, time to insulin and value histograms, the practice against the region; null without a current submission or without the sums to build it from */
       detail: components['schemas']['PracticeDetailDto'] | null;
-      /** @description Clinical data-quality flags of its current submission */
-      dataQuality: components['schemas']['DataQualityCountDto'][];
+      /** @description The clinical caution to show with these figures */
       caution: string;
     };
     RecallSubmissionDto: {
@@ -3428,6 +3463,30 @@ export interface components {
     };
     /** @enum {string} */
     ReportPracticeState: 'results' | 'not-in-report';
+    PracticeResultsWithDetailDto: {
+      /** @description no-current-submission: the practice has no confirmed extract for the quarter */
+      state: components['schemas']['PracticeResultsState'];
+      /** @description What the state means, in words */
+      message: string | null;
+      practice: components['schemas']['PracticeDto'];
+      quarter: components['schemas']['QuarterDto'];
+      measureSetId: string;
+      submission: components['schemas']['PracticeSubmissionRefDto'] | null;
+      builtFrom: components['schemas']['BuiltFromDto'] | null;
+      actions: components['schemas']['ResultsActionsDto'];
+      /** @description applied: region figures and peers are under disclosure control (counts 1–4 as “< 5”, rates of fewer than 10 withheld); none: the reader may see every practice */
+      disclosure: components['schemas']['PeerDisclosure'];
+      records: components['schemas']['RecordCountsDto'] | null;
+      /** @description Every quarter of the region up to this one, oldest first: the quarters of every trend below */
+      quarters: components['schemas']['SeriesQuarterDto'][];
+      /** @description Care processes first, then treatment targets */
+      measures: components['schemas']['PracticeMeasureResultDto'][];
+      /** @description Clinical data-quality flags of its current submission */
+      dataQuality: components['schemas']['DataQualityCountDto'][];
+      caution: string;
+      /** @description Breakdowns, kidney grid, time to insulin and value histograms, the practice against the region */
+      detail: components['schemas']['PracticeDetailDto'] | null;
+    };
     ReportPracticeDto: {
       report: components['schemas']['ReportDto'];
       practice: components['schemas']['PracticeDto'];
@@ -3435,7 +3494,7 @@ export interface components {
       /** @description Why there are no results */
       message: string | null;
       /** @description As frozen: in full for the region’s readers, under disclosure control for practice leads */
-      results: components['schemas']['PracticeResultsDto'] | null;
+      results: components['schemas']['PracticeResultsWithDetailDto'] | null;
       /** @description Each measure: this practice in full, every other practice under disclosure control */
       peers: components['schemas']['PeerTableDto'][];
       caution: string;
@@ -5590,6 +5649,37 @@ export interface operations {
         };
         content: {
           'application/json': components['schemas']['PracticeResultsDto'];
+        };
+      };
+      /** @description RFC 9457 problem details */
+      default: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['ProblemDto'];
+        };
+      };
+    };
+  };
+  PracticeResultsController_detail: {
+    parameters: {
+      query?: never;
+      header?: never;
+      path: {
+        practiceId: number;
+        quarterId: number;
+      };
+      cookie?: never;
+    };
+    requestBody?: never;
+    responses: {
+      200: {
+        headers: {
+          [name: string]: unknown;
+        };
+        content: {
+          'application/json': components['schemas']['PracticeResultsDetailDto'];
         };
       };
       /** @description RFC 9457 problem details */

@@ -149,6 +149,7 @@ export type PracticeResults = Schemas['PracticeResultsDto'];
 export type PracticeMeasureResult = Schemas['PracticeMeasureResultDto'];
 export type PracticeSplitResult = Schemas['PracticeSplitResultDto'];
 export type PracticeDetail = Schemas['PracticeDetailDto'];
+export type PracticeResultsDetail = Schemas['PracticeResultsDetailDto'];
 export type DetailMeasure = Schemas['DetailMeasureDto'];
 export type DetailCell = Schemas['DetailCellDto'];
 export type DisclosedCount = Schemas['DisclosedCountDto'];

@@ -1,16 +1,25 @@
 /**
  * A practice's results for an audit quarter (GET
- * /api/practices/:practiceId/quarters/:quarterId/results), its recall list,
- * and the audit quarters to choose from.
+ * /api/practices/:practiceId/quarters/:quarterId/results), their detail (…/results/detail:
+ * read only while a tab that shows it is open), its recall list, and the audit quarters to
+ * choose from.
  */
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
 import { apiFetch } from '../../../lib/api-client';
-import type { PracticeResults, Quarter, RecallList, TypeSplit } from '../../../lib/api/types';
+import type {
+  PracticeResults,
+  PracticeResultsDetail,
+  Quarter,
+  RecallList,
+  TypeSplit,
+} from '../../../lib/api/types';
 
 export const resultsKeys = {
   quarters: () => ['results', 'quarters'] as const,
   results: (practiceId: number, quarterId: number) =>
     ['results', 'practice', practiceId, quarterId] as const,
+  detail: (practiceId: number, quarterId: number) =>
+    ['results', 'detail', practiceId, quarterId] as const,
   recall: (
     practiceId: number,
     quarterId: number,
@@ -43,6 +52,23 @@ export function usePracticeResults(practiceId: number | null, quarterId: number 
     ...practiceResultsQueryOptions(practiceId ?? 0, quarterId ?? 0),
     enabled: practiceId != null && quarterId != null,
   });
+}
+
+export const practiceDetailQueryOptions = (practiceId: number, quarterId: number) =>
+  queryOptions({
+    queryKey: resultsKeys.detail(practiceId, quarterId),
+    queryFn: () =>
+      apiFetch<PracticeResultsDetail>(
+        `/api/practices/${practiceId}/quarters/${quarterId}/results/detail`,
+      ),
+  });
+
+/**
+ * The practice's detail (breakdowns, kidney grid, time to insulin, value histograms): read
+ * only when `enabled`, i.e. while a tab that shows it is open.
+ */
+export function usePracticeDetail(practiceId: number, quarterId: number, enabled: boolean) {
+  return useQuery({ ...practiceDetailQueryOptions(practiceId, quarterId), enabled });
 }
 
 export const RECALL_PAGE = 50;

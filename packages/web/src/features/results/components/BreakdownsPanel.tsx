@@ -1,7 +1,7 @@
 import { FormGroup, H2, HTMLSelect, HTMLTable } from '@blueprintjs/core';
 import { useId, useState } from 'react';
 import { IntervalBar } from '../../../components/charts/IntervalBar';
-import type { PracticeResults, TypeSplit } from '../../../lib/api/types';
+import type { PracticeDetail, PracticeMeasureResult, TypeSplit } from '../../../lib/api/types';
 import { formatCount, formatPercent } from '../../../lib/format';
 
 /**
@@ -9,19 +9,20 @@ import { formatCount, formatPercent } from '../../../lib/format';
  * practice's rate and interval in each category beside the region's rate.
  */
 export function BreakdownsPanel({
-  results,
+  measures,
+  detail,
   split,
   asTables,
 }: {
-  results: PracticeResults;
+  /** The practice's measures (their labels and guidelines), as its results list them */
+  measures: PracticeMeasureResult[];
+  detail: PracticeDetail;
   split: TypeSplit;
   asTables: boolean;
 }) {
-  const detail = results.detail;
   const selectId = useId();
-  const [measureKey, setMeasureKey] = useState(results.measures[0]?.measure.key ?? '');
-  if (!detail) return null;
-  const measure = results.measures.find((m) => m.measure.key === measureKey)?.measure;
+  const [measureKey, setMeasureKey] = useState(measures[0]?.measure.key ?? '');
+  const measure = measures.find((m) => m.measure.key === measureKey)?.measure;
   const cells = detail.measures
     .find((m) => m.measure === measureKey)
     ?.splits.find((s) => s.split === split);
@@ -32,7 +33,7 @@ export function BreakdownsPanel({
           id={selectId}
           value={measureKey}
           onChange={(e) => setMeasureKey(e.currentTarget.value)}
-          options={results.measures.map((m) => ({ value: m.measure.key, label: m.measure.label }))}
+          options={measures.map((m) => ({ value: m.measure.key, label: m.measure.label }))}
         />
       </FormGroup>
       {measure ? <p className="cairn-muted cairn-small">Guideline: {measure.source}</p> : null}

@@ -1,7 +1,7 @@
 import { HTMLTable } from '@blueprintjs/core';
 import { ChartOrTable } from '../../../components/charts/ChartOrTable';
 import { SurvivalChart } from '../../../components/charts/SurvivalChart';
-import type { PracticeResults, Survival } from '../../../lib/api/types';
+import type { PracticeDetail, Survival } from '../../../lib/api/types';
 import { formatPercent } from '../../../lib/format';
 
 function medianWords(s: Survival): string {
@@ -9,10 +9,8 @@ function medianWords(s: Survival): string {
 }
 
 /** Type 2: time from diagnosis to insulin, the practice against the region. */
-export function InsulinPanel({ results }: { results: PracticeResults }) {
-  const progression = results.detail?.progression;
-  if (!progression) return null;
-  const { practice, region, ruleOfThumbYears } = progression;
+export function InsulinPanel({ detail }: { detail: PracticeDetail }) {
+  const { practice, region, ruleOfThumbYears } = detail.progression;
   const times = [
     ...new Set([...practice.steps.map((s) => s.time), ...region.steps.map((s) => s.time)]),
   ].sort((a, b) => a - b);

@@ -1,5 +1,5 @@
 import { HTMLTable } from '@blueprintjs/core';
-import type { PracticeResults, TypeSplit } from '../../../lib/api/types';
+import type { PracticeDetail, TypeSplit } from '../../../lib/api/types';
 import { formatCount } from '../../../lib/format';
 
 type Risk = 'low' | 'moderate' | 'high' | 'very-high';
@@ -40,10 +40,9 @@ export function kidneyRisk(row: string, column: string): Risk | null {
 }
 
 /** The practice's people by GFR × albuminuria category, with the region's counts. */
-export function KidneyPanel({ results, split }: { results: PracticeResults; split: TypeSplit }) {
-  const grid = results.detail?.kidney;
-  const rows = grid?.splits.find((s) => s.split === split)?.rows ?? [];
-  if (!grid) return null;
+export function KidneyPanel({ detail, split }: { detail: PracticeDetail; split: TypeSplit }) {
+  const grid = detail.kidney;
+  const rows = grid.splits.find((s) => s.split === split)?.rows ?? [];
   return (
     <div>
       <p>

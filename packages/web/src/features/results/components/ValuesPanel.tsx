@@ -6,7 +6,7 @@ import {
   ValueHistogramTable,
 } from '../../../components/charts/ValueHistogram';
 import { EmptyState } from '../../../components/Notice';
-import type { PracticeResults, TypeSplit } from '../../../lib/api/types';
+import type { PracticeResultsDetail, TypeSplit } from '../../../lib/api/types';
 
 /** The spread of each recorded value (HbA1c, blood pressure…), the practice against the region. */
 export function ValuesPanel({
@@ -14,7 +14,8 @@ export function ValuesPanel({
   split,
   asTables,
 }: {
-  results: PracticeResults;
+  /** The detail answer: the practice, the disclosure its region counts are under, the histograms */
+  results: PracticeResultsDetail;
   split: TypeSplit;
   asTables: boolean;
 }) {

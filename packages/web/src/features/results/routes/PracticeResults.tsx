@@ -1,4 +1,5 @@
 import {
+  Button,
   FormGroup,
   H1,
   HTMLSelect,
@@ -8,18 +9,30 @@ import {
   Tab,
   Tabs,
 } from '@blueprintjs/core';
-import { useId } from 'react';
+import { useQueryClient } from '@tanstack/react-query';
+import { type ReactNode, useId } from 'react';
 import { Link, Navigate, useNavigate, useParams, useSearchParams } from 'react-router-dom';
 import { FlagLegend } from '../../../components/charts/FlagMark';
 import { EmptyState, Notice } from '../../../components/Notice';
 import { ProblemCallout } from '../../../components/ProblemCallout';
 import { RequireRole } from '../../../components/RequireRole';
-import type { Me, PracticeResults as Results, Quarter, TypeSplit } from '../../../lib/api/types';
+import type {
+  Me,
+  PracticeResultsDetail,
+  PracticeResults as Results,
+  Quarter,
+  TypeSplit,
+} from '../../../lib/api/types';
 import { formatCount, formatDateTime } from '../../../lib/format';
 import { usePageTitle } from '../../../lib/page-title';
 import { useMe } from '../../../lib/session';
 import { practicesByCode } from '../../../lib/landing';
-import { usePracticeResults, useResultsQuarters } from '../api/results';
+import {
+  resultsKeys,
+  usePracticeDetail,
+  usePracticeResults,
+  useResultsQuarters,
+} from '../api/results';
 import { BreakdownsPanel } from '../components/BreakdownsPanel';
 import { InsulinPanel } from '../components/InsulinPanel';
 import { KidneyPanel } from '../components/KidneyPanel';
@@ -44,6 +57,8 @@ const tabs = [
   'recall',
 ] as const;
 type TabId = (typeof tabs)[number];
+/** The tabs that show the practice's detail: it is read only while one of them is open. */
+const detailTabs: ReadonlySet<TabId> = new Set(['values', 'breakdowns', 'kidney', 'insulin']);
 
 /** `/results`: a practice lead's own results (the first practice by code); others go to the benchmark. */
 export function MyResults() {
@@ -219,6 +234,10 @@ function ResultsBody({
   const processes = results.measures.filter((m) => m.measure.kind === 'care_process');
   const targets = results.measures.filter((m) => m.measure.kind === 'treatment_target');
   const quality = results.dataQuality.filter((f) => f.count > 0).length;
+  const detail = usePracticeDetail(results.practice.id, results.quarter.id, detailTabs.has(tab));
+  const withDetail = (panel: (detail: PracticeResultsDetail) => ReactNode) => (
+    <DetailPanel results={results} query={detail} panel={panel} />
+  );
   return (
     <>
       <Notice
@@ -296,19 +315,36 @@ function ResultsBody({
         <Tab
           id="values"
           title="Values"
-          panel={<ValuesPanel results={results} split={split} asTables={asTables} />}
+          panel={withDetail((d) => (
+            <ValuesPanel results={d} split={split} asTables={asTables} />
+          ))}
         />
         <Tab
           id="breakdowns"
           title="Breakdowns"
-          panel={<BreakdownsPanel results={results} split={split} asTables={asTables} />}
+          panel={withDetail((d) =>
+            d.detail ? (
+              <BreakdownsPanel
+                measures={results.measures}
+                detail={d.detail}
+                split={split}
+                asTables={asTables}
+              />
+            ) : null,
+          )}
         />
         <Tab
           id="kidney"
           title="Kidney risk"
-          panel={<KidneyPanel results={results} split={split} />}
+          panel={withDetail((d) =>
+            d.detail ? <KidneyPanel detail={d.detail} split={split} /> : null,
+          )}
         />
-        <Tab id="insulin" title="Time to insulin" panel={<InsulinPanel results={results} />} />
+        <Tab
+          id="insulin"
+          title="Time to insulin"
+          panel={withDetail((d) => (d.detail ? <InsulinPanel detail={d.detail} /> : null))}
+        />
         <Tab
           id="quality"
           title={`Data quality${quality > 0 ? ` (${quality})` : ''}`}
@@ -322,4 +358,55 @@ function ResultsBody({
       </Tabs>
     </>
   );
+}
+
+/**
+ * A tab that shows the practice's detail: read when the tab opens (its own request), shown once
+ * it is of the same stored result as the results on the page.
+ */
+function DetailPanel({
+  results,
+  query,
+  panel,
+}: {
+  results: Results;
+  query: ReturnType<typeof usePracticeDetail>;
+  panel: (detail: PracticeResultsDetail) => ReactNode;
+}) {
+  const queryClient = useQueryClient();
+  if (query.error) return <ProblemCallout error={query.error} />;
+  if (!query.data) {
+    return <Spinner size={24} aria-label="Reading the practice's detail" />;
+  }
+  const data = query.data;
+  if ((data.builtFrom?.resultId ?? null) !== (results.builtFrom?.resultId ?? null)) {
+    // A submission was confirmed between the two reads: the figures would not agree.
+    const again = () => {
+      void queryClient.invalidateQueries({
+        queryKey: resultsKeys.results(results.practice.id, results.quarter.id),
+      });
+      void queryClient.invalidateQueries({
+        queryKey: resultsKeys.detail(results.practice.id, results.quarter.id),
+      });
+    };
+    return (
+      <Notice icon="refresh" title="The results have changed">
+        <p>
+          An extract was confirmed since these results were read, so this tab&apos;s figures would
+          not match the rest of the page.
+        </p>
+        <Button text="Read the results again" onClick={again} />
+      </Notice>
+    );
+  }
+  if (!data.detail) {
+    return (
+      <EmptyState
+        icon="th-disconnect"
+        title="No detail for this quarter"
+        description="The breakdowns, kidney grid, time to insulin and value histograms could not be built for this practice's submission."
+      />
+    );
+  }
+  return panel(data);
 }
