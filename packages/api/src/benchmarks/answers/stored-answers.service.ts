@@ -32,7 +32,7 @@ import { BenchmarkAnswersRepository } from './benchmark-answers.repository.js';
 const gunzipAsync = promisify(gunzip);
 
 /** Change when a stored answer's bytes would change for the same inputs (a DTO change). */
-export const ANSWER_FORMAT = 3;
+export const ANSWER_FORMAT = 4;
 
 /** A finished response: its JSON bytes, plain, gzip and brotli once made, and its entity tag. */
 export interface StoredAnswer {
