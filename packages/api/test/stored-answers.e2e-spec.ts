@@ -316,7 +316,9 @@ describe('stored answers and the current set', () => {
       expect(theirs[0]!.text).toBe(mine.text);
       expect(theirs[0]!.headers.etag).toBe(mine.headers.etag);
       expect(theirs[1]!.text).toBe(mineResults.text);
-      // A row without its brotli form: a process that finds it serves gzip and makes it.
+      // A row without its brotli form: a process that finds it serves gzip and makes it. (This
+      // process's own brotli forms are made first, so that none lands after the UPDATE.)
+      await t.app.get(StoredAnswers).brotliSettled();
       await t.db.query('UPDATE benchmark_answers SET body_br = NULL', { type: QueryTypes.UPDATE });
       const [gzipFirst, brLater] = await otherProcess(async (app) => {
         const asBrowser = () =>
