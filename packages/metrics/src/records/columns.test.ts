@@ -122,6 +122,32 @@ describe('columnar form', () => {
     );
   });
 
+  it('builds, after reset, the same columns as a new builder, whatever it held before (property)', () => {
+    fc.assert(
+      fc.property(
+        fc.array(arbitraryRecord, { maxLength: 20 }),
+        fc.array(arbitraryRecord, { maxLength: 20 }),
+        fc.boolean(),
+        (before, records, keepRecordKeys) => {
+          const options = { capacity: 4, keepRecordKeys, practiceCodes: ['Z9'] };
+          const fresh = createColumnBuilder(options);
+          for (const r of records) fresh.append(r);
+          const reused = createColumnBuilder(options);
+          for (const r of before) reused.appendCoded(coded(r));
+          // A row refused half-way leaves values in the arrays; the next row overwrites them.
+          const late = { ...coded(record({})), smokingMonth: 24_300, smokingStatus: 0 };
+          expect(() => reused.appendCoded(late)).toThrow(/smokingStatus is required/);
+          const held = reused.finish();
+          const heldCopy = structuredClone(held);
+          reused.reset();
+          expect(held.practiceCodes).toEqual(heldCopy.practiceCodes);
+          for (const r of records) reused.append(r);
+          expect(reused.finish()).toEqual(fresh.finish());
+        },
+      ),
+    );
+  });
+
   it('refuses coded rows whose codes or month indices cannot be', () => {
     const row = coded(record({}));
     const b = createColumnBuilder();

@@ -164,8 +164,17 @@ export interface ColumnBuilder {
   appendFlat(row: FlatCareRecord): void;
   /** Appends a flat row already in codes (see `CodedCareRecord`). */
   appendCoded(row: CodedCareRecord): void;
-  /** The columns built so far, trimmed to length. The builder must not be used afterwards. */
+  /**
+   * The columns built so far, trimmed to length. The builder must not be used afterwards, but
+   * for `reset`.
+   */
   finish(): CareColumns;
+  /**
+   * Starts the builder again, empty, on the arrays it has (a stream evaluated a chunk at a time
+   * allocates them once). The columns an earlier `finish` returned may share those arrays: call
+   * it only once they are no longer read.
+   */
+  reset(): void;
 }
 
 const TYPE_CODE: Record<DiabetesType, number> = { type1: TYPE_1, type2: TYPE_2, other: TYPE_OTHER };
@@ -283,15 +292,18 @@ export function createColumnBuilder(options: ColumnBuilderOptions = {}): ColumnB
   let a = allocate(capacity);
   let length = 0;
   let finished = false;
-  const practiceCodes: string[] = [];
+  let practiceCodes: string[] = [];
   const practiceIndex = new Map<string, number>();
-  for (const code of options.practiceCodes ?? []) {
-    if (!practiceIndex.has(code)) {
-      practiceIndex.set(code, practiceCodes.length);
-      practiceCodes.push(code);
+  const indexGiven = () => {
+    for (const code of options.practiceCodes ?? []) {
+      if (!practiceIndex.has(code)) {
+        practiceIndex.set(code, practiceCodes.length);
+        practiceCodes.push(code);
+      }
     }
-  }
-  const recordKeys: string[] | null = options.keepRecordKeys ? [] : null;
+  };
+  indexGiven();
+  let recordKeys: string[] | null = options.keepRecordKeys ? [] : null;
 
   function slot(practiceCode: string, recordKey: string | null | undefined): number {
     if (finished) throw new Error('the column builder has finished');
@@ -557,6 +569,15 @@ export function createColumnBuilder(options: ColumnBuilderOptions = {}): ColumnB
         throw error;
       }
       length++;
+    },
+    reset(): void {
+      // Every append writes every column of its row, so the arrays need no clearing.
+      length = 0;
+      finished = false;
+      practiceCodes = [];
+      practiceIndex.clear();
+      indexGiven();
+      recordKeys = options.keepRecordKeys ? [] : null;
     },
     finish(): CareColumns {
       finished = true;

@@ -255,12 +255,14 @@ export class SubmissionSums {
     const evaluated = new Set<number>();
     /** Submissions whose rows came again after their chunk was evaluated */
     const again = new Set<number>();
-    let builder: ColumnBuilder | null = null;
-    let append: ((row: unknown[]) => void) | null = null;
+    // One builder for the whole read: after each chunk's sums it starts again on the same
+    // arrays (the sums are the chunk's own arrays, so nothing reads the columns afterwards).
+    const builder: ColumnBuilder = createColumnBuilder({ capacity: this.chunkRecords + 1024 });
+    const append = rowAppender(builder, practiceOf);
     let current = -1;
     let skipping = false;
     const evaluate = () => {
-      if (builder === null) return;
+      if (inChunk.length === 0) return;
       const byCode = sumsOfColumns(builder.finish(), layout, quarter);
       for (const id of inChunk) {
         const sums = byCode.get(codeOf.get(id)!);
@@ -269,8 +271,7 @@ export class SubmissionSums {
         out.set(id, sums);
         bytes.set(id, this.row(id, version, sums));
       }
-      builder = null;
-      append = null;
+      builder.reset();
       inChunk = [];
     };
     await this.repository.streamSumsRows({ quarterId }, (row) => {
@@ -284,15 +285,11 @@ export class SubmissionSums {
         }
         if (!inChunk.includes(id)) {
           // A new submission: the chunk is evaluated first when it is full.
-          if (builder !== null && builder.length >= this.chunkRecords) evaluate();
-          if (builder === null) {
-            builder = createColumnBuilder({ capacity: this.chunkRecords + 1024 });
-            append = rowAppender(builder, practiceOf);
-          }
+          if (builder.length >= this.chunkRecords) evaluate();
           inChunk.push(id);
         }
       } else if (skipping) return;
-      append!(row);
+      append(row);
     });
     evaluate();
     if (again.size > 0) {
