@@ -16,7 +16,7 @@ import { EmptyState } from '../../../components/Notice';
 import { ProblemCallout } from '../../../components/ProblemCallout';
 import { RequireRole } from '../../../components/RequireRole';
 import type { OutlierRow } from '../../../lib/api/types';
-import { formatPercent } from '../../../lib/format';
+import { formatDateTime, formatPercent } from '../../../lib/format';
 import { usePageTitle } from '../../../lib/page-title';
 import {
   type OutlierFilters,
@@ -141,7 +141,7 @@ function OutliersScreen() {
           <p className="cairn-muted">
             {data.practices} practices judged, read from the{' '}
             {data.basis?.origin === 'report' ? 'published report' : 'draft benchmark'} built{' '}
-            {data.basis ? new Date(data.basis.builtAt).toLocaleString('en-GB') : ''}.
+            {data.basis ? formatDateTime(data.basis.builtAt) : ''}.
           </p>
           <OutlierTable
             title={`Worse than expected (${worse.length})`}
