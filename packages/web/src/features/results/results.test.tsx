@@ -201,8 +201,8 @@ describe('Practice results', () => {
     expect(within(table).getByRole('rowheader', { name: 'Not recorded' })).toBeTruthy();
   });
 
-  it('lands a practice lead on their results after sign-in once there is a current submission', async () => {
-    stub(priya, {
+  it('lands a practice lead on their results after sign-in once there is a current submission, reading the quarter list once', async () => {
+    const { calls } = stub(priya, {
       'GET /api/practices/2/submissions': {
         body: {
           practice: priya.practices[0],
@@ -212,6 +212,9 @@ describe('Practice results', () => {
     });
     renderApp('/start');
     await screen.findByRole('heading', { name: 'Quarrybank Surgery (OV102)' }, slow);
+    await screen.findByRole('row', { name: /HbA1c recorded/ }, slow);
+    // The landing and the results page share one quarter list (lib/quarter-list.ts).
+    expect(calls.filter((c) => c.method === 'GET' && c.path === '/api/quarters')).toHaveLength(1);
   });
 
   it('lands a practice lead without a current submission on the home page', async () => {

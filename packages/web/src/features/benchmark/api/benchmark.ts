@@ -7,7 +7,6 @@ import { apiFetch } from '../../../lib/api-client';
 import type {
   BenchmarkTrend,
   MeasureFunnel,
-  Quarter,
   RegionBenchmark,
   TypeSplit,
 } from '../../../lib/api/types';
@@ -16,7 +15,6 @@ import { funnelPath, regionBenchmarkPath, takeEarly } from './early';
 export { funnelPath, regionBenchmarkPath };
 
 export const benchmarkKeys = {
-  quarters: () => ['benchmark', 'quarters'] as const,
   region: (quarterId: number, split: TypeSplit, locality: string) =>
     ['benchmark', 'region', quarterId, split, locality] as const,
   funnel: (quarterId: number, measure: string, split: TypeSplit) =>
@@ -25,16 +23,8 @@ export const benchmarkKeys = {
     ['benchmark', 'trend', quarterId, measure, split] as const,
 };
 
-export const benchmarkQuartersQueryOptions = () =>
-  queryOptions({
-    queryKey: benchmarkKeys.quarters(),
-    queryFn: () => apiFetch<Quarter[]>('/api/quarters'),
-    staleTime: 5 * 60_000,
-  });
-
-export function useBenchmarkQuarters() {
-  return useQuery(benchmarkQuartersQueryOptions());
-}
+/** The region's audit quarters (the one shared quarter list, lib/quarter-list.ts). */
+export { useQuarterList as useBenchmarkQuarters } from '../../../lib/quarter-list';
 
 /**
  * Every page of a region benchmark, as one: the first page (handed over by the route loader

@@ -9,7 +9,6 @@ import type {
   ExtractFormat,
   IssuePage,
   IssueSort,
-  Quarter,
   RowIssueSeverity,
   Submission,
   SubmissionHistory,
@@ -30,7 +29,6 @@ export interface IssueFilters {
 // ── keys and queries ──
 
 export const extractsKeys = {
-  quarters: () => ['quarters'] as const,
   format: () => ['extracts', 'format'] as const,
   /** Where the signed-in person may send extracts (changes with quarters and memberships) */
   uploadOptions: () => ['extracts', 'upload-options'] as const,
@@ -56,16 +54,8 @@ export const downloadLinks = (practiceId: number, submissionId: number) => ({
 export const TEMPLATE_XLSX = '/api/extracts/template.xlsx';
 export const TEMPLATE_CSV = '/api/extracts/template.csv';
 
-export const quartersQueryOptions = () =>
-  queryOptions({
-    queryKey: extractsKeys.quarters(),
-    queryFn: () => apiFetch<Quarter[]>('/api/quarters'),
-    staleTime: 5 * 60_000,
-  });
-
-export function useQuarters() {
-  return useQuery(quartersQueryOptions());
-}
+/** The region's audit quarters (the one shared quarter list, lib/quarter-list.ts). */
+export { useQuarterList as useQuarters } from '../../../lib/quarter-list';
 
 export const extractFormatQueryOptions = () =>
   queryOptions({

@@ -6,13 +6,7 @@
  */
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { apiFetch, apiJson } from '../../../lib/api-client';
-import type {
-  Quarter,
-  Report,
-  ReportList,
-  ReportPractice,
-  ReportRegion,
-} from '../../../lib/api/types';
+import type { Report, ReportList, ReportPractice, ReportRegion } from '../../../lib/api/types';
 
 export const reportKeys = {
   all: ['reports'] as const,
@@ -62,12 +56,7 @@ export function useReportPractice(id: number, practiceId: number | null) {
 }
 
 /** The region's audit quarters (for choosing which to publish). */
-export function useQuarterChoices() {
-  return useQuery({
-    queryKey: ['reports', 'quarters'],
-    queryFn: () => apiFetch<Quarter[]>('/api/quarters'),
-  });
-}
+export { useQuarterList as useQuarterChoices } from '../../../lib/quarter-list';
 
 async function refresh(client: ReturnType<typeof useQueryClient>) {
   for (const key of [reportKeys.all, ['quarter-overview'], ['measure-sets'], ['audit-events']]) {

@@ -9,13 +9,11 @@ import { apiFetch } from '../../../lib/api-client';
 import type {
   PracticeResults,
   PracticeResultsDetail,
-  Quarter,
   RecallList,
   TypeSplit,
 } from '../../../lib/api/types';
 
 export const resultsKeys = {
-  quarters: () => ['results', 'quarters'] as const,
   results: (practiceId: number, quarterId: number) =>
     ['results', 'practice', practiceId, quarterId] as const,
   detail: (practiceId: number, quarterId: number) =>
@@ -29,16 +27,8 @@ export const resultsKeys = {
   ) => ['results', 'recall', practiceId, quarterId, measure, split, offset] as const,
 };
 
-export const resultsQuartersQueryOptions = () =>
-  queryOptions({
-    queryKey: resultsKeys.quarters(),
-    queryFn: () => apiFetch<Quarter[]>('/api/quarters'),
-    staleTime: 5 * 60_000,
-  });
-
-export function useResultsQuarters() {
-  return useQuery(resultsQuartersQueryOptions());
-}
+/** The region's audit quarters (the one shared quarter list, lib/quarter-list.ts). */
+export { useQuarterList as useResultsQuarters } from '../../../lib/quarter-list';
 
 export const practiceResultsQueryOptions = (practiceId: number, quarterId: number) =>
   queryOptions({

@@ -5,6 +5,7 @@
  */
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { apiFetch, apiJson } from '../../../lib/api-client';
+import { quarterListQueryOptions } from '../../../lib/quarter-list';
 import type {
   CaseComment,
   CaseTransition,
@@ -26,7 +27,6 @@ export interface OutlierFilters {
 
 export const reviewKeys = {
   all: ['review'] as const,
-  quarters: () => ['review', 'quarters'] as const,
   outliers: (quarterId: number, f: OutlierFilters) => ['review', 'outliers', quarterId, f] as const,
   drill: (quarterId: number, practiceId: number, measure: string, split: string) =>
     ['review', 'drill', quarterId, practiceId, measure, split] as const,
@@ -36,14 +36,9 @@ export const reviewKeys = {
   case: (id: number) => ['review', 'cases', id] as const,
 };
 
-export const quartersQueryOptions = () =>
-  queryOptions({
-    queryKey: reviewKeys.quarters(),
-    queryFn: async () =>
-      (await apiFetch<Quarter[]>('/api/quarters')).sort(
-        (a, b) => b.year * 4 + b.quarter - (a.year * 4 + a.quarter),
-      ),
-  });
+/** Newest first (as the API sends them; sorted again here, as the outlier pickers need it). */
+const newestFirst = (list: Quarter[]) =>
+  [...list].sort((a, b) => b.year * 4 + b.quarter - (a.year * 4 + a.quarter));
 
 export const outliersQueryOptions = (quarterId: number, f: OutlierFilters) =>
   queryOptions({
@@ -102,7 +97,8 @@ export const caseQueryOptions = (id: number) =>
     queryFn: () => apiFetch<ReviewCase>(`/api/review-cases/${id}`),
   });
 
-export const useQuarters = () => useQuery(quartersQueryOptions());
+/** The region's audit quarters (the one shared quarter list, lib/quarter-list.ts), newest first. */
+export const useQuarters = () => useQuery({ ...quarterListQueryOptions(), select: newestFirst });
 export const useCases = () => useQuery(casesQueryOptions());
 export const useCase = (id: number) => useQuery(caseQueryOptions(id));
 
