@@ -1,7 +1,7 @@
 /**
  * Sign-in state, all in the database so that several API processes share it:
- *  - sessions: express-session's rows (connect-session-sequelize), with the
- *    signed-in user's id so that deactivating a person ends their sessions;
+ *  - sessions: express-session's rows (Cairn's own store, auth/session-store.ts),
+ *    with the signed-in user's id so that deactivating a person ends their sessions;
  *  - saml_requests: the AuthnRequest/LogoutRequest ids Cairn issued, so an
  *    answer is accepted once, only for a request Cairn made, within its TTL;
  *  - auth_throttle: @nestjs/throttler counters for the sign-in routes.
