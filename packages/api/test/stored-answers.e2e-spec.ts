@@ -23,7 +23,7 @@ import { QueryTypes } from 'sequelize';
 import request from 'supertest';
 import { createApp } from '../src/app.factory.js';
 import { systemActor } from '../src/auth/actor.js';
-import { StoredAnswers } from '../src/benchmarks/answers/stored-answers.service.js';
+import { MARK_USED_MS, StoredAnswers } from '../src/benchmarks/answers/stored-answers.service.js';
 import { PracticeResultsService } from '../src/benchmarks/practice-results.service.js';
 import { createRootLogger } from '../src/common/logger.js';
 import { arrange, type ExtractsWorld, uploadAndWait } from './extracts-fixtures/api.js';
@@ -230,6 +230,41 @@ describe('stored answers and the current set', () => {
         const gzip = await rawGet(path, agent.cookie, { 'Accept-Encoding': 'gzip' });
         expect(gzip.headers['content-encoding']).toBe('gzip');
         expect(gzip.body.equals(stored!.body)).toBe(true);
+      }
+    });
+
+    it('marks an answer served from memory used, at most once an hour', async () => {
+      const answers = t.app.get(StoredAnswers);
+      const first = await regional.get(regionPath()).expect(200);
+      const key = (first.headers.etag as string).slice(1, -1);
+      // A mark that reading the row may have sent lands first.
+      await new Promise((resolve) => setTimeout(resolve, 300));
+      const usedAt = async () =>
+        (
+          await select<{ used: string }>(
+            "SELECT DATE_FORMAT(used_at, '%Y-%m-%d') AS used FROM benchmark_answers WHERE answer_key = ?",
+            [key],
+          )
+        )[0]!.used;
+      await t.db.query("UPDATE benchmark_answers SET used_at = '2020-01-01' WHERE answer_key = ?", {
+        replacements: [key],
+      });
+      // Served from this process's memory within the hour: no write.
+      await regional.get(regionPath()).expect(200);
+      await new Promise((resolve) => setTimeout(resolve, 200));
+      expect(await usedAt()).toBe('2020-01-01');
+      // An hour later, still from memory: the row is marked (without the reader waiting for it).
+      const clock = answers.clock;
+      answers.clock = () => clock() + MARK_USED_MS;
+      try {
+        const later = await regional.get(regionPath()).expect(200);
+        expect(later.headers.etag).toBe(first.headers.etag);
+        for (let i = 0; i < 50 && (await usedAt()) === '2020-01-01'; i++) {
+          await new Promise((resolve) => setTimeout(resolve, 100));
+        }
+        expect(await usedAt()).not.toBe('2020-01-01');
+      } finally {
+        answers.clock = clock;
       }
     });
 

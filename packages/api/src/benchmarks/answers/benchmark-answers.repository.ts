@@ -28,16 +28,21 @@ export class BenchmarkAnswersRepository {
          FROM benchmark_answers WHERE answer_key = ?`,
       { replacements: [answerKey], type: QueryTypes.SELECT },
     );
-    if (row && Number(row.stale) === 1) {
-      // Not awaited: the reader need not wait for the mark (pruning reads it days later).
-      void this.sequelize
-        .query('UPDATE benchmark_answers SET used_at = NOW(3) WHERE answer_key = ?', {
-          replacements: [answerKey],
-          type: QueryTypes.UPDATE,
-        })
-        .catch(() => undefined);
-    }
+    // Not awaited: the reader need not wait for the mark (pruning reads it days later).
+    if (row && Number(row.stale) === 1) void this.markUsed(answerKey).catch(() => undefined);
     return row ? { gzip: row.body, brotli: row.body_br ?? null } : null;
+  }
+
+  /**
+   * Marks an answer used now, unless it was marked within the hour (so that pruning, which
+   * removes answers unused for days, keeps those a process serves from its memory).
+   */
+  async markUsed(answerKey: string): Promise<void> {
+    await this.sequelize.query(
+      `UPDATE benchmark_answers SET used_at = NOW(3)
+        WHERE answer_key = ? AND (used_at IS NULL OR used_at < NOW(3) - INTERVAL 1 HOUR)`,
+      { replacements: [answerKey], type: QueryTypes.UPDATE },
+    );
   }
 
   /** Stores the brotli form of an answer unless it has one already (the same bytes). */

@@ -6,7 +6,8 @@
  * what the reader may see, ANSWER_FORMAT); the response is then
  *
  *   1. this process's bytes of that key (a bounded memo: a key's bytes never
- *      change, so any process may keep them), else
+ *      change, so any process may keep them; the row is still marked used at
+ *      most once an hour, so pruning keeps what a process serves), else
  *   2. the stored row of that key (benchmark_answers: gzip of the JSON), else
  *   3. built once (concurrent requests of one key share the build), encoded
  *      (answer-encoding.ts: numbers to six significant figures, gzip),
@@ -49,10 +50,20 @@ export interface StoredAnswer {
 /** Bytes of answers (plain + gzip) kept in memory at most. */
 const MEMO_BYTES = 64 * 1024 * 1024;
 
+/**
+ * How often an answer served from the memo marks its row used (`used_at`, which pruning reads):
+ * the repository's own rule, at most once an hour.
+ */
+export const MARK_USED_MS = 60 * 60_000;
+
 @Injectable()
 export class StoredAnswers implements BeforeApplicationShutdown {
   private readonly logger = new Logger('StoredAnswers');
   private readonly memo = new Map<string, StoredAnswer>();
+  /** When this process last marked (or found marked, or stored) each remembered answer's row */
+  private readonly markedAt = new Map<string, number>();
+  /** The clock of the marks (a test moves it on) */
+  clock: () => number = Date.now;
   private memoBytes = 0;
   private readonly building = new Map<string, Promise<StoredAnswer>>();
   /** Brotli forms being made or queued here, by key; made one at a time (the chain). */
@@ -82,6 +93,12 @@ export class StoredAnswers implements BeforeApplicationShutdown {
       // Most recently used last.
       this.memo.delete(key);
       this.memo.set(key, known);
+      const now = this.clock();
+      if (now - (this.markedAt.get(key) ?? 0) >= MARK_USED_MS) {
+        // Not awaited, as when the row is read: the reader need not wait for the mark.
+        this.markedAt.set(key, now);
+        void this.repository.markUsed(key).catch(() => undefined);
+      }
       return known;
     }
     let pending = this.building.get(key);
@@ -183,9 +200,12 @@ export class StoredAnswers implements BeforeApplicationShutdown {
     this.memo.delete(answer.key);
     this.memo.set(answer.key, answer);
     this.memoBytes += size(answer);
+    // Read (and marked when stale) or stored just now, or already remembered: marked for now.
+    if (!old) this.markedAt.set(answer.key, this.clock());
     for (const [oldest, entry] of this.memo) {
       if (this.memoBytes <= MEMO_BYTES || oldest === answer.key) break;
       this.memo.delete(oldest);
+      this.markedAt.delete(oldest);
       this.memoBytes -= size(entry);
     }
     return answer;
