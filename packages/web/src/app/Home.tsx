@@ -6,13 +6,14 @@ import { formatCount } from '../lib/format';
 import { usePageTitle } from '../lib/page-title';
 import { roleLabels } from '../lib/roles';
 import { useMe } from '../lib/session';
-import { useCoverage, useQuarters, useUploadOptions } from '../features/extracts/api/extracts';
+import { useCoverage, useUploadOptions } from '../features/extracts/api/extracts';
 import { Figure } from '../features/extracts/components/Figure';
 import { formatDate } from '../features/extracts/components/format';
 import { LinkButton } from '../features/extracts/components/LinkButton';
 import { PracticeHeading, PracticeQuarter } from '../features/extracts/components/PracticeQuarter';
 import { CoverageTag } from '../features/extracts/components/StatusTag';
 import { Landing } from '../features/landing/routes/Landing';
+import { useQuarterList } from '../lib/quarter-list';
 import '../features/extracts/routes/Extracts.css';
 import './Home.css';
 
@@ -69,7 +70,7 @@ function QuarterLine({ quarter }: { quarter: Quarter }) {
 }
 
 function PracticeLeadHome({ user }: { user: Me }) {
-  const quarters = useQuarters();
+  const quarters = useQuarterList();
   const quarter = quarterNow(quarters.data);
   if (user.practices.length === 0) {
     return (
@@ -105,7 +106,7 @@ function PracticeLeadHome({ user }: { user: Me }) {
 
 /** Regional lead and auditor: the region's coverage of the quarter at a glance. */
 function RegionHome({ user }: { user: Me }) {
-  const quarters = useQuarters();
+  const quarters = useQuarterList();
   const quarter = quarterNow(quarters.data);
   const coverage = useCoverage(quarter?.id ?? null);
   // The API's upload action: offered when there is a practice the person may send for.

@@ -1,9 +1,10 @@
 import { useQueries } from '@tanstack/react-query';
 import { Navigate } from 'react-router-dom';
-import { historyQueryOptions, useQuarters } from '../features/extracts/api/extracts';
+import { historyQueryOptions } from '../features/extracts/api/extracts';
 import { useMe } from '../lib/session';
 import { landingPath } from '../lib/landing';
 import { PageLoading } from './PageLoading';
+import { useQuarterList } from '../lib/quarter-list';
 
 /**
  * `/start`: where sign-in comes back to when no page was asked for. It sends the person on to
@@ -13,7 +14,7 @@ import { PageLoading } from './PageLoading';
 export function Start() {
   const me = useMe();
   const lead = me.data?.role === 'practice_lead' ? me.data : null;
-  const quarters = useQuarters();
+  const quarters = useQuarterList();
   const histories = useQueries({
     queries: (lead?.practices ?? []).map((p) => historyQueryOptions(p.id)),
   });

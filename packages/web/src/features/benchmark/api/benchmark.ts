@@ -23,9 +23,6 @@ export const benchmarkKeys = {
     ['benchmark', 'trend', quarterId, measure, split] as const,
 };
 
-/** The region's audit quarters (the one shared quarter list, lib/quarter-list.ts). */
-export { useQuarterList as useBenchmarkQuarters } from '../../../lib/quarter-list';
-
 /**
  * Every page of a region benchmark, as one: the first page (handed over by the route loader
  * when it asked already), then the others, all of the same stored result (read again from the

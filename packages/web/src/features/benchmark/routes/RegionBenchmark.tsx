@@ -25,11 +25,12 @@ import type {
 } from '../../../lib/api/types';
 import { formatCount, formatDateTime, formatPercent } from '../../../lib/format';
 import { usePageTitle } from '../../../lib/page-title';
-import { useBenchmarkQuarters, useFunnel, useRegionBenchmark } from '../api/benchmark';
+import { useFunnel, useRegionBenchmark } from '../api/benchmark';
 import { PublishReport } from '../components/PublishReport';
 import { PracticeTable } from '../components/PracticeTable';
 import { RegionTrend } from '../components/RegionTrend';
 import { type SortKey, sortRows, tableCsv, tableRows } from '../components/table-rows';
+import { useQuarterList } from '../../../lib/quarter-list';
 import '../../../components/charts/charts.css';
 import './RegionBenchmark.css';
 
@@ -59,7 +60,7 @@ function pickQuarter(list: Quarter[], asked: number): Quarter | null {
 function RegionBenchmarkScreen() {
   const [params, setParams] = useSearchParams();
   const navigate = useNavigate();
-  const quarters = useBenchmarkQuarters();
+  const quarters = useQuarterList();
   const quarter = pickQuarter(quarters.data ?? [], Number(params.get('quarter')));
   const split = (
     splits.some((s) => s.value === params.get('split')) ? params.get('split') : 'all'

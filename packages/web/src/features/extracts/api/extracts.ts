@@ -54,9 +54,6 @@ export const downloadLinks = (practiceId: number, submissionId: number) => ({
 export const TEMPLATE_XLSX = '/api/extracts/template.xlsx';
 export const TEMPLATE_CSV = '/api/extracts/template.csv';
 
-/** The region's audit quarters (the one shared quarter list, lib/quarter-list.ts). */
-export { useQuarterList as useQuarters } from '../../../lib/quarter-list';
-
 export const extractFormatQueryOptions = () =>
   queryOptions({
     queryKey: extractsKeys.format(),

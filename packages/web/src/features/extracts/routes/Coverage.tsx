@@ -14,10 +14,11 @@ import { RequireRole } from '../../../components/RequireRole';
 import type { CoverageState } from '../../../lib/api/types';
 import { formatCount, formatDateTime } from '../../../lib/format';
 import { usePageTitle } from '../../../lib/page-title';
-import { useCoverage, useQuarters } from '../api/extracts';
+import { useCoverage } from '../api/extracts';
 import { formatDate, formatMonth } from '../components/format';
 import { CoverageTag, coverageLook, StatusTag } from '../components/StatusTag';
 import { Figure } from '../components/Figure';
+import { useQuarterList } from '../../../lib/quarter-list';
 import './Extracts.css';
 
 /** `/coverage`: which practices have a current submission for an audit quarter. */
@@ -34,7 +35,7 @@ type StateFilter = CoverageState | 'all';
 
 function CoverageScreen() {
   const [params, setParams] = useSearchParams();
-  const quarters = useQuarters();
+  const quarters = useQuarterList();
   const [search, setSearch] = useState(params.get('search') ?? '');
   const deferred = useDeferredValue(search).trim().toLowerCase();
   const list = quarters.data ?? [];

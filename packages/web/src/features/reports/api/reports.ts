@@ -55,9 +55,6 @@ export function useReportPractice(id: number, practiceId: number | null) {
   });
 }
 
-/** The region's audit quarters (for choosing which to publish). */
-export { useQuarterList as useQuarterChoices } from '../../../lib/quarter-list';
-
 async function refresh(client: ReturnType<typeof useQueryClient>) {
   for (const key of [reportKeys.all, ['quarter-overview'], ['measure-sets'], ['audit-events']]) {
     await client.invalidateQueries({ queryKey: key });

@@ -19,8 +19,9 @@ import type { Report } from '../../../lib/api/types';
 import { fieldProblems } from '../../../lib/field-problems';
 import { formatDateTime } from '../../../lib/format';
 import { usePageTitle } from '../../../lib/page-title';
-import { usePublishReport, useQuarterChoices, useReportList } from '../api/reports';
+import { usePublishReport, useReportList } from '../api/reports';
 import { ReportStatusTag } from './ReportStatusTag';
+import { useQuarterList } from '../../../lib/quarter-list';
 import './Reports.css';
 
 /**
@@ -31,7 +32,7 @@ import './Reports.css';
 export function Reports() {
   usePageTitle('Reports');
   const [params, setParams] = useSearchParams();
-  const quarters = useQuarterChoices();
+  const quarters = useQuarterList();
   const chosen = params.get('quarter');
   const quarterId = chosen ? Number(chosen) : null;
   const list = useReportList(quarterId);

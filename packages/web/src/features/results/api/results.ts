@@ -27,9 +27,6 @@ export const resultsKeys = {
   ) => ['results', 'recall', practiceId, quarterId, measure, split, offset] as const,
 };
 
-/** The region's audit quarters (the one shared quarter list, lib/quarter-list.ts). */
-export { useQuarterList as useResultsQuarters } from '../../../lib/quarter-list';
-
 export const practiceResultsQueryOptions = (practiceId: number, quarterId: number) =>
   queryOptions({
     queryKey: resultsKeys.results(practiceId, quarterId),

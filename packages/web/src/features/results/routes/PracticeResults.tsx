@@ -27,12 +27,7 @@ import { formatCount, formatDateTime } from '../../../lib/format';
 import { usePageTitle } from '../../../lib/page-title';
 import { useMe } from '../../../lib/session';
 import { practicesByCode } from '../../../lib/landing';
-import {
-  resultsKeys,
-  usePracticeDetail,
-  usePracticeResults,
-  useResultsQuarters,
-} from '../api/results';
+import { resultsKeys, usePracticeDetail, usePracticeResults } from '../api/results';
 import { BreakdownsPanel } from '../components/BreakdownsPanel';
 import { InsulinPanel } from '../components/InsulinPanel';
 import { KidneyPanel } from '../components/KidneyPanel';
@@ -42,6 +37,7 @@ import { QualityPanel } from '../components/QualityPanel';
 import { RecallPanel } from '../components/RecallPanel';
 import { ValuesPanel } from '../components/ValuesPanel';
 import { splitLabels } from '../components/words';
+import { useQuarterList } from '../../../lib/quarter-list';
 import '../../../components/charts/charts.css';
 import './Results.css';
 
@@ -102,7 +98,7 @@ function PracticeResultsScreen() {
   const [params, setParams] = useSearchParams();
   const navigate = useNavigate();
   const me = useMe();
-  const quarters = useResultsQuarters();
+  const quarters = useQuarterList();
   const quarter = pickQuarter(quarters.data ?? [], Number(params.get('quarter')));
   const results = usePracticeResults(
     Number.isInteger(practiceId) ? practiceId : null,

@@ -5,7 +5,6 @@
  */
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { apiFetch, apiJson } from '../../../lib/api-client';
-import { quarterListQueryOptions } from '../../../lib/quarter-list';
 import type {
   CaseComment,
   CaseTransition,
@@ -13,7 +12,6 @@ import type {
   DrillRecordPage,
   OpenCase,
   OutlierList,
-  Quarter,
   ReviewCase,
   ReviewCaseList,
 } from '../../../lib/api/types';
@@ -35,10 +33,6 @@ export const reviewKeys = {
   cases: () => ['review', 'cases'] as const,
   case: (id: number) => ['review', 'cases', id] as const,
 };
-
-/** Newest first (as the API sends them; sorted again here, as the outlier pickers need it). */
-const newestFirst = (list: Quarter[]) =>
-  [...list].sort((a, b) => b.year * 4 + b.quarter - (a.year * 4 + a.quarter));
 
 export const outliersQueryOptions = (quarterId: number, f: OutlierFilters) =>
   queryOptions({
@@ -97,8 +91,6 @@ export const caseQueryOptions = (id: number) =>
     queryFn: () => apiFetch<ReviewCase>(`/api/review-cases/${id}`),
   });
 
-/** The region's audit quarters (the one shared quarter list, lib/quarter-list.ts), newest first. */
-export const useQuarters = () => useQuery({ ...quarterListQueryOptions(), select: newestFirst });
 export const useCases = () => useQuery(casesQueryOptions());
 export const useCase = (id: number) => useQuery(caseQueryOptions(id));
 

@@ -18,12 +18,8 @@ import { RequireRole } from '../../../components/RequireRole';
 import type { OutlierRow } from '../../../lib/api/types';
 import { formatDateTime, formatPercent } from '../../../lib/format';
 import { usePageTitle } from '../../../lib/page-title';
-import {
-  type OutlierFilters,
-  outliersQueryOptions,
-  useOpenCase,
-  useQuarters,
-} from '../api/review-cases';
+import { type OutlierFilters, outliersQueryOptions, useOpenCase } from '../api/review-cases';
+import { useQuarterList } from '../../../lib/quarter-list';
 import '../review.css';
 
 /** `/outliers`: the quarter's practices × measures beyond the limits, strongest evidence first. */
@@ -38,7 +34,7 @@ export function Outliers() {
 
 function OutliersScreen() {
   const [params, setParams] = useSearchParams();
-  const quarters = useQuarters();
+  const quarters = useQuarterList();
   const list = quarters.data ?? [];
   const quarterId = Number(params.get('quarter')) || list[0]?.id || 0;
   const filters: OutlierFilters = {
