@@ -182,12 +182,15 @@ describe('stored answers and the current set', () => {
   describe('stored answers', () => {
     const regionPath = () => `/api/quarters/${q3}/benchmark`;
     const resultsPath = () => `/api/practices/${w.practice('OV102')}/quarters/${q3}/results`;
-
-    it('sends the stored bytes with an ETag, and 304 while nothing changed', async () => {
-      for (const [agent, path] of [
+    /** Each route with a reader of it: the region benchmark's regional lead, OV102's lead. */
+    const readers = () =>
+      [
         [regional, regionPath()],
         [leadOne, resultsPath()],
-      ] as const) {
+      ] as const;
+
+    it('sends the stored bytes with an ETag, and 304 while nothing changed', async () => {
+      for (const [agent, path] of readers()) {
         const first = await agent.get(path).expect(200);
         const etag = first.headers.etag as string;
         expect(etag).toMatch(/^"[0-9a-f]{64}"$/);
@@ -208,10 +211,7 @@ describe('stored answers and the current set', () => {
     });
 
     it('sends the brotli form once made, to readers that accept it, and gzip to the others', async () => {
-      for (const [agent, path] of [
-        [regional, regionPath()],
-        [leadOne, resultsPath()],
-      ] as const) {
+      for (const [agent, path] of readers()) {
         const first = await agent.get(path).expect(200);
         const key = (first.headers.etag as string).slice(1, -1);
         await t.app.get(StoredAnswers).brotliSettled();
