@@ -10,6 +10,9 @@ import { QueryTypes } from 'sequelize';
 import { Sequelize } from 'sequelize-typescript';
 import { withRaw } from '../../database/bulk-load/raw-connection.js';
 
+/** An answer's row is marked used (`used_at`, which pruning reads) at most this often. */
+export const MARK_USED_MS = 60 * 60_000;
+
 @Injectable()
 export class BenchmarkAnswersRepository {
   constructor(@Inject(Sequelize) private readonly sequelize: Sequelize) {}
@@ -24,9 +27,9 @@ export class BenchmarkAnswersRepository {
       body_br: Buffer | null;
       stale: number;
     }>(
-      `SELECT body, body_br, (used_at IS NULL OR used_at < NOW(3) - INTERVAL 1 HOUR) AS stale
+      `SELECT body, body_br, (used_at IS NULL OR used_at < NOW(3) - INTERVAL ? SECOND) AS stale
          FROM benchmark_answers WHERE answer_key = ?`,
-      { replacements: [answerKey], type: QueryTypes.SELECT },
+      { replacements: [MARK_USED_MS / 1000, answerKey], type: QueryTypes.SELECT },
     );
     // Not awaited: the reader need not wait for the mark (pruning reads it days later).
     if (row && Number(row.stale) === 1) void this.markUsed(answerKey).catch(() => undefined);
@@ -34,14 +37,14 @@ export class BenchmarkAnswersRepository {
   }
 
   /**
-   * Marks an answer used now, unless it was marked within the hour (so that pruning, which
+   * Marks an answer used now, unless it was marked within MARK_USED_MS (so that pruning, which
    * removes answers unused for days, keeps those a process serves from its memory).
    */
   async markUsed(answerKey: string): Promise<void> {
     await this.sequelize.query(
       `UPDATE benchmark_answers SET used_at = NOW(3)
-        WHERE answer_key = ? AND (used_at IS NULL OR used_at < NOW(3) - INTERVAL 1 HOUR)`,
-      { replacements: [answerKey], type: QueryTypes.UPDATE },
+        WHERE answer_key = ? AND (used_at IS NULL OR used_at < NOW(3) - INTERVAL ? SECOND)`,
+      { replacements: [answerKey, MARK_USED_MS / 1000], type: QueryTypes.UPDATE },
     );
   }
 

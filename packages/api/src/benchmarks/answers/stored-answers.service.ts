@@ -28,7 +28,7 @@ import { promisify } from 'node:util';
 import { gunzip } from 'node:zlib';
 import { type BeforeApplicationShutdown, Inject, Injectable, Logger } from '@nestjs/common';
 import { brotliOf, encodeAnswer } from './answer-encoding.js';
-import { BenchmarkAnswersRepository } from './benchmark-answers.repository.js';
+import { BenchmarkAnswersRepository, MARK_USED_MS } from './benchmark-answers.repository.js';
 
 const gunzipAsync = promisify(gunzip);
 
@@ -49,12 +49,6 @@ export interface StoredAnswer {
 
 /** Bytes of answers (plain + gzip) kept in memory at most. */
 const MEMO_BYTES = 64 * 1024 * 1024;
-
-/**
- * How often an answer served from the memo marks its row used (`used_at`, which pruning reads):
- * the repository's own rule, at most once an hour.
- */
-export const MARK_USED_MS = 60 * 60_000;
 
 @Injectable()
 export class StoredAnswers implements BeforeApplicationShutdown {
