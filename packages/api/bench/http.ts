@@ -25,13 +25,14 @@ import { existsSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'no
 import { request } from 'node:http';
 import type { Server } from 'node:http';
 import { loadavg, tmpdir } from 'node:os';
-import { join } from 'node:path';
+import { dirname, join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { QueryTypes } from 'sequelize';
 import type { CairnConfig, CairnSecrets } from '../src/config/config.schema.js';
 import { findRepoRoot, loadConfig, loadSecrets, resolvePath } from '../src/config/load-config.js';
 import { connect, createDatabase } from '../src/database/connect.js';
 import { migrateUp } from '../src/database/migrator.js';
+import { API_NODE_FLAGS } from '../src/node-flags.js';
 import { fromDist } from './app.js';
 import { autocannon, type LoadFigures } from './autocannon.js';
 import { httpSignIn } from './http-sign-in.js';
@@ -49,6 +50,8 @@ export interface RouteFigures extends LoadFigures {
   bytes: number;
   /** The same response from a bare node:http server under the same load (routes that send bytes) */
   floor?: LoadFigures & { sentBytes: number };
+  /** The stack's floors under the same load (bench/stack-floor.ts; with the reference) */
+  stackFloor?: { read: LoadFigures; noRead: LoadFigures };
 }
 
 /** The demo region in its own database: loaded now unless an earlier run left it complete. */
@@ -138,12 +141,18 @@ export async function measureRoutes(
       // what sending those bytes to autocannon costs on this machine.
       let floor: RouteFigures['floor'];
       if (route !== REFERENCE_ROUTE) floor = await bareFloor(origin + route, cookie);
+      // Beside the reference: the same kind of read from the bare stack (bench/stack-floor.ts).
+      const stack =
+        route === REFERENCE_ROUTE
+          ? { read: await stackFloor(cookie, false), noRead: await stackFloor(cookie, true) }
+          : undefined;
       out.push({
         route,
         reference: route === REFERENCE_ROUTE,
         bytes: bytes.get(route) ?? 0,
         ...result,
         floor,
+        stackFloor: stack,
       });
     }
     return out;
@@ -211,6 +220,35 @@ async function bareFloor(url: string, cookie: string): Promise<RouteFigures['flo
   }
 }
 
+/**
+ * The stack's floor (bench/stack-floor.ts) in a process of its own with the API's Node flags,
+ * signed in with the same cookie, under the same load.
+ */
+async function stackFloor(cookie: string, noRead: boolean): Promise<LoadFigures> {
+  const child = spawn(
+    process.execPath,
+    [
+      ...API_NODE_FLAGS,
+      '--import',
+      'tsx/esm',
+      join(dirname(fileURLToPath(import.meta.url)), 'stack-floor.ts'),
+      DATABASE,
+      ...(noRead ? ['--no-read'] : []),
+    ],
+    { cwd: join(dirname(fileURLToPath(import.meta.url)), '..'), env: process.env },
+  );
+  try {
+    const port = await new Promise<number>((resolve, reject) => {
+      child.stdout.once('data', (chunk: Buffer) => resolve(Number(chunk.toString().trim())));
+      child.once('error', reject);
+      child.once('exit', (code) => reject(new Error(`the stack's floor ended (${code})`)));
+    });
+    return await loadFor(`http://127.0.0.1:${port}${REFERENCE_ROUTE}`, cookie);
+  } finally {
+    child.kill();
+  }
+}
+
 /** The section of `npm run bench`; returns false when a target is missed. */
 export async function runHttpBench(
   config: CairnConfig,
@@ -232,6 +270,18 @@ export async function runHttpBench(
         `p50 ${f.latency.p50} ms, p90 ${f.latency.p90} ms, p97.5 ${f.latency.p97_5} ms${f.reference ? '' : ' (target p95 ≤ 50 ms)'}, p99 ${f.latency.p99} ms, ` +
         `errors ${f.errors}, non-2xx ${f.non2xx}`,
     );
+    if (f.stackFloor) {
+      const line = (what: string, g: LoadFigures) =>
+        log(
+          `         ${what} (bench/stack-floor.ts; floor, not judged): ${g.requests} requests, p50 ${g.latency.p50} ms, ` +
+            `p97.5 ${g.latency.p97_5} ms, p99 ${g.latency.p99} ms, errors ${g.errors}, non-2xx ${g.non2xx}`,
+        );
+      line(
+        'the bare stack (NestJS on Express, express-session reading the session row, then one SELECT)',
+        f.stackFloor.read,
+      );
+      line('the bare stack answering from memory after the session row', f.stackFloor.noRead);
+    }
     if (f.floor)
       log(
         `         the same ${Math.round(f.floor.sentBytes / 1024)} kB response as sent from a bare node:http server (floor, not judged): ` +
