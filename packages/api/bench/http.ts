@@ -18,7 +18,11 @@
  * time is the session's read (one SELECT with the person; no write within a
  * minute of the last renewal), the guards and one SELECT. Each judged route's
  * response, exactly as sent, is also served by a bare node:http server under the
- * same load (the floor: what sending those bytes costs here; not judged).
+ * same load (the floor: what sending those bytes costs here; not judged). Beside
+ * the reference, the stack's floor (bench/stack-floor.ts, not judged): NestJS on
+ * Express with express-session reading the session row, then one SELECT or
+ * none, in a process of its own under the same load: what any signed-in read
+ * that checks its session in the database costs here before Cairn does anything.
  */
 import { spawn } from 'node:child_process';
 import { existsSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
