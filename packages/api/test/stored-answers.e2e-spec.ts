@@ -107,6 +107,9 @@ describe('stored answers and the current set', () => {
     );
   }
 
+  /** The stored answer's key in a form's entity tag (`"key"`, `"key-gzip"`, `"key-br"`). */
+  const keyOf = (etag: string) => /^"([0-9a-f]{64})(?:-gzip|-br)?"$/.exec(etag)![1]!;
+
   /** Another API process on the same database: nothing in its memory. */
   async function otherProcess<T>(work: (app: NestExpressApplication) => Promise<T>): Promise<T> {
     const app = await createApp({
@@ -194,11 +197,12 @@ describe('stored answers and the current set', () => {
       for (const [agent, path] of readers()) {
         const first = await agent.get(path).expect(200);
         const etag = first.headers.etag as string;
-        expect(etag).toMatch(/^"[0-9a-f]{64}"$/);
+        // The test agent accepts gzip: the gzip form's tag.
+        expect(etag).toMatch(/^"[0-9a-f]{64}-gzip"$/);
         expect(first.headers['content-type']).toMatch(/^application\/json/);
         const [stored] = await select<{ body: Buffer }>(
           'SELECT body FROM benchmark_answers WHERE answer_key = ?',
-          [etag.slice(1, -1)],
+          [keyOf(etag)],
         );
         expect(gunzipSync(stored!.body).toString('utf8')).toBe(first.text);
         const again = await agent.get(path).set('If-None-Match', etag).expect(304);
@@ -208,13 +212,21 @@ describe('stored answers and the current set', () => {
         expect(gzip.headers['content-encoding']).toBe('gzip');
         expect(gzip.headers.etag).toBe(etag);
         expect(gzip.body.equals(stored!.body)).toBe(true);
+        // Plain JSON is another form of the same answer: its own tag, and 304 to the gzip one.
+        const plain = await rawGet(path, agent.cookie, {});
+        expect(plain.headers['content-encoding']).toBeUndefined();
+        expect(plain.headers.etag).toBe(`"${keyOf(etag)}"`);
+        expect(plain.body.toString('utf8')).toBe(first.text);
+        const plainAgain = await rawGet(path, agent.cookie, { 'If-None-Match': etag });
+        expect(plainAgain.status).toBe(304);
+        expect(plainAgain.headers.etag).toBe(`"${keyOf(etag)}"`);
       }
     });
 
     it('sends the brotli form once made, to readers that accept it, and gzip to the others', async () => {
       for (const [agent, path] of readers()) {
         const first = await agent.get(path).expect(200);
-        const key = (first.headers.etag as string).slice(1, -1);
+        const key = keyOf(first.headers.etag as string);
         await t.app.get(StoredAnswers).brotliSettled();
         const [stored] = await select<{ body: Buffer; body_br: Buffer | null }>(
           'SELECT body, body_br FROM benchmark_answers WHERE answer_key = ?',
@@ -226,6 +238,7 @@ describe('stored answers and the current set', () => {
         const br = await rawGet(path, agent.cookie, { 'Accept-Encoding': 'gzip, deflate, br' });
         expect(br.status).toBe(200);
         expect(br.headers['content-encoding']).toBe('br');
+        expect(br.headers.etag).toBe(`"${key}-br"`);
         expect(br.headers.vary).toMatch(/Accept-Encoding/);
         expect(br.body.equals(stored!.body_br!)).toBe(true);
         const gzip = await rawGet(path, agent.cookie, { 'Accept-Encoding': 'gzip' });
@@ -237,7 +250,7 @@ describe('stored answers and the current set', () => {
     it('marks an answer served from memory used, at most once an hour', async () => {
       const answers = t.app.get(StoredAnswers);
       const first = await regional.get(regionPath()).expect(200);
-      const key = (first.headers.etag as string).slice(1, -1);
+      const key = keyOf(first.headers.etag as string);
       // A mark that reading the row may have sent lands first.
       await new Promise((resolve) => setTimeout(resolve, 300));
       const usedAt = async () =>
