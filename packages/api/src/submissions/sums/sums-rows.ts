@@ -20,7 +20,7 @@
  * month columns: the text is then made in ascii, so MariaDB converts nothing
  * while it joins. With the connection's utf8mb4 literals it converted every
  * field to utf8mb4 first, and the national read cost it about 1 s more CPU
- * (6.8–7.0 s against 5.8–5.9 s; docs/performance.md). The connection still
+ * (6.8–7.0 s against 5.8–6.0 s; docs/performance.md). The connection still
  * receives the text in its own character set; for ascii the bytes are the same.
  */
 import type { CodedCareRecord, ColumnBuilder } from '@cairn/metrics';
