@@ -123,12 +123,23 @@ describe('results and benchmarks in the browser', () => {
 
   it('gives a practice lead their results, kidney risk, time to insulin and recall list', async () => {
     const { page } = browser;
-    await signIn('Priya Calloway');
+    // A lead whose practice has a current submission lands on its results.
+    expect(await signIn('Priya Calloway')).toMatch(/^\/practices\/\d+\/results$/);
+    // Home first, so that following Results is a navigation of its own: nothing below may read
+    // the results page it would otherwise leave and come back to.
+    await nav(page, 'Home', { exact: true }).click();
+    await page.waitForURL((url) => url.pathname === '/');
     await nav(page, 'Results').click();
+    await page.waitForURL((url) => /^\/practices\/\d+\/results$/.test(url.pathname));
     await page.getByRole('heading', { name: 'Quarrybank Surgery (OV102)' }).waitFor();
     // The improving practice shows an upward run-chart signal.
     await page
       .getByText(/^Trend upward: /)
+      .first()
+      .waitFor();
+    // Disclosure control is said once, with the figures it applies to.
+    await page
+      .getByText(/counts from 1 to 4 show as/)
       .first()
       .waitFor();
     await expect(page.getByText(/counts from 1 to 4 show as/).count()).resolves.toBe(1);
@@ -167,12 +178,15 @@ describe('results and benchmarks in the browser', () => {
 
   it('lets a lead of two practices switch practice in place', async () => {
     const { page } = browser;
-    await signIn('Daniel Oyelaran');
+    expect(await signIn('Daniel Oyelaran')).toMatch(/^\/practices\/\d+\/results$/);
+    // Home first, then Results, as above. (Home heads each of the lead's practices too: the
+    // page's own heading is the level-1 one.)
+    await nav(page, 'Home', { exact: true }).click();
+    await page.waitForURL((url) => url.pathname === '/');
     await nav(page, 'Results').click();
-    // (the home page, left behind, heads each of the lead's practices too)
-    await page.waitForURL(/\/practices\/\d+\/results/);
-    await page.getByRole('heading', { name: /\(OV10[13]\)$/ }).waitFor();
-    const other = (await page.getByRole('heading', { name: /\(OV101\)$/ }).count())
+    await page.waitForURL((url) => /^\/practices\/\d+\/results$/.test(url.pathname));
+    await page.getByRole('heading', { level: 1, name: /\(OV10[13]\)$/ }).waitFor();
+    const other = (await page.getByRole('heading', { level: 1, name: /\(OV101\)$/ }).count())
       ? 'OV103'
       : 'OV101';
     const value = await page.locator('option', { hasText: `${other} ` }).getAttribute('value');
