@@ -254,6 +254,14 @@ describe('extracts: concurrency across two API processes', () => {
       const done = await Promise.all(
         people.map((p, i) => waitDone(p.agent, p.id, ids[i]!, 120_000)),
       );
+      // A job that failed says why (its audit event's error), so that the log shows the cause.
+      if (done.some((d) => d.status === 'failed')) {
+        const why = await t.db.query<{ subject_id: number; detail: unknown }>(
+          "SELECT subject_id, detail FROM audit_events WHERE action = 'submission.failed'",
+          { type: QueryTypes.SELECT },
+        );
+        expect({ failedJobs: why }).toEqual({ failedJobs: [] });
+      }
       for (const [i, d] of done.entries()) {
         expect(d).toMatchObject({
           status: 'awaiting_confirmation',
