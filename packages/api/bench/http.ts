@@ -229,17 +229,18 @@ async function bareFloor(url: string, cookie: string): Promise<RouteFigures['flo
  * signed in with the same cookie, under the same load.
  */
 async function stackFloor(cookie: string, noRead: boolean): Promise<LoadFigures> {
+  const here = dirname(fileURLToPath(import.meta.url));
   const child = spawn(
     process.execPath,
     [
       ...API_NODE_FLAGS,
       '--import',
       'tsx/esm',
-      join(dirname(fileURLToPath(import.meta.url)), 'stack-floor.ts'),
+      join(here, 'stack-floor.ts'),
       DATABASE,
       ...(noRead ? ['--no-read'] : []),
     ],
-    { cwd: join(dirname(fileURLToPath(import.meta.url)), '..'), env: process.env },
+    { cwd: join(here, '..'), env: process.env },
   );
   try {
     const port = await new Promise<number>((resolve, reject) => {
